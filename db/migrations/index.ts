@@ -1,0 +1,20 @@
+import type { Knex } from 'knex';
+import * as m20261201000000 from './20261201000000_users_and_tokens.ts';
+import * as m20261201000100 from './20261201000100_squads.ts';
+
+interface Migration {
+  up(knex: Knex): Promise<void>;
+  down(knex: Knex): Promise<void>;
+}
+
+/** Every migration, in order. Add new files here as well (see DEVELOPERS.md, "Adding a migration"). */
+const MIGRATIONS: Record<string, Migration> = {
+  '20261201000000_users_and_tokens': m20261201000000,
+  '20261201000100_squads': m20261201000100,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(MIGRATIONS).sort(),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => MIGRATIONS[name]!,
+};

@@ -1,0 +1,65 @@
+import cookieParser from 'cookie-parser';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { pinoHttp } from 'pino-http';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import type { AppConfig } from './config.ts';
+import { authenticate } from './features/auth/authenticate.ts';
+import { createAuthRouter } from './features/auth/auth.routes.ts';
+import { createHealthRouter } from './features/health/health.routes.ts';
+import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
+import { createUsersRouter } from './features/users/users.routes.ts';
+import { errorHandler, notFoundHandler } from './lib/error-handler.ts';
+import { logger } from './lib/logger.ts';
+import { csrfProtection } from './lib/session.ts';
+
+export interface AppDeps {
+  config: AppConfig;
+  /** Built client to serve (dist/client); omitted in API tests. */
+  clientDir?: string;
+}
+
+const API_VERSION = '0.1.0';
+
+/** Builds the Express app: middleware, feature routers under /api, the API docs, the client, then errors. */
+export function createApp({ config, clientDir }: AppDeps): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);
+
+  app.use(helmet());
+  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  app.use(express.json({ limit: config.jsonLimit }));
+  app.use(cookieParser());
+
+  const features = [createHealthRouter(), createAuthRouter(config), createUsersRouter()];
+  const openApi = buildOpenApiDocument(
+    features.flatMap((f) => f.specs),
+    API_VERSION,
+  );
+
+  const api = express.Router();
+  api.use(csrfProtection(config));
+  api.use(authenticate(config));
+  api.get('/openapi.json', (_req, res) => {
+    res.json(openApi);
+  });
+  api.get('/docs', (_req, res) => {
+    res.type('html').send(renderApiPage(openApi));
+  });
+  for (const feature of features) api.use(feature.router);
+  api.use(notFoundHandler);
+  app.use('/api', api);
+
+  if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    // Client-side routes: every other GET gets the app shell.
+    app.get(/.*/, (_req, res) => {
+      res.sendFile(path.join(clientDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,55 @@
+import { randomBytes } from 'node:crypto';
+import path from 'node:path';
+
+export interface AppConfig {
+  env: 'production' | 'development' | 'test';
+  port: number;
+  host: string;
+  databaseUrl: string;
+  dataDir: string;
+  jwtSecret: string;
+  sessionDays: number;
+  apiTokenDays: number;
+  bcryptCost: number;
+  /** Sign-in and sign-up attempts per IP per window; lowered in tests. */
+  authRateLimit: { windowMs: number; max: number };
+  jsonLimit: string;
+  publicUrl: string;
+}
+
+/** `DATABASE_URL`, else the embedded cluster on loopback (scripts/pg.sh). */
+export function databaseUrlFromEnv(env: NodeJS.ProcessEnv = process.env): string {
+  return env.DATABASE_URL ?? `postgres://postgres@127.0.0.1:${env.PGPORT ?? 54329}/pacewright`;
+}
+
+const WEAK_SECRETS = new Set(['', 'secret', 'changeme', 'change-me', 'dev', 'development']);
+
+export class ConfigError extends Error {}
+
+/** Reads configuration from the environment. In production a real JWT_SECRET is mandatory. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  const mode = env.NODE_ENV === 'production' ? 'production' : env.NODE_ENV === 'test' ? 'test' : 'development';
+  const secret = env.JWT_SECRET ?? '';
+  if (mode === 'production' && (WEAK_SECRETS.has(secret.toLowerCase()) || secret.length < 32)) {
+    throw new ConfigError(
+      'JWT_SECRET must be set to a random string of at least 32 characters when NODE_ENV=production (e.g. `openssl rand -hex 32`).',
+    );
+  }
+  const port = Number(env.PORT ?? 3000);
+  const host = env.HOST ?? '127.0.0.1';
+  return {
+    env: mode,
+    port,
+    host,
+    databaseUrl: databaseUrlFromEnv(env),
+    dataDir: path.resolve(env.DATA_DIR ?? '.data'),
+    // Outside production a per-process random secret: sessions simply end on restart.
+    jwtSecret: secret || randomBytes(32).toString('hex'),
+    sessionDays: 14,
+    apiTokenDays: 90,
+    bcryptCost: Number(env.BCRYPT_COST ?? 12),
+    authRateLimit: { windowMs: 15 * 60 * 1000, max: Number(env.AUTH_RATE_LIMIT ?? 20) },
+    jsonLimit: '1mb',
+    publicUrl: env.PUBLIC_URL ?? `http://${host}:${port}`,
+  };
+}

@@ -1,0 +1,42 @@
+import type { RequestHandler } from 'express';
+import { SESSION_COOKIE } from '../../../shared/auth/schemas.ts';
+import type { AppConfig } from '../../config.ts';
+import type { AuthLocals } from '../../lib/authorize.ts';
+import { UnauthorizedError } from '../../lib/errors.ts';
+import { sessionCookieOptions, verifySession } from '../../lib/session.ts';
+import { resolveApiToken } from '../tokens/tokens.service.ts';
+import { findUserById } from '../users/users.repository.ts';
+
+const BEARER = /^Bearer\s+(\S+)$/i;
+
+/**
+ * Finds who is calling: a bearer token (scripts) or the session cookie (browser).
+ * The user row is read on every request so role changes and deletions apply at once.
+ */
+export function authenticate(config: AppConfig): RequestHandler {
+  return async (req, res, next) => {
+    const locals = res.locals as AuthLocals;
+    locals.actor = null;
+    const authorization = req.get('authorization');
+    if (authorization) {
+      const token = BEARER.exec(authorization)?.[1];
+      const userId = token ? await resolveApiToken(token) : null;
+      const user = userId ? await findUserById(userId) : undefined;
+      if (!user) throw new UnauthorizedError('This API token is not valid, has been revoked or has expired.', 'invalid-token');
+      locals.actor = user;
+      return next();
+    }
+    const sessionToken = (req.cookies as Record<string, string | undefined>)[SESSION_COOKIE];
+    if (sessionToken) {
+      const userId = verifySession(sessionToken, config);
+      const user = userId ? await findUserById(userId) : undefined;
+      if (user) locals.actor = user;
+      else {
+        locals.sessionEnded = true;
+        const { maxAge: _maxAge, ...clearOptions } = sessionCookieOptions(config);
+        res.clearCookie(SESSION_COOKIE, clearOptions);
+      }
+    }
+    next();
+  };
+}

@@ -1,0 +1,39 @@
+import { createHash, randomBytes } from 'node:crypto';
+import type { AppConfig } from '../../config.ts';
+import { NotFoundError } from '../../lib/errors.ts';
+import { deleteApiToken, insertApiToken, listApiTokens, toApiToken, touchLiveApiToken } from './tokens.repository.ts';
+import type { ApiToken } from '../../../shared/auth/schemas.ts';
+
+const TOKEN_PREFIX = 'pw_';
+
+export function hashApiToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex');
+}
+
+/** Issues a new bearer token. The plain token is returned once and only its hash is stored. */
+export async function issueApiToken(
+  userId: string,
+  name: string,
+  config: AppConfig,
+  now = new Date(),
+): Promise<{ token: string; expires_at: string; id: string; name: string }> {
+  const token = TOKEN_PREFIX + randomBytes(32).toString('base64url');
+  const expiresAt = new Date(now.getTime() + config.apiTokenDays * 24 * 3600 * 1000);
+  const row = await insertApiToken({ userId, name, tokenHash: hashApiToken(token), expiresAt });
+  return { token, expires_at: row.expires_at.toISOString(), id: row.id, name: row.name };
+}
+
+/** The user id behind a bearer token, or null when it is unknown, revoked or expired. */
+export async function resolveApiToken(token: string, now = new Date()): Promise<string | null> {
+  if (!token.startsWith(TOKEN_PREFIX)) return null;
+  const row = await touchLiveApiToken(hashApiToken(token), now);
+  return row?.user_id ?? null;
+}
+
+export async function listTokensOf(userId: string, now = new Date()): Promise<ApiToken[]> {
+  return (await listApiTokens(userId, now)).map(toApiToken);
+}
+
+export async function revokeToken(userId: string, tokenId: string): Promise<void> {
+  if (!(await deleteApiToken(userId, tokenId))) throw new NotFoundError('That token does not exist or was already revoked.');
+}

@@ -1,0 +1,75 @@
+import { db, isUniqueViolation, type Db, type UserRow } from '../../lib/db.ts';
+import { ConflictError } from '../../lib/errors.ts';
+import type { AdminUser, Profile, Role, UpdateProfileInput, User } from '../../../shared/users/schemas.ts';
+
+export function toUser(row: UserRow): User {
+  return { id: row.id, email: row.email, name: row.name, role: row.role };
+}
+
+export function toProfile(row: UserRow): Profile {
+  return {
+    ...toUser(row),
+    unit: row.unit,
+    birth_year: row.birth_year,
+    resting_hr: row.resting_hr,
+    max_hr: row.max_hr,
+    weight_kg: row.weight_kg,
+    time_zone: row.time_zone,
+    created_at: row.created_at.toISOString(),
+  };
+}
+
+export function toAdminUser(row: UserRow): AdminUser {
+  return { ...toUser(row), created_at: row.created_at.toISOString() };
+}
+
+export async function findUserById(id: string, trx: Db = db): Promise<UserRow | undefined> {
+  return trx('users').where({ id }).first();
+}
+
+export async function findUserByEmail(email: string, trx: Db = db): Promise<UserRow | undefined> {
+  return trx('users').whereRaw('lower(email) = lower(?)', [email]).first();
+}
+
+export interface NewUser {
+  email: string;
+  passwordHash: string;
+  name: string;
+  role: Role;
+  timeZone?: string;
+}
+
+export async function insertUser(user: NewUser, trx: Db = db): Promise<UserRow> {
+  try {
+    const [row] = await trx('users')
+      .insert({
+        email: user.email,
+        password_hash: user.passwordHash,
+        name: user.name,
+        role: user.role,
+        time_zone: user.timeZone ?? 'UTC',
+      })
+      .returning('*');
+    return row as UserRow;
+  } catch (err) {
+    if (isUniqueViolation(err)) throw new ConflictError('An account with this e-mail address already exists.', 'email-taken');
+    throw err;
+  }
+}
+
+export async function updateUserProfile(id: string, changes: UpdateProfileInput, trx: Db = db): Promise<UserRow | undefined> {
+  const [row] = await trx('users')
+    .where({ id })
+    .update({ ...changes, updated_at: new Date() })
+    .returning('*');
+  return row as UserRow | undefined;
+}
+
+export async function updateUserRole(id: string, role: Role, trx: Db = db): Promise<UserRow | undefined> {
+  const [row] = await trx('users').where({ id }).update({ role, updated_at: new Date() }).returning('*');
+  return row as UserRow | undefined;
+}
+
+export async function listUsers(trx: Db = db): Promise<UserRow[]> {
+  return trx('users').orderBy('created_at', 'asc');
+}

@@ -1,0 +1,56 @@
+import type { Server } from 'node:http';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { ConfigError, loadConfig, type AppConfig } from './config.ts';
+import { logger } from './lib/logger.ts';
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+export interface RunningServer {
+  server: Server;
+  config: AppConfig;
+  url: string;
+  close(): Promise<void>;
+}
+
+/** Starts the web server (config from the environment). Only this module calls `listen`. */
+export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise<RunningServer> {
+  const config = loadConfig(env);
+  // Imported after the config check so a bad production config fails before any connection is made.
+  const { createApp } = await import('./app.ts');
+  const { db } = await import('./lib/db.ts');
+  const app = createApp({ config, clientDir: path.join(ROOT, 'dist/client') });
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(config.port, config.host, () => resolve(s));
+    s.on('error', reject);
+  });
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : config.port;
+  return {
+    server,
+    config,
+    url: `http://${config.host}:${port}`,
+    async close() {
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeAllConnections();
+      await db.destroy();
+    },
+  };
+}
+
+const isEntryPoint = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
+if (isEntryPoint) {
+  try {
+    const running = await startServer();
+    logger.info(`Pacewright is listening on ${running.url}`);
+    const stop = () => void running.close().then(() => process.exit(0));
+    process.on('SIGINT', stop);
+    process.on('SIGTERM', stop);
+  } catch (err) {
+    if (err instanceof ConfigError) {
+      console.error(`Pacewright cannot start: ${err.message}`);
+      process.exit(1);
+    }
+    throw err;
+  }
+}

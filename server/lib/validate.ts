@@ -1,0 +1,46 @@
+import type { RequestHandler } from 'express';
+import type { z } from 'zod';
+import { ValidationError } from './errors.ts';
+import type { FieldIssue } from '../../shared/api/errors.ts';
+
+interface Schemas {
+  params?: z.ZodType;
+  query?: z.ZodType;
+  body?: z.ZodType;
+}
+
+/** Turns zod issues into `{field, message}` pairs a form can place beside its fields. */
+export function toFieldIssues(error: z.ZodError): FieldIssue[] {
+  return error.issues.map((issue) => ({
+    field: issue.path.join('.') || (issue.code === 'unrecognized_keys' ? issue.keys.join(', ') : ''),
+    message: issue.code === 'unrecognized_keys' ? `Unknown field: ${issue.keys.join(', ')}.` : issue.message,
+  }));
+}
+
+/**
+ * Validates the request against shared zod schemas and replaces body/params with the parsed values
+ * (query is read-only in Express 5, so parsed query lands in res.locals.query).
+ */
+export function validate(schemas: Schemas): RequestHandler {
+  return (req, res, next) => {
+    const problems: FieldIssue[] = [];
+    for (const part of ['params', 'query', 'body'] as const) {
+      const schema = schemas[part];
+      if (!schema) continue;
+      const input: unknown = part === 'body' ? (req.body ?? {}) : req[part];
+      const result = schema.safeParse(input);
+      if (!result.success) {
+        problems.push(...toFieldIssues(result.error));
+        continue;
+      }
+      if (part === 'query') res.locals.query = result.data;
+      else if (part === 'params') res.locals.params = result.data;
+      else req.body = result.data;
+    }
+    if (problems.length > 0) {
+      const first = problems[0]!;
+      throw new ValidationError(problems.length === 1 ? first.message : 'Some fields need attention.', problems);
+    }
+    next();
+  };
+}

@@ -1,0 +1,65 @@
+import { z } from 'zod';
+import { NameSchema, SIGN_UP_ROLES, UserSchema } from '../users/schemas.ts';
+
+export const EmailSchema = z
+  .string({ error: 'Enter your e-mail address.' })
+  .trim()
+  .toLowerCase()
+  .max(254, 'That e-mail address is too long.')
+  .pipe(z.email({ error: 'Enter a valid e-mail address, like name@example.com.' }));
+
+export const PASSWORD_MIN_LENGTH = 10;
+export const NewPasswordSchema = z
+  .string({ error: 'Choose a password.' })
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters for the password.`)
+  // bcrypt only reads the first 72 bytes; longer would silently be ignored.
+  .refine((p) => new TextEncoder().encode(p).length <= 72, 'Keep the password under 72 bytes.');
+
+export const RegisterInputSchema = z
+  .object({
+    email: EmailSchema,
+    password: NewPasswordSchema,
+    name: NameSchema,
+    role: z.enum(SIGN_UP_ROLES, { error: 'Choose whether you sign up as a runner or a coach.' }),
+  })
+  .strict();
+export type RegisterInput = z.infer<typeof RegisterInputSchema>;
+
+export const LoginInputSchema = z
+  .object({
+    email: EmailSchema,
+    password: z.string({ error: 'Enter your password.' }).min(1, 'Enter your password.'),
+  })
+  .strict();
+export type LoginInput = z.infer<typeof LoginInputSchema>;
+
+export const UserResponseSchema = z.object({ user: UserSchema });
+
+export const CreateTokenInputSchema = LoginInputSchema;
+export const TokenResponseSchema = z.object({ token: z.string(), expires_at: z.string(), id: z.string() });
+
+export const NamedTokenInputSchema = z
+  .object({
+    name: z
+      .string({ error: 'Give the token a name.' })
+      .trim()
+      .min(1, 'Give the token a name.')
+      .max(60, 'Keep the token name under 60 characters.'),
+  })
+  .strict();
+
+export const ApiTokenSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  created_at: z.string(),
+  expires_at: z.string(),
+  last_used_at: z.string().nullable(),
+});
+export type ApiToken = z.infer<typeof ApiTokenSchema>;
+
+export const IdParamsSchema = z.object({ id: z.uuid({ error: 'Not found.' }) });
+
+/** Cookie and header names shared by server and client. */
+export const SESSION_COOKIE = 'pw_session';
+export const CSRF_COOKIE = 'pw_csrf';
+export const CSRF_HEADER = 'X-CSRF-Token';

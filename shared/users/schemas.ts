@@ -1,0 +1,96 @@
+import { z } from 'zod';
+
+/** Roles a user can hold. `admin` is never self-chosen at sign-up. */
+export const ROLES = ['runner', 'coach', 'admin'] as const;
+export const RoleSchema = z.enum(ROLES, { error: 'Role must be runner, coach or admin.' });
+export type Role = z.infer<typeof RoleSchema>;
+
+export const SIGN_UP_ROLES = ['runner', 'coach'] as const;
+
+export const UNITS = ['mi', 'km'] as const;
+export const UnitSchema = z.enum(UNITS, { error: 'Units must be mi or km.' });
+export type Unit = z.infer<typeof UnitSchema>;
+
+/** The public face of a user, as the auth routes return it (api-contract.md). */
+export const UserSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  name: z.string(),
+  role: RoleSchema,
+});
+export type User = z.infer<typeof UserSchema>;
+
+/** Time zone names the runtime knows (IANA). Checked with Intl so shared stays free of data files. */
+export function isKnownTimeZone(name: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: name });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export const NameSchema = z
+  .string({ error: 'Enter your name.' })
+  .trim()
+  .min(1, 'Enter your name.')
+  .max(80, 'Keep the name under 80 characters.');
+
+const currentYearUpperBound = 2100;
+
+/** Everything a user can set about themselves on the profile page. Heart rates in beats per minute, weight in kg. */
+export const ProfileSchema = UserSchema.extend({
+  unit: UnitSchema,
+  birth_year: z.number().int().nullable(),
+  resting_hr: z.number().int().nullable(),
+  max_hr: z.number().int().nullable(),
+  weight_kg: z.number().nullable(),
+  time_zone: z.string(),
+  created_at: z.string(),
+});
+export type Profile = z.infer<typeof ProfileSchema>;
+
+export const UpdateProfileInputSchema = z
+  .object({
+    name: NameSchema,
+    unit: UnitSchema,
+    birth_year: z
+      .number({ error: 'Birth year must be a whole number.' })
+      .int('Birth year must be a whole number.')
+      .min(1900, 'Birth year must be 1900 or later.')
+      .max(currentYearUpperBound, 'Birth year looks wrong.')
+      .nullable(),
+    resting_hr: z
+      .number({ error: 'Resting heart rate must be a number.' })
+      .int('Resting heart rate must be a whole number of beats per minute.')
+      .min(25, 'Resting heart rate must be between 25 and 120 bpm.')
+      .max(120, 'Resting heart rate must be between 25 and 120 bpm.')
+      .nullable(),
+    max_hr: z
+      .number({ error: 'Maximum heart rate must be a number.' })
+      .int('Maximum heart rate must be a whole number of beats per minute.')
+      .min(100, 'Maximum heart rate must be between 100 and 240 bpm.')
+      .max(240, 'Maximum heart rate must be between 100 and 240 bpm.')
+      .nullable(),
+    weight_kg: z
+      .number({ error: 'Weight must be a number.' })
+      .min(25, 'Weight must be between 25 and 250 kg.')
+      .max(250, 'Weight must be between 25 and 250 kg.')
+      .nullable(),
+    time_zone: z
+      .string({ error: 'Choose a time zone.' })
+      .refine(isKnownTimeZone, 'Choose a time zone from the list, e.g. Europe/Berlin.'),
+  })
+  .partial()
+  .refine((p) => p.resting_hr == null || p.max_hr == null || p.resting_hr < p.max_hr, {
+    message: 'Resting heart rate must be below maximum heart rate.',
+    path: ['resting_hr'],
+  })
+  .strict();
+export type UpdateProfileInput = z.infer<typeof UpdateProfileInputSchema>;
+
+export const ChangeRoleInputSchema = z.object({ role: RoleSchema }).strict();
+export type ChangeRoleInput = z.infer<typeof ChangeRoleInputSchema>;
+
+export const AdminUserSchema = UserSchema.extend({ created_at: z.string() });
+export type AdminUser = z.infer<typeof AdminUserSchema>;

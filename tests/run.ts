@@ -1,0 +1,104 @@
+/**
+ * `npm test [unit|api|e2e …]`: static checks, then unit tests, API tests against a fresh PostgreSQL
+ * database, and browser tests in Debian's Chromium against the built app. Prints one closing line
+ * `N passed, N failed` for CI. Each run makes its own databases and drops them afterwards.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import path from 'node:path';
+import knexFactory from 'knex';
+import { buildClientIfStale } from '../server/cli/lib/client-build.ts';
+import {
+  ROOT,
+  startEmbeddedPostgres,
+  stopEmbeddedPostgres,
+  usesExternalDatabase,
+  withDatabase,
+} from '../server/cli/lib/postgres.ts';
+
+const LAYERS = ['unit', 'api', 'e2e'] as const;
+type Layer = (typeof LAYERS)[number];
+const requested = process.argv.slice(2).filter((a): a is Layer => (LAYERS as readonly string[]).includes(a));
+const layers: Layer[] = requested.length ? requested : [...LAYERS];
+const runStaticChecks = requested.length === 0 && process.env.SKIP_STATIC_CHECKS !== '1';
+const bin = (name: string) => path.join(ROOT, 'node_modules/.bin', name);
+
+function step(title: string, command: string, args: string[]): boolean {
+  console.log(`\n▶ ${title}`);
+  return spawnSync(command, args, { cwd: ROOT, stdio: 'inherit' }).status === 0;
+}
+
+let failedChecks = 0;
+if (runStaticChecks) {
+  if (!step('Type check (tsc --noEmit)', bin('tsc'), ['--noEmit'])) failedChecks++;
+  if (!step('Lint (eslint)', bin('eslint'), ['--config', '.ci/eslint.config.js', '.'])) failedChecks++;
+  if (!step('Format check (prettier)', bin('prettier'), ['--check', '.', '--log-level', 'warn'])) failedChecks++;
+}
+
+const needsDb = layers.some((l) => l !== 'unit');
+const embedded = !usesExternalDatabase();
+const pgWasRunning = embedded && spawnSync('bash', [path.join(ROOT, 'db/pg.sh'), 'status']).status === 0;
+const serverUrl = needsDb ? (embedded ? startEmbeddedPostgres([]) : withDatabase(process.env.DATABASE_URL!, 'postgres')) : '';
+const runId = `${Date.now().toString(36)}_${process.pid}`;
+const admin = needsDb ? knexFactory({ client: 'pg', connection: withDatabase(serverUrl, 'postgres') }) : null;
+const databases: string[] = [];
+
+async function freshDatabase(layer: Layer): Promise<string> {
+  const name = `pacewright_test_${layer}_${runId}`;
+  await admin!.raw('create database ??', [name]);
+  databases.push(name);
+  const url = withDatabase(serverUrl, name);
+  const knex = knexFactory((await import('../db/knexfile.ts')).knexConfig(url));
+  try {
+    await knex.migrate.latest();
+    if (layer === 'e2e') await (await import('../db/seeds/index.ts')).runSeeds(knex);
+  } finally {
+    await knex.destroy();
+  }
+  return url;
+}
+
+const resultsDir = path.join(ROOT, 'test-results');
+mkdirSync(resultsDir, { recursive: true });
+let passed = 0;
+let failed = failedChecks;
+
+try {
+  for (const layer of layers) {
+    const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'test' };
+    if (layer !== 'unit') env.DATABASE_URL = await freshDatabase(layer);
+    if (layer === 'e2e') buildClientIfStale();
+    const outputFile = path.join(resultsDir, `vitest-${layer}.json`);
+    rmSync(outputFile, { force: true });
+    console.log(`\n▶ ${layer} tests`);
+    spawnSync(bin('vitest'), ['run', '--project', layer, '--reporter=default', '--reporter=json', `--outputFile=${outputFile}`], {
+      cwd: ROOT,
+      stdio: 'inherit',
+      env,
+    });
+    if (!existsSync(outputFile)) {
+      console.error(`The ${layer} tests did not report results.`);
+      failed++;
+      continue;
+    }
+    const report = JSON.parse(readFileSync(outputFile, 'utf8')) as {
+      numPassedTests: number;
+      numFailedTests: number;
+      numTotalTests: number;
+      success: boolean;
+    };
+    passed += report.numPassedTests;
+    failed += report.numFailedTests;
+    if (report.numTotalTests === 0 || (!report.success && report.numFailedTests === 0)) failed++;
+  }
+} finally {
+  if (admin) {
+    for (const name of databases) await admin.raw('drop database if exists ?? with (force)', [name]);
+    await admin.destroy();
+  }
+  if (embedded && needsDb && !pgWasRunning) stopEmbeddedPostgres();
+}
+
+if (failedChecks) console.log(`\n${failedChecks} static check(s) failed (counted as failures).`);
+console.log(`\n${passed} passed, ${failed} failed`);
+process.exit(failed === 0 ? 0 : 1);

@@ -1,0 +1,44 @@
+import request from 'supertest';
+import type { Express } from 'express';
+import { createApp } from '../../server/app.ts';
+import { loadConfig, type AppConfig } from '../../server/config.ts';
+import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
+
+/** Test configuration: cheap bcrypt, a fixed secret, and a rate limit high enough not to interfere. */
+export function testConfig(overrides: Partial<AppConfig> = {}): AppConfig {
+  return {
+    ...loadConfig({
+      NODE_ENV: 'test',
+      JWT_SECRET: 'test-secret-that-is-long-enough-0123456789',
+      DATABASE_URL: process.env.DATABASE_URL,
+    }),
+    bcryptCost: 4,
+    authRateLimit: { windowMs: 60_000, max: 1000 },
+    ...overrides,
+  };
+}
+
+export function testApp(overrides: Partial<AppConfig> = {}): Express {
+  return createApp({ config: testConfig(overrides) });
+}
+
+/** A browser-like client: keeps cookies and sends the CSRF header on writes, as the real client does. */
+export interface BrowserAgent {
+  agent: ReturnType<typeof request.agent>;
+  csrf: string;
+}
+
+export async function browserAgent(app: Express): Promise<BrowserAgent> {
+  const agent = request.agent(app);
+  const res = await agent.get('/api/health');
+  const cookie = ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${CSRF_COOKIE}=`));
+  if (!cookie) throw new Error('no CSRF cookie was set');
+  return { agent, csrf: cookie.split(';')[0]!.split('=')[1]! };
+}
+
+export async function signedInAgent(app: Express, email: string, password: string): Promise<BrowserAgent> {
+  const browser = await browserAgent(app);
+  const res = await browser.agent.post('/api/auth/login').set(CSRF_HEADER, browser.csrf).send({ email, password });
+  if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return browser;
+}

@@ -1,0 +1,43 @@
+import { describe, expect, it } from 'vitest';
+import { ConfigError, loadConfig } from '../../../server/config.ts';
+
+describe('loadConfig', () => {
+  it.each([
+    ['missing', undefined],
+    ['empty', ''],
+    ['a well-known placeholder', 'changeme'],
+    ['too short', 'abc123'],
+  ])('refuses to start in production when JWT_SECRET is %s', (_label, secret) => {
+    expect(() => loadConfig({ NODE_ENV: 'production', JWT_SECRET: secret })).toThrow(ConfigError);
+  });
+
+  it('accepts a long random secret in production and uses secure cookies settings', () => {
+    const config = loadConfig({ NODE_ENV: 'production', JWT_SECRET: 'f'.repeat(16) + '0123456789abcdef0123' });
+    expect(config.env).toBe('production');
+  });
+
+  it('outside production makes up a random secret per process', () => {
+    const a = loadConfig({});
+    const b = loadConfig({});
+    expect(a.jwtSecret).toHaveLength(64);
+    expect(a.jwtSecret).not.toBe(b.jwtSecret);
+  });
+
+  it('hashes passwords with a bcrypt cost of at least 10 by default', () => {
+    expect(loadConfig({}).bcryptCost).toBeGreaterThanOrEqual(10);
+  });
+
+  it('reads PORT, HOST, PGPORT and DATABASE_URL (api-contract.md defaults 3000, 127.0.0.1, 54329)', () => {
+    expect(loadConfig({})).toMatchObject({
+      port: 3000,
+      host: '127.0.0.1',
+      databaseUrl: 'postgres://postgres@127.0.0.1:54329/pacewright',
+    });
+    expect(loadConfig({ PORT: '8080', HOST: '0.0.0.0', PGPORT: '6000' })).toMatchObject({
+      port: 8080,
+      host: '0.0.0.0',
+      databaseUrl: 'postgres://postgres@127.0.0.1:6000/pacewright',
+    });
+    expect(loadConfig({ DATABASE_URL: 'postgres://u@db.internal/pw' }).databaseUrl).toBe('postgres://u@db.internal/pw');
+  });
+});

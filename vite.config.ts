@@ -1,0 +1,39 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+const API_PORT = Number(process.env.PORT ?? 3000);
+
+export default defineConfig({
+  root: 'client',
+  plugins: [react(), tailwindcss()],
+  build: { outDir: '../dist/client', emptyOutDir: true },
+  server: { proxy: { '/api': `http://127.0.0.1:${API_PORT}` } },
+  test: {
+    root: '.',
+    projects: [
+      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      {
+        extends: true,
+        test: {
+          name: 'api',
+          include: ['tests/api/**/*.test.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          setupFiles: ['tests/support/api-setup.ts'],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+        },
+      },
+    ],
+  },
+});
