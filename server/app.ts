@@ -9,21 +9,25 @@ import { authenticate } from './features/auth/authenticate.ts';
 import { createAuthRouter } from './features/auth/auth.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
+import { createRunsRouter } from './features/runs/runs.routes.ts';
 import { createUsersRouter } from './features/users/users.routes.ts';
 import { errorHandler, notFoundHandler } from './lib/error-handler.ts';
 import { logger } from './lib/logger.ts';
 import { csrfProtection } from './lib/session.ts';
+import { createFsStore, type FileStore } from './lib/storage.ts';
 
 export interface AppDeps {
   config: AppConfig;
   /** Built client to serve (dist/client); omitted in API tests. */
   clientDir?: string;
+  /** Where original files go; local disk under DATA_DIR by default. */
+  store?: FileStore;
 }
 
 const API_VERSION = '0.1.0';
 
 /** Builds the Express app: middleware, feature routers under /api, the API docs, the client, then errors. */
-export function createApp({ config, clientDir }: AppDeps): Express {
+export function createApp({ config, clientDir, store = createFsStore(config.dataDir) }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);
@@ -33,7 +37,7 @@ export function createApp({ config, clientDir }: AppDeps): Express {
   app.use(express.json({ limit: config.jsonLimit }));
   app.use(cookieParser());
 
-  const features = [createHealthRouter(), createAuthRouter(config), createUsersRouter()];
+  const features = [createHealthRouter(), createAuthRouter(config), createUsersRouter(), createRunsRouter(store, config)];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),
     API_VERSION,

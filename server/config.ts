@@ -14,6 +14,8 @@ export interface AppConfig {
   /** Sign-in and sign-up attempts per IP per window; lowered in tests. */
   authRateLimit: { windowMs: number; max: number };
   jsonLimit: string;
+  /** Largest single uploaded watch file; a 100-mile run recorded every second is about 25 MB of GPX. */
+  uploadMaxFileBytes: number;
   publicUrl: string;
 }
 
@@ -50,6 +52,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     bcryptCost: Number(env.BCRYPT_COST ?? 12),
     authRateLimit: { windowMs: 15 * 60 * 1000, max: Number(env.AUTH_RATE_LIMIT ?? 20) },
     jsonLimit: '1mb',
+    uploadMaxFileBytes: 64 * 1024 * 1024,
     publicUrl: env.PUBLIC_URL ?? `http://${host}:${port}`,
   };
 }

@@ -19,7 +19,9 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   // Imported after the config check so a bad production config fails before any connection is made.
   const { createApp } = await import('./app.ts');
   const { db } = await import('./lib/db.ts');
-  const app = createApp({ config, clientDir: path.join(ROOT, 'dist/client') });
+  const { createStoreFromEnv } = await import('./lib/storage.ts');
+  const store = await createStoreFromEnv(config.dataDir, env);
+  const app = createApp({ config, store, clientDir: path.join(ROOT, 'dist/client') });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on('error', reject);

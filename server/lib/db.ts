@@ -5,6 +5,8 @@ import { databaseUrlFromEnv } from '../config.ts';
 
 // Return numeric columns (weight_kg) as JS numbers; our values are small and never need arbitrary precision.
 pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => Number(v));
+// Dates are calendar days in the runner's time zone: keep them as 'YYYY-MM-DD', never shift them through a JS Date.
+pg.types.setTypeParser(pg.types.builtins.DATE, (v) => v);
 
 export interface UserRow {
   id: string;
@@ -45,12 +47,102 @@ export interface SquadMemberRow {
   joined_at: Date;
 }
 
+export interface SourceFileRow {
+  id: string;
+  user_id: string;
+  original_name: string;
+  sha256: string;
+  size_bytes: string;
+  storage_key: string;
+  format: string;
+  created_at: Date;
+}
+
+export interface RunRow {
+  id: string;
+  user_id: string;
+  source_file_id: string;
+  activity_index: number;
+  name: string;
+  sport: string | null;
+  started_at: Date;
+  ended_at: Date;
+  local_date: string;
+  local_time: string;
+  time_zone: string;
+  time_zone_source: string;
+  distance_m: number;
+  distance_source: string;
+  elapsed_s: number;
+  moving_s: number;
+  ascent_m: number | null;
+  descent_m: number | null;
+  avg_hr: number | null;
+  max_hr: number | null;
+  avg_cad: number | null;
+  points: number;
+  segments: number;
+  details: Record<string, unknown>;
+  created_at: Date;
+}
+
+export interface RunTrackRow {
+  run_id: string;
+  point_count: number;
+  columns: string[];
+  data: Buffer;
+}
+
+export interface RunSplitRow {
+  run_id: string;
+  unit: 'mi' | 'km';
+  split_index: number;
+  distance_m: number;
+  start_at: Date;
+  end_at: Date;
+  elapsed_s: number;
+  moving_s: number;
+  pace_s: number | null;
+  flat_pace_s: number | null;
+  avg_hr: number | null;
+  max_hr: number | null;
+  avg_cad: number | null;
+  elev_gain_m: number | null;
+  elev_loss_m: number | null;
+}
+
+export interface RunLapRow {
+  run_id: string;
+  lap_index: number;
+  start_at: Date;
+  total_time_s: number | null;
+  distance_m: number | null;
+  avg_hr: number | null;
+  max_hr: number | null;
+}
+
+export interface RunFastestSectionRow {
+  run_id: string;
+  distance_m: number;
+  time_s: number;
+  pace_s_per_km: number;
+  start_at: Date;
+  end_at: Date;
+  start_distance_m: number;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
     api_tokens: ApiTokenRow;
     squads: SquadRow;
     squad_members: SquadMemberRow;
+    source_files: SourceFileRow;
+    runs: RunRow;
+    run_tracks: RunTrackRow;
+    run_splits: RunSplitRow;
+    run_laps: RunLapRow;
+    run_fastest_sections: RunFastestSectionRow;
   }
 }
 

@@ -1,0 +1,109 @@
+import {
+  db,
+  type Db,
+  type RunFastestSectionRow,
+  type RunLapRow,
+  type RunRow,
+  type RunSplitRow,
+  type SourceFileRow,
+} from '../../lib/db.ts';
+import type { ListRunsQuery, RunListItem } from '../../../shared/runs/schemas.ts';
+
+export function toRunListItem(row: RunRow): RunListItem {
+  return {
+    id: row.id,
+    name: row.name,
+    started_at: row.started_at.toISOString(),
+    local_date: row.local_date,
+    local_time: row.local_time,
+    time_zone: row.time_zone,
+    distance_m: row.distance_m,
+    elapsed_s: row.elapsed_s,
+    moving_s: row.moving_s,
+    pace_s_per_km: row.moving_s > 0 && row.distance_m > 0 ? row.moving_s / (row.distance_m / 1000) : null,
+    ascent_m: row.ascent_m,
+    avg_hr: row.avg_hr,
+  };
+}
+
+export async function findSourceFileBySha(userId: string, sha256: string, trx: Db = db): Promise<SourceFileRow | undefined> {
+  return trx('source_files').where({ user_id: userId, sha256 }).first();
+}
+
+export async function findFirstRunOfSourceFile(sourceFileId: string, trx: Db = db): Promise<RunRow | undefined> {
+  return trx('runs').where({ source_file_id: sourceFileId }).orderBy('activity_index').first();
+}
+
+export async function insertSourceFile(row: Omit<SourceFileRow, 'id' | 'created_at'>, trx: Db): Promise<SourceFileRow> {
+  const [inserted] = await trx('source_files').insert(row).returning('*');
+  return inserted as SourceFileRow;
+}
+
+export interface RunChildren {
+  track: { columns: string[]; point_count: number; data: Buffer };
+  splits: Omit<RunSplitRow, 'run_id'>[];
+  laps: Omit<RunLapRow, 'run_id'>[];
+  fastest: Omit<RunFastestSectionRow, 'run_id'>[];
+}
+
+/** Inserts a run with all its parts; call inside a transaction so a run is stored whole or not at all. */
+export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, children: RunChildren, trx: Db): Promise<RunRow> {
+  const [row] = await trx('runs').insert(run).returning('*');
+  const runId = (row as RunRow).id;
+  await trx('run_tracks').insert({ run_id: runId, ...children.track });
+  if (children.splits.length) await trx('run_splits').insert(children.splits.map((s) => ({ run_id: runId, ...s })));
+  if (children.laps.length) await trx('run_laps').insert(children.laps.map((l) => ({ run_id: runId, ...l })));
+  if (children.fastest.length) await trx('run_fastest_sections').insert(children.fastest.map((f) => ({ run_id: runId, ...f })));
+  return row as RunRow;
+}
+
+export async function findRunById(id: string, trx: Db = db): Promise<RunRow | undefined> {
+  return trx('runs').where({ id }).first();
+}
+
+export async function findRunParts(runId: string, trx: Db = db) {
+  const [splits, laps, fastest] = await Promise.all([
+    trx('run_splits').where({ run_id: runId }).orderBy(['unit', 'split_index']),
+    trx('run_laps').where({ run_id: runId }).orderBy('lap_index'),
+    trx('run_fastest_sections').where({ run_id: runId }).orderBy('distance_m'),
+  ]);
+  return { splits, laps, fastest };
+}
+
+export async function findSplits(runId: string, unit: 'mi' | 'km', trx: Db = db): Promise<RunSplitRow[]> {
+  return trx('run_splits').where({ run_id: runId, unit }).orderBy('split_index');
+}
+
+export async function findRunTrack(runId: string, trx: Db = db) {
+  return trx('run_tracks').where({ run_id: runId }).first();
+}
+
+export async function findSourceFileById(id: string, trx: Db = db): Promise<SourceFileRow | undefined> {
+  return trx('source_files').where({ id }).first();
+}
+
+export async function listRunsOf(userId: string, query: ListRunsQuery, trx: Db = db): Promise<{ rows: RunRow[]; total: number }> {
+  const base = trx('runs').where({ user_id: userId });
+  if (query.from) base.andWhere('local_date', '>=', query.from);
+  if (query.to) base.andWhere('local_date', '<=', query.to);
+  const [{ count }] = (await base.clone().count({ count: '*' })) as [{ count: string }];
+  const rows = await base
+    .orderBy('started_at', 'desc')
+    .limit(query.per_page)
+    .offset((query.page - 1) * query.per_page);
+  return { rows, total: Number(count) };
+}
+
+export async function renameRun(id: string, name: string, trx: Db = db): Promise<RunRow | undefined> {
+  const [row] = await trx('runs').where({ id }).update({ name }).returning('*');
+  return row as RunRow | undefined;
+}
+
+/** Deletes the run; returns the source file row when no other run uses it any more (and deletes that row too). */
+export async function deleteRunAndOrphanFile(run: RunRow, trx: Db): Promise<SourceFileRow | undefined> {
+  await trx('runs').where({ id: run.id }).delete();
+  const remaining = await trx('runs').where({ source_file_id: run.source_file_id }).first();
+  if (remaining) return undefined;
+  const [file] = await trx('source_files').where({ id: run.source_file_id }).delete().returning('*');
+  return file as SourceFileRow | undefined;
+}

@@ -1,0 +1,197 @@
+import multer from 'multer';
+import type { RequestHandler } from 'express';
+import { z } from 'zod';
+import {
+  ImportResultSchema,
+  ListRunsQuerySchema,
+  RenameRunInputSchema,
+  RunListItemSchema,
+  SplitsCsvQuerySchema,
+  type ListRunsQuery,
+} from '../../../shared/runs/schemas.ts';
+import { createApiRouter } from '../../lib/api-router.ts';
+import { requireActor } from '../../lib/authorize.ts';
+import { AppError, BadRequestError } from '../../lib/errors.ts';
+import { parseIdParam } from '../../lib/ids.ts';
+import type { FileStore } from '../../lib/storage.ts';
+import type { AppConfig } from '../../config.ts';
+import {
+  deleteOwnRun,
+  describeRun,
+  importFiles,
+  listRuns,
+  originalFileOf,
+  renameOwnRun,
+  splitsCsvOf,
+  trackOf,
+} from './runs.service.ts';
+
+/** Files per upload request; a whole history goes through the bulk import instead. */
+const MAX_FILES_PER_UPLOAD = 20;
+
+/** multer with its errors turned into the JSON errors of api-contract.md (413 for sizes). */
+function uploadFiles(maxFileBytes: number): RequestHandler {
+  const UPLOAD_LIMITS = { fileSizeBytes: maxFileBytes, files: MAX_FILES_PER_UPLOAD };
+  const upload = multer({
+    storage: multer.memoryStorage(),
+    limits: { fileSize: UPLOAD_LIMITS.fileSizeBytes, files: UPLOAD_LIMITS.files, fields: 10, parts: UPLOAD_LIMITS.files + 10 },
+  }).array('files', UPLOAD_LIMITS.files);
+  return (req, res, next) => {
+    upload(req, res, (err: unknown) => {
+      if (!err) return next();
+      if (err instanceof multer.MulterError) {
+        if (err.code === 'LIMIT_FILE_SIZE')
+          return next(
+            new AppError(
+              413,
+              'too-large',
+              `Each file can be at most ${Math.round(UPLOAD_LIMITS.fileSizeBytes / 1024 / 1024)} MB. Compress it as .gpx.gz or .tcx.gz, or split it.`,
+            ),
+          );
+        if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_PART_COUNT')
+          return next(
+            new AppError(
+              413,
+              'too-many-files',
+              `Upload at most ${UPLOAD_LIMITS.files} files at once; for a whole history use the bulk import.`,
+            ),
+          );
+        if (err.code === 'LIMIT_UNEXPECTED_FILE')
+          return next(new BadRequestError('Send the files in form fields named "files".'));
+        return next(new BadRequestError('The upload could not be read. Please try again.'));
+      }
+      next(new BadRequestError('The upload could not be read. Please send the files as multipart/form-data.'));
+    });
+  };
+}
+
+export function createRunsRouter(store: FileStore, config: AppConfig) {
+  const api = createApiRouter();
+
+  api.route(
+    {
+      method: 'post',
+      path: '/runs',
+      tag: 'runs',
+      summary:
+        'Upload GPX/TCX files (also .gz) as multipart parts named "files"; 201 when at least one run was imported, else 422',
+      access: 'own-data',
+      response: ImportResultSchema,
+      status: 201,
+      before: [uploadFiles(config.uploadMaxFileBytes)],
+    },
+    async (req, res) => {
+      const files = ((req.files as Express.Multer.File[] | undefined) ?? []).map((f) => ({
+        // multer decodes names as latin1; browsers send UTF-8.
+        name: Buffer.from(f.originalname, 'latin1').toString('utf8'),
+        data: f.buffer,
+      }));
+      if (files.length === 0) throw new BadRequestError('Choose at least one .gpx or .tcx file to upload.', 'no-files');
+      const result = await importFiles(requireActor(res), files, store);
+      res.status(result.imported.length > 0 ? 201 : 422).json(result);
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs',
+      tag: 'runs',
+      summary: 'List runs, newest first, paged, optionally between local dates (from/to) and for a squad runner (runner_id)',
+      access: 'own-data',
+      query: ListRunsQuerySchema,
+      response: z.object({ runs: z.array(RunListItemSchema), total: z.number(), page: z.number(), per_page: z.number() }),
+    },
+    async (_req, res) => {
+      res.json(await listRuns(requireActor(res), res.locals.query as ListRunsQuery));
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs/:id',
+      tag: 'runs',
+      summary: 'A run: summary, splits per mile and per km, device laps, fastest sections',
+      access: 'own-data',
+    },
+    async (req, res) => {
+      res.json(await describeRun(requireActor(res), parseIdParam(req.params.id)));
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs/:id/splits.csv',
+      tag: 'runs',
+      summary: 'Splits as CSV (unit=mi|km): split,unit,distance,elapsed_s,moving_s,pace,avg_hr,max_hr,elev_gain_m,elev_loss_m,…',
+      access: 'own-data',
+      query: SplitsCsvQuerySchema,
+    },
+    async (req, res) => {
+      const { unit } = res.locals.query as z.infer<typeof SplitsCsvQuerySchema>;
+      const { csv, filename } = await splitsCsvOf(requireActor(res), parseIdParam(req.params.id), unit);
+      res.type('text/csv; charset=utf-8').attachment(filename).send(csv);
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs/:id/track',
+      tag: 'runs',
+      summary: 'The run’s series (time, distance, position, elevation, heart rate), thinned for charts',
+      access: 'own-data',
+    },
+    async (req, res) => {
+      res.json(await trackOf(requireActor(res), parseIdParam(req.params.id)));
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs/:id/original',
+      tag: 'runs',
+      summary: 'The original uploaded file, byte for byte',
+      access: 'own-data',
+    },
+    async (req, res) => {
+      const file = await originalFileOf(requireActor(res), parseIdParam(req.params.id), store);
+      res.type('application/octet-stream').attachment(file.name).send(file.data);
+    },
+  );
+
+  api.route(
+    {
+      method: 'patch',
+      path: '/runs/:id',
+      tag: 'runs',
+      summary: 'Rename a run',
+      access: 'own-data',
+      body: RenameRunInputSchema,
+      response: z.object({ run: RunListItemSchema }),
+    },
+    async (req, res) => {
+      res.json({ run: await renameOwnRun(requireActor(res), parseIdParam(req.params.id), req.body.name) });
+    },
+  );
+
+  api.route(
+    {
+      method: 'delete',
+      path: '/runs/:id',
+      tag: 'runs',
+      summary: 'Delete a run (and its original file when no other run came from it)',
+      access: 'own-data',
+      status: 204,
+    },
+    async (req, res) => {
+      await deleteOwnRun(requireActor(res), parseIdParam(req.params.id), store);
+      res.status(204).end();
+    },
+  );
+
+  return api;
+}

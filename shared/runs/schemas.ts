@@ -1,0 +1,55 @@
+import { z } from 'zod';
+
+export const SplitUnitSchema = z.enum(['mi', 'km'], { error: 'Unit must be mi or km.' });
+
+export const SplitsCsvQuerySchema = z.object({ unit: SplitUnitSchema.default('mi') });
+
+const IsoDateSchema = z.iso.date({ error: 'Use a date like 2026-10-03.' });
+
+export const ListRunsQuerySchema = z.object({
+  from: IsoDateSchema.optional(),
+  to: IsoDateSchema.optional(),
+  page: z.coerce.number({ error: 'Page must be a number.' }).int().min(1, 'Pages start at 1.').default(1),
+  per_page: z.coerce
+    .number({ error: 'per_page must be a number.' })
+    .int()
+    .min(1)
+    .max(200, 'At most 200 runs a page.')
+    .default(50),
+  runner_id: z.uuid({ error: 'Not a runner id.' }).optional(),
+});
+export type ListRunsQuery = z.infer<typeof ListRunsQuerySchema>;
+
+export const RenameRunInputSchema = z
+  .object({
+    name: z
+      .string({ error: 'Give the run a name.' })
+      .trim()
+      .min(1, 'Give the run a name.')
+      .max(120, 'Keep the name under 120 characters.'),
+  })
+  .strict();
+
+/** One line of the runs list. */
+export const RunListItemSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  started_at: z.string(),
+  local_date: z.string(),
+  local_time: z.string(),
+  time_zone: z.string(),
+  distance_m: z.number(),
+  elapsed_s: z.number(),
+  moving_s: z.number(),
+  pace_s_per_km: z.number().nullable(),
+  ascent_m: z.number().nullable(),
+  avg_hr: z.number().nullable(),
+});
+export type RunListItem = z.infer<typeof RunListItemSchema>;
+
+export const ImportResultSchema = z.object({
+  imported: z.array(RunListItemSchema.extend({ file: z.string() })),
+  duplicates: z.array(z.object({ file: z.string(), runId: z.string() })),
+  rejected: z.array(z.object({ file: z.string(), error: z.string() })),
+});
+export type ImportResult = z.infer<typeof ImportResultSchema>;

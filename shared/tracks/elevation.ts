@@ -1,0 +1,165 @@
+/**
+ * Elevation: smoothing, ascent/descent with hysteresis, and the Minetti et al. (2002) cost of
+ * running on slopes used for flat-equivalent pace.
+ */
+
+/** Half-width of the centred moving average applied to elevation, seconds (a 20 s window). */
+export const ELEVATION_SMOOTHING_HALF_WINDOW_S = 10;
+/**
+ * Hysteresis for counting ascent and descent, metres: a rise or fall only counts once the smoothed
+ * elevation has moved this far from the last turning point, and then counts in full.
+ */
+export const ELEVATION_HYSTERESIS_M = 3;
+
+/**
+ * Fill missing elevations (NaN) by linear interpolation in time between the nearest known
+ * values; before the first and after the last known value the nearest one is repeated.
+ * Returns null when no value is known. `t` must be increasing (ms).
+ */
+export function fillMissing(t: Float64Array, values: Float64Array): Float64Array | null {
+  const n = values.length;
+  const out = new Float64Array(n);
+  let prev = -1;
+  for (let i = 0; i < n; i++) {
+    const v = values[i] as number;
+    if (Number.isNaN(v)) continue;
+    if (prev === -1) {
+      out.fill(v, 0, i);
+    } else if (i - prev > 1) {
+      const v0 = values[prev] as number;
+      const t0 = t[prev] as number;
+      const span = (t[i] as number) - t0;
+      for (let k = prev + 1; k < i; k++) out[k] = v0 + ((v - v0) * ((t[k] as number) - t0)) / span;
+    }
+    out[i] = v;
+    prev = i;
+  }
+  if (prev === -1) return null;
+  out.fill(values[prev] as number, prev + 1);
+  return out;
+}
+
+/**
+ * Centred moving average over ±`halfWindowS` seconds (time-based, so it suits 1 s and 10 s
+ * sampling alike), computed in linear time with a running sum. `t` in ms, increasing.
+ */
+export function smoothByTime(t: Float64Array, values: Float64Array, halfWindowS: number): Float64Array {
+  const n = values.length;
+  const out = new Float64Array(n);
+  const half = halfWindowS * 1000;
+  let lo = 0;
+  let hi = 0; // exclusive
+  let sum = 0;
+  for (let i = 0; i < n; i++) {
+    const ti = t[i] as number;
+    while (hi < n && (t[hi] as number) <= ti + half) sum += values[hi++] as number;
+    while ((t[lo] as number) < ti - half) sum -= values[lo++] as number;
+    out[i] = sum / (hi - lo);
+  }
+  return out;
+}
+
+/**
+ * Hysteresis filter for ascent and descent. Turning points are the extremes of the smoothed
+ * profile that are at least `thresholdM` apart; between two turning points the output follows
+ * the running maximum (on a rise) or minimum (on a fall), clamped to the two turning values, so
+ * it is monotone on each leg. Noise smaller than the threshold leaves the output flat, while a
+ * real climb counts in full. Ascent = sum of rises of the output, descent = sum of falls.
+ * An empty input gives an empty output.
+ */
+export function hysteresisProfile(values: Float64Array, thresholdM: number): Float64Array {
+  const n = values.length;
+  const out = new Float64Array(n);
+  if (n === 0) return out;
+  const turns = findTurningPoints(values, thresholdM);
+  const first = turns[0];
+  out.fill(values[first ?? 0] as number, 0, first === undefined ? n : first + 1);
+  for (let k = 0; k + 1 < turns.length; k++) {
+    const a = turns[k] as number;
+    const b = turns[k + 1] as number;
+    const va = values[a] as number;
+    const vb = values[b] as number;
+    let level = va;
+    for (let i = a; i <= b; i++) {
+      const v = values[i] as number;
+      level = vb > va ? Math.min(vb, Math.max(level, v)) : Math.max(vb, Math.min(level, v));
+      out[i] = level;
+    }
+  }
+  const last = turns[turns.length - 1];
+  if (last !== undefined) out.fill(values[last] as number, last);
+  return out;
+}
+
+function findTurningPoints(values: Float64Array, threshold: number): number[] {
+  const n = values.length;
+  const turns: number[] = [];
+  let direction = 0; // 0 unknown, 1 rising, -1 falling
+  let maxI = 0;
+  let minI = 0;
+  let candidate = 0;
+  for (let i = 1; i < n; i++) {
+    const v = values[i] as number;
+    if (direction === 0) {
+      if (v > (values[maxI] as number)) maxI = i;
+      if (v < (values[minI] as number)) minI = i;
+      if (v - (values[minI] as number) >= threshold) {
+        turns.push(minI);
+        direction = 1;
+        candidate = i;
+      } else if ((values[maxI] as number) - v >= threshold) {
+        turns.push(maxI);
+        direction = -1;
+        candidate = i;
+      }
+    } else if (direction === 1) {
+      if (v >= (values[candidate] as number)) candidate = i;
+      else if ((values[candidate] as number) - v >= threshold) {
+        turns.push(candidate);
+        direction = -1;
+        candidate = i;
+      }
+    } else if (v <= (values[candidate] as number)) candidate = i;
+    else if (v - (values[candidate] as number) >= threshold) {
+      turns.push(candidate);
+      direction = 1;
+      candidate = i;
+    }
+  }
+  if (direction !== 0) turns.push(candidate);
+  return turns;
+}
+
+/** Sum of rises and of falls of a profile, metres. */
+export function sumRisesAndFalls(values: Float64Array): { gain: number; loss: number } {
+  let gain = 0;
+  let loss = 0;
+  for (let i = 1; i < values.length; i++) {
+    const dv = (values[i] as number) - (values[i - 1] as number);
+    if (dv > 0) gain += dv;
+    else loss -= dv;
+  }
+  return { gain, loss };
+}
+
+/** Gradient limits of the Minetti et al. (2002) fit; steeper slopes are clamped to these. */
+export const MINETTI_GRADE_MIN = -0.45;
+export const MINETTI_GRADE_MAX = 0.45;
+
+/**
+ * Energy cost of running on a gradient, J·kg⁻¹·m⁻¹, from the polynomial fit of Minetti et al.
+ * (2002), J Appl Physiol 93:1039–1046: Cr(i) = 155.4i⁵ − 30.4i⁴ − 43.3i³ + 46.3i² + 19.5i + 3.6,
+ * with i the gradient as a decimal (rise / horizontal distance), clamped to [−0.45, 0.45].
+ */
+export function minettiRunningCost(grade: number): number {
+  const i = Math.min(MINETTI_GRADE_MAX, Math.max(MINETTI_GRADE_MIN, grade));
+  return ((((155.4 * i - 30.4) * i - 43.3) * i + 46.3) * i + 19.5) * i + 3.6;
+}
+
+/**
+ * Flat-equivalent factor f(i) = Cr(i) / Cr(0): a metre run at gradient i costs as much as f
+ * metres on the flat. Flat-equivalent pace = actual pace / f. f(0) = 1.
+ */
+export function flatEquivalentFactor(grade: number): number {
+  return minettiRunningCost(grade) / 3.6;
+}

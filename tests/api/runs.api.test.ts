@@ -1,0 +1,269 @@
+import { existsSync, readFileSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { gzipSync } from 'node:zlib';
+import request from 'supertest';
+import { describe, expect, it } from 'vitest';
+import { db } from '../../server/lib/db.ts';
+import { createFsStore, type FileStore } from '../../server/lib/storage.ts';
+import { SPLITS_CSV_COLUMNS } from '../../shared/runs/splits-csv.ts';
+import { createUser } from '../support/factories.ts';
+import { createApp } from '../../server/app.ts';
+import { testConfig } from '../support/test-app.ts';
+
+type App = ReturnType<typeof createApp>;
+
+const SAMPLES = path.resolve('fixtures/gps-samples');
+const sample = (name: string) => readFileSync(path.join(SAMPLES, name));
+
+function appWithStore(store?: FileStore, overrides = {}) {
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-data-'));
+  const config = testConfig({ dataDir, ...overrides });
+  return { app: createApp({ config, store: store ?? createFsStore(dataDir) }), dataDir };
+}
+
+async function tokenFor(app: App, email: string, password: string) {
+  const res = await request(app).post('/api/auth/token').send({ email, password });
+  return { Authorization: `Bearer ${res.body.token as string}` };
+}
+
+async function runnerWithToken(app: App) {
+  const { user, password } = await createUser();
+  return { user, auth: await tokenFor(app, user.email, password) };
+}
+
+async function counts() {
+  const [runs, files, splits] = await Promise.all(
+    ['runs', 'source_files', 'run_splits'].map((t) => db(t).count({ n: '*' }).first()),
+  );
+  return { runs: Number(runs!.n), files: Number(files!.n), splits: Number(splits!.n) };
+}
+
+describe('POST /api/runs', () => {
+  it('imports a TCX watch file: 201, device distance, splits in both units, laps, the original kept byte for byte', async () => {
+    const { app, dataDir } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const res = await request(app)
+      .post('/api/runs')
+      .set(auth)
+      .attach('files', sample('watch-run-3-laps.tcx'), 'watch-run-3-laps.tcx');
+    expect(res.status).toBe(201);
+    expect(res.body.duplicates).toEqual([]);
+    expect(res.body.rejected).toEqual([]);
+    expect(res.body.imported).toHaveLength(1);
+    const id = res.body.imported[0].id as string;
+
+    const run = await request(app).get(`/api/runs/${id}`).set(auth);
+    expect(run.status).toBe(200);
+    // REFERENCE.tsv (gps-samples): last TCX DistanceMeters 4686.3 m, elapsed 1992 s, 3 device laps.
+    expect(run.body.summary.distance_source).toBe('device');
+    expect(run.body.summary.distance_m).toBeCloseTo(4686.3, 0);
+    // REFERENCE.tsv spans 1992 s to the last trackpoint, but that point (22:03:05) carries only a time and
+    // heart rate — no position, no distance — so the run ends at the previous point: 1991 s.
+    expect(run.body.summary.elapsed_s).toBe(1991);
+    expect(run.body.laps).toHaveLength(3);
+    // 4686.3 m = 2 full miles + a partial; 4 full km + a partial.
+    expect(run.body.splits.mi).toHaveLength(3);
+    expect(run.body.splits.km).toHaveLength(5);
+    expect(run.body.splits.mi[0].distance_m).toBeCloseTo(1609.344, 6);
+    const miTotal = (run.body.splits.mi as Array<{ elapsed_s: number }>).reduce((a, s) => a + s.elapsed_s, 0);
+    expect(miTotal).toBeCloseTo(run.body.summary.elapsed_s, 0);
+
+    const original = await request(app)
+      .get(`/api/runs/${id}/original`)
+      .set(auth)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(Buffer.compare(original.body as Buffer, sample('watch-run-3-laps.tcx'))).toBe(0);
+    expect(existsSync(path.join(dataDir, 'files'))).toBe(true);
+  });
+
+  it('the same file again is a duplicate of the existing run (422), not a second run', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const first = await request(app).post('/api/runs').set(auth).attach('files', sample('run-hr-4s.gpx'), 'run-hr-4s.gpx');
+    const again = await request(app).post('/api/runs').set(auth).attach('files', sample('run-hr-4s.gpx'), 'renamed.gpx');
+    expect(again.status).toBe(422);
+    expect(again.body.duplicates).toEqual([{ file: 'renamed.gpx', runId: first.body.imported[0].id }]);
+    expect((await counts()).runs).toBe(1);
+  });
+
+  it('a mixed upload imports the good file and rejects the rest with sentences, storing nothing for them', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const res = await request(app)
+      .post('/api/runs')
+      .set(auth)
+      .attach('files', gzipSync(sample('run-hr-4s.gpx')), 'evening.gpx.gz')
+      .attach('files', sample('route-only.gpx'), 'route-only.gpx')
+      .attach('files', Buffer.from('<!doctype html><html><body>Hello</body></html>'), 'page.gpx')
+      .attach('files', Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0, 16, 0x4a, 0x46, 0x49, 0x46]), 'photo.gpx')
+      .attach('files', sample('lake-gpx10-no-times.gpx'), 'lake-gpx10-no-times.gpx');
+    expect(res.status).toBe(201);
+    expect(res.body.imported.map((r: { file: string }) => r.file)).toEqual(['evening.gpx.gz']);
+    const rejected = res.body.rejected as Array<{ file: string; error: string }>;
+    expect(rejected.map((r) => r.file)).toEqual(['route-only.gpx', 'page.gpx', 'photo.gpx', 'lake-gpx10-no-times.gpx']);
+    for (const r of rejected) expect(r.error).toMatch(/^[A-Z].*\.$/);
+    expect(rejected[3]!.error).toMatch(/timestamps/i);
+    expect(await counts()).toMatchObject({ runs: 1, files: 1 });
+  });
+
+  it('when every file is refused, responds 422', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const res = await request(app).post('/api/runs').set(auth).attach('files', sample('empty-track.gpx'), 'empty-track.gpx');
+    expect(res.status).toBe(422);
+    expect(res.body.imported).toEqual([]);
+    expect(res.body.rejected[0].error).toMatch(/\.$/);
+  });
+
+  it('a file over the size limit gets 413 with JSON and nothing is stored', async () => {
+    const { app } = appWithStore(undefined, { uploadMaxFileBytes: 100_000 });
+    const { auth } = await runnerWithToken(app);
+    const res = await request(app)
+      .post('/api/runs')
+      .set(auth)
+      .attach('files', sample('watch-run-3-laps.tcx'), 'watch-run-3-laps.tcx');
+    expect(res.status).toBe(413);
+    expect(res.body.error).toMatch(/at most/);
+    expect((await counts()).runs).toBe(0);
+  });
+
+  it('when storing the original fails, the file is refused and no half run remains', async () => {
+    const failing: FileStore = {
+      put: () => Promise.reject(new Error('disk full')),
+      get: () => Promise.reject(new Error('missing')),
+      delete: () => Promise.resolve(),
+    };
+    const { app } = appWithStore(failing);
+    const { auth } = await runnerWithToken(app);
+    const res = await request(app)
+      .post('/api/runs')
+      .set(auth)
+      .attach('files', sample('watch-run-3-laps.tcx'), 'watch-run-3-laps.tcx');
+    expect(res.status).toBe(422);
+    expect(res.body.rejected[0].error).toMatch(/Nothing was stored/);
+    expect(await counts()).toEqual({ runs: 0, files: 0, splits: 0 });
+  });
+
+  it('with no files responds 400; signed out responds 401', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    expect((await request(app).post('/api/runs').set(auth).field('note', 'x')).status).toBe(400);
+    expect((await request(app).post('/api/runs').attach('files', sample('run-hr-4s.gpx'), 'run-hr-4s.gpx')).status).toBe(401);
+  });
+});
+
+describe('GET /api/runs/:id/splits.csv', () => {
+  it('has the contract columns in order, 3-decimal distances, 1-decimal seconds and m:ss pace', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const id = (
+      await request(app).post('/api/runs').set(auth).attach('files', sample('watch-run-3-laps.tcx'), 'watch-run-3-laps.tcx')
+    ).body.imported[0].id;
+    for (const unit of ['mi', 'km'] as const) {
+      const res = await request(app).get(`/api/runs/${id}/splits.csv?unit=${unit}`).set(auth);
+      expect(res.status).toBe(200);
+      expect(res.headers['content-type']).toMatch(/^text\/csv/);
+      const [header, ...rows] = res.text.trim().split(/\r\n/);
+      expect(header!.split(',').slice(0, 10)).toEqual([...SPLITS_CSV_COLUMNS]);
+      expect(rows).toHaveLength(unit === 'mi' ? 3 : 5);
+      const first = rows[0]!.split(',');
+      expect(first.slice(0, 3)).toEqual(['1', unit, '1.000']);
+      expect(first[3]).toMatch(/^\d+\.\d$/);
+      expect(first[4]).toMatch(/^\d+\.\d$/);
+      expect(first[5]).toMatch(/^\d+:\d\d$/);
+      expect(rows.at(-1)!.split(',')[2]).not.toBe('1.000');
+    }
+    expect((await request(app).get(`/api/runs/${id}/splits.csv?unit=yards`).set(auth)).status).toBe(400);
+  });
+
+  it('leaves heart-rate cells empty when the file has no heart rate', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const id = (
+      await request(app)
+        .post('/api/runs')
+        .set(auth)
+        .attach('files', sample('watch-run-no-elevation.gpx'), 'watch-run-no-elevation.gpx')
+    ).body.imported[0].id;
+    const rows = (await request(app).get(`/api/runs/${id}/splits.csv?unit=km`).set(auth)).text.trim().split(/\r\n/).slice(1);
+    for (const row of rows) expect(row.split(',').slice(6, 8)).toEqual(['', '']);
+  });
+});
+
+describe('who may read a run', () => {
+  it('owner and their coach read it; another runner, a coach of another squad and the signed-out do not (404/401)', async () => {
+    const { app } = appWithStore();
+    const owner = await runnerWithToken(app);
+    const id = (await request(app).post('/api/runs').set(owner.auth).attach('files', sample('run-hr-4s.gpx'), 'run-hr-4s.gpx'))
+      .body.imported[0].id;
+    const coach = await createUser({ role: 'coach' });
+    const otherCoach = await createUser({ role: 'coach' });
+    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'Test squad' }).returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: owner.user.id });
+    const other = await runnerWithToken(app);
+    const admin = await createUser({ role: 'admin' });
+
+    const status = async (auth: Record<string, string> | null, url: string) =>
+      (await (auth ? request(app).get(url).set(auth) : request(app).get(url))).status;
+    for (const url of [`/api/runs/${id}`, `/api/runs/${id}/splits.csv`, `/api/runs/${id}/track`, `/api/runs/${id}/original`]) {
+      expect(await status(owner.auth, url)).toBe(200);
+      expect(await status(await tokenFor(app, coach.user.email, coach.password), url)).toBe(200);
+      expect(await status(await tokenFor(app, admin.user.email, admin.password), url)).toBe(200);
+      expect(await status(other.auth, url)).toBe(404);
+      expect(await status(await tokenFor(app, otherCoach.user.email, otherCoach.password), url)).toBe(404);
+      expect(await status(null, url)).toBe(401);
+    }
+    // A coach can read but not delete; another runner cannot delete either.
+    expect(
+      (
+        await request(app)
+          .delete(`/api/runs/${id}`)
+          .set(await tokenFor(app, coach.user.email, coach.password))
+      ).status,
+    ).toBe(404);
+    expect((await request(app).delete(`/api/runs/${id}`).set(other.auth)).status).toBe(404);
+    expect((await counts()).runs).toBe(1);
+  });
+});
+
+describe('listing, renaming and deleting runs', () => {
+  it('lists newest first with paging and date filters, renames, and deletes the run with its original file', async () => {
+    const { app, dataDir } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    await request(app)
+      .post('/api/runs')
+      .set(auth)
+      .attach('files', sample('run-hr-4s.gpx'), 'run-hr-4s.gpx')
+      .attach('files', sample('watch-run-3-laps.tcx'), 'watch-run-3-laps.tcx');
+    const list = await request(app).get('/api/runs?per_page=1').set(auth);
+    expect(list.status).toBe(200);
+    expect(list.body.total).toBe(2);
+    expect(list.body.runs).toHaveLength(1);
+    // run-hr-4s.gpx was recorded 2012-10-24, watch-run-3-laps.tcx 2012-12-26 (REFERENCE.tsv): newest first.
+    expect(list.body.runs[0].started_at.slice(0, 10)).toBe('2012-12-26');
+    const filtered = await request(app).get('/api/runs?from=2012-10-01&to=2012-10-31').set(auth);
+    expect(filtered.body.runs.map((r: { started_at: string }) => r.started_at.slice(0, 7))).toEqual(['2012-10']);
+    expect((await request(app).get('/api/runs?from=yesterday').set(auth)).status).toBe(400);
+
+    const id = list.body.runs[0].id as string;
+    const renamed = await request(app).patch(`/api/runs/${id}`).set(auth).send({ name: 'Boxing Day tempo' });
+    expect(renamed.body.run.name).toBe('Boxing Day tempo');
+
+    const file = await db('source_files')
+      .join('runs', 'runs.source_file_id', 'source_files.id')
+      .where('runs.id', id)
+      .first('storage_key');
+    const stored = path.join(dataDir, 'files', file!.storage_key as string);
+    expect(existsSync(stored)).toBe(true);
+    expect((await request(app).delete(`/api/runs/${id}`).set(auth)).status).toBe(204);
+    expect(existsSync(stored)).toBe(false);
+    expect((await request(app).get(`/api/runs/${id}`).set(auth)).status).toBe(404);
+    expect(await db('run_splits').where({ run_id: id }).first()).toBeUndefined();
+  });
+});
