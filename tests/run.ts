@@ -4,7 +4,8 @@
  * `N passed, N failed` for CI. Each run makes its own databases and drops them afterwards.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import knexFactory from 'knex';
 import { buildClientIfStale } from '../server/cli/lib/client-build.ts';
@@ -51,21 +52,31 @@ async function freshDatabase(layer: Layer): Promise<string> {
   const knex = knexFactory((await import('../db/knexfile.ts')).knexConfig(url));
   try {
     await knex.migrate.latest();
-    if (layer === 'e2e') await (await import('../db/seeds/index.ts')).runSeeds(knex);
   } finally {
     await knex.destroy();
+  }
+  if (layer === 'e2e') {
+    // Seeding imports generated runs through the app's own import code, which binds to DATABASE_URL: run it as the CLI does.
+    const seeded = spawnSync(process.execPath, ['--import', 'tsx', 'server/cli/db.ts', 'seed'], {
+      cwd: ROOT,
+      stdio: 'inherit',
+      env: { ...process.env, DATABASE_URL: url, DATA_DIR: dataDir },
+    });
+    if (seeded.status !== 0) throw new Error('loading the demo data into the e2e database failed');
   }
   return url;
 }
 
 const resultsDir = path.join(ROOT, 'test-results');
+// Original files written during tests go to a throwaway folder, never the developer's .data/.
+const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-test-data-'));
 mkdirSync(resultsDir, { recursive: true });
 let passed = 0;
 let failed = failedChecks;
 
 try {
   for (const layer of layers) {
-    const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'test' };
+    const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'test', DATA_DIR: dataDir };
     if (layer !== 'unit') env.DATABASE_URL = await freshDatabase(layer);
     if (layer === 'e2e') buildClientIfStale();
     const outputFile = path.join(resultsDir, `vitest-${layer}.json`);
@@ -97,6 +108,7 @@ try {
     await admin.destroy();
   }
   if (embedded && needsDb && !pgWasRunning) stopEmbeddedPostgres();
+  rmSync(dataDir, { recursive: true, force: true });
 }
 
 if (failedChecks) console.log(`\n${failedChecks} static check(s) failed (counted as failures).`);

@@ -30,9 +30,9 @@ try {
     const [, undone] = (await db.migrate.rollback()) as [number, string[]];
     console.log(undone.length ? `Rolled back: ${undone.join(', ')}` : 'Nothing to roll back.');
   } else if (command === 'seed') {
-    const { runSeeds } = await import('../../db/seeds/index.ts');
+    const { loadDemoData } = await import('./lib/demo-data.ts');
     await db.migrate.latest();
-    await runSeeds(db);
+    await loadDemoData(db);
     console.log('Demo data loaded.');
   } else {
     console.error('Usage: scripts/db.ts migrate|rollback|seed|make <name>');

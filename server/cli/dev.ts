@@ -10,10 +10,9 @@ const embedded = !usesExternalDatabase();
 if (embedded) process.env.DATABASE_URL = withDatabase(startEmbeddedPostgres(['pacewright']), 'pacewright');
 
 const { db } = await import('../lib/db.ts');
-const { runSeeds } = await import('../../db/seeds/index.ts');
+const { loadDemoDataOnFirstRun } = await import('./lib/demo-data.ts');
 await db.migrate.latest();
-const { count } = (await db('users').count({ count: '*' }).first()) as { count: string };
-if (Number(count) === 0) await runSeeds(db);
+await loadDemoDataOnFirstRun(db);
 await db.destroy();
 
 const children = [

@@ -21,15 +21,12 @@ try {
 }
 
 const { db } = await import('../lib/db.ts');
-const { runSeeds } = await import('../../db/seeds/index.ts');
+const { loadDemoDataOnFirstRun } = await import('./lib/demo-data.ts');
 const { DEMO_PEOPLE } = await import('../../db/seeds/01_demo_people.ts');
 
 const [, applied] = (await db.migrate.latest()) as [number, string[]];
 if (applied.length) console.log(`Applied ${applied.length} migration(s).`);
-const { count } = (await db('users').count({ count: '*' }).first()) as { count: string };
-const firstRun = Number(count) === 0;
-if (firstRun && process.env.NODE_ENV !== 'production') {
-  await runSeeds(db);
+if (process.env.NODE_ENV !== 'production' && (await loadDemoDataOnFirstRun(db))) {
   console.log('Loaded the demo data (Harbor Line Runners).');
 }
 

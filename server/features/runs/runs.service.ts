@@ -42,7 +42,9 @@ function timeZoneOf(parsed: ParsedRun, fallback: string): { zone: string; source
   const first = parsed.track.points.find((p) => p.lat !== undefined && p.lon !== undefined);
   if (first) {
     try {
-      return { zone: tzLookup(first.lat!, first.lon!), source: 'start position' };
+      const zone = tzLookup(first.lat!, first.lon!);
+      // Open sea answers a nautical Etc/GMT±N zone; the runner's own zone is a better guess there.
+      if (!zone.startsWith('Etc/')) return { zone, source: 'start position' };
     } catch {
       // Out-of-range positions were already dropped; keep the profile zone if the lookup still fails.
     }
