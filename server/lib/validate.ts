@@ -2,19 +2,12 @@ import type { RequestHandler } from 'express';
 import type { z } from 'zod';
 import { ValidationError } from './errors.ts';
 import type { FieldIssue } from '../../shared/api/errors.ts';
+import { toFieldIssues } from '../../shared/api/field-issues.ts';
 
 interface Schemas {
   params?: z.ZodType;
   query?: z.ZodType;
   body?: z.ZodType;
-}
-
-/** Turns zod issues into `{field, message}` pairs a form can place beside its fields. */
-export function toFieldIssues(error: z.ZodError): FieldIssue[] {
-  return error.issues.map((issue) => ({
-    field: issue.path.join('.') || (issue.code === 'unrecognized_keys' ? issue.keys.join(', ') : ''),
-    message: issue.code === 'unrecognized_keys' ? `Unknown field: ${issue.keys.join(', ')}.` : issue.message,
-  }));
 }
 
 /**

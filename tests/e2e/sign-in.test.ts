@@ -43,7 +43,7 @@ describe('signing in', () => {
       return document.fonts.check('16px "Source Sans 3"');
     });
     expect(font).toBe(true);
-    const background = await page.evaluate(() => getComputedStyle(document.body).backgroundColor);
+    const background = await page.evaluate(() => getComputedStyle(document.documentElement).backgroundColor);
     expect(background).toBe('rgb(246, 244, 239)'); // paper #f6f4ef (product.md)
     await screenshot(page, 'sign-in');
 

@@ -1,0 +1,23 @@
+/** Every client URL lives here; components and loaders build links only through these helpers. */
+export const paths = {
+  home: { path: '/', getHref: () => '/' },
+  signIn: {
+    path: '/sign-in',
+    getHref: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in'),
+  },
+  signUp: {
+    path: '/sign-up',
+    getHref: (next?: string) => (next ? `/sign-up?next=${encodeURIComponent(next)}` : '/sign-up'),
+  },
+  log: { path: '/log', getHref: () => '/log' },
+  plan: { path: '/plan', getHref: () => '/plan' },
+  squad: { path: '/squad', getHref: () => '/squad' },
+  tools: { path: '/tools', getHref: () => '/tools' },
+  profile: { path: '/profile', getHref: () => '/profile' },
+  admin: { path: '/admin', getHref: () => '/admin' },
+} as const;
+
+/** Where to go after signing in: only same-site paths, so `?next=` cannot send people to another site. */
+export function resolveNext(next: string | null): string {
+  return next?.startsWith('/') && !next.startsWith('//') && !next.startsWith('/\\') ? next : paths.log.getHref();
+}

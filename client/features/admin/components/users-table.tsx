@@ -1,0 +1,98 @@
+import { ROLES, type AdminUser, type Role } from '../../../../shared/users/schemas.ts';
+import { CONTROL_CLASSES } from '../../../components/ui/field.tsx';
+import { FormAlert } from '../../../components/ui/form-alert.tsx';
+import { cn } from '../../../lib/cn.ts';
+import { formatDate } from '../../../lib/format.ts';
+import { useChangeUserRole } from '../api/change-user-role.ts';
+import { useUsers } from '../api/get-users.ts';
+
+const ROLE_LABELS: Record<Role, string> = { runner: 'Runner', coach: 'Coach', admin: 'Admin' };
+
+/** Everyone with an account; an admin's own row is read-only so nobody removes the last way back in by accident. */
+export function UsersTable({ currentUserId }: { currentUserId: string }) {
+  const users = useUsers();
+  const changeRole = useChangeUserRole();
+  const failedUser = changeRole.isError && users.find((u) => u.id === changeRole.variables.id);
+
+  return (
+    <div className="flex flex-col gap-3">
+      {failedUser && (
+        <FormAlert>
+          The role of {failedUser.name} was not changed: {changeRole.error.message}
+        </FormAlert>
+      )}
+      {changeRole.isSuccess && (
+        <p role="status" className="text-sm text-ink-muted">
+          {changeRole.data.name} is now {ROLE_LABELS[changeRole.data.role].toLowerCase()}.
+        </p>
+      )}
+      <div className="relative overflow-x-auto">
+        <table className="w-full min-w-xl text-left text-sm">
+          <caption className="sr-only">Accounts and their roles</caption>
+          <thead className="border-b border-line text-ink-muted">
+            <tr>
+              <th scope="col" className="py-1.5 pr-3 font-semibold">
+                Name
+              </th>
+              <th scope="col" className="py-1.5 pr-3 font-semibold">
+                E-mail
+              </th>
+              <th scope="col" className="py-1.5 pr-3 font-semibold">
+                Role
+              </th>
+              <th scope="col" className="py-1.5 font-semibold">
+                Joined
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {users.map((user) => (
+              <UserRow
+                key={user.id}
+                user={user}
+                isSelf={user.id === currentUserId}
+                pendingRole={changeRole.isPending && changeRole.variables.id === user.id ? changeRole.variables.role : null}
+                onChangeRole={(role) => changeRole.mutate({ id: user.id, role })}
+              />
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}
+
+type UserRowProps = {
+  user: AdminUser;
+  isSelf: boolean;
+  pendingRole: Role | null;
+  onChangeRole: (role: Role) => void;
+};
+
+function UserRow({ user, isSelf, pendingRole, onChangeRole }: UserRowProps) {
+  return (
+    <tr className="border-b border-line last:border-0">
+      <th scope="row" className="py-2 pr-3 font-semibold">
+        {user.name}
+        {isSelf && <span className="ml-1 font-normal text-ink-muted">(you)</span>}
+      </th>
+      <td className="py-2 pr-3 break-all">{user.email}</td>
+      <td className="py-2 pr-3">
+        <select
+          aria-label={`Role of ${user.name}`}
+          value={pendingRole ?? user.role}
+          disabled={isSelf || pendingRole !== null}
+          onChange={(event) => onChangeRole(event.target.value as Role)}
+          className={cn(CONTROL_CLASSES, 'px-2 py-1 text-sm disabled:bg-paper')}
+        >
+          {ROLES.map((role) => (
+            <option key={role} value={role}>
+              {ROLE_LABELS[role]}
+            </option>
+          ))}
+        </select>
+      </td>
+      <td className="py-2">{formatDate(user.created_at)}</td>
+    </tr>
+  );
+}

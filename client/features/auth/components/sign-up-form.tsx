@@ -1,0 +1,98 @@
+import { useId } from 'react';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import { PASSWORD_MIN_LENGTH, RegisterInputSchema } from '../../../../shared/auth/schemas.ts';
+import { Button } from '../../../components/ui/button.tsx';
+import { TextField } from '../../../components/ui/field.tsx';
+import { FormAlert } from '../../../components/ui/form-alert.tsx';
+import { paths, resolveNext } from '../../../config/paths.ts';
+import { readText, useSchemaForm } from '../../../lib/form.ts';
+import { useSignUp } from '../api/sign-up.ts';
+
+const ROLE_CHOICES = [
+  { value: 'runner', label: 'Runner', description: 'I log my runs and train for a goal race.' },
+  { value: 'coach', label: 'Coach', description: 'I also guide a squad of runners and write their plans.' },
+] as const;
+
+export function SignUpForm() {
+  const [searchParams] = useSearchParams();
+  const next = searchParams.get('next');
+  const navigate = useNavigate();
+  const mutation = useSignUp();
+  const { onSubmit, fieldErrors, formError } = useSchemaForm({
+    schema: RegisterInputSchema,
+    mutation,
+    readValues: (data) => ({
+      name: readText(data, 'name'),
+      email: readText(data, 'email'),
+      password: readText(data, 'password'),
+      role: readText(data, 'role'),
+    }),
+    onSuccess: () => navigate(resolveNext(next), { replace: true }),
+  });
+  const id = useId();
+  const roleErrorId = `${id}-role-error`;
+
+  return (
+    <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">
+      {formError && <FormAlert>{formError}</FormAlert>}
+      <TextField label="Name" name="name" autoComplete="name" required error={fieldErrors.name} />
+      <TextField label="E-mail" name="email" type="email" autoComplete="email" required error={fieldErrors.email} />
+      <TextField
+        label="Password"
+        name="password"
+        type="password"
+        autoComplete="new-password"
+        required
+        minLength={PASSWORD_MIN_LENGTH}
+        hint={`At least ${PASSWORD_MIN_LENGTH} characters. A few unrelated words make a strong one.`}
+        error={fieldErrors.password}
+      />
+      <fieldset
+        role="radiogroup"
+        aria-labelledby={`${id}-role-legend`}
+        className="flex flex-col gap-2"
+        aria-describedby={fieldErrors.role ? roleErrorId : undefined}
+        aria-invalid={fieldErrors.role ? true : undefined}
+      >
+        <legend id={`${id}-role-legend`} className="mb-1 text-sm font-semibold">
+          I sign up as
+        </legend>
+        {ROLE_CHOICES.map((choice) => (
+          <label
+            key={choice.value}
+            className="flex cursor-pointer items-start gap-3 rounded-md border border-line bg-white px-3 py-2 has-checked:border-teal has-checked:bg-teal-wash"
+          >
+            <input
+              type="radio"
+              name="role"
+              value={choice.value}
+              defaultChecked={choice.value === 'runner'}
+              aria-describedby={`${id}-${choice.value}`}
+              className="mt-1 accent-teal"
+            />
+            <span className="flex flex-col">
+              <span className="font-semibold">{choice.label}</span>
+              <span id={`${id}-${choice.value}`} className="text-sm text-ink-muted">
+                {choice.description}
+              </span>
+            </span>
+          </label>
+        ))}
+        {fieldErrors.role && (
+          <p id={roleErrorId} className="text-sm font-semibold text-tartan">
+            {fieldErrors.role}
+          </p>
+        )}
+      </fieldset>
+      <Button type="submit" disabled={mutation.isPending}>
+        {mutation.isPending ? 'Creating account…' : 'Create account'}
+      </Button>
+      <p className="text-sm text-ink-muted">
+        Already have an account?{' '}
+        <Link to={paths.signIn.getHref(next ?? undefined)} className="font-semibold text-teal underline">
+          Sign in
+        </Link>
+      </p>
+    </form>
+  );
+}

@@ -1,0 +1,4 @@
+export const profileKeys = {
+  all: ['profile'] as const,
+  mine: () => [...profileKeys.all, 'mine'] as const,
+};

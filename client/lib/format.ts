@@ -1,0 +1,6 @@
+const DATE_FORMAT = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
+
+/** "3 Oct 2026" in the device's time zone. */
+export function formatDate(iso: string): string {
+  return DATE_FORMAT.format(new Date(iso));
+}
