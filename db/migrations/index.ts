@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import * as m20261201000000 from './20261201000000_users_and_tokens.ts';
 import * as m20261201000100 from './20261201000100_squads.ts';
 import * as m20261201000200 from './20261201000200_runs.ts';
+import * as m20261201000300 from './20261201000300_run_notes.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -13,6 +14,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000000_users_and_tokens': m20261201000000,
   '20261201000100_squads': m20261201000100,
   '20261201000200_runs': m20261201000200,
+  '20261201000300_run_notes': m20261201000300,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -131,6 +131,14 @@ export interface RunFastestSectionRow {
   start_distance_m: number;
 }
 
+export interface RunNoteRow {
+  id: string;
+  run_id: string;
+  author_id: string;
+  text: string;
+  created_at: Date;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -143,6 +151,7 @@ declare module 'knex/types/tables.js' {
     run_splits: RunSplitRow;
     run_laps: RunLapRow;
     run_fastest_sections: RunFastestSectionRow;
+    run_notes: RunNoteRow;
   }
 }
 

@@ -53,3 +53,22 @@ export const ImportResultSchema = z.object({
   rejected: z.array(z.object({ file: z.string(), error: z.string() })),
 });
 export type ImportResult = z.infer<typeof ImportResultSchema>;
+
+export const NewRunNoteInputSchema = z
+  .object({
+    text: z
+      .string({ error: 'Write the note first.' })
+      .trim()
+      .min(1, 'Write the note first.')
+      .max(4000, 'Keep a note under 4000 characters.'),
+  })
+  .strict();
+
+export const RunNoteSchema = z.object({
+  id: z.string(),
+  run_id: z.string(),
+  author: z.object({ id: z.string(), name: z.string(), role: z.string() }),
+  text: z.string(),
+  created_at: z.string(),
+});
+export type RunNote = z.infer<typeof RunNoteSchema>;

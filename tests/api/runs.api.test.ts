@@ -267,3 +267,33 @@ describe('listing, renaming and deleting runs', () => {
     expect(await db('run_splits').where({ run_id: id }).first()).toBeUndefined();
   });
 });
+
+describe('POST /api/runs/:id/notes and GET /api/runs/:id/notes', () => {
+  it('the runner and their coach write and read notes on a run; another runner gets 404; an empty note gets 400', async () => {
+    const { app } = appWithStore();
+    const owner = await runnerWithToken(app);
+    const id = (await request(app).post('/api/runs').set(owner.auth).attach('files', sample('run-hr-4s.gpx'), 'run-hr-4s.gpx'))
+      .body.imported[0].id;
+    const coach = await createUser({ role: 'coach', name: 'Coach Test' });
+    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'Test squad' }).returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: owner.user.id });
+    const coachAuth = await tokenFor(app, coach.user.email, coach.password);
+
+    const mine = await request(app).post(`/api/runs/${id}/notes`).set(owner.auth).send({ text: 'Legs heavy after mile 2.' });
+    expect(mine.status).toBe(201);
+    expect(mine.body.note).toMatchObject({ run_id: id, text: 'Legs heavy after mile 2.', author: { id: owner.user.id } });
+    const theirs = await request(app).post(`/api/runs/${id}/notes`).set(coachAuth).send({ text: 'Ease the next two days.' });
+    expect(theirs.status).toBe(201);
+
+    const list = await request(app).get(`/api/runs/${id}/notes`).set(owner.auth);
+    expect(list.body.notes.map((n: { text: string; author: { name: string } }) => [n.author.name, n.text])).toEqual([
+      [owner.user.name, 'Legs heavy after mile 2.'],
+      ['Coach Test', 'Ease the next two days.'],
+    ]);
+    const other = await runnerWithToken(app);
+    expect((await request(app).get(`/api/runs/${id}/notes`).set(other.auth)).status).toBe(404);
+    expect((await request(app).post(`/api/runs/${id}/notes`).set(other.auth).send({ text: 'hi' })).status).toBe(404);
+    expect((await request(app).post(`/api/runs/${id}/notes`).set(owner.auth).send({ text: '   ' })).status).toBe(400);
+    expect(await db('run_notes').count({ n: '*' }).first()).toEqual({ n: '2' });
+  });
+});

@@ -101,7 +101,9 @@ function parseWithFastXmlParser(buffer: Buffer): number {
 async function measureCase(path: string, approach: Approach): Promise<CaseResult> {
   const buffer = readFileSync(path);
   // Compile the hot paths on a small run first, so the figures are not mostly JIT warm-up.
-  const warmUp = Buffer.from(writeGpx('warm-up', [generateLakeRun({ start_t: START_T, phases: longRunPhases(0.2), seed: 1 }).points]));
+  const warmUp = Buffer.from(
+    writeGpx('warm-up', [generateLakeRun({ start_t: START_T, phases: longRunPhases(0.2), seed: 1 }).points]),
+  );
   if (approach === 'saxes') analyseTrack(parseTrackFile(warmUp)[0]!.track);
   else parseWithFastXmlParser(warmUp);
 
@@ -148,7 +150,13 @@ function round(value: number, digits: number): number {
 
 function writeBenchFiles(dir: string): string[] {
   return FILES.map(({ file, hours, speed }) => {
-    const options: SyntheticOptions = { start_t: START_T, phases: longRunPhases(hours, speed), seed: 3, gps_sigma_m: 1.5, ele_sigma_m: 1 };
+    const options: SyntheticOptions = {
+      start_t: START_T,
+      phases: longRunPhases(hours, speed),
+      seed: 3,
+      gps_sigma_m: 1.5,
+      ele_sigma_m: 1,
+    };
     const path = join(dir, file);
     writeFileSync(path, writeGpx('Lake Tamsel long run', [generateLakeRun(options).points]));
     return path;
@@ -166,7 +174,17 @@ function runChild(path: string, approach: Approach): CaseResult {
 }
 
 function printTable(results: readonly CaseResult[]): void {
-  const header = ['file', 'approach', 'points', 'MiB', 'parse ms', 'analyse ms', 'total ms', 'peak RSS +MB', 'heap after parse +MB'];
+  const header = [
+    'file',
+    'approach',
+    'points',
+    'MiB',
+    'parse ms',
+    'analyse ms',
+    'total ms',
+    'peak RSS +MB',
+    'heap after parse +MB',
+  ];
   const rows = results.map((r) => [
     r.file,
     r.approach === 'saxes' ? 'saxes (import)' : 'fast-xml-parser tree (old, parse only)',

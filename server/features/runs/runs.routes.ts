@@ -4,6 +4,8 @@ import { z } from 'zod';
 import {
   ImportResultSchema,
   ListRunsQuerySchema,
+  NewRunNoteInputSchema,
+  RunNoteSchema,
   RenameRunInputSchema,
   RunListItemSchema,
   SplitsCsvQuerySchema,
@@ -16,8 +18,10 @@ import { parseIdParam } from '../../lib/ids.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import type { AppConfig } from '../../config.ts';
 import {
+  addNote,
   deleteOwnRun,
   describeRun,
+  notesOf,
   importFiles,
   listRuns,
   originalFileOf,
@@ -190,6 +194,36 @@ export function createRunsRouter(store: FileStore, config: AppConfig) {
     async (req, res) => {
       await deleteOwnRun(requireActor(res), parseIdParam(req.params.id), store);
       res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs/:id/notes',
+      tag: 'runs',
+      summary: 'Notes on a run, oldest first (the runner and their coaches)',
+      access: 'own-data',
+      response: z.object({ notes: z.array(RunNoteSchema) }),
+    },
+    async (req, res) => {
+      res.json({ notes: await notesOf(requireActor(res), parseIdParam(req.params.id)) });
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/runs/:id/notes',
+      tag: 'runs',
+      summary: 'Write a note on a run',
+      access: 'own-data',
+      body: NewRunNoteInputSchema,
+      response: z.object({ note: RunNoteSchema }),
+      status: 201,
+    },
+    async (req, res) => {
+      res.status(201).json({ note: await addNote(requireActor(res), parseIdParam(req.params.id), req.body.text) });
     },
   );
 

@@ -14,6 +14,7 @@ import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { assertCanReadRunner } from '../squads/runner-access.ts';
 import { decodeColumns, encodeColumns } from './track-blob.ts';
+import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
 import { ImportRejection } from './parse/import-rejection.ts';
 import { parseTrackFile, type ParsedRun } from './parse/parse-track-file.ts';
 import {
@@ -368,4 +369,15 @@ export async function trackOf(actor: Actor, runId: string, maxPoints = 2000) {
     ele: pick(columns.ele),
     hr: pick(columns.hr),
   };
+}
+
+/** Notes on a run: the runner and anyone who may read the run (their coaches, admins) read and write them. */
+export async function notesOf(actor: Actor, runId: string) {
+  const run = await getReadableRun(actor, runId);
+  return listRunNotes(run.id);
+}
+
+export async function addNote(actor: Actor, runId: string, text: string) {
+  const run = await getReadableRun(actor, runId);
+  return insertRunNote(run.id, actor.id, text);
 }

@@ -16,8 +16,9 @@ export interface XmlEventHandlers {
   open(name: string, attrs: Readonly<Record<string, string>>): void;
   /**
    * Text content of the innermost open element up to its next child or its end, trimmed and
-   * never empty (CDATA sections join the text, comments are dropped). Entity references are
-   * left as written (`&amp;` stays `&amp;`); numeric character references are decoded.
+   * never empty (CDATA sections join the text, comments are dropped). The five predefined
+   * entities and numeric character references are decoded (`&amp;` → `&`); saxes reports any
+   * other entity reference as undefined, which becomes an error: nothing is ever expanded.
    */
   text(value: string): void;
   close(name: string): void;
@@ -25,20 +26,6 @@ export interface XmlEventHandlers {
 
 /** Nesting deeper than this is not a GPS file; refusing it keeps the walk bounded. */
 const MAX_DEPTH = 64;
-
-/**
- * saxes resolves entity names through this per-parser table (it starts with the five XML
- * predefined entities). Mapping each to its own reference keeps text as written, as readers
- * expect; any other name is reported by saxes as an undefined entity, which becomes an error.
- * `ENTITIES` is a public field of saxes 6 that its type declarations leave out.
- */
-const LITERAL_ENTITIES: Readonly<Record<string, string>> = Object.freeze({
-  amp: '&amp;',
-  lt: '&lt;',
-  gt: '&gt;',
-  quot: '&quot;',
-  apos: '&apos;',
-});
 
 export class XmlReadError extends Error {}
 
@@ -72,10 +59,7 @@ function localAttributes(attrs: Record<string, string>): Record<string, string> 
  * Errors thrown by the handlers pass through unchanged.
  */
 export function readXmlEvents(xml: string, handlers: XmlEventHandlers): void {
-  // Position tracking only enriches the error message, which never reaches the runner, and
-  // costs about a tenth of the parse.
-  const parser = new SaxesParser({ position: false });
-  (parser as unknown as { ENTITIES: Record<string, string> }).ENTITIES = { ...LITERAL_ENTITIES };
+  const parser = new SaxesParser();
   let depth = 0;
   let pending = '';
 
@@ -87,7 +71,8 @@ export function readXmlEvents(xml: string, handlers: XmlEventHandlers): void {
   };
 
   parser.on('error', (error) => {
-    throw new XmlReadError(error.message);
+    const hint = error.message.endsWith('undefined entity.') ? ' Only the five predefined XML entities are accepted.' : '';
+    throw new XmlReadError(error.message + hint);
   });
   parser.on('doctype', (doctype) => {
     if (/<!ENTITY/i.test(doctype)) throw new XmlReadError('entity declarations are not read');

@@ -1,0 +1,77 @@
+import type { CleaningReport, SplitUnit } from '../tracks/types.ts';
+
+/**
+ * Metres in one display unit: the international mile (1609.344 m) and the kilometre.
+ * Kept here rather than imported from tracks/geodesy so the client bundle does not pull the geodesy library.
+ */
+export const UNIT_METRES: Readonly<Record<SplitUnit, number>> = { mi: 1609.344, km: 1000 };
+
+/**
+ * A distance in `unit` as a plain number with `decimals` places (default 2); '' for invalid input.
+ * Examples: (11265.408, 'mi') → "7.00", (5000, 'km') → "5.00".
+ */
+export function formatDistance(metres: number | null, unit: SplitUnit, decimals = 2): string {
+  if (metres === null || !Number.isFinite(metres) || metres < 0) return '';
+  return (metres / UNIT_METRES[unit]).toFixed(decimals);
+}
+
+/** Seconds per km → seconds per `unit`; null stays null. */
+export function pacePerUnit(secondsPerKm: number | null, unit: SplitUnit): number | null {
+  if (secondsPerKm === null || !Number.isFinite(secondsPerKm)) return null;
+  return unit === 'km' ? secondsPerKm : secondsPerKm * (UNIT_METRES.mi / 1000);
+}
+
+const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'] as const;
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const;
+
+/**
+ * A run's local start as people read it, from the stored local date (`YYYY-MM-DD`), local time
+ * (`HH:mm`) and zone: "Sat 28 Nov 2026, 06:30 (America/Chicago)". The weekday is that of the
+ * calendar date itself (no time-zone arithmetic). A malformed date is returned as given.
+ */
+export function formatRunStart(localDate: string, localTime: string, timeZone: string): string {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(localDate);
+  if (!match) return `${localDate}, ${localTime} (${timeZone})`;
+  const [year, month, day] = [Number(match[1]), Number(match[2]), Number(match[3])];
+  const weekday = WEEKDAYS[new Date(Date.UTC(year, month - 1, day)).getUTCDay()];
+  return `${weekday} ${day} ${MONTHS[month - 1]} ${year}, ${localTime} (${timeZone})`;
+}
+
+/** "3 Oct 2026" from `YYYY-MM-DD`, without time zones; a malformed date is returned as given. */
+export function formatLocalDate(localDate: string): string {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(localDate);
+  if (!match) return localDate;
+  return `${Number(match[3])} ${MONTHS[Number(match[2]) - 1]} ${match[1]}`;
+}
+
+function plural(count: number, one: string, many: string): string {
+  return `${count} ${count === 1 ? one : many}`;
+}
+
+const wasOrWere = (count: number) => (count === 1 ? 'was' : 'were');
+
+/**
+ * What cleaning the file left out or changed, one sentence per kind, in plain words; empty when
+ * nothing was touched. Example: { dropped_backwards: 3 } → ["3 points whose time went backwards were left out."].
+ */
+export function describeCleaning(report: CleaningReport): string[] {
+  const lines: string[] = [];
+  const points = (count: number) => plural(count, 'point', 'points');
+  if (report.dropped_untimed > 0)
+    lines.push(`${points(report.dropped_untimed)} without a time ${wasOrWere(report.dropped_untimed)} left out.`);
+  if (report.dropped_backwards > 0)
+    lines.push(`${points(report.dropped_backwards)} whose time went backwards ${wasOrWere(report.dropped_backwards)} left out.`);
+  if (report.merged_duplicates > 0)
+    lines.push(
+      `${points(report.merged_duplicates)} with the same time as the point before ${wasOrWere(report.merged_duplicates)} merged into it.`,
+    );
+  if (report.dropped_no_position > 0)
+    lines.push(
+      `${points(report.dropped_no_position)} with neither a position nor a distance ${wasOrWere(report.dropped_no_position)} left out.`,
+    );
+  if (report.invalid_positions > 0)
+    lines.push(
+      `${points(report.invalid_positions)} had impossible coordinates; ${report.invalid_positions === 1 ? 'its position was' : 'their positions were'} ignored.`,
+    );
+  return lines;
+}

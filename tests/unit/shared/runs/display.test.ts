@@ -1,0 +1,83 @@
+import { describe, expect, it } from 'vitest';
+import {
+  describeCleaning,
+  formatDistance,
+  formatLocalDate,
+  formatRunStart,
+  pacePerUnit,
+} from '../../../../shared/runs/display.ts';
+
+const CLEAN = {
+  input_points: 100,
+  dropped_untimed: 0,
+  dropped_backwards: 0,
+  merged_duplicates: 0,
+  dropped_no_position: 0,
+  invalid_positions: 0,
+};
+
+describe('formatDistance', () => {
+  it.each<[number | null, 'mi' | 'km', number | undefined, string]>([
+    [1609.344, 'mi', undefined, '1.00'], // international mile (references.md)
+    [42195, 'km', 3, '42.195'],
+    [42195, 'mi', undefined, '26.22'],
+    [0, 'km', undefined, '0.00'],
+    [null, 'km', undefined, ''],
+    [Number.NaN, 'mi', undefined, ''],
+    [-1, 'mi', undefined, ''],
+  ])('%s m in %s (%s decimals) → "%s"', (metres, unit, decimals, text) => {
+    expect(formatDistance(metres, unit, decimals)).toBe(text);
+  });
+});
+
+describe('pacePerUnit', () => {
+  it.each<[number | null, 'mi' | 'km', number | null]>([
+    [300, 'km', 300],
+    [300, 'mi', 482.8032],
+    [null, 'mi', null],
+    [Number.NaN, 'km', null],
+  ])('%s s/km in %s → %s', (pace, unit, expected) => {
+    const result = pacePerUnit(pace, unit);
+    if (expected === null) expect(result).toBeNull();
+    else expect(result).toBeCloseTo(expected, 6);
+  });
+});
+
+describe('formatRunStart', () => {
+  it.each<[string, string, string, string]>([
+    ['2026-11-28', '06:30', 'America/Chicago', 'Sat 28 Nov 2026, 06:30 (America/Chicago)'],
+    ['2024-02-29', '23:59', 'UTC', 'Thu 29 Feb 2024, 23:59 (UTC)'],
+    ['2026-01-05', '00:00', 'Europe/Berlin', 'Mon 5 Jan 2026, 00:00 (Europe/Berlin)'],
+    ['not a date', '06:30', 'UTC', 'not a date, 06:30 (UTC)'],
+  ])('%s %s %s → "%s"', (date, time, zone, text) => {
+    expect(formatRunStart(date, time, zone)).toBe(text);
+  });
+});
+
+describe('formatLocalDate', () => {
+  it.each([
+    ['2026-10-03', '3 Oct 2026'],
+    ['2026-12-31', '31 Dec 2026'],
+    ['oops', 'oops'],
+  ])('%s → "%s"', (date, text) => {
+    expect(formatLocalDate(date)).toBe(text);
+  });
+});
+
+describe('describeCleaning', () => {
+  it('says nothing when nothing was dropped or merged', () => {
+    expect(describeCleaning(CLEAN)).toEqual([]);
+  });
+
+  it('names each kind with its count, singular and plural', () => {
+    expect(describeCleaning({ ...CLEAN, dropped_backwards: 3, merged_duplicates: 1, invalid_positions: 2 })).toEqual([
+      '3 points whose time went backwards were left out.',
+      '1 point with the same time as the point before was merged into it.',
+      '2 points had impossible coordinates; their positions were ignored.',
+    ]);
+    expect(describeCleaning({ ...CLEAN, dropped_untimed: 1, dropped_no_position: 4 })).toEqual([
+      '1 point without a time was left out.',
+      '4 points with neither a position nor a distance were left out.',
+    ]);
+  });
+});
