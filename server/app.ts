@@ -7,6 +7,7 @@ import path from 'node:path';
 import type { AppConfig } from './config.ts';
 import { authenticate } from './features/auth/authenticate.ts';
 import { createAuthRouter } from './features/auth/auth.routes.ts';
+import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
 import { createRunsRouter } from './features/runs/runs.routes.ts';
@@ -37,7 +38,13 @@ export function createApp({ config, clientDir, store = createFsStore(config.data
   app.use(express.json({ limit: config.jsonLimit }));
   app.use(cookieParser());
 
-  const features = [createHealthRouter(), createAuthRouter(config), createUsersRouter(), createRunsRouter(store, config)];
+  const features = [
+    createHealthRouter(),
+    createAuthRouter(config),
+    createUsersRouter(),
+    createRunsRouter(store, config),
+    createGoalsRouter(),
+  ];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),
     API_VERSION,

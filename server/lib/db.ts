@@ -139,6 +139,25 @@ export interface RunNoteRow {
   created_at: Date;
 }
 
+export interface GoalRaceRow {
+  user_id: string;
+  name: string;
+  date: string;
+  distance_m: number;
+  goal_time_s: number;
+  updated_at: Date;
+}
+
+export interface RaceResultRow {
+  id: string;
+  user_id: string;
+  name: string | null;
+  date: string;
+  distance_m: number;
+  time_s: number;
+  created_at: Date;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -152,6 +171,8 @@ declare module 'knex/types/tables.js' {
     run_laps: RunLapRow;
     run_fastest_sections: RunFastestSectionRow;
     run_notes: RunNoteRow;
+    goal_races: GoalRaceRow;
+    race_results: RaceResultRow;
   }
 }
 

@@ -1,0 +1,54 @@
+import { db, type Db, type GoalRaceRow, type RaceResultRow } from '../../lib/db.ts';
+import type { GoalRace, GoalRaceInput, RaceResult, RaceResultInput } from '../../../shared/goals/schemas.ts';
+
+export function toGoalRace(row: GoalRaceRow): GoalRace {
+  return {
+    name: row.name,
+    date: row.date,
+    distance_m: row.distance_m,
+    goal_time_s: row.goal_time_s,
+    updated_at: row.updated_at.toISOString(),
+  };
+}
+
+export function toRaceResult(row: RaceResultRow): RaceResult {
+  return { id: row.id, name: row.name, date: row.date, distance_m: row.distance_m, time_s: row.time_s };
+}
+
+export async function findGoalRace(userId: string, trx: Db = db): Promise<GoalRaceRow | undefined> {
+  return trx('goal_races').where({ user_id: userId }).first();
+}
+
+export async function upsertGoalRace(userId: string, goal: GoalRaceInput, trx: Db = db): Promise<GoalRaceRow> {
+  const [row] = await trx('goal_races')
+    .insert({ user_id: userId, ...goal, updated_at: new Date() })
+    .onConflict('user_id')
+    .merge()
+    .returning('*');
+  return row as GoalRaceRow;
+}
+
+export async function deleteGoalRace(userId: string, trx: Db = db): Promise<boolean> {
+  return (await trx('goal_races').where({ user_id: userId }).delete()) > 0;
+}
+
+export async function listRaceResults(userId: string, trx: Db = db): Promise<RaceResultRow[]> {
+  return trx('race_results').where({ user_id: userId }).orderBy('date', 'desc');
+}
+
+export async function insertRaceResult(userId: string, result: RaceResultInput, trx: Db = db): Promise<RaceResultRow> {
+  const [row] = await trx('race_results')
+    .insert({
+      user_id: userId,
+      name: result.name ?? null,
+      date: result.date,
+      distance_m: result.distance_m,
+      time_s: result.time_s,
+    })
+    .returning('*');
+  return row as RaceResultRow;
+}
+
+export async function deleteRaceResult(userId: string, id: string, trx: Db = db): Promise<boolean> {
+  return (await trx('race_results').where({ user_id: userId, id }).delete()) > 0;
+}
