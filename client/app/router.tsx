@@ -43,6 +43,7 @@ export function createAppRouter(queryClient: QueryClient) {
               children: [
                 { index: true, loader: () => redirect(paths.log.getHref()) },
                 { path: paths.log.path, lazy: page(() => import('./routes/app/log.tsx')) },
+                { path: paths.run.path, lazy: page(() => import('./routes/app/run.tsx')) },
                 { path: paths.plan.path, lazy: page(() => import('./routes/app/plan.tsx')) },
                 { path: paths.squad.path, lazy: page(() => import('./routes/app/squad.tsx')) },
                 { path: paths.tools.path, lazy: page(() => import('./routes/app/tools.tsx')) },

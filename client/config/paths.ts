@@ -9,7 +9,17 @@ export const paths = {
     path: '/sign-up',
     getHref: (next?: string) => (next ? `/sign-up?next=${encodeURIComponent(next)}` : '/sign-up'),
   },
-  log: { path: '/log', getHref: () => '/log' },
+  log: {
+    path: '/log',
+    getHref: (search?: { page?: number; month?: string }) => {
+      const params = new URLSearchParams();
+      if (search?.month) params.set('month', search.month);
+      if (search?.page && search.page > 1) params.set('page', String(search.page));
+      const query = params.toString();
+      return query ? `/log?${query}` : '/log';
+    },
+  },
+  run: { path: '/runs/:id', getHref: (id: string) => `/runs/${encodeURIComponent(id)}` },
   plan: { path: '/plan', getHref: () => '/plan' },
   squad: { path: '/squad', getHref: () => '/squad' },
   tools: { path: '/tools', getHref: () => '/tools' },

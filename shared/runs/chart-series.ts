@@ -56,3 +56,42 @@ export function buildChartRows(track: TrackColumns, unit: SplitUnit): ChartRow[]
   }
   return rows;
 }
+
+/**
+ * The `lowShare`–`highShare` quantiles (0–1, nearest rank) of the known values, so one GPS spike
+ * does not stretch a chart's scale; null without known values.
+ */
+export function robustRange(values: ReadonlyArray<number | null>, lowShare = 0.02, highShare = 0.98): [number, number] | null {
+  const known = values.filter((v): v is number => v !== null && Number.isFinite(v)).sort((a, b) => a - b);
+  if (known.length === 0) return null;
+  const at = (share: number) => known[Math.min(known.length - 1, Math.max(0, Math.round(share * (known.length - 1))))]!;
+  return [at(lowShare), at(highShare)];
+}
+
+/**
+ * Round axis ticks covering [min, max]: the smallest step of `steps` (ascending) that needs at most
+ * `maxTicks` ticks (the largest step otherwise); the domain runs from the tick at or below `min` to
+ * the tick at or above `max`. A zero-width range gets one step either side.
+ * Example: (452, 538, [10, 15, 30, 60]) → domain [450, 540], ticks [450, 480, 510, 540].
+ */
+export function niceTicks(
+  min: number,
+  max: number,
+  steps: readonly number[],
+  maxTicks = 5,
+): { domain: [number, number]; ticks: number[] } {
+  const span = (step: number) => {
+    let lo = Math.floor(min / step) * step;
+    let hi = Math.ceil(max / step) * step;
+    if (lo === hi) {
+      lo -= step;
+      hi += step;
+    }
+    return { lo, hi, count: Math.round((hi - lo) / step) + 1 };
+  };
+  const step = steps.find((s) => span(s).count <= maxTicks) ?? steps[steps.length - 1]!;
+  const { lo, hi } = span(step);
+  const ticks: number[] = [];
+  for (let v = lo; v <= hi + step / 1000; v += step) ticks.push(Math.round(v * 1000) / 1000);
+  return { domain: [lo, hi], ticks };
+}

@@ -1,19 +1,111 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { monthBounds, parseYearMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
+import type { RunPage } from '../../../../shared/runs/types.ts';
+import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { LinkButton } from '../../../components/ui/link-button.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
+import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { MAX_RUNS_PER_PAGE, RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
+import { RunUpload } from '../../../features/runs/components/run-upload.tsx';
+import { RunsCalendar } from '../../../features/runs/components/runs-calendar.tsx';
+import { RunsTable } from '../../../features/runs/components/runs-table.tsx';
+
+/** Today on this device, as a calendar date and month (the calendar opens on this month). */
+function deviceToday(): { date: string; month: YearMonth } {
+  const now = new Date();
+  const month = { year: now.getFullYear(), month: now.getMonth() + 1 };
+  const date = `${month.year}-${String(month.month).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+  return { date, month };
+}
+
+const FIRST_PAGE = { page: 1, per_page: RUNS_PER_PAGE };
+
+/** The page of the list from the address, so back and forward (and shared links) keep it. */
+function readPage(search: URLSearchParams): number {
+  return Math.max(1, Math.floor(Number(search.get('page'))) || 1);
+}
+
+/**
+ * The calendar's month: the address's `?month=`, else the month of the newest run (so the last
+ * runs are in view even early in a new month), else this month.
+ */
+function readMonth(search: URLSearchParams, newest: RunPage): YearMonth {
+  const latest = newest.runs[0];
+  return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? deviceToday().month;
+}
+
+const monthFilters = (month: YearMonth) => ({ page: 1, per_page: MAX_RUNS_PER_PAGE, ...monthBounds(month) });
+
+export const createLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const search = new URL(request.url).searchParams;
+    const [newest] = await Promise.all([
+      queryClient.ensureQueryData(runsQueryOptions(FIRST_PAGE)),
+      queryClient.ensureQueryData(runsQueryOptions({ page: readPage(search), per_page: RUNS_PER_PAGE })),
+    ]);
+    await queryClient.ensureQueryData(runsQueryOptions(monthFilters(readMonth(search, newest))));
+    return null;
+  };
 
 export default function LogRoute() {
+  const [search] = useSearchParams();
+  const page = readPage(search);
+  const profile = useProfile();
+  const newest = useRuns(FIRST_PAGE);
+  const list = useRuns({ page, per_page: RUNS_PER_PAGE });
+  const month = readMonth(search, newest);
+  const monthRuns = useRuns(monthFilters(month));
+  const pages = Math.max(1, Math.ceil(list.total / list.per_page));
+  const monthParam = search.get('month') ?? undefined;
+
   return (
     <>
       <PageHeader title="Log">Your runs, split by mile and by kilometre, and a month of them at a glance.</PageHeader>
-      <EmptyState title="No runs yet." next={<LinkButton to={paths.profile.getHref()}>Check your profile</LinkButton>}>
-        <p>
-          Dropping GPX and TCX watch files here arrives with the import feature. Each run will then show its splits per mile and
-          per kilometre, moving time against clock time, and heart rate and elevation for every split.
-        </p>
-        <p>Until then, set your heart rates and time zone: splits, zones and dates read from them.</p>
-      </EmptyState>
+      <div className="flex flex-col gap-4">
+        <Card title="Add runs" description="Each file is read on its own: splits per mile and per km appear within seconds.">
+          <RunUpload unit={profile.unit} />
+        </Card>
+
+        {list.total === 0 ? (
+          <EmptyState title="No runs yet." next={<LinkButton to={paths.profile.getHref()}>Check your profile</LinkButton>}>
+            <p>
+              Export the activity from your watch or its app as GPX or TCX and drop the file above. Each run then shows its splits
+              per mile and per kilometre, moving time against clock time, and heart rate and elevation for every split.
+            </p>
+            <p>Set your heart rates and time zone first: zones and dates are read from them.</p>
+          </EmptyState>
+        ) : (
+          <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)] lg:items-start">
+            <Card title="Month">
+              <RunsCalendar month={month} runs={monthRuns.runs} unit={profile.unit} today={deviceToday().date} page={page} />
+            </Card>
+            <Card title="Runs" description={`${list.total} in all, newest first. The headers sort the runs on this page.`}>
+              <RunsTable runs={list.runs} unit={profile.unit} />
+              {pages > 1 && (
+                <nav aria-label="Pages of runs" className="mt-3 flex items-center justify-between gap-2 text-sm">
+                  {page > 1 ? (
+                    <LinkButton to={paths.log.getHref({ page: page - 1, month: monthParam })}>◀ Newer</LinkButton>
+                  ) : (
+                    <span />
+                  )}
+                  <span className="text-ink-muted tabular-nums">
+                    Page {page} of {pages}
+                  </span>
+                  {page < pages ? (
+                    <LinkButton to={paths.log.getHref({ page: page + 1, month: monthParam })}>Older ▶</LinkButton>
+                  ) : (
+                    <span />
+                  )}
+                </nav>
+              )}
+            </Card>
+          </div>
+        )}
+      </div>
     </>
   );
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildChartRows } from '../../../../shared/runs/chart-series.ts';
+import { buildChartRows, niceTicks, robustRange } from '../../../../shared/runs/chart-series.ts';
 
 describe('buildChartRows', () => {
   // 100 m every 30 s: 5:00 per km.
@@ -26,5 +26,29 @@ describe('buildChartRows', () => {
       { distance: 0, pace_s: null, hr: 120, ele: 10 },
       { distance: 0.2, pace_s: 300, hr: 140, ele: null },
     ]);
+  });
+});
+
+describe('robustRange', () => {
+  it('drops the extreme 2 % at each end', () => {
+    const values = [...Array.from({ length: 98 }, (_, i) => 300 + i), 1, 5000];
+    expect(robustRange(values)).toEqual([301, 396]); // nearest ranks 2 and 97 of 0–99: both spikes left out
+  });
+
+  it('ignores unknown values and returns null without any', () => {
+    expect(robustRange([null, 5, null], 0, 1)).toEqual([5, 5]);
+    expect(robustRange([null, Number.NaN])).toBeNull();
+  });
+});
+
+describe('niceTicks', () => {
+  it.each<[number, number, number[], number, [number, number], number[]]>([
+    [452, 538, [10, 15, 30, 60], 5, [450, 540], [450, 480, 510, 540]],
+    [131, 187, [5, 10, 20, 50], 5, [120, 200], [120, 140, 160, 180, 200]],
+    [176, 176, [1, 2, 5], 5, [175, 177], [175, 176, 177]],
+    [0, 10_000, [1000, 2000, 5000], 5, [0, 10_000], [0, 5000, 10_000]],
+    [0, 12, [1, 2], 5, [0, 12], [0, 2, 4, 6, 8, 10, 12]], // no step fits: the largest one
+  ])('%s–%s with steps %j, at most %i ticks → domain %j', (min, max, steps, maxTicks, domain, ticks) => {
+    expect(niceTicks(min, max, steps, maxTicks)).toEqual({ domain, ticks });
   });
 });

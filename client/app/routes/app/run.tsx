@@ -1,0 +1,135 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useState, type ReactNode } from 'react';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import type { RunTrack } from '../../../../shared/runs/types.ts';
+import type { Unit } from '../../../../shared/users/schemas.ts';
+import { Card } from '../../../components/ui/card.tsx';
+import { PageHeader } from '../../../components/ui/page-header.tsx';
+import { useMe } from '../../../features/auth/api/get-me.ts';
+import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { runQueryOptions, useRun } from '../../../features/runs/api/get-run.ts';
+import { runTrackQueryOptions, useRunTrack } from '../../../features/runs/api/get-run-track.ts';
+import { EnergyEstimate, HeartRateZones } from '../../../features/runs/components/effort-figures.tsx';
+import { FastestSections } from '../../../features/runs/components/fastest-sections.tsx';
+import { HowComputed } from '../../../features/runs/components/how-computed.tsx';
+import { LapsTable } from '../../../features/runs/components/laps-table.tsx';
+import { RouteOutline } from '../../../features/runs/components/route-outline.tsx';
+import { RunChartsPanel } from '../../../features/runs/components/run-charts-panel.tsx';
+import { RunDownloads } from '../../../features/runs/components/run-downloads.tsx';
+import { RunOwnerActions } from '../../../features/runs/components/run-owner-actions.tsx';
+import { RunSummary } from '../../../features/runs/components/run-summary.tsx';
+import { SplitTable } from '../../../features/runs/components/split-table.tsx';
+import { UnitToggle } from '../../../features/runs/components/unit-toggle.tsx';
+
+const UNIT_WORDS: Record<Unit, string> = { mi: 'mile', km: 'kilometre' };
+
+export const createLoader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const id = params.id ?? '';
+    // The series is only for charts and the outline: start it, but show the splits without waiting.
+    void queryClient.prefetchQuery(runTrackQueryOptions(id));
+    await queryClient.ensureQueryData(runQueryOptions(id));
+    return null;
+  };
+
+export default function RunRoute() {
+  const id = useParams().id ?? '';
+  const run = useRun(id);
+  const me = useMe();
+  const profile = useProfile();
+  // Follows the profile's unit until this page's own toggle is used.
+  const [chosenUnit, setChosenUnit] = useState<Unit | null>(null);
+  const unit = chosenUnit ?? profile.unit;
+  const isOwner = me?.id === run.owner_id;
+  const { details } = run;
+
+  return (
+    <>
+      <PageHeader title={run.name} />
+      <div className="-mt-3 mb-5 flex flex-col gap-4">
+        <RunSummary summary={run.summary} unit={unit} />
+        <div className="flex flex-wrap items-center justify-between gap-3">
+          <RunDownloads runId={run.id} />
+          {isOwner && <RunOwnerActions key={run.name} runId={run.id} name={run.name} />}
+        </div>
+      </div>
+
+      <Card
+        title="Splits"
+        description={`Per ${UNIT_WORDS[unit]}; pace from moving time. Sort by any column.`}
+        actions={<UnitToggle label="Split unit" value={unit} onChange={setChosenUnit} />}
+      >
+        {run.splits[unit].length > 0 ? (
+          <SplitTable splits={run.splits[unit]} unitLabel={UNIT_WORDS[unit]} />
+        ) : (
+          <p className="text-sm text-ink-muted">This run has no distance, so it has no splits.</p>
+        )}
+      </Card>
+
+      <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,7fr)_minmax(0,5fr)] lg:items-start">
+        <div className="flex min-w-0 flex-col gap-4">
+          <TrackCard runId={run.id} title="Over distance" description="Pace, heart rate and elevation on one distance axis.">
+            {(track) => <RunChartsPanel track={track} unit={unit} />}
+          </TrackCard>
+          {run.laps.length > 0 && (
+            <Card title="Device laps" description="As the watch recorded them, beside the computed splits.">
+              <LapsTable laps={run.laps} unit={unit} />
+            </Card>
+          )}
+        </div>
+        <div className="flex min-w-0 flex-col gap-4">
+          <Card title="Fastest sections" description="The quickest stretch of each distance inside this run, by moving time.">
+            <FastestSections sections={run.fastest_sections} unit={unit} />
+          </Card>
+          <TrackCard runId={run.id} title="Route outline">
+            {(track) => <RouteOutline track={track} />}
+          </TrackCard>
+          {details.hr_zones && (
+            <Card title="Heart-rate zones">
+              <HeartRateZones zones={details.hr_zones} />
+            </Card>
+          )}
+          {details.energy && (
+            <Card title="Energy">
+              <EnergyEstimate energy={details.energy} />
+            </Card>
+          )}
+        </div>
+      </div>
+
+      <div className="mt-4">
+        <Card title="How this is computed">
+          <HowComputed run={run} />
+        </Card>
+      </div>
+    </>
+  );
+}
+
+type TrackCardProps = {
+  runId: string;
+  title: string;
+  description?: string;
+  children: (track: RunTrack) => ReactNode;
+};
+
+/** A card drawn from the recorded points, which arrive after the splits. */
+function TrackCard({ runId, title, description, children }: TrackCardProps) {
+  const track = useRunTrack(runId);
+  return (
+    <Card title={title} description={description}>
+      {track.data ? (
+        children(track.data)
+      ) : track.isError ? (
+        <p role="alert" className="text-sm text-tartan">
+          The recorded points could not be loaded: {track.error.message}
+        </p>
+      ) : (
+        <p role="status" className="py-8 text-center text-sm text-ink-muted">
+          Loading the recorded points…
+        </p>
+      )}
+    </Card>
+  );
+}

@@ -1,0 +1,10 @@
+export type RunListFilters = { page: number; per_page: number; from?: string; to?: string };
+
+export const runKeys = {
+  all: ['runs'] as const,
+  lists: () => [...runKeys.all, 'list'] as const,
+  list: (filters: RunListFilters) => [...runKeys.lists(), filters] as const,
+  details: () => [...runKeys.all, 'detail'] as const,
+  detail: (id: string) => [...runKeys.details(), id] as const,
+  track: (id: string) => [...runKeys.detail(id), 'track'] as const,
+};

@@ -1,0 +1,138 @@
+import { Link } from 'react-router-dom';
+import { formatYearMonth, monthWeeks, shiftMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
+import { formatDistance } from '../../../../shared/runs/display.ts';
+import type { RunListItem } from '../../../../shared/runs/schemas.ts';
+import type { Unit } from '../../../../shared/users/schemas.ts';
+import { paths } from '../../../config/paths.ts';
+import { cn } from '../../../lib/cn.ts';
+
+const WEEKDAYS = [
+  ['Mo', 'Monday'],
+  ['Tu', 'Tuesday'],
+  ['We', 'Wednesday'],
+  ['Th', 'Thursday'],
+  ['Fr', 'Friday'],
+  ['Sa', 'Saturday'],
+  ['Su', 'Sunday'],
+] as const;
+const MONTH_NAMES = new Intl.DateTimeFormat('en-GB', { month: 'long', year: 'numeric', timeZone: 'UTC' });
+
+type RunsCalendarProps = {
+  month: YearMonth;
+  runs: RunListItem[];
+  unit: Unit;
+  /** Today's `YYYY-MM-DD`, outlined. */
+  today: string;
+  /** Other search parameters of the page to keep when changing month. */
+  page: number;
+};
+
+/** A month, Monday first: each day its distance linked to its run(s), and each week's total. No coloured cells. */
+export function RunsCalendar({ month, runs, unit, today, page }: RunsCalendarProps) {
+  const byDate = new Map<string, RunListItem[]>();
+  for (const run of runs) byDate.set(run.local_date, [...(byDate.get(run.local_date) ?? []), run]);
+  const weeks = monthWeeks(month);
+  const title = MONTH_NAMES.format(new Date(Date.UTC(month.year, month.month - 1, 1)));
+  const monthTotal = runs.reduce((sum, r) => sum + r.distance_m, 0);
+  const nav = 'inline-flex size-8 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
+
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="flex items-center gap-2">
+        <Link
+          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, -1)), page })}
+          className={nav}
+          aria-label="Previous month"
+        >
+          ◀
+        </Link>
+        <h3 className="min-w-36 text-center font-semibold" aria-live="polite">
+          {title}
+        </h3>
+        <Link
+          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, 1)), page })}
+          className={nav}
+          aria-label="Next month"
+        >
+          ▶
+        </Link>
+        <span className="ml-auto text-sm text-ink-muted tabular-nums">
+          {runs.length} {runs.length === 1 ? 'run' : 'runs'} · {formatDistance(monthTotal, unit, 1)} {unit}
+        </span>
+      </div>
+      <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
+        <table className="w-full min-w-sm table-fixed text-sm tabular-nums">
+          <caption className="sr-only">
+            {title}: distance in {unit} per day, and per week
+          </caption>
+          <thead className="text-ink-muted">
+            <tr>
+              {WEEKDAYS.map(([short, long]) => (
+                <th key={short} scope="col" className="pb-1 text-left text-xs font-semibold">
+                  <abbr title={long} className="no-underline">
+                    {short}
+                  </abbr>
+                </th>
+              ))}
+              <th scope="col" className="w-14 pb-1 text-right text-xs font-semibold">
+                Week
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {weeks.map((week, w) => {
+              const weekTotal = week.reduce(
+                (sum, date) => sum + (date ? (byDate.get(date) ?? []).reduce((s, r) => s + r.distance_m, 0) : 0),
+                0,
+              );
+              return (
+                <tr key={w} className="border-t border-line">
+                  {week.map((date, d) => (
+                    <td key={d} className="h-14 p-0.5 align-top">
+                      {date && <Day date={date} runs={byDate.get(date) ?? []} unit={unit} isToday={date === today} />}
+                    </td>
+                  ))}
+                  <td className="p-0.5 pt-1.5 text-right align-top font-semibold">
+                    {weekTotal > 0 ? formatDistance(weekTotal, unit, 1) : <span className="text-line-strong">·</span>}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}
+
+function Day({ date, runs, unit, isToday }: { date: string; runs: RunListItem[]; unit: Unit; isToday: boolean }) {
+  const day = Number(date.slice(8));
+  return (
+    <div className={cn('flex h-full flex-col rounded-sm px-1 py-0.5', isToday && 'ring-1 ring-ink')}>
+      <span className={cn('text-xs', isToday ? 'font-bold text-ink' : 'text-ink-muted')}>
+        {day}
+        {isToday && <span className="sr-only"> (today)</span>}
+      </span>
+      {runs.length === 0 ? (
+        <span className="text-line-strong" aria-hidden="true">
+          ·
+        </span>
+      ) : (
+        runs.map((run) => (
+          <Link
+            key={run.id}
+            to={paths.run.getHref(run.id)}
+            title={run.name}
+            className="font-semibold text-teal underline-offset-2 hover:underline"
+          >
+            {formatDistance(run.distance_m, unit, 1)}
+            <span className="sr-only">
+              {' '}
+              {unit}, {run.name}
+            </span>
+          </Link>
+        ))
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,66 @@
+import { createColumnHelper, useTable } from '@tanstack/react-table';
+import { Link } from 'react-router-dom';
+import { formatDistance, formatLocalDate, pacePerUnit } from '../../../../shared/runs/display.ts';
+import type { RunListItem } from '../../../../shared/runs/schemas.ts';
+import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
+import type { Unit } from '../../../../shared/users/schemas.ts';
+import { DataTable } from '../../../components/ui/data-table.tsx';
+import { paths } from '../../../config/paths.ts';
+import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
+
+type RunRow = RunListItem & { unit: Unit; when: string };
+
+const helper = createColumnHelper<SortableTableFeatures, RunRow>();
+const number = { meta: { align: 'right' }, sortUndefined: 'last' } as const;
+
+const COLUMNS = helper.columns([
+  helper.accessor('when', {
+    header: 'Date',
+    sortFn: 'alphanumeric',
+    cell: (info) => (
+      <span className="tabular-nums">
+        {formatLocalDate(info.row.original.local_date)} <span className="text-ink-muted">{info.row.original.local_time}</span>
+      </span>
+    ),
+  }),
+  helper.accessor('name', {
+    header: 'Name',
+    enableSorting: false,
+    cell: (info) => (
+      <Link
+        to={paths.run.getHref(info.row.original.id)}
+        className="inline-block max-w-64 truncate align-bottom font-semibold text-teal underline-offset-2 hover:underline"
+      >
+        {info.getValue()}
+      </Link>
+    ),
+  }),
+  helper.accessor('distance_m', {
+    header: 'Distance',
+    ...number,
+    cell: (info) => `${formatDistance(info.getValue(), info.row.original.unit)} ${info.row.original.unit}`,
+  }),
+  helper.accessor('moving_s', { header: 'Moving', ...number, cell: (info) => formatDuration(info.getValue()) }),
+  helper.accessor('pace_s_per_km', {
+    header: 'Pace',
+    ...number,
+    sortDescFirst: false,
+    cell: (info) => {
+      const pace = formatPace(pacePerUnit(info.getValue(), info.row.original.unit));
+      return pace ? `${pace} /${info.row.original.unit}` : '–';
+    },
+  }),
+  helper.accessor('ascent_m', {
+    header: 'Climb',
+    ...number,
+    enableSorting: false,
+    cell: (info) => (info.getValue() === null ? '–' : `${Math.round(info.getValue()!)} m`),
+  }),
+]);
+
+/** One page of runs, newest first as the server sends them; the headers re-sort this page. */
+export function RunsTable({ runs, unit }: { runs: RunListItem[]; unit: Unit }) {
+  const data = runs.map((run) => ({ ...run, unit, when: `${run.local_date} ${run.local_time}` }));
+  const table = useTable({ features: sortableTableFeatures, columns: COLUMNS, data });
+  return <DataTable table={table} caption="Your runs" minWidth="min-w-xl" />;
+}
