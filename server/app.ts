@@ -8,9 +8,11 @@ import type { AppConfig } from './config.ts';
 import { authenticate } from './features/auth/authenticate.ts';
 import { createAuthRouter } from './features/auth/auth.routes.ts';
 import { createGoalsRouter } from './features/goals/goals.routes.ts';
+import { createPlansRouter } from './features/plans/plans.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
 import { createRunsRouter } from './features/runs/runs.routes.ts';
+import { createToolsRouter } from './features/tools/tools.routes.ts';
 import { createUsersRouter } from './features/users/users.routes.ts';
 import { errorHandler, notFoundHandler } from './lib/error-handler.ts';
 import { logger } from './lib/logger.ts';
@@ -44,6 +46,8 @@ export function createApp({ config, clientDir, store = createFsStore(config.data
     createUsersRouter(),
     createRunsRouter(store, config),
     createGoalsRouter(),
+    createToolsRouter(),
+    createPlansRouter(),
   ];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),

@@ -4,6 +4,7 @@ import * as m20261201000100 from './20261201000100_squads.ts';
 import * as m20261201000200 from './20261201000200_runs.ts';
 import * as m20261201000300 from './20261201000300_run_notes.ts';
 import * as m20261201000400 from './20261201000400_goal_races.ts';
+import * as m20261201000500 from './20261201000500_session_plans.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -17,6 +18,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000200_runs': m20261201000200,
   '20261201000300_run_notes': m20261201000300,
   '20261201000400_goal_races': m20261201000400,
+  '20261201000500_session_plans': m20261201000500,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

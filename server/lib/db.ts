@@ -20,6 +20,7 @@ export interface UserRow {
   max_hr: number | null;
   weight_kg: number | null;
   time_zone: string;
+  pace_tolerance: number;
   created_at: Date;
   updated_at: Date;
 }
@@ -158,6 +159,24 @@ export interface RaceResultRow {
   created_at: Date;
 }
 
+export interface SessionPlanRow {
+  id: string;
+  runner_id: string;
+  author_id: string | null;
+  date: string;
+  title: string;
+  notes: string;
+  items: unknown;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface RunPlanLinkRow {
+  run_id: string;
+  plan_id: string | null;
+  linked_at: Date;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -173,6 +192,8 @@ declare module 'knex/types/tables.js' {
     run_notes: RunNoteRow;
     goal_races: GoalRaceRow;
     race_results: RaceResultRow;
+    session_plans: SessionPlanRow;
+    run_plan_links: RunPlanLinkRow;
   }
 }
 

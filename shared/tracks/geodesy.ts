@@ -5,9 +5,7 @@ import geodesic from 'geographiclib-geodesic';
 const { Geodesic } = geodesic;
 const WGS84 = Geodesic.WGS84;
 
-/** International mile in metres (exact since the 1959 yard and pound agreement). */
-export const METRES_PER_MILE = 1609.344;
-export const METRES_PER_KM = 1000;
+export { METRES_PER_KM, METRES_PER_MILE } from '../units.ts';
 
 /** True when `lat` ∈ [−90, 90] and `lon` ∈ [−180, 180] and both are finite numbers. */
 export function isValidPosition(lat: number | undefined, lon: number | undefined): boolean {

@@ -38,6 +38,12 @@ export const NameSchema = z
 
 const currentYearUpperBound = 2100;
 
+/** How far from the target pace still counts as on pace, as a share (0.02 = ±2 %, the default). */
+export const PaceToleranceSchema = z
+  .number({ error: 'Tolerance must be a number, e.g. 0.02 for ±2 %.' })
+  .min(0.005, 'Use a tolerance of at least ±0.5 %.')
+  .max(0.1, 'Use a tolerance of at most ±10 %.');
+
 /** Everything a user can set about themselves on the profile page. Heart rates in beats per minute, weight in kg. */
 export const ProfileSchema = UserSchema.extend({
   unit: UnitSchema,
@@ -46,6 +52,7 @@ export const ProfileSchema = UserSchema.extend({
   max_hr: z.number().int().nullable(),
   weight_kg: z.number().nullable(),
   time_zone: z.string(),
+  pace_tolerance: z.number(),
   created_at: z.string(),
 });
 export type Profile = z.infer<typeof ProfileSchema>;
@@ -77,6 +84,7 @@ export const UpdateProfileInputSchema = z
       .min(25, 'Weight must be between 25 and 250 kg.')
       .max(250, 'Weight must be between 25 and 250 kg.')
       .nullable(),
+    pace_tolerance: PaceToleranceSchema,
     time_zone: z
       .string({ error: 'Choose a time zone.' })
       .refine(isKnownTimeZone, 'Choose a time zone from the list, e.g. Europe/Berlin.'),

@@ -381,3 +381,15 @@ export async function addNote(actor: Actor, runId: string, text: string) {
   const run = await getReadableRun(actor, runId);
   return insertRunNote(run.id, actor.id, text);
 }
+
+/** The stored series and device laps of a run the caller has already been allowed to read. */
+export async function loadRunSeriesAndLaps(run: RunRow) {
+  const row = await findRunTrack(run.id);
+  if (!row) throw new NotFoundError('This run has no stored track.');
+  const columns = decodeColumns(row.columns, row.point_count, row.data);
+  const { laps } = await findRunParts(run.id);
+  return {
+    series: { t: columns.t!, d: columns.d!, hr: columns.hr ?? null },
+    laps: laps.map((l) => ({ start_t: l.start_at.getTime(), total_time_s: l.total_time_s, distance_m: l.distance_m })),
+  };
+}

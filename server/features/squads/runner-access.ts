@@ -1,5 +1,5 @@
 import { canReadRunnerData, type Actor } from '../../../shared/auth/permissions.ts';
-import { NotFoundError } from '../../lib/errors.ts';
+import { ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import { findCoachIdsOfRunner } from './squads.repository.ts';
 
 /**
@@ -10,4 +10,17 @@ export async function assertCanReadRunner(actor: Actor, ownerId: string): Promis
   if (actor.id === ownerId || actor.role === 'admin') return;
   const coachIds = actor.role === 'coach' ? await findCoachIdsOfRunner(ownerId) : [];
   if (!canReadRunnerData(actor, ownerId, coachIds)) throw new NotFoundError();
+}
+
+/**
+ * Throws unless `actor` may write plans for runner `runnerId`: the runner, or a coach of one of their
+ * squads. Someone who may read but not write (an admin) gets 403; anyone else 404.
+ */
+export async function assertCanPlanFor(actor: Actor, runnerId: string): Promise<void> {
+  if (actor.id === runnerId) return;
+  const coachIds = actor.role === 'coach' ? await findCoachIdsOfRunner(runnerId) : [];
+  if (actor.role === 'coach' && coachIds.includes(actor.id)) return;
+  if (canReadRunnerData(actor, runnerId, coachIds))
+    throw new ForbiddenError('Only the runner and their coaches write their plans.');
+  throw new NotFoundError();
 }

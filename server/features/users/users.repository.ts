@@ -15,6 +15,7 @@ export function toProfile(row: UserRow): Profile {
     max_hr: row.max_hr,
     weight_kg: row.weight_kg,
     time_zone: row.time_zone,
+    pace_tolerance: row.pace_tolerance,
     created_at: row.created_at.toISOString(),
   };
 }

@@ -30,12 +30,7 @@ export function PaceCalculator({ defaultUnit }: { defaultUnit: PaceUnit }) {
   return (
     <Card title="Pace calculator" description="A goal time turned into pace, splits and 5 km checkpoints.">
       <form noValidate onSubmit={onSubmit} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4 lg:items-start">
-        <RaceEntryFields
-          defaultDistance="marathon"
-          timeLabel="Goal time"
-          timeHint="h:mm:ss, e.g. 3:30:00"
-          errors={fieldErrors}
-        />
+        <RaceEntryFields defaultDistance="marathon" timeLabel="Goal time" timeHint="h:mm:ss, e.g. 3:30:00" errors={fieldErrors} />
         <TextField
           label="Negative split (optional)"
           name="negative_split"
@@ -84,8 +79,8 @@ function PaceResults({ query }: { query: PacesQuery }) {
           agreement); the marathon is 42.195 km and the half exactly half of it.
         </p>
         <p>
-          A negative split cuts the race at halfway and runs each half at its own even pace: the first half takes (goal +
-          negative split) ÷ 2 and the second (goal − negative split) ÷ 2. The split that contains halfway mixes the two paces.
+          A negative split cuts the race at halfway and runs each half at its own even pace: the first half takes (goal + negative
+          split) ÷ 2 and the second (goal − negative split) ÷ 2. The split that contains halfway mixes the two paces.
         </p>
         <p>Times are rounded to the nearest second for display, so a few splits may not add up to the finish by a second.</p>
       </HowComputedNote>

@@ -17,7 +17,13 @@ export function RaceEntryFields({ defaultDistance, timeLabel, timeHint, errors }
   const [distance, setDistance] = useState(defaultDistance);
   return (
     <>
-      <SelectField label="Distance" name="distance" value={distance} onChange={(e) => setDistance(e.target.value)} error={errors.distance}>
+      <SelectField
+        label="Distance"
+        name="distance"
+        value={distance}
+        onChange={(e) => setDistance(e.target.value)}
+        error={errors.distance}
+      >
         {RACE_DISTANCE_CHOICES.map((choice) => (
           <option key={choice.id} value={choice.id}>
             {choice.label}

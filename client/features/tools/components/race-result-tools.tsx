@@ -25,7 +25,12 @@ export function RaceResultTools() {
         description="From one recent race, the times it suggests at other distances by two published methods, side by side."
       >
         <form noValidate onSubmit={onSubmit} className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4 lg:items-start">
-          <RaceEntryFields defaultDistance="half" timeLabel="Your time" timeHint="h:mm:ss or m:ss, e.g. 1:45:00" errors={fieldErrors} />
+          <RaceEntryFields
+            defaultDistance="half"
+            timeLabel="Your time"
+            timeHint="h:mm:ss or m:ss, e.g. 1:45:00"
+            errors={fieldErrors}
+          />
           <div className="sm:col-span-2 lg:col-span-4">
             <Button type="submit">Show equivalents</Button>
           </div>
@@ -42,7 +47,9 @@ export function RaceResultTools() {
         {result ? (
           <TrainingPacesResult result={result} />
         ) : (
-          <p className="text-sm text-ink-muted">Enter a race result above to see pace ranges for easy, steady and hard sessions.</p>
+          <p className="text-sm text-ink-muted">
+            Enter a race result above to see pace ranges for easy, steady and hard sessions.
+          </p>
         )}
       </Card>
     </>
@@ -70,13 +77,13 @@ function EquivalentsResult({ result }: { result: EquivalentsQuery }) {
       <EquivalentsTable result={result} data={equivalents.data} />
       <HowComputedNote>
         <p>
-          <strong className="text-ink">Riegel</strong> (Riegel 1981, American Scientist 69(3)): T₂ = T₁ × (D₂ ÷ D₁)^1.06, one power
-          law for every distance. Studies of recreational runners (Vickers &amp; Vertosick 2016) found it too optimistic beyond the
-          half marathon.
+          <strong className="text-ink">Riegel</strong> (Riegel 1981, American Scientist 69(3)): T₂ = T₁ × (D₂ ÷ D₁)^1.06, one
+          power law for every distance. Studies of recreational runners (Vickers &amp; Vertosick 2016) found it too optimistic
+          beyond the half marathon.
         </p>
         <p>
-          <strong className="text-ink">Daniels &amp; Gilbert</strong> (Daniels &amp; Gilbert 1979, Oxygen Power): the oxygen cost of
-          running at your race speed, divided by the share of VO₂max a runner can hold for that long, gives an index; each
+          <strong className="text-ink">Daniels &amp; Gilbert</strong> (Daniels &amp; Gilbert 1979, Oxygen Power): the oxygen cost
+          of running at your race speed, divided by the share of VO₂max a runner can hold for that long, gives an index; each
           equivalent is the time at that distance with the same index, found numerically from their equations.
         </p>
         <p>
@@ -90,7 +97,7 @@ function EquivalentsResult({ result }: { result: EquivalentsQuery }) {
 
 function EquivalentsTable({ result, data }: { result: EquivalentsQuery; data: EquivalentsResponse }) {
   return (
-    <ScrollTable label="Race equivalents">
+    <ScrollTable label="Race equivalents" className="max-w-3xl">
       <caption className="px-3 py-2 text-left text-sm text-ink-muted">
         From {describeDistance(result.distance_m)} in {formatDuration(result.time_s)}
       </caption>
@@ -106,7 +113,7 @@ function EquivalentsTable({ result, data }: { result: EquivalentsQuery; data: Eq
             Daniels &amp; Gilbert <span className="font-normal text-ink-muted">(1979)</span>
           </th>
           <th scope="col" className={TH_NUM}>
-            Difference
+            Difference <span className="font-normal text-ink-muted">(D&amp;G − Riegel)</span>
           </th>
         </tr>
       </thead>
@@ -141,18 +148,19 @@ function TrainingPacesResult({ result }: { result: EquivalentsQuery }) {
   return (
     <div aria-busy={paces.isPlaceholderData}>
       <p className="mb-3 rounded-md border-l-4 border-tartan bg-tartan-wash px-3 py-2 text-sm text-tartan-deep">
-        These ranges are common-practice starting points, not a prescription. A qualified coach adapts them to you: to heat, hills,
-        fatigue, illness and how you respond. Easy days go by feel first; slow down whenever the effort says so.
+        These ranges are common-practice starting points, not a prescription. A qualified coach adapts them to you: to heat,
+        hills, fatigue, illness and how you respond. Easy days go by feel first; slow down whenever the effort says so.
       </p>
       <TrainingPacesTable paces={paces.data.training_paces} />
       <HowComputedNote>
         <p>
-          Your race gives a Daniels &amp; Gilbert index of <strong className="text-ink">{paces.data.training_paces.index.toFixed(1)}</strong>{' '}
-          (an effective VO₂max in ml per kg per minute, from their 1979 oxygen-cost and sustainable-fraction equations).
+          Your race gives a Daniels &amp; Gilbert index of{' '}
+          <strong className="text-ink">{paces.data.training_paces.index.toFixed(1)}</strong> (an effective VO₂max in ml per kg per
+          minute, from their 1979 oxygen-cost and sustainable-fraction equations).
         </p>
         <p>
-          Each range is a band of that index — for example 60–74 % for easy running. Its ends are the speeds whose oxygen cost,
-          by the same equations, equals that share of the index.
+          Each range is a band of that index — for example 60–74 % for easy running. Its ends are the speeds whose oxygen cost, by
+          the same equations, equals that share of the index.
         </p>
         <p>
           The bands themselves are <strong className="text-ink">common practice</strong> in coaching, not taken from a published

@@ -16,7 +16,9 @@ export function ScrollTable({ label, className, children }: ScrollTableProps) {
 }
 
 /** Header cell classes: sticky, so long tables keep their column names in view. */
-export const TH = 'sticky top-0 bg-paper px-3 py-2 text-left font-semibold whitespace-nowrap';
-export const TH_NUM = cn(TH, 'text-right');
-export const TD = 'border-t border-line px-3 py-1.5 whitespace-nowrap';
-export const TD_NUM = cn(TD, 'text-right tabular-nums');
+const TH_BASE = 'sticky top-0 bg-paper px-3 py-2 font-semibold whitespace-nowrap';
+export const TH = cn(TH_BASE, 'text-left');
+export const TH_NUM = cn(TH_BASE, 'text-right');
+const TD_BASE = 'border-t border-line px-3 py-1.5 whitespace-nowrap';
+export const TD = cn(TD_BASE, 'text-left');
+export const TD_NUM = cn(TD_BASE, 'text-right tabular-nums');

@@ -1,0 +1,100 @@
+import { db, type Db, type SessionPlanRow } from '../../lib/db.ts';
+import { formatShorthand } from '../../../shared/plans/shorthand.ts';
+import type { PlanItem } from '../../../shared/plans/types.ts';
+
+export interface StoredPlan {
+  id: string;
+  runner_id: string;
+  author_id: string | null;
+  date: string;
+  title: string;
+  notes: string;
+  text: string;
+  parts: PlanItem[];
+  created_at: string;
+  updated_at: string;
+}
+
+export function toPlan(row: SessionPlanRow): StoredPlan {
+  const parts = row.items as PlanItem[];
+  return {
+    id: row.id,
+    runner_id: row.runner_id,
+    author_id: row.author_id,
+    date: row.date,
+    title: row.title,
+    notes: row.notes,
+    text: formatShorthand(parts),
+    parts,
+    created_at: row.created_at.toISOString(),
+    updated_at: row.updated_at.toISOString(),
+  };
+}
+
+export async function insertPlan(
+  plan: { runnerId: string; authorId: string; date: string; title: string; notes: string; items: PlanItem[] },
+  trx: Db = db,
+): Promise<SessionPlanRow> {
+  const [row] = await trx('session_plans')
+    .insert({
+      runner_id: plan.runnerId,
+      author_id: plan.authorId,
+      date: plan.date,
+      title: plan.title,
+      notes: plan.notes,
+      items: JSON.stringify(plan.items),
+    })
+    .returning('*');
+  return row as SessionPlanRow;
+}
+
+export async function findPlanById(id: string, trx: Db = db): Promise<SessionPlanRow | undefined> {
+  return trx('session_plans').where({ id }).first();
+}
+
+export async function listPlans(
+  runnerId: string,
+  from: string | undefined,
+  to: string | undefined,
+  trx: Db = db,
+): Promise<SessionPlanRow[]> {
+  const query = trx('session_plans').where({ runner_id: runnerId });
+  if (from) query.andWhere('date', '>=', from);
+  if (to) query.andWhere('date', '<=', to);
+  return query.orderBy([{ column: 'date' }, { column: 'created_at' }]);
+}
+
+export async function updatePlan(
+  id: string,
+  changes: { date?: string | undefined; title?: string | undefined; notes?: string | undefined; items?: PlanItem[] | undefined },
+  trx: Db = db,
+): Promise<SessionPlanRow> {
+  const { items, ...given } = changes;
+  const rest = Object.fromEntries(Object.entries(given).filter(([, v]) => v !== undefined));
+  const [row] = await trx('session_plans')
+    .where({ id })
+    .update({ ...rest, ...(items ? { items: JSON.stringify(items) } : {}), updated_at: new Date() })
+    .returning('*');
+  return row as SessionPlanRow;
+}
+
+export async function deletePlan(id: string, trx: Db = db): Promise<void> {
+  await trx('session_plans').where({ id }).delete();
+}
+
+/** The first plan of the runner's day (by creation), for linking a run automatically. */
+export async function findFirstPlanOnDate(runnerId: string, date: string, trx: Db = db): Promise<SessionPlanRow | undefined> {
+  return trx('session_plans').where({ runner_id: runnerId, date }).orderBy('created_at').first();
+}
+
+export async function findRunPlanLink(runId: string, trx: Db = db) {
+  return trx('run_plan_links').where({ run_id: runId }).first();
+}
+
+export async function upsertRunPlanLink(runId: string, planId: string | null, trx: Db = db): Promise<void> {
+  await trx('run_plan_links').insert({ run_id: runId, plan_id: planId, linked_at: new Date() }).onConflict('run_id').merge();
+}
+
+export async function deleteRunPlanLink(runId: string, trx: Db = db): Promise<void> {
+  await trx('run_plan_links').where({ run_id: runId }).delete();
+}

@@ -1,0 +1,198 @@
+import { z } from 'zod';
+import {
+  CreatePlanInputSchema,
+  ParsePlanInputSchema,
+  PlanDateSchema,
+  PlanSchema,
+  UpdatePlanInputSchema,
+} from '../../../shared/plans/schemas.ts';
+import { PaceToleranceSchema } from '../../../shared/users/schemas.ts';
+import { createApiRouter } from '../../lib/api-router.ts';
+import { requireActor } from '../../lib/authorize.ts';
+import { parseIdParam } from '../../lib/ids.ts';
+import { planCheckToCsv } from '../../../shared/plans/plan-check-csv.ts';
+import { setPaceTolerance } from './plans.service.ts';
+import {
+  changePlan,
+  copyWeek,
+  createPlan,
+  getPlan,
+  linkRunToPlan,
+  listPlansFor,
+  parsePlanText,
+  planCheckOfRun,
+  removePlan,
+} from './plans.service.ts';
+
+const ListPlansQuerySchema = z.object({
+  from: PlanDateSchema.optional(),
+  to: PlanDateSchema.optional(),
+  runner_id: z.uuid({ error: 'Not a runner id.' }).optional(),
+});
+
+const CopyWeekInputSchema = z
+  .object({ from_start: PlanDateSchema, to_start: PlanDateSchema, runner_id: z.uuid({ error: 'Not a runner id.' }).optional() })
+  .strict()
+  .refine((w) => w.from_start !== w.to_start, { message: 'Choose a different week to copy to.', path: ['to_start'] });
+
+const LinkPlanInputSchema = z
+  .object({ plan_id: z.union([z.uuid({ error: 'Not a plan id.' }), z.null(), z.literal('auto')]) })
+  .strict();
+
+export function createPlansRouter() {
+  const api = createApiRouter();
+
+  api.route(
+    {
+      method: 'post',
+      path: '/plans/parse',
+      tag: 'plans',
+      summary: 'Parse session shorthand: 200 with parts, or 400 with details {position, expected}',
+      access: 'own-data',
+      body: ParsePlanInputSchema,
+    },
+    (req, res) => {
+      res.json(parsePlanText(req.body.text));
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/plans',
+      tag: 'plans',
+      summary: 'Create a session plan from shorthand (text) or parts; a coach may add runner_id for a squad runner',
+      access: 'own-data',
+      body: CreatePlanInputSchema,
+      response: z.object({ plan: PlanSchema }),
+      status: 201,
+    },
+    async (req, res) => {
+      res.status(201).json({ plan: await createPlan(requireActor(res), req.body) });
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/plans',
+      tag: 'plans',
+      summary: 'Session plans between two dates (yours, or a squad runner’s with runner_id)',
+      access: 'own-data',
+      query: ListPlansQuerySchema,
+      response: z.object({ plans: z.array(PlanSchema) }),
+    },
+    async (_req, res) => {
+      res.json({ plans: await listPlansFor(requireActor(res), res.locals.query as z.infer<typeof ListPlansQuerySchema>) });
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/plans/copy-week',
+      tag: 'plans',
+      summary: 'Copy the seven days from from_start onto the seven days from to_start',
+      access: 'own-data',
+      body: CopyWeekInputSchema,
+      response: z.object({ plans: z.array(PlanSchema) }),
+      status: 201,
+    },
+    async (req, res) => {
+      res.status(201).json({ plans: await copyWeek(requireActor(res), req.body) });
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/plans/:id',
+      tag: 'plans',
+      summary: 'One session plan',
+      access: 'own-data',
+      response: z.object({ plan: PlanSchema }),
+    },
+    async (req, res) => {
+      res.json({ plan: await getPlan(requireActor(res), parseIdParam(req.params.id)) });
+    },
+  );
+
+  api.route(
+    {
+      method: 'patch',
+      path: '/plans/:id',
+      tag: 'plans',
+      summary: 'Change a plan: move it to another date, retitle it, rewrite it',
+      access: 'own-data',
+      body: UpdatePlanInputSchema,
+      response: z.object({ plan: PlanSchema }),
+    },
+    async (req, res) => {
+      res.json({ plan: await changePlan(requireActor(res), parseIdParam(req.params.id), req.body) });
+    },
+  );
+
+  api.route(
+    { method: 'delete', path: '/plans/:id', tag: 'plans', summary: 'Delete a plan', access: 'own-data', status: 204 },
+    async (req, res) => {
+      await removePlan(requireActor(res), parseIdParam(req.params.id));
+      res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runs/:id/plan-check',
+      tag: 'plans',
+      summary: 'The run against its session plan, part by part, with verdicts',
+      access: 'own-data',
+    },
+    async (req, res) => {
+      res.json(await planCheckOfRun(requireActor(res), parseIdParam(req.params.id)));
+    },
+  );
+
+  api.route(
+    { method: 'get', path: '/runs/:id/plan-check.csv', tag: 'plans', summary: 'The plan check as CSV', access: 'own-data' },
+    async (req, res) => {
+      const check = await planCheckOfRun(requireActor(res), parseIdParam(req.params.id));
+      res.type('text/csv; charset=utf-8').attachment('plan-check.csv').send(planCheckToCsv(check.parts));
+    },
+  );
+
+  api.route(
+    {
+      method: 'put',
+      path: '/runs/:id/plan',
+      tag: 'plans',
+      summary: 'Link your run to one of your plans (plan_id), to none (null), or back to the same-day plan ("auto")',
+      access: 'own-data',
+      body: LinkPlanInputSchema,
+      status: 204,
+    },
+    async (req, res) => {
+      await linkRunToPlan(requireActor(res), parseIdParam(req.params.id), req.body.plan_id);
+      res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'put',
+      path: '/runners/:id/pace-tolerance',
+      tag: 'plans',
+      summary: 'Set how far from the target pace still counts as on pace (the runner or their coach)',
+      access: 'own-data',
+      body: z.object({ pace_tolerance: PaceToleranceSchema }).strict(),
+      response: z.object({ pace_tolerance: z.number() }),
+    },
+    async (req, res) => {
+      res.json({
+        pace_tolerance: await setPaceTolerance(requireActor(res), parseIdParam(req.params.id), req.body.pace_tolerance),
+      });
+    },
+  );
+
+  return api;
+}
