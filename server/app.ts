@@ -9,6 +9,8 @@ import { authenticate } from './features/auth/authenticate.ts';
 import { createAuthRouter } from './features/auth/auth.routes.ts';
 import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createPlansRouter } from './features/plans/plans.routes.ts';
+import { createSquadsRouter } from './features/squads/squads.routes.ts';
+import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
 import { createRunsRouter } from './features/runs/runs.routes.ts';
@@ -16,6 +18,7 @@ import { createToolsRouter } from './features/tools/tools.routes.ts';
 import { createUsersRouter } from './features/users/users.routes.ts';
 import { errorHandler, notFoundHandler } from './lib/error-handler.ts';
 import { logger } from './lib/logger.ts';
+import { createSmtpMailer, type Mailer } from './lib/mailer.ts';
 import { csrfProtection } from './lib/session.ts';
 import { createFsStore, type FileStore } from './lib/storage.ts';
 
@@ -25,12 +28,19 @@ export interface AppDeps {
   clientDir?: string;
   /** Where original files go; local disk under DATA_DIR by default. */
   store?: FileStore;
+  /** Outgoing e-mail; SMTP to SMTP_URL or the local mail catcher by default. */
+  mailer?: Mailer;
 }
 
 const API_VERSION = '0.1.0';
 
 /** Builds the Express app: middleware, feature routers under /api, the API docs, the client, then errors. */
-export function createApp({ config, clientDir, store = createFsStore(config.dataDir) }: AppDeps): Express {
+export function createApp({
+  config,
+  clientDir,
+  store = createFsStore(config.dataDir),
+  mailer = createSmtpMailer(config),
+}: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
   if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);
@@ -48,6 +58,8 @@ export function createApp({ config, clientDir, store = createFsStore(config.data
     createGoalsRouter(),
     createToolsRouter(),
     createPlansRouter(),
+    createSquadsRouter(mailer, config),
+    createOutboxRouter(config),
   ];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),

@@ -17,6 +17,10 @@ export interface AppConfig {
   /** Largest single uploaded watch file; a 100-mile run recorded every second is about 25 MB of GPX. */
   uploadMaxFileBytes: number;
   publicUrl: string;
+  /** Outgoing mail server; unset = the local mail catcher on loopback (development). */
+  smtpUrl: string | null;
+  mailCatcherPort: number;
+  mailFrom: string;
 }
 
 /** `DATABASE_URL`, else the embedded cluster on loopback (scripts/pg.sh). */
@@ -54,5 +58,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     jsonLimit: '1mb',
     uploadMaxFileBytes: 64 * 1024 * 1024,
     publicUrl: env.PUBLIC_URL ?? `http://${host}:${port}`,
+    smtpUrl: env.SMTP_URL || null,
+    mailCatcherPort: Number(env.MAIL_CATCHER_PORT ?? 2525),
+    mailFrom: env.MAIL_FROM ?? 'Pacewright <no-reply@pacewright.test>',
   };
 }

@@ -21,7 +21,12 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   const { db } = await import('./lib/db.ts');
   const { createStoreFromEnv } = await import('./lib/storage.ts');
   const store = await createStoreFromEnv(config.dataDir, env);
-  const app = createApp({ config, store, clientDir: path.join(ROOT, 'dist/client') });
+  // Development and tests: catch outgoing mail on loopback and show it at /api/dev/outbox.
+  const { startMailCatcher } = await import('./features/mail/mail-catcher.ts');
+  const catcher = !config.smtpUrl && config.env !== 'production' ? await startMailCatcher(config.mailCatcherPort) : null;
+  const mailConfig = catcher ? { ...config, mailCatcherPort: catcher.port } : config;
+  const { createSmtpMailer } = await import('./lib/mailer.ts');
+  const app = createApp({ config, store, mailer: createSmtpMailer(mailConfig), clientDir: path.join(ROOT, 'dist/client') });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on('error', reject);
@@ -35,6 +40,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
+      await catcher?.close();
       await db.destroy();
     },
   };

@@ -5,6 +5,7 @@ import * as m20261201000200 from './20261201000200_runs.ts';
 import * as m20261201000300 from './20261201000300_run_notes.ts';
 import * as m20261201000400 from './20261201000400_goal_races.ts';
 import * as m20261201000500 from './20261201000500_session_plans.ts';
+import * as m20261201000600 from './20261201000600_squads_mail.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -19,6 +20,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000300_run_notes': m20261201000300,
   '20261201000400_goal_races': m20261201000400,
   '20261201000500_session_plans': m20261201000500,
+  '20261201000600_squads_mail': m20261201000600,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -21,6 +21,9 @@ export interface UserRow {
   weight_kg: number | null;
   time_zone: string;
   pace_tolerance: number;
+  notify_on_import: boolean;
+  week_starts_on: number;
+  sex: 'male' | 'female' | null;
   created_at: Date;
   updated_at: Date;
 }
@@ -177,6 +180,52 @@ export interface RunPlanLinkRow {
   linked_at: Date;
 }
 
+export interface DevOutboxRow {
+  id: string;
+  to: string;
+  subject: string;
+  text: string;
+  html: string;
+  sent_at: Date;
+}
+
+export interface InvitationRow {
+  id: string;
+  squad_id: string;
+  invited_by: string | null;
+  email: string;
+  token_hash: string;
+  created_at: Date;
+  expires_at: Date;
+  accepted_at: Date | null;
+  accepted_by: string | null;
+  revoked_at: Date | null;
+}
+
+export interface PasswordResetRow {
+  id: string;
+  user_id: string;
+  token_hash: string;
+  expires_at: Date;
+  used_at: Date | null;
+}
+
+export interface WeekNoteRow {
+  id: string;
+  runner_id: string;
+  week_start: string;
+  author_id: string;
+  text: string;
+  created_at: Date;
+}
+
+export interface WeekReviewRow {
+  runner_id: string;
+  week_start: string;
+  coach_id: string;
+  reviewed_at: Date;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -194,6 +243,11 @@ declare module 'knex/types/tables.js' {
     race_results: RaceResultRow;
     session_plans: SessionPlanRow;
     run_plan_links: RunPlanLinkRow;
+    dev_outbox: DevOutboxRow;
+    invitations: InvitationRow;
+    password_resets: PasswordResetRow;
+    week_notes: WeekNoteRow;
+    week_reviews: WeekReviewRow;
   }
 }
 

@@ -35,7 +35,7 @@ export async function launchBrowser(): Promise<{ context: BrowserContext; close(
 
 /** The built app on a free loopback port, against the e2e database that tests/run.ts seeded. */
 export async function startAppServer(): Promise<RunningServer> {
-  return startServer({ ...process.env, PORT: '0', HOST: '127.0.0.1', NODE_ENV: 'test' });
+  return startServer({ ...process.env, PORT: '0', HOST: '127.0.0.1', NODE_ENV: 'test', MAIL_CATCHER_PORT: '0' });
 }
 
 export async function screenshot(page: Page, name: string): Promise<void> {

@@ -1,0 +1,41 @@
+import { db, type Db, type InvitationRow } from '../../lib/db.ts';
+
+export async function insertInvitation(
+  row: { squadId: string; invitedBy: string; email: string; tokenHash: string; expiresAt: Date },
+  trx: Db = db,
+) {
+  const [inserted] = await trx('invitations')
+    .insert({
+      squad_id: row.squadId,
+      invited_by: row.invitedBy,
+      email: row.email,
+      token_hash: row.tokenHash,
+      expires_at: row.expiresAt,
+    })
+    .returning('*');
+  return inserted as InvitationRow;
+}
+
+export async function findInvitationByTokenHash(tokenHash: string, trx: Db = db) {
+  return trx('invitations').where({ token_hash: tokenHash }).first();
+}
+
+export async function listInvitations(squadId: string, trx: Db = db) {
+  return trx('invitations').where({ squad_id: squadId }).orderBy('created_at', 'desc');
+}
+
+/** Marks an open invitation used, atomically: a second accept finds nothing to update. */
+export async function claimInvitation(id: string, userId: string, now: Date, trx: Db = db) {
+  const [row] = await trx('invitations')
+    .where({ id })
+    .whereNull('accepted_at')
+    .whereNull('revoked_at')
+    .andWhere('expires_at', '>', now)
+    .update({ accepted_at: now, accepted_by: userId })
+    .returning('*');
+  return row as InvitationRow | undefined;
+}
+
+export async function revokeInvitation(squadId: string, id: string, now: Date, trx: Db = db): Promise<boolean> {
+  return (await trx('invitations').where({ squad_id: squadId, id }).whereNull('accepted_at').update({ revoked_at: now })) > 0;
+}

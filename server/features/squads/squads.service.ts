@@ -1,0 +1,163 @@
+import { createHash, randomBytes } from 'node:crypto';
+import type { Actor } from '../../../shared/auth/permissions.ts';
+import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schemas.ts';
+import type { AppConfig } from '../../config.ts';
+import { db, type InvitationRow } from '../../lib/db.ts';
+import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
+import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
+import { findUserById } from '../users/users.repository.ts';
+import {
+  claimInvitation,
+  findInvitationByTokenHash,
+  insertInvitation,
+  listInvitations,
+  revokeInvitation,
+} from './invitations.repository.ts';
+import {
+  addMember,
+  findSquadById,
+  insertSquad,
+  listCoachesOfRunner,
+  listMembers,
+  listSquadsOfUser,
+  removeMember,
+} from './squads.repository.ts';
+
+const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+function invitationStatus(row: InvitationRow, now: Date): 'open' | 'accepted' | 'revoked' | 'expired' {
+  if (row.accepted_at) return 'accepted';
+  if (row.revoked_at) return 'revoked';
+  return row.expires_at <= now ? 'expired' : 'open';
+}
+
+export async function createSquad(actor: Actor, name: string) {
+  const row = await insertSquad(actor.id, name);
+  return { id: row.id, name: row.name };
+}
+
+/** Squads the actor coaches (with members and invitations) or belongs to (members only). */
+export async function listMySquads(actor: Actor, now = new Date()): Promise<SquadDetail[]> {
+  const squads = await listSquadsOfUser(actor.id);
+  return Promise.all(
+    squads.map(async (squad) => {
+      const coach = await findUserById(squad.coach_id);
+      const members = await listMembers(squad.id);
+      const isCoach = squad.coach_id === actor.id;
+      const invitations = isCoach ? await listInvitations(squad.id) : [];
+      return {
+        id: squad.id,
+        name: squad.name,
+        coach: { id: squad.coach_id, name: coach?.name ?? '' },
+        members: members.map((m) => ({
+          id: m.id,
+          name: m.name,
+          email: isCoach ? m.email : '',
+          joined_at: m.joined_at.toISOString(),
+        })),
+        invitations: invitations.map((i) => ({
+          id: i.id,
+          email: i.email,
+          expires_at: i.expires_at.toISOString(),
+          status: invitationStatus(i, now),
+        })),
+      };
+    }),
+  );
+}
+
+async function ownSquad(actor: Actor, squadId: string) {
+  const squad = await findSquadById(squadId);
+  if (!squad || squad.coach_id !== actor.id) throw new NotFoundError('There is no squad of yours with this id.');
+  return squad;
+}
+
+/** Sends a signed-in coach's invitation: a random 256-bit token, stored hashed, valid 14 days, usable once. */
+export async function inviteRunner(
+  actor: Actor,
+  squadId: string,
+  email: string,
+  mailer: Mailer,
+  config: AppConfig,
+  now = new Date(),
+) {
+  const squad = await ownSquad(actor, squadId);
+  const coach = await findUserById(actor.id);
+  const token = 'inv_' + randomBytes(32).toString('base64url');
+  const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
+  const link = `${config.publicUrl}/invite/${token}`;
+  const invitation = await db.transaction(async (trx) => {
+    const row = await insertInvitation({ squadId, invitedBy: actor.id, email, tokenHash: hashToken(token), expiresAt }, trx);
+    // Sent inside the transaction: if the mail cannot go out, no invitation is left behind.
+    const intro = `${coach?.name ?? 'Your coach'} invites you to join the squad "${squad.name}" on Pacewright, a training log for runners and their coaches.`;
+    const how = `Your coach will see your runs, session plans and weeks, and write notes on them. You can leave the squad at any time. The link works once and expires on ${expiresAt.toISOString().slice(0, 10)}.`;
+    await mailer.send({
+      to: email,
+      subject: `${coach?.name ?? 'A coach'} invites you to ${squad.name} on Pacewright`,
+      text: `${intro}\n\n${how}\n\nAccept the invitation: ${link}\n`,
+      html: htmlMessage(`Join ${squad.name}`, [intro, how], { href: link, label: 'Accept the invitation' }),
+    });
+    return row;
+  });
+  return { id: invitation.id, email: invitation.email, expires_at: invitation.expires_at.toISOString() };
+}
+
+const INVITATION_GONE: Record<string, string> = {
+  accepted: 'This invitation has already been used. Ask your coach for a new one if you need it.',
+  revoked: 'This invitation was withdrawn by the coach.',
+  expired: 'This invitation has expired. Ask your coach to send a new one.',
+};
+
+async function invitationByToken(token: string) {
+  const row = /^inv_[A-Za-z0-9_-]{43}$/.test(token) ? await findInvitationByTokenHash(hashToken(token)) : undefined;
+  if (!row)
+    throw new AppError(400, 'invalid-invitation', 'This invitation link is not valid. Check that you copied the whole link.');
+  return row;
+}
+
+/** What the invite page shows before signing in or up. */
+export async function previewInvitation(token: string, now = new Date()) {
+  const row = await invitationByToken(token);
+  const squad = (await findSquadById(row.squad_id))!;
+  const coach = await findUserById(squad.coach_id);
+  return {
+    squad: { id: squad.id, name: squad.name },
+    coach: { name: coach?.name ?? '' },
+    email: row.email,
+    status: invitationStatus(row, now),
+  };
+}
+
+export async function acceptInvitation(actor: Actor, token: string, now = new Date()) {
+  const row = await invitationByToken(token);
+  const status = invitationStatus(row, now);
+  if (status !== 'open') throw new AppError(410, `invitation-${status}`, INVITATION_GONE[status]!);
+  if (actor.role !== 'runner')
+    throw new ForbiddenError('Invitations are for runners. Sign in with your runner account to accept it.');
+  const squad = (await findSquadById(row.squad_id))!;
+  await db.transaction(async (trx) => {
+    const claimed = await claimInvitation(row.id, actor.id, now, trx);
+    if (!claimed) throw new AppError(410, 'invitation-accepted', INVITATION_GONE.accepted!);
+    await addMember(squad.id, actor.id, trx);
+  });
+  return { id: squad.id, name: squad.name };
+}
+
+export async function withdrawInvitation(actor: Actor, squadId: string, invitationId: string, now = new Date()) {
+  await ownSquad(actor, squadId);
+  if (!(await revokeInvitation(squadId, invitationId, now))) throw new NotFoundError('There is no open invitation with this id.');
+}
+
+/** A coach removes a runner, or a runner leaves (runnerId = themself). */
+export async function removeFromSquad(actor: Actor, squadId: string, runnerId: string) {
+  const squad = await findSquadById(squadId);
+  const allowed = squad && (squad.coach_id === actor.id || runnerId === actor.id);
+  if (!allowed || !(await removeMember(squadId, runnerId))) throw new NotFoundError('This runner is not in that squad.');
+}
+
+export async function coachesOf(actor: Actor) {
+  return (await listCoachesOfRunner(actor.id)).map((c) => ({
+    squad: { id: c.squad_id, name: c.squad_name },
+    coach: { id: c.coach_id, name: c.coach_name, email: c.coach_email },
+  }));
+}

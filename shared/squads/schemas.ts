@@ -1,0 +1,35 @@
+import { z } from 'zod';
+import { EmailSchema } from '../auth/schemas.ts';
+
+export const CreateSquadInputSchema = z
+  .object({
+    name: z
+      .string({ error: 'Name the squad.' })
+      .trim()
+      .min(1, 'Name the squad.')
+      .max(80, 'Keep the squad name under 80 characters.'),
+  })
+  .strict();
+
+export const InviteInputSchema = z.object({ email: EmailSchema }).strict();
+
+export const SquadSchema = z.object({ id: z.string(), name: z.string() });
+
+export const InvitationSchema = z.object({ id: z.string(), email: z.string(), expires_at: z.string() });
+
+export const InvitationPreviewSchema = z.object({
+  squad: SquadSchema,
+  coach: z.object({ name: z.string() }),
+  email: z.string(),
+  status: z.enum(['open', 'accepted', 'revoked', 'expired']),
+});
+
+export const SquadDetailSchema = SquadSchema.extend({
+  coach: z.object({ id: z.string(), name: z.string() }),
+  members: z.array(z.object({ id: z.string(), name: z.string(), email: z.string(), joined_at: z.string() })),
+  invitations: z.array(InvitationSchema.extend({ status: z.enum(['open', 'accepted', 'revoked', 'expired']) })),
+});
+export type SquadDetail = z.infer<typeof SquadDetailSchema>;
+
+/** Days an invitation link stays valid. */
+export const INVITATION_DAYS = 14;
