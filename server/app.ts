@@ -11,6 +11,7 @@ import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createPlansRouter } from './features/plans/plans.routes.ts';
 import { createSquadsRouter } from './features/squads/squads.routes.ts';
 import { createOutboxRouter } from './features/mail/outbox.routes.ts';
+import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
 import { createRunsRouter } from './features/runs/runs.routes.ts';
@@ -52,14 +53,15 @@ export function createApp({
 
   const features = [
     createHealthRouter(),
-    createAuthRouter(config),
+    createAuthRouter(config, mailer),
     createUsersRouter(),
-    createRunsRouter(store, config),
+    createRunsRouter(store, config, mailer),
     createGoalsRouter(),
     createToolsRouter(),
     createPlansRouter(),
     createSquadsRouter(mailer, config),
     createOutboxRouter(config),
+    createWeeksRouter(mailer, config),
   ];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),

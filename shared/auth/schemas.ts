@@ -63,3 +63,6 @@ export const IdParamsSchema = z.object({ id: z.uuid({ error: 'Not found.' }) });
 export const SESSION_COOKIE = 'pw_session';
 export const CSRF_COOKIE = 'pw_csrf';
 export const CSRF_HEADER = 'X-CSRF-Token';
+
+export const PasswordResetRequestSchema = z.object({ email: EmailSchema }).strict();
+export const PasswordResetInputSchema = z.object({ password: NewPasswordSchema }).strict();

@@ -34,10 +34,7 @@ function daysBetween(from: string, to: string): number {
 export function racePacesFor(goal: RaceTime | null, results: readonly RaceTime[], today: string): RacePaces {
   const paces: RacePaces = {};
   if (goal) paces.goal = goal.time_s / (goal.distance_m / 1000);
-  const recent = results
-    .filter((r) => r.date <= today && daysBetween(r.date, today) <= RECENT_RESULT_DAYS)
-    .sort((a, b) => (a.date < b.date ? 1 : -1))[0];
-  const reference = recent ?? goal;
+  const reference = referencePerformance(goal, results, today);
   for (const [ref, distance] of Object.entries(REF_DISTANCES_M) as Array<[Exclude<RelativePaceRef, 'goal'>, number]>) {
     if (goal && Math.abs(goal.distance_m / distance - 1) < 0.01) {
       paces[ref] = paces.goal;
@@ -46,4 +43,12 @@ export function racePacesFor(goal: RaceTime | null, results: readonly RaceTime[]
     }
   }
   return paces;
+}
+
+/** The performance that speaks for current fitness: the most recent result of the last `RECENT_RESULT_DAYS` days, else the goal. */
+export function referencePerformance(goal: RaceTime | null, results: readonly RaceTime[], today: string): RaceTime | null {
+  const recent = results
+    .filter((r) => r.date <= today && daysBetween(r.date, today) <= RECENT_RESULT_DAYS)
+    .sort((a, b) => (a.date < b.date ? 1 : -1))[0];
+  return recent ?? goal;
 }

@@ -53,6 +53,9 @@ export const ProfileSchema = UserSchema.extend({
   weight_kg: z.number().nullable(),
   time_zone: z.string(),
   pace_tolerance: z.number(),
+  notify_on_import: z.boolean(),
+  week_starts_on: z.number().int(),
+  sex: z.enum(['male', 'female']).nullable(),
   created_at: z.string(),
 });
 export type Profile = z.infer<typeof ProfileSchema>;
@@ -85,6 +88,13 @@ export const UpdateProfileInputSchema = z
       .max(250, 'Weight must be between 25 and 250 kg.')
       .nullable(),
     pace_tolerance: PaceToleranceSchema,
+    notify_on_import: z.boolean({ error: 'Choose yes or no.' }),
+    week_starts_on: z
+      .number({ error: 'Choose the day your week starts on.' })
+      .int()
+      .min(0, 'Choose a day from Sunday (0) to Saturday (6).')
+      .max(6, 'Choose a day from Sunday (0) to Saturday (6).'),
+    sex: z.enum(['male', 'female'], { error: 'Choose male, female, or leave it empty.' }).nullable(),
     time_zone: z
       .string({ error: 'Choose a time zone.' })
       .refine(isKnownTimeZone, 'Choose a time zone from the list, e.g. Europe/Berlin.'),

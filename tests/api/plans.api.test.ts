@@ -9,13 +9,13 @@ import { createFsStore } from '../../server/lib/storage.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
-import { testConfig } from '../support/test-app.ts';
+import { recordingMailer, testConfig } from '../support/test-app.ts';
 
 type App = ReturnType<typeof createApp>;
 
 function freshApp(): App {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-data-'));
-  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir) });
+  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
 }
 
 async function person(app: App, role: 'runner' | 'coach' | 'admin' = 'runner') {

@@ -10,11 +10,11 @@ import { createFsStore } from '../../server/lib/storage.ts';
 import { generateLakeRun, longRunPhases, trueDistance } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
-import { testConfig } from '../support/test-app.ts';
+import { recordingMailer, testConfig } from '../support/test-app.ts';
 
 function freshApp() {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-data-'));
-  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir) });
+  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
 }
 
 async function bearer(app: ReturnType<typeof freshApp>) {

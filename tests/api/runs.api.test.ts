@@ -9,7 +9,7 @@ import { createFsStore, type FileStore } from '../../server/lib/storage.ts';
 import { SPLITS_CSV_COLUMNS } from '../../shared/runs/splits-csv.ts';
 import { createUser } from '../support/factories.ts';
 import { createApp } from '../../server/app.ts';
-import { testConfig } from '../support/test-app.ts';
+import { recordingMailer, testConfig } from '../support/test-app.ts';
 
 type App = ReturnType<typeof createApp>;
 
@@ -19,7 +19,7 @@ const sample = (name: string) => readFileSync(path.join(SAMPLES, name));
 function appWithStore(store?: FileStore, overrides = {}) {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-data-'));
   const config = testConfig({ dataDir, ...overrides });
-  return { app: createApp({ config, store: store ?? createFsStore(dataDir) }), dataDir };
+  return { app: createApp({ config, store: store ?? createFsStore(dataDir), mailer: recordingMailer }), dataDir };
 }
 
 async function tokenFor(app: App, email: string, password: string) {

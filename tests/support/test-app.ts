@@ -1,6 +1,7 @@
 import request from 'supertest';
 import type { Express } from 'express';
 import { createApp } from '../../server/app.ts';
+import type { Mailer, OutgoingMail } from '../../server/lib/mailer.ts';
 import { loadConfig, type AppConfig } from '../../server/config.ts';
 import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
 
@@ -18,8 +19,19 @@ export function testConfig(overrides: Partial<AppConfig> = {}): AppConfig {
   };
 }
 
+/**
+ * Mail sent by apps built with `testApp`, which never reach an SMTP server (so tests never write
+ * into a developer's running mail catcher). Tests about e-mail use tests/support/mail.ts instead.
+ */
+export const recordedMail: OutgoingMail[] = [];
+export const recordingMailer: Mailer = {
+  async send(mail) {
+    recordedMail.push(mail);
+  },
+};
+
 export function testApp(overrides: Partial<AppConfig> = {}): Express {
-  return createApp({ config: testConfig(overrides) });
+  return createApp({ config: testConfig(overrides), mailer: recordingMailer });
 }
 
 /** A browser-like client: keeps cookies and sends the CSRF header on writes, as the real client does. */

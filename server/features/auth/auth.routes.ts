@@ -5,6 +5,8 @@ import {
   CreateTokenInputSchema,
   LoginInputSchema,
   NamedTokenInputSchema,
+  PasswordResetInputSchema,
+  PasswordResetRequestSchema,
   RegisterInputSchema,
   SESSION_COOKIE,
   TokenResponseSchema,
@@ -19,8 +21,10 @@ import { sessionCookieOptions, signSession } from '../../lib/session.ts';
 import { issueApiToken, listTokensOf, revokeToken } from '../tokens/tokens.service.ts';
 import { toUser } from '../users/users.repository.ts';
 import { checkCredentials, registerUser } from './auth.service.ts';
+import { requestPasswordReset, resetPassword } from './password-reset.service.ts';
+import type { Mailer } from '../../lib/mailer.ts';
 
-export function createAuthRouter(config: AppConfig) {
+export function createAuthRouter(config: AppConfig, mailer: Mailer) {
   const api = createApiRouter();
   const credentialLimiter = rateLimit({
     windowMs: config.authRateLimit.windowMs,
@@ -162,6 +166,41 @@ export function createAuthRouter(config: AppConfig) {
     },
     async (req, res) => {
       await revokeToken(requireActor(res).id, parseIdParam(req.params.id));
+      res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/auth/password-reset',
+      tag: 'auth',
+      summary:
+        'E-mail a single-use link (valid one hour) to choose a new password; 202 whether or not the address has an account',
+      access: 'public',
+      body: PasswordResetRequestSchema,
+      status: 202,
+      before: [credentialLimiter],
+    },
+    async (req, res) => {
+      await requestPasswordReset(req.body.email, mailer, config);
+      res.status(202).json({ message: 'If that address has an account, a link to choose a new password is on its way.' });
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/auth/password-reset/:token',
+      tag: 'auth',
+      summary: 'Choose a new password with a reset link; 400 forged, 410 used or expired',
+      access: 'public',
+      body: PasswordResetInputSchema,
+      status: 204,
+      before: [credentialLimiter],
+    },
+    async (req, res) => {
+      await resetPassword(typeof req.params.token === 'string' ? req.params.token : '', req.body.password, config);
       res.status(204).end();
     },
   );

@@ -5,7 +5,7 @@ import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import type { CreatePlanInput, UpdatePlanInput } from '../../../shared/plans/schemas.ts';
 import { formatShorthand, normaliseItems, parseShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
-import { db, type SessionPlanRow } from '../../lib/db.ts';
+import { db, type RunRow, type SessionPlanRow } from '../../lib/db.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { findGoalRace, listRaceResults } from '../goals/goals.repository.ts';
 import { getReadableRun, loadRunSeriesAndLaps } from '../runs/runs.service.ts';
@@ -145,7 +145,11 @@ export interface PlanCheckResponse extends Omit<PlanCheckResult, 'parts'> {
 }
 
 export async function planCheckOfRun(actor: Actor, runId: string): Promise<PlanCheckResponse> {
-  const run = await getReadableRun(actor, runId);
+  return checkRun(await getReadableRun(actor, runId));
+}
+
+/** The plan check of a run the caller may read (also used by the week review). */
+export async function checkRun(run: RunRow): Promise<PlanCheckResponse> {
   const plan = await planOfRun(run);
   const runner = await findUserById(run.user_id);
   const tolerance = runner?.pace_tolerance ?? 0.02;

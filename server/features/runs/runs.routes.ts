@@ -17,6 +17,8 @@ import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import type { AppConfig } from '../../config.ts';
+import type { Mailer } from '../../lib/mailer.ts';
+import { notifyCoachesOfImport } from '../squads/squads.service.ts';
 import {
   addNote,
   deleteOwnRun,
@@ -69,7 +71,7 @@ function uploadFiles(maxFileBytes: number): RequestHandler {
   };
 }
 
-export function createRunsRouter(store: FileStore, config: AppConfig) {
+export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Mailer) {
   const api = createApiRouter();
 
   api.route(
@@ -91,7 +93,9 @@ export function createRunsRouter(store: FileStore, config: AppConfig) {
         data: f.buffer,
       }));
       if (files.length === 0) throw new BadRequestError('Choose at least one .gpx or .tcx file to upload.', 'no-files');
-      const result = await importFiles(requireActor(res), files, store);
+      const actor = requireActor(res);
+      const result = await importFiles(actor, files, store);
+      await notifyCoachesOfImport(actor, result.imported, mailer, config);
       res.status(result.imported.length > 0 ? 201 : 422).json(result);
     },
   );

@@ -4,6 +4,7 @@ import { analyseTrack, type RunAnalysis } from '../../../shared/tracks/analyse.t
 import { localDateTime } from '../../../shared/runs/local-time.ts';
 import { estimateRunEnergy } from '../../../shared/tracks/energy.ts';
 import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.ts';
+import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import type { ImportResult, ListRunsQuery } from '../../../shared/runs/schemas.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
@@ -65,7 +66,19 @@ function profileDependentFigures(user: UserRow, analysis: RunAnalysis) {
   const { series, summary } = analysis;
   const zones = heartRateZones(user.max_hr, user.resting_hr);
   const energy = estimateRunEnergy(summary.distance_m, summary.moving_s, user.weight_kg);
+  const trimp =
+    series.hr && user.resting_hr !== null && user.max_hr !== null
+      ? trimpOfSeries(series.t, series.hr, series.moving, user.resting_hr, user.max_hr, user.sex)
+      : null;
   return {
+    trimp: trimp
+      ? {
+          ...trimp,
+          resting_hr: user.resting_hr,
+          max_hr: user.max_hr,
+          method: 'Banister TRIMP, summed interval by interval over moving time',
+        }
+      : null,
     hr_zones:
       zones && series.hr
         ? {

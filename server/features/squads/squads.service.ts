@@ -4,6 +4,7 @@ import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schema
 import type { AppConfig } from '../../config.ts';
 import { db, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
+import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { findUserById } from '../users/users.repository.ts';
 import {
@@ -160,4 +161,40 @@ export async function coachesOf(actor: Actor) {
     squad: { id: c.squad_id, name: c.squad_name },
     coach: { id: c.coach_id, name: c.coach_name, email: c.coach_email },
   }));
+}
+
+/**
+ * Tells each coach of the runner (who has not turned it off) that runs were imported. Failures are
+ * logged, never passed on: a mail problem must not undo an import.
+ */
+export async function notifyCoachesOfImport(
+  runner: { id: string; name: string },
+  runs: Array<{ id: string; name: string; local_date: string; distance_m: number }>,
+  mailer: Mailer,
+  config: AppConfig,
+): Promise<void> {
+  if (runs.length === 0) return;
+  const coaches = await listCoachesOfRunner(runner.id);
+  const seen = new Set<string>();
+  for (const c of coaches) {
+    if (seen.has(c.coach_id)) continue;
+    seen.add(c.coach_id);
+    const coach = await findUserById(c.coach_id);
+    if (!coach?.notify_on_import) continue;
+    const lines = runs.map(
+      (r) => `${r.local_date} · ${r.name} · ${(r.distance_m / 1000).toFixed(2)} km: ${config.publicUrl}/runs/${r.id}`,
+    );
+    const intro = `${runner.name} imported ${runs.length === 1 ? 'a run' : `${runs.length} runs`}.`;
+    const off = 'You can turn these notices off on your profile page.';
+    try {
+      await mailer.send({
+        to: coach.email,
+        subject: `${runner.name} imported ${runs.length === 1 ? 'a run' : `${runs.length} runs`}`,
+        text: `${intro}\n\n${lines.join('\n')}\n\n${off}\n`,
+        html: htmlMessage(intro, [...lines, off]),
+      });
+    } catch (err) {
+      logger.warn({ err, coach: coach.id }, 'could not send an import notice');
+    }
+  }
 }

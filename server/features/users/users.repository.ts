@@ -16,6 +16,9 @@ export function toProfile(row: UserRow): Profile {
     weight_kg: row.weight_kg,
     time_zone: row.time_zone,
     pace_tolerance: row.pace_tolerance,
+    notify_on_import: row.notify_on_import,
+    week_starts_on: row.week_starts_on,
+    sex: row.sex,
     created_at: row.created_at.toISOString(),
   };
 }

@@ -1,0 +1,65 @@
+import { createHash, randomBytes } from 'node:crypto';
+import type { AppConfig } from '../../config.ts';
+import { db } from '../../lib/db.ts';
+import { AppError } from '../../lib/errors.ts';
+import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
+import { findUserByEmail } from '../users/users.repository.ts';
+import { hashPassword } from './auth.service.ts';
+
+/** Reset links work once, for an hour. */
+export const RESET_LINK_MINUTES = 60;
+
+const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+/**
+ * Sends a reset link when the address belongs to an account. The answer is the same either way,
+ * so the form does not reveal who has an account.
+ */
+export async function requestPasswordReset(email: string, mailer: Mailer, config: AppConfig, now = new Date()): Promise<void> {
+  const user = await findUserByEmail(email);
+  if (!user) return;
+  const token = 'rst_' + randomBytes(32).toString('base64url');
+  const link = `${config.publicUrl}/reset-password/${token}`;
+  await db('password_resets').insert({
+    user_id: user.id,
+    token_hash: hashToken(token),
+    expires_at: new Date(now.getTime() + RESET_LINK_MINUTES * 60_000),
+  });
+  const lines = [
+    `Someone (we hope you) asked to choose a new password for ${user.email} on Pacewright.`,
+    `The link works once, for ${RESET_LINK_MINUTES} minutes. If you did not ask for it, ignore this e-mail: your password stays as it is.`,
+  ];
+  await mailer.send({
+    to: user.email,
+    subject: 'Choose a new Pacewright password',
+    text: `${lines.join('\n\n')}\n\nChoose a new password: ${link}\n`,
+    html: htmlMessage('Choose a new password', lines, { href: link, label: 'Choose a new password' }),
+  });
+}
+
+/** Sets the new password if the link is genuine, unused and unexpired; the link is used up either way it succeeds. */
+export async function resetPassword(token: string, password: string, config: AppConfig, now = new Date()): Promise<void> {
+  const row = /^rst_[A-Za-z0-9_-]{43}$/.test(token)
+    ? await db('password_resets')
+        .where({ token_hash: hashToken(token) })
+        .first()
+    : undefined;
+  if (!row)
+    throw new AppError(
+      400,
+      'invalid-reset-link',
+      'This reset link is not valid. Check that you copied the whole link, or ask for a new one.',
+    );
+  if (row.used_at)
+    throw new AppError(410, 'reset-link-used', 'This reset link has already been used. Ask for a new one if you need it.');
+  if (row.expires_at <= now) throw new AppError(410, 'reset-link-expired', 'This reset link has expired. Ask for a new one.');
+  const passwordHash = await hashPassword(password, config);
+  await db.transaction(async (trx) => {
+    const claimed = await trx('password_resets').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
+    if (!claimed)
+      throw new AppError(410, 'reset-link-used', 'This reset link has already been used. Ask for a new one if you need it.');
+    await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, updated_at: now });
+    // A new password ends every script token issued under the old one.
+    await trx('api_tokens').where({ user_id: row.user_id }).delete();
+  });
+}

@@ -1,0 +1,68 @@
+import type { Actor } from '../../../shared/auth/permissions.ts';
+import { groupForDigest } from '../../../shared/weeks/csv.ts';
+import type { AppConfig } from '../../config.ts';
+import { NotFoundError } from '../../lib/errors.ts';
+import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
+import { findSquadById } from '../squads/squads.repository.ts';
+import { findUserById } from '../users/users.repository.ts';
+import { buildSquadOverview, type OverviewRow } from './weeks.service.ts';
+
+const HEADINGS = { on_plan: 'On plan', flagged: 'With flags to look at', no_upload: 'No run uploaded this week' } as const;
+
+function km(m: number): string {
+  return `${(m / 1000).toFixed(1)} km`;
+}
+
+function line(row: OverviewRow): string {
+  const flags = row.flags.length ? ` — ${row.flags.map((f) => f.message).join(' ')}` : '';
+  return `${row.runner.name}: ${km(row.run_distance_m)} of ${km(row.planned_distance_m)} planned, ${row.sessions_as_planned} of ${row.sessions_planned} sessions as planned${flags}`;
+}
+
+/** Builds and sends the weekly digest of one squad to its coach. Returns the headings with the runners under them. */
+export async function sendSquadDigest(
+  actor: Actor,
+  squadId: string,
+  week: string | undefined,
+  mailer: Mailer,
+  config: AppConfig,
+  now = new Date(),
+) {
+  const squad = await findSquadById(squadId);
+  if (!squad || squad.coach_id !== actor.id) throw new NotFoundError('There is no squad of yours with this id.');
+  const coach = (await findUserById(squad.coach_id))!;
+  const overview = await buildSquadOverview(actor, squadId, week, now);
+  const groups = groupForDigest(overview.rows);
+  const weekOf = overview.rows[0]?.start ?? week ?? now.toISOString().slice(0, 10);
+  const sections = (Object.keys(HEADINGS) as Array<keyof typeof HEADINGS>).map((key) => ({
+    heading: HEADINGS[key],
+    rows: groups[key],
+  }));
+  const closing = 'Flags describe what the numbers show; you know the runner — the decision is yours.';
+  const link = `${config.publicUrl}/squad`;
+  const text = [
+    `${squad.name} — week of ${weekOf}`,
+    '',
+    ...sections.flatMap((s) => [
+      `${s.heading} (${s.rows.length})`,
+      ...(s.rows.length ? s.rows.map((r) => `- ${line(r)}`) : ['- nobody']),
+      '',
+    ]),
+    closing,
+    `Open the squad: ${link}`,
+    '',
+  ].join('\n');
+  const html = `<!doctype html><html><body style="background:#f6f4ef;color:#1d2330;font-family:'Source Sans 3',Arial,sans-serif;padding:24px"><div style="max-width:620px;margin:auto;background:#fffdf9;border:1px solid #ddd7ca;padding:24px"><p style="font-weight:700;margin:0 0 8px">Pacewright</p><h1 style="font-size:20px;margin:0 0 16px">${escapeHtml(squad.name)} — week of ${escapeHtml(weekOf)}</h1>${sections
+    .map(
+      (s) =>
+        `<h2 style="font-size:16px;margin:16px 0 6px">${escapeHtml(s.heading)} (${s.rows.length})</h2><ul style="margin:0;padding-left:20px">${s.rows.length ? s.rows.map((r) => `<li>${escapeHtml(line(r))}</li>`).join('') : '<li>nobody</li>'}</ul>`,
+    )
+    .join(
+      '',
+    )}<p style="margin-top:16px">${escapeHtml(closing)}</p><p><a href="${escapeHtml(link)}" style="color:#0f5c5c">Open the squad</a></p></div></body></html>`;
+  await mailer.send({ to: coach.email, subject: `${squad.name}: week of ${weekOf}`, text, html });
+  return {
+    sent_to: coach.email,
+    week_start: weekOf,
+    groups: Object.fromEntries(sections.map((s) => [s.heading, s.rows.map((r) => r.runner.name)])),
+  };
+}

@@ -1,0 +1,141 @@
+import { z } from 'zod';
+import { NewRunNoteInputSchema } from '../../../shared/runs/schemas.ts';
+import { overviewToCsv, weekToCsv } from '../../../shared/weeks/csv.ts';
+import type { AppConfig } from '../../config.ts';
+import { createApiRouter } from '../../lib/api-router.ts';
+import { requireActor } from '../../lib/authorize.ts';
+import { BadRequestError } from '../../lib/errors.ts';
+import { parseIdParam } from '../../lib/ids.ts';
+import type { Mailer } from '../../lib/mailer.ts';
+import { sendSquadDigest } from './digest.service.ts';
+import { addWeekNote, buildRunnerWeek, buildSquadOverview, setWeekReviewed } from './weeks.service.ts';
+
+const DateSchema = z.iso.date({ error: 'Use a date like 2026-11-23.' });
+const WeekQuerySchema = z.object({ start: DateSchema.optional() });
+const OverviewQuerySchema = z.object({ week: DateSchema.optional() });
+
+function weekParam(value: string | string[] | undefined): string {
+  const parsed = DateSchema.safeParse(value);
+  if (!parsed.success) throw new BadRequestError('Use a week start date like 2026-11-23.');
+  return parsed.data;
+}
+
+export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
+  const api = createApiRouter();
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runners/:id/week',
+      tag: 'weeks',
+      summary: 'One runner’s week (start = any date in it): plans and runs with verdicts, totals, load, flags, notes',
+      access: 'own-data',
+      query: WeekQuerySchema,
+    },
+    async (req, res) => {
+      const { start } = res.locals.query as z.infer<typeof WeekQuerySchema>;
+      res.json(await buildRunnerWeek(requireActor(res), parseIdParam(req.params.id), start));
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/runners/:id/week.csv',
+      tag: 'weeks',
+      summary: 'The week as CSV',
+      access: 'own-data',
+      query: WeekQuerySchema,
+    },
+    async (req, res) => {
+      const { start } = res.locals.query as z.infer<typeof WeekQuerySchema>;
+      const week = await buildRunnerWeek(requireActor(res), parseIdParam(req.params.id), start);
+      res.type('text/csv; charset=utf-8').attachment(`week-${week.start}.csv`).send(weekToCsv(week.days));
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/runners/:id/weeks/:start/notes',
+      tag: 'weeks',
+      summary: 'Write a note on a week (the runner or their coach)',
+      access: 'own-data',
+      body: NewRunNoteInputSchema,
+      status: 201,
+    },
+    async (req, res) => {
+      res
+        .status(201)
+        .json({
+          note: await addWeekNote(requireActor(res), parseIdParam(req.params.id), weekParam(req.params.start), req.body.text),
+        });
+    },
+  );
+
+  api.route(
+    {
+      method: 'put',
+      path: '/runners/:id/weeks/:start/review',
+      tag: 'weeks',
+      summary: 'Mark the week reviewed (reviewed: true) or not (false) — the runner’s coach',
+      access: 'squads:manage',
+      body: z.object({ reviewed: z.boolean({ error: 'Say reviewed: true or false.' }) }).strict(),
+      status: 204,
+    },
+    async (req, res) => {
+      await setWeekReviewed(requireActor(res), parseIdParam(req.params.id), weekParam(req.params.start), req.body.reviewed);
+      res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/squads/:id/overview',
+      tag: 'weeks',
+      summary: 'One row per squad runner for a week: planned and run, sessions, flags, last upload, reviewed, 12-week volume',
+      access: 'squads:manage',
+      query: OverviewQuerySchema,
+    },
+    async (req, res) => {
+      const { week } = res.locals.query as z.infer<typeof OverviewQuerySchema>;
+      res.json(await buildSquadOverview(requireActor(res), parseIdParam(req.params.id), week));
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/squads/:id/overview.csv',
+      tag: 'weeks',
+      summary: 'The squad overview as CSV',
+      access: 'squads:manage',
+      query: OverviewQuerySchema,
+    },
+    async (req, res) => {
+      const { week } = res.locals.query as z.infer<typeof OverviewQuerySchema>;
+      const overview = await buildSquadOverview(requireActor(res), parseIdParam(req.params.id), week);
+      res
+        .type('text/csv; charset=utf-8')
+        .attachment(`squad-${overview.rows[0]?.start ?? 'week'}.csv`)
+        .send(overviewToCsv(overview.rows));
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/squads/:id/digest',
+      tag: 'weeks',
+      summary: 'E-mail the weekly digest of this squad to its coach now',
+      access: 'squads:manage',
+      body: z.object({ week: DateSchema.optional() }).strict(),
+    },
+    async (req, res) => {
+      res.json(await sendSquadDigest(requireActor(res), parseIdParam(req.params.id), req.body.week, mailer, config));
+    },
+  );
+
+  return api;
+}

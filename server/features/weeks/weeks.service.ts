@@ -1,0 +1,243 @@
+import type { Actor } from '../../../shared/auth/permissions.ts';
+import { expandParts } from '../../../shared/plans/expand.ts';
+import { referencePerformance } from '../../../shared/plans/race-paces.ts';
+import type { PlanItem } from '../../../shared/plans/types.ts';
+import { trainingPaceRanges } from '../../../shared/race/paces.ts';
+import { localDateTime } from '../../../shared/runs/local-time.ts';
+import { longRunPlanId, summariseWeek, type WeekPlan, type WeekReview, type WeekRun } from '../../../shared/weeks/week-review.ts';
+import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
+import type { RunRow, SessionPlanRow, UserRow } from '../../lib/db.ts';
+import { NotFoundError } from '../../lib/errors.ts';
+import { findGoalRace, listRaceResults } from '../goals/goals.repository.ts';
+import { listPlans } from '../plans/plans.repository.ts';
+import { checkRun } from '../plans/plans.service.ts';
+import { toRunListItem } from '../runs/runs.repository.ts';
+import { assertCanReadRunner } from '../squads/runner-access.ts';
+import { findCoachIdsOfRunner, findSquadById, listMembers } from '../squads/squads.repository.ts';
+import { findUserById } from '../users/users.repository.ts';
+import {
+  findWeekReviews,
+  insertWeekNote,
+  lastUploadOf,
+  listRunsBetween,
+  listWeekNotes,
+  upsertWeekReview,
+  deleteWeekReview,
+} from './weeks.repository.ts';
+
+const EASY_KINDS = new Set(['easy', 'recovery jog', 'warm-up', 'cool-down']);
+const TREND_WEEKS = 12;
+
+function trimpOf(run: RunRow): number | null {
+  const trimp = (run.details as { trimp?: { trimp: number } | null }).trimp;
+  return trimp ? trimp.trimp : null;
+}
+
+function weekPlansOf(rows: SessionPlanRow[]): WeekPlan[] {
+  const plans = rows.map((row) => {
+    const parts = expandParts(row.items as PlanItem[]);
+    const distance = parts.reduce((sum, p) => sum + (p.amount.type === 'distance' ? p.amount.distance_m : 0), 0);
+    const duration = parts.reduce((sum, p) => sum + (p.amount.type === 'duration' ? p.amount.duration_s : 0), 0);
+    return {
+      id: row.id,
+      date: row.date,
+      title: row.title,
+      planned_distance_m: distance > 0 ? distance : null,
+      planned_duration_s: duration > 0 ? duration : null,
+      is_long_run: false,
+      easy_only: parts.length > 0 && parts.every((p) => EASY_KINDS.has(p.kind)),
+    };
+  });
+  const longRun = longRunPlanId(plans);
+  return plans.map((p) => ({ ...p, is_long_run: p.id === longRun }));
+}
+
+/** The runner's local date now. */
+function todayOf(runner: UserRow, now: Date): string {
+  return localDateTime(now.getTime(), runner.time_zone).date;
+}
+
+async function easyPaceFastest(runner: UserRow, today: string): Promise<number | null> {
+  const [goal, results] = await Promise.all([findGoalRace(runner.id), listRaceResults(runner.id)]);
+  const reference = referencePerformance(
+    goal ? { date: goal.date, distance_m: goal.distance_m, time_s: goal.goal_time_s } : null,
+    results,
+    today,
+  );
+  if (!reference) return null;
+  const easy = trainingPaceRanges(reference.distance_m, reference.time_s).ranges.find((r) => r.kind === 'easy');
+  return easy ? easy.fast.s_per_km : null;
+}
+
+export interface RunnerWeek extends WeekReview {
+  runner_id: string;
+  runner: { id: string; name: string };
+  start: string;
+  end: string;
+  today: string;
+  week_starts_on: number;
+  trend: Array<{ start: string; run_distance_m: number; trimp: number }>;
+  last_upload: string | null;
+  reviewed_by: Array<{ coach_id: string; coach_name: string; reviewed_at: string }>;
+  notes: Array<{ id: string; text: string; created_at: string; author: { id: string; name: string; role: string } }>;
+}
+
+/**
+ * One runner's week for the runner, their coaches and admins: plans and runs side by side with plan-check
+ * verdicts, totals, long run, load, flags (shared/weeks/week-review.ts), a 12-week trend, notes and reviews.
+ */
+export async function buildRunnerWeek(
+  actor: Actor,
+  runnerId: string,
+  requestedStart: string | undefined,
+  now = new Date(),
+): Promise<RunnerWeek> {
+  await assertCanReadRunner(actor, runnerId);
+  const runner = await findUserById(runnerId);
+  if (!runner) throw new NotFoundError();
+  const today = todayOf(runner, now);
+  const start = weekStart(requestedStart ?? today, runner.week_starts_on);
+  const dates = weekDates(start);
+  const end = dates[6]!;
+  const trendStart = addDays(start, -7 * (TREND_WEEKS - 1));
+  const loadStart = addDays(end, -27);
+  const historyFrom = trendStart < loadStart ? trendStart : loadStart;
+
+  const [planRows, history, easyFastest, notes, reviews, lastUpload] = await Promise.all([
+    listPlans(runnerId, start, end),
+    listRunsBetween(runnerId, historyFrom, end),
+    easyPaceFastest(runner, today),
+    listWeekNotes(runnerId, start),
+    findWeekReviews(runnerId, start),
+    lastUploadOf(runnerId),
+  ]);
+  const weekRuns = history.filter((r) => r.local_date >= start);
+  const checks = await Promise.all(weekRuns.map((run) => checkRun(run)));
+  const runs: WeekRun[] = weekRuns.map((run, i) => ({
+    id: run.id,
+    date: run.local_date,
+    distance_m: run.distance_m,
+    moving_s: run.moving_s,
+    trimp: trimpOf(run),
+    session_verdict: checks[i]!.session_verdict,
+    pace_s_per_km: run.moving_s > 0 && run.distance_m > 0 ? run.moving_s / (run.distance_m / 1000) : null,
+    plan_id: checks[i]!.plan_id,
+  }));
+
+  const firstRunDate = history[0]?.local_date;
+  const dailyLoads: Array<{ date: string; load: number }> = [];
+  for (let d = loadStart; d <= end; d = addDays(d, 1)) {
+    if (firstRunDate === undefined || d < firstRunDate) continue; // history starts with the first run
+    dailyLoads.push({ date: d, load: history.filter((r) => r.local_date === d).reduce((sum, r) => sum + (trimpOf(r) ?? 0), 0) });
+  }
+  const previousStart = addDays(start, -7);
+  const previous = history.filter((r) => r.local_date >= previousStart && r.local_date < start);
+
+  const review = summariseWeek({
+    start,
+    dates,
+    plans: weekPlansOf(planRows),
+    runs,
+    previous_week_run_distance_m: previous.length ? previous.reduce((sum, r) => sum + r.distance_m, 0) : null,
+    daily_loads_last_28_days: dailyLoads,
+    easy_pace_fastest_s_per_km: easyFastest,
+    today,
+    unit: runner.unit,
+  });
+
+  const trend = Array.from({ length: TREND_WEEKS }, (_, k) => {
+    const from = addDays(trendStart, 7 * k);
+    const to = addDays(from, 6);
+    const inWeek = history.filter((r) => r.local_date >= from && r.local_date <= to);
+    return {
+      start: from,
+      run_distance_m: inWeek.reduce((s, r) => s + r.distance_m, 0),
+      trimp: inWeek.reduce((s, r) => s + (trimpOf(r) ?? 0), 0),
+    };
+  });
+
+  const runsById = new Map(weekRuns.map((r) => [r.id, r]));
+  return {
+    ...review,
+    days: review.days.map((day) => ({
+      ...day,
+      runs: day.runs.map((r) => ({ ...r, ...toRunListItem(runsById.get(r.id)!) })),
+    })),
+    runner_id: runner.id,
+    runner: { id: runner.id, name: runner.name },
+    start,
+    end,
+    today,
+    week_starts_on: runner.week_starts_on,
+    trend,
+    last_upload: lastUpload ? lastUpload.toISOString() : null,
+    reviewed_by: reviews.map((r) => ({
+      coach_id: r.coach_id,
+      coach_name: r.coach_name,
+      reviewed_at: r.reviewed_at.toISOString(),
+    })),
+    notes: notes.map((n) => ({
+      id: n.id,
+      text: n.text,
+      created_at: n.created_at.toISOString(),
+      author: { id: n.author_id, name: n.author_name, role: n.author_role },
+    })),
+  };
+}
+
+/** The runner and their coaches write notes on a week; the other side reads them. */
+export async function addWeekNote(actor: Actor, runnerId: string, start: string, text: string) {
+  await assertCanReadRunner(actor, runnerId);
+  const id = await insertWeekNote(runnerId, start, actor.id, text);
+  return { id, text };
+}
+
+/** A coach of the runner marks the week reviewed (or not). */
+export async function setWeekReviewed(actor: Actor, runnerId: string, start: string, reviewed: boolean): Promise<void> {
+  await assertCanReadRunner(actor, runnerId);
+  if (!(await findCoachIdsOfRunner(runnerId)).includes(actor.id))
+    throw new NotFoundError('Only the runner’s coach marks a week reviewed.');
+  if (reviewed) await upsertWeekReview(runnerId, start, actor.id);
+  else await deleteWeekReview(runnerId, start, actor.id);
+}
+
+export interface OverviewRow {
+  runner: { id: string; name: string };
+  start: string;
+  planned_distance_m: number;
+  run_distance_m: number;
+  moving_s: number;
+  sessions_planned: number;
+  sessions_as_planned: number;
+  flags: Array<{ code: string; message: string }>;
+  last_upload: string | null;
+  reviewed: boolean;
+  volume_12_weeks: number[];
+}
+
+/** One row per squad runner for the week containing `week` (each runner's own week start). */
+export async function buildSquadOverview(actor: Actor, squadId: string, week: string | undefined, now = new Date()) {
+  const squad = await findSquadById(squadId);
+  if (!squad || (squad.coach_id !== actor.id && actor.role !== 'admin'))
+    throw new NotFoundError('There is no squad of yours with this id.');
+  const members = await listMembers(squadId);
+  const rows: OverviewRow[] = [];
+  for (const member of members) {
+    const w = await buildRunnerWeek(actor, member.id, week, now);
+    const s = w.totals.sessions;
+    rows.push({
+      runner: w.runner,
+      start: w.start,
+      planned_distance_m: w.totals.planned_distance_m,
+      run_distance_m: w.totals.run_distance_m,
+      moving_s: w.totals.moving_s,
+      sessions_planned: w.days.reduce((n, d) => n + d.plans.length, 0),
+      sessions_as_planned: s.as_planned,
+      flags: w.flags.map((f) => ({ code: f.code, message: f.message })),
+      last_upload: w.last_upload,
+      reviewed: w.reviewed_by.some((r) => r.coach_id === squad.coach_id),
+      volume_12_weeks: w.trend.map((t) => t.run_distance_m),
+    });
+  }
+  return { squad: { id: squad.id, name: squad.name }, week: week ?? null, rows };
+}

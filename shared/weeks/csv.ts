@@ -1,0 +1,122 @@
+/** CSV helpers for the week review and the squad overview (RFC 4180: quoted where needed, CRLF). */
+
+function cell(value: string | number | null | undefined): string {
+  if (value === null || value === undefined || (typeof value === 'number' && !Number.isFinite(value))) return '';
+  const text = String(value);
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+export function toCsv(header: readonly string[], rows: ReadonlyArray<ReadonlyArray<string | number | null | undefined>>): string {
+  return [header.map(cell).join(','), ...rows.map((r) => r.map(cell).join(','))].join('\r\n') + '\r\n';
+}
+
+export interface WeekCsvDay {
+  date: string;
+  plans: ReadonlyArray<{ title: string; planned_distance_m: number | null; planned_duration_s: number | null }>;
+  runs: ReadonlyArray<{
+    name?: string;
+    distance_m: number;
+    moving_s: number;
+    session_verdict: string | null;
+    trimp: number | null;
+  }>;
+}
+
+/** One row per plan or run of the week: date, what, planned and run figures, verdict. */
+export function weekToCsv(days: readonly WeekCsvDay[]): string {
+  const rows: Array<Array<string | number | null>> = [];
+  for (const day of days) {
+    for (const p of day.plans)
+      rows.push([
+        day.date,
+        'plan',
+        p.title,
+        p.planned_distance_m === null ? null : Math.round(p.planned_distance_m),
+        p.planned_duration_s,
+        null,
+        null,
+        null,
+        null,
+      ]);
+    for (const r of day.runs)
+      rows.push([
+        day.date,
+        'run',
+        r.name ?? '',
+        null,
+        null,
+        Math.round(r.distance_m),
+        Math.round(r.moving_s),
+        r.session_verdict,
+        r.trimp === null ? null : Math.round(r.trimp),
+      ]);
+  }
+  return toCsv(
+    ['date', 'entry', 'title', 'planned_distance_m', 'planned_duration_s', 'run_distance_m', 'moving_s', 'verdict', 'trimp'],
+    rows,
+  );
+}
+
+export interface OverviewCsvRow {
+  runner: { name: string };
+  start: string;
+  planned_distance_m: number;
+  run_distance_m: number;
+  moving_s: number;
+  sessions_planned: number;
+  sessions_as_planned: number;
+  flags: ReadonlyArray<{ code: string }>;
+  last_upload: string | null;
+  reviewed: boolean;
+}
+
+export function overviewToCsv(rows: readonly OverviewCsvRow[]): string {
+  return toCsv(
+    [
+      'runner',
+      'week_start',
+      'planned_distance_m',
+      'run_distance_m',
+      'moving_s',
+      'sessions_planned',
+      'sessions_as_planned',
+      'flags',
+      'last_upload',
+      'reviewed',
+    ],
+    rows.map((r) => [
+      r.runner.name,
+      r.start,
+      Math.round(r.planned_distance_m),
+      Math.round(r.run_distance_m),
+      Math.round(r.moving_s),
+      r.sessions_planned,
+      r.sessions_as_planned,
+      r.flags.map((f) => f.code).join(' '),
+      r.last_upload,
+      r.reviewed ? 'yes' : 'no',
+    ]),
+  );
+}
+
+export interface DigestGroups<T> {
+  on_plan: T[];
+  flagged: T[];
+  no_upload: T[];
+}
+
+/**
+ * Sorts overview rows into the digest's headings: no run this week → "no upload"; any flag → "flagged";
+ * otherwise "on plan". A runner appears under one heading only.
+ */
+export function groupForDigest<T extends { run_distance_m: number; flags: ReadonlyArray<unknown> }>(
+  rows: readonly T[],
+): DigestGroups<T> {
+  const groups: DigestGroups<T> = { on_plan: [], flagged: [], no_upload: [] };
+  for (const row of rows) {
+    if (row.run_distance_m <= 0) groups.no_upload.push(row);
+    else if (row.flags.length > 0) groups.flagged.push(row);
+    else groups.on_plan.push(row);
+  }
+  return groups;
+}

@@ -1,0 +1,334 @@
+/**
+ * The week review: one runner's week, plan against what was run, with load and flags.
+ *
+ * Flags describe; they do not diagnose. Each message says in plain words what was seen and ends by
+ * leaving the decision to the coach; each names where its rule comes from.
+ */
+import { acuteChronicRatio, type AcuteChronic, type DailyLoad } from './load.ts';
+import { dayOfWeek, isIsoDate, weekDates } from './weeks.ts';
+
+/** A long run is at least this long by planned time (common practice, not a published threshold). */
+export const LONG_RUN_MIN_DURATION_S = 90 * 60;
+/** …or at least this share of the week's planned distance (common practice, not a published threshold). */
+export const LONG_RUN_MIN_SHARE = 0.25;
+/** Weekly distance may grow by this fraction before `volume-jump` (the "10 % rule", common practice). */
+export const VOLUME_JUMP_FRACTION = 0.1;
+/** Acute:chronic ratio above which `load-spike` is raised (Gabbett 2016; exactly 1.5 is not flagged). */
+export const LOAD_SPIKE_RATIO = 1.5;
+
+export type SessionVerdict = 'as planned' | 'partly' | 'missed' | 'unplanned';
+export type DistanceUnit = 'km' | 'mi';
+export type FlagCode = 'volume-jump' | 'load-spike' | 'easy-too-fast' | 'long-run-missed';
+
+export interface WeekPlan {
+  id: string;
+  date: string;
+  title: string;
+  /** Metres over the parts given as a distance; null for a plan given only by time (not guessed from a pace). */
+  planned_distance_m: number | null;
+  /** Seconds over the parts given as a time; null when none. */
+  planned_duration_s: number | null;
+  is_long_run: boolean;
+  /** Every part of the plan is easy running (so the whole run should sit in the easy range). */
+  easy_only: boolean;
+}
+
+export interface WeekRun {
+  id: string;
+  date: string;
+  distance_m: number;
+  moving_s: number;
+  /** Banister TRIMP, null without heart rate. */
+  trimp: number | null;
+  /** Session verdict of the plan check, null when not checked. */
+  session_verdict: SessionVerdict | null;
+  /** Mean moving pace, s per km. */
+  pace_s_per_km: number | null;
+  /** The plan this run was checked against, when known; otherwise runs are matched to plans by date. */
+  plan_id?: string | null;
+}
+
+export interface WeekReviewInput {
+  /** First day of the week, `YYYY-MM-DD`. */
+  start: string;
+  /** The seven dates from `start`. */
+  dates: string[];
+  plans: WeekPlan[];
+  runs: WeekRun[];
+  previous_week_run_distance_m: number | null;
+  /**
+   * One entry per day (0 on rest days), covering at least the 28 days ending on the review date
+   * (the week's last day, or `today` if earlier); more days are fine. See `acuteChronicRatio`.
+   */
+  daily_loads_last_28_days: DailyLoad[];
+  /** The fast end of the runner's easy range, s per km, or null when unknown. */
+  easy_pace_fastest_s_per_km: number | null;
+  /** The runner's local date today. */
+  today: string;
+  /** Unit for distances and paces in flag messages; km by default. */
+  unit?: DistanceUnit;
+}
+
+export interface WeekFlag {
+  code: FlagCode;
+  message: string;
+  source: string;
+  /** The plan or run the flag is about, when it is about one. */
+  plan_id?: string;
+  run_id?: string;
+}
+
+export interface WeekReview {
+  days: Array<{ date: string; plans: WeekPlan[]; runs: WeekRun[] }>;
+  totals: {
+    /** Sum of the plans' planned distance; plans given only by time are left out (see `plans_without_distance`). */
+    planned_distance_m: number;
+    /** How many plans have no planned distance and so are not in `planned_distance_m`. */
+    plans_without_distance: number;
+    /** Sum of the time-based parts of the plans, seconds (not comparable to `moving_s` when plans mix). */
+    planned_duration_s: number;
+    run_distance_m: number;
+    moving_s: number;
+    sessions: { as_planned: number; partly: number; missed: number; unplanned: number };
+    /** Sum of the runs' TRIMP; null when no run has one. */
+    trimp: number | null;
+    /** Runs with no TRIMP (no heart rate), so not in `trimp`. */
+    runs_without_trimp: number;
+  };
+  long_run: { run_id: string; distance_m: number; share_of_week: number } | null;
+  acute_chronic_ratio: AcuteChronic | null;
+  flags: WeekFlag[];
+}
+
+const SOURCES: Record<FlagCode, string> = {
+  'volume-jump':
+    "Common practice (the '10 % rule'); no published source. A trial in novice runners (Buist et al. 2008) " +
+    'found no fewer injuries with 10 % a week than with a faster build-up.',
+  'load-spike':
+    'Gabbett, T. J. (2016), Br J Sports Med 50:273–280: acute:chronic workload ratio, last 7 days against the ' +
+    'mean week of the last 28 (coupled).',
+  'easy-too-fast':
+    "The runner's easy range from their training paces (Daniels & Gilbert equations); the width of the easy " +
+    'band is common practice.',
+  'long-run-missed': "The runner's plan.",
+};
+
+const METRES_PER_UNIT: Record<DistanceUnit, number> = { km: 1000, mi: 1609.344 };
+const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'] as const;
+const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const;
+
+type LongRunCandidate = Pick<WeekPlan, 'id' | 'date' | 'planned_distance_m' | 'planned_duration_s'>;
+
+/**
+ * The id of the week's long run plan, or null. Heuristic (common practice, not a published rule):
+ * the plan with the most planned time, if that is at least 90 minutes; otherwise the plan with the
+ * most planned distance, if that is at least 25 % of the week's planned distance. Time is tried
+ * first because 90 minutes is an absolute mark while 25 % is relative (distance and time cannot be
+ * compared without a pace). Ties go to the earlier date, then the earlier entry. Note that in a week
+ * with one distance plan, that plan is 100 % of the week and so is the long run.
+ */
+export function longRunPlanId(weekPlans: readonly LongRunCandidate[]): string | null {
+  const longestTime = maxBy(weekPlans, (p) => p.planned_duration_s ?? 0);
+  if (longestTime && (longestTime.planned_duration_s ?? 0) >= LONG_RUN_MIN_DURATION_S) return longestTime.id;
+  const weekDistance = weekPlans.reduce((sum, p) => sum + positive(p.planned_distance_m), 0);
+  const longestDistance = maxBy(weekPlans, (p) => p.planned_distance_m ?? 0);
+  if (longestDistance && weekDistance > 0 && positive(longestDistance.planned_distance_m) >= LONG_RUN_MIN_SHARE * weekDistance) {
+    return longestDistance.id;
+  }
+  return null;
+}
+
+/** Whether `plan` is the long run of the week `weekPlans` (which includes it); see `longRunPlanId`. */
+export function isLongRunPlan(plan: LongRunCandidate, weekPlans: readonly LongRunCandidate[]): boolean {
+  return longRunPlanId(weekPlans) === plan.id;
+}
+
+/**
+ * Summarise one runner's week. Plans and runs dated outside the week are ignored.
+ *
+ * - Sessions: runs are counted by their session verdict; a plan dated before `today` with no run that
+ *   day also counts as missed (when a day has runs, its plans are not counted missed here).
+ * - Long run: the longest run of the week by distance, with its share of the week's run distance.
+ * - Acute:chronic ratio: coupled, on the week's last day or on `today` if earlier; null for a week
+ *   that starts after `today`.
+ * - Flags: `volume-jump` (run distance more than 10 % above the previous week's; exactly 10 % is not a
+ *   jump; no flag without a previous week), `load-spike` (ratio above 1.5; exactly 1.5 is not),
+ *   `easy-too-fast` (a run whose plan is easy-only, with a mean pace faster than the fast end of the
+ *   easy range), `long-run-missed` (a long-run plan before `today` with no run that day).
+ *
+ * Throws RangeError when `dates` are not the seven days from `start` or a date is invalid.
+ */
+export function summariseWeek(input: WeekReviewInput): WeekReview {
+  const dates = weekDates(input.start);
+  if (input.dates.length !== 7 || input.dates.some((d, i) => d !== dates[i])) {
+    throw new RangeError(`dates must be the seven days from ${input.start}`);
+  }
+  if (!isIsoDate(input.today)) throw new RangeError(`today is not a calendar date YYYY-MM-DD: '${input.today}'`);
+  const unit = input.unit ?? 'km';
+  const inWeek = new Set(dates);
+  const plans = input.plans.filter((p) => inWeek.has(p.date));
+  const runs = input.runs.filter((r) => inWeek.has(r.date));
+  const runDates = new Set(runs.map((r) => r.date));
+
+  const days = dates.map((date) => ({
+    date,
+    plans: plans.filter((p) => p.date === date),
+    runs: runs.filter((r) => r.date === date),
+  }));
+
+  const missedPlans = plans.filter((p) => p.date < input.today && !runDates.has(p.date));
+  const sessions = { as_planned: 0, partly: 0, missed: missedPlans.length, unplanned: 0 };
+  for (const r of runs) {
+    if (r.session_verdict === 'as planned') sessions.as_planned++;
+    else if (r.session_verdict === 'partly') sessions.partly++;
+    else if (r.session_verdict === 'missed') sessions.missed++;
+    else if (r.session_verdict === 'unplanned') sessions.unplanned++;
+  }
+
+  const withTrimp = runs.filter((r) => r.trimp !== null);
+  const runDistance = sum(runs.map((r) => r.distance_m));
+  const totals: WeekReview['totals'] = {
+    planned_distance_m: sum(plans.map((p) => p.planned_distance_m ?? 0)),
+    plans_without_distance: plans.filter((p) => p.planned_distance_m === null).length,
+    planned_duration_s: sum(plans.map((p) => p.planned_duration_s ?? 0)),
+    run_distance_m: runDistance,
+    moving_s: sum(runs.map((r) => r.moving_s)),
+    sessions,
+    trimp: withTrimp.length > 0 ? sum(withTrimp.map((r) => r.trimp ?? 0)) : null,
+    runs_without_trimp: runs.length - withTrimp.length,
+  };
+
+  const longest = maxBy(runs, (r) => r.distance_m);
+  const long_run =
+    longest && runDistance > 0
+      ? { run_id: longest.id, distance_m: longest.distance_m, share_of_week: longest.distance_m / runDistance }
+      : null;
+
+  const weekEnd = dates[6] as string;
+  const acute_chronic_ratio =
+    input.today < input.start
+      ? null
+      : acuteChronicRatio(input.daily_loads_last_28_days, input.today < weekEnd ? input.today : weekEnd);
+
+  const flags: WeekFlag[] = [];
+  const previous = input.previous_week_run_distance_m;
+  if (previous !== null && previous > 0 && exceeds(runDistance, previous * (1 + VOLUME_JUMP_FRACTION))) {
+    flags.push(volumeJumpFlag(runDistance, previous, unit));
+  }
+  const ratio = acute_chronic_ratio?.ratio ?? null;
+  if (ratio !== null && exceeds(ratio, LOAD_SPIKE_RATIO)) flags.push(loadSpikeFlag(ratio));
+  const easyFastest = input.easy_pace_fastest_s_per_km;
+  if (easyFastest !== null && easyFastest > 0) {
+    for (const run of runs) {
+      if (run.pace_s_per_km === null || !(run.pace_s_per_km > 0) || run.pace_s_per_km >= easyFastest) continue;
+      const plan = easyOnlyPlanOf(run, plans);
+      if (plan) flags.push(easyTooFastFlag(run, plan, easyFastest, unit));
+    }
+  }
+  for (const plan of missedPlans) if (plan.is_long_run) flags.push(longRunMissedFlag(plan, unit));
+
+  return { days, totals, long_run, acute_chronic_ratio, flags };
+}
+
+/** The run's plan when it is easy-only: its `plan_id` when given, else the plans of its date when all are easy-only. */
+function easyOnlyPlanOf(run: WeekRun, plans: readonly WeekPlan[]): WeekPlan | null {
+  if (run.plan_id != null) {
+    const plan = plans.find((p) => p.id === run.plan_id);
+    return plan?.easy_only ? plan : null;
+  }
+  const sameDay = plans.filter((p) => p.date === run.date);
+  return sameDay.length > 0 && sameDay.every((p) => p.easy_only) ? (sameDay[0] as WeekPlan) : null;
+}
+
+function volumeJumpFlag(runDistance: number, previous: number, unit: DistanceUnit): WeekFlag {
+  const up = Math.round((runDistance / previous - 1) * 100);
+  return {
+    code: 'volume-jump',
+    message:
+      `You ran ${formatDistance(runDistance, unit)} this week, ${up} % more than the ${formatDistance(previous, unit)} ` +
+      'of the week before. A common rule of thumb keeps weekly increases to about 10 %, though studies have not ' +
+      'shown that it prevents injury. Your coach has the last word on how fast to build up.',
+    source: SOURCES['volume-jump'],
+  };
+}
+
+function loadSpikeFlag(ratio: number): WeekFlag {
+  return {
+    code: 'load-spike',
+    message:
+      `Your training load over the last 7 days is ${ratio.toFixed(2)} times your average week over the last 4 weeks. ` +
+      'Gabbett (2016) linked ratios of 1.5 and above with more injuries in team-sport athletes; later studies ' +
+      'question that link, so read it as a sign that your load rose quickly, not as a prediction. Your coach has ' +
+      'the last word on whether to ease off.',
+    source: SOURCES['load-spike'],
+  };
+}
+
+function easyTooFastFlag(run: WeekRun, plan: WeekPlan, easyFastest: number, unit: DistanceUnit): WeekFlag {
+  return {
+    code: 'easy-too-fast',
+    message:
+      `Your run on ${formatDay(run.date)} ("${plan.title}") averaged ${formatPace(run.pace_s_per_km ?? 0, unit)}, ` +
+      `quicker than the fast end of your easy range (${formatPace(easyFastest, unit)}). Easy days kept easy ` +
+      'leave you fresh for the hard ones. Your coach has the last word on your paces.',
+    source: SOURCES['easy-too-fast'],
+    plan_id: plan.id,
+    run_id: run.id,
+  };
+}
+
+function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit): WeekFlag {
+  const amount = plan.planned_distance_m !== null ? ` of ${formatDistance(plan.planned_distance_m, unit)}` : '';
+  return {
+    code: 'long-run-missed',
+    message:
+      `The long run${amount} planned for ${formatDay(plan.date)} ("${plan.title}") has no run recorded that day. ` +
+      'If it was moved or cut short, your coach can decide how to fit it into the coming weeks.',
+    source: SOURCES['long-run-missed'],
+    plan_id: plan.id,
+  };
+}
+
+/** 'Sun 18 Oct' */
+function formatDay(date: string): string {
+  const month = Number(date.slice(5, 7));
+  return `${WEEKDAYS[dayOfWeek(date)]} ${Number(date.slice(8, 10))} ${MONTHS[month - 1]}`;
+}
+
+/** '42.2 km', '26.2 mi' */
+function formatDistance(metres: number, unit: DistanceUnit): string {
+  return `${(metres / METRES_PER_UNIT[unit]).toFixed(1)} ${unit}`;
+}
+
+/** '5:07 /km' from seconds per km, in the chosen unit. */
+function formatPace(secondsPerKm: number, unit: DistanceUnit): string {
+  const total = Math.round((secondsPerKm * METRES_PER_UNIT[unit]) / 1000);
+  return `${Math.floor(total / 60)}:${String(total % 60).padStart(2, '0')} /${unit}`;
+}
+
+/**
+ * `value` above `limit` by more than rounding: sums of fractional loads and distances can land a hair
+ * above a limit they equal (30 000 m · 1.1 is 33 000.000000000004), and a boundary must not flag.
+ */
+function exceeds(value: number, limit: number): boolean {
+  return value > limit * (1 + 1e-9);
+}
+
+function sum(values: readonly number[]): number {
+  return values.reduce((a, b) => a + b, 0);
+}
+
+function positive(value: number | null): number {
+  return value !== null && value > 0 ? value : 0;
+}
+
+/** The item with the largest positive key, or null; among equals the earliest date, then the first listed. */
+function maxBy<T extends { date: string }>(items: readonly T[], key: (item: T) => number): T | null {
+  let best: T | null = null;
+  for (const item of items) {
+    const k = key(item);
+    if (!(k > 0)) continue;
+    if (best === null || k > key(best) || (k === key(best) && item.date < best.date)) best = item;
+  }
+  return best;
+}

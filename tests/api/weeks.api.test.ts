@@ -1,0 +1,152 @@
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../server/app.ts';
+import { db } from '../../server/lib/db.ts';
+import { createFsStore } from '../../server/lib/storage.ts';
+import type { MailCatcher } from '../../server/features/mail/mail-catcher.ts';
+import type { Mailer } from '../../server/lib/mailer.ts';
+import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
+import { writeGpx } from '../../shared/tracks/write-track.ts';
+import { createUser } from '../support/factories.ts';
+import { startTestMail } from '../support/mail.ts';
+import { testConfig } from '../support/test-app.ts';
+
+let catcher: MailCatcher;
+let mailer: Mailer;
+beforeAll(async () => ({ catcher, mailer } = await startTestMail()));
+afterAll(async () => catcher.close());
+
+type App = ReturnType<typeof createApp>;
+function freshApp(): App {
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-weeks-'));
+  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer });
+}
+
+async function person(app: App, role: 'runner' | 'coach', name: string) {
+  const { user, password } = await createUser({ role, name });
+  const token = (await request(app).post('/api/auth/token').send({ email: user.email, password })).body.token as string;
+  return { user, auth: { Authorization: `Bearer ${token}` } };
+}
+
+/** An easy run of `km` kilometres at 3 m/s on a date (06:00 UTC; test runners live in UTC). */
+function easyRun(date: string, km: number): Buffer {
+  const phases: Phase[] = [{ kind: 'run', duration_s: (km * 1000) / 3, speed_mps: 3 }];
+  const run = generateLakeRun({ start_t: Date.parse(`${date}T06:00:00Z`), phases, seed: km, sample_s: 5 });
+  return Buffer.from(writeGpx(`Easy ${date}`, [run.points]));
+}
+
+async function upload(app: App, auth: Record<string, string>, date: string, km: number) {
+  const res = await request(app).post('/api/runs').set(auth).attach('files', easyRun(date, km), `${date}.gpx`);
+  expect(res.status).toBe(201);
+}
+
+describe('GET /api/runners/:id/week', () => {
+  it('sets plans and runs side by side with totals, the long run, missed sessions and a volume-jump flag', async () => {
+    const app = freshApp();
+    const runner = await person(app, 'runner', 'Wren Walker');
+    // Previous week (Mon 16 Nov 2026): 10 km. This week (Mon 23 Nov): 5 + 7 = 12 km, up 20 %.
+    await upload(app, runner.auth, '2026-11-17', 10);
+    await upload(app, runner.auth, '2026-11-24', 5);
+    await upload(app, runner.auth, '2026-11-28', 7);
+    await request(app).post('/api/plans').set(runner.auth).send({ date: '2026-11-24', text: '5 km easy' });
+    await request(app).post('/api/plans').set(runner.auth).send({ date: '2026-11-26', text: '6 km easy' }); // not run: missed
+    await request(app).post('/api/plans').set(runner.auth).send({ date: '2026-11-28', text: '7 km easy' });
+
+    const res = await request(app).get(`/api/runners/${runner.user.id}/week?start=2026-11-25`).set(runner.auth);
+    expect(res.status).toBe(200);
+    const week = res.body;
+    expect(week).toMatchObject({ runner_id: runner.user.id, start: '2026-11-23' }); // any date → its Monday
+    expect(week.days.map((d: { date: string }) => d.date)).toEqual([
+      '2026-11-23',
+      '2026-11-24',
+      '2026-11-25',
+      '2026-11-26',
+      '2026-11-27',
+      '2026-11-28',
+      '2026-11-29',
+    ]);
+    expect(week.days[1].runs).toHaveLength(1);
+    expect(week.days[1].runs[0].session_verdict).toBe('as planned');
+    expect(week.totals.planned_distance_m).toBe(18000);
+    expect(week.totals.run_distance_m / 1000).toBeCloseTo(12, 0);
+    expect(week.totals.sessions).toMatchObject({ as_planned: 2, missed: 1 });
+    expect(week.long_run.distance_m / 1000).toBeCloseTo(7, 0);
+    expect(week.flags.map((f: { code: string }) => f.code)).toContain('volume-jump');
+    const jump = week.flags.find((f: { code: string }) => f.code === 'volume-jump');
+    expect(jump.message).toMatch(/coach/i);
+    expect(week.trend).toHaveLength(12);
+    expect(week.trend.at(-1).run_distance_m / 1000).toBeCloseTo(12, 0);
+
+    const csv = await request(app).get(`/api/runners/${runner.user.id}/week.csv?start=2026-11-23`).set(runner.auth);
+    expect(csv.text.split('\r\n')[0]).toBe(
+      'date,entry,title,planned_distance_m,planned_duration_s,run_distance_m,moving_s,verdict,trimp',
+    );
+    expect(csv.text.trim().split('\r\n')).toHaveLength(1 + 3 + 2);
+  });
+
+  it('notes on a week are seen by both sides; the coach marks the week reviewed', async () => {
+    const app = freshApp();
+    const runner = await person(app, 'runner', 'Wren Walker');
+    const coach = await person(app, 'coach', 'Cass Coach');
+    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'S' }).returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.user.id });
+    await request(app)
+      .post(`/api/runners/${runner.user.id}/weeks/2026-11-23/notes`)
+      .set(coach.auth)
+      .send({ text: 'Nice and steady.' });
+    await request(app)
+      .post(`/api/runners/${runner.user.id}/weeks/2026-11-23/notes`)
+      .set(runner.auth)
+      .send({ text: 'Legs felt fresh.' });
+    expect(
+      (await request(app).put(`/api/runners/${runner.user.id}/weeks/2026-11-23/review`).set(coach.auth).send({ reviewed: true }))
+        .status,
+    ).toBe(204);
+    const seenByRunner = (await request(app).get(`/api/runners/${runner.user.id}/week?start=2026-11-23`).set(runner.auth)).body;
+    expect(seenByRunner.notes.map((n: { author: { name: string }; text: string }) => `${n.author.name}: ${n.text}`)).toEqual([
+      'Cass Coach: Nice and steady.',
+      'Wren Walker: Legs felt fresh.',
+    ]);
+    expect(seenByRunner.reviewed_by.map((r: { coach_name: string }) => r.coach_name)).toEqual(['Cass Coach']);
+  });
+});
+
+describe('squad overview and weekly digest', () => {
+  it('one row per runner; the digest e-mail lists each runner under the right heading', async () => {
+    const app = freshApp();
+    const coach = await person(app, 'coach', 'Cass Coach');
+    const steady = await person(app, 'runner', 'Sage Steady');
+    const jumper = await person(app, 'runner', 'Jun Jumper');
+    const absent = await person(app, 'runner', 'Ada Absent');
+    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'Lakeside Harriers' }).returning('id');
+    await db('squad_members').insert([steady, jumper, absent].map((p) => ({ squad_id: squad!.id, runner_id: p.user.id })));
+    await upload(app, steady.auth, '2026-11-17', 8);
+    await upload(app, steady.auth, '2026-11-24', 8);
+    await upload(app, jumper.auth, '2026-11-17', 5);
+    await upload(app, jumper.auth, '2026-11-24', 9);
+
+    const overview = await request(app).get(`/api/squads/${squad!.id}/overview?week=2026-11-23`).set(coach.auth);
+    expect(overview.status).toBe(200);
+    expect(overview.body.rows.map((r: { runner: { name: string } }) => r.runner.name)).toEqual([
+      'Ada Absent',
+      'Jun Jumper',
+      'Sage Steady',
+    ]);
+    expect(overview.body.rows[1].volume_12_weeks).toHaveLength(12);
+
+    const digest = await request(app).post(`/api/squads/${squad!.id}/digest`).set(coach.auth).send({ week: '2026-11-23' });
+    expect(digest.status).toBe(200);
+    const [mail] = (await request(app).get('/api/dev/outbox')).body.messages;
+    expect(mail.to).toBe(coach.user.email);
+    expect(mail.subject).toBe('Lakeside Harriers: week of 2026-11-23');
+    const section = (heading: string) => mail.text.split(`${heading} (`)[1]!.split('\n\n')[0]!;
+    expect(section('On plan')).toMatch(/Sage Steady/);
+    expect(section('With flags to look at')).toMatch(/Jun Jumper: .*10 %/);
+    expect(section('No run uploaded this week')).toMatch(/Ada Absent/);
+    expect(section('On plan')).not.toMatch(/Jun|Ada/);
+    expect(mail.html).toMatch(/<h2[^>]*>No run uploaded this week \(1\)<\/h2>/);
+  });
+});
