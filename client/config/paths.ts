@@ -20,7 +20,18 @@ export const paths = {
     },
   },
   run: { path: '/runs/:id', getHref: (id: string) => `/runs/${encodeURIComponent(id)}` },
-  plan: { path: '/plan', getHref: () => '/plan' },
+  plan: {
+    path: '/plan',
+    /** The week view opens on the week of `week` (its Monday); the month view on `month` (`YYYY-MM`). */
+    getHref: (search?: { view?: 'week' | 'month'; week?: string; month?: string }) => {
+      const params = new URLSearchParams();
+      if (search?.view === 'month') params.set('view', 'month');
+      if (search?.month) params.set('month', search.month);
+      if (search?.week) params.set('week', search.week);
+      const query = params.toString();
+      return query ? `/plan?${query}` : '/plan';
+    },
+  },
   squad: { path: '/squad', getHref: () => '/squad' },
   tools: { path: '/tools', getHref: () => '/tools' },
   profile: { path: '/profile', getHref: () => '/profile' },

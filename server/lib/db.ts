@@ -226,6 +226,60 @@ export interface WeekReviewRow {
   reviewed_at: Date;
 }
 
+export interface FuelItemRow {
+  id: string;
+  user_id: string;
+  name: string;
+  serving: string;
+  carbohydrate_g: number;
+  sodium_mg: number;
+  caffeine_mg: number;
+  fluid_ml: number;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface FuelPlanRow {
+  id: string;
+  runner_id: string;
+  author_id: string | null;
+  plan_id: string | null;
+  goal_race_user_id: string | null;
+  body_mass_kg: number;
+  expected_duration_s: number;
+  expected_duration_given: boolean;
+  easy_pace_s_per_km: number | null;
+  start_clock: string | null;
+  sweat_l_per_h: number | null;
+  targets: unknown;
+  intakes: unknown;
+  schedule: unknown;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface FuelTakenRow {
+  run_id: string;
+  entries: unknown;
+  stomach: number | null;
+  energy: number | null;
+  notes: string;
+  updated_at: Date;
+}
+
+export interface RunCheckinRow {
+  run_id: string;
+  sleep_hours: number | null;
+  soreness: number | null;
+  mood: number | null;
+  walking_minutes: number | null;
+  mobility_minutes: number | null;
+  cold_water_temp_c: number | null;
+  cold_water_minutes: number | null;
+  notes: string;
+  updated_at: Date;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -248,6 +302,10 @@ declare module 'knex/types/tables.js' {
     password_resets: PasswordResetRow;
     week_notes: WeekNoteRow;
     week_reviews: WeekReviewRow;
+    fuel_items: FuelItemRow;
+    fuel_plans: FuelPlanRow;
+    fuel_taken: FuelTakenRow;
+    run_checkins: RunCheckinRow;
   }
 }
 

@@ -65,11 +65,9 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       status: 201,
     },
     async (req, res) => {
-      res
-        .status(201)
-        .json({
-          note: await addWeekNote(requireActor(res), parseIdParam(req.params.id), weekParam(req.params.start), req.body.text),
-        });
+      res.status(201).json({
+        note: await addWeekNote(requireActor(res), parseIdParam(req.params.id), weekParam(req.params.start), req.body.text),
+      });
     },
   );
 

@@ -1,6 +1,7 @@
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { expandParts } from '../../../shared/plans/expand.ts';
 import { referencePerformance } from '../../../shared/plans/race-paces.ts';
+import { plannedVolume } from '../../../shared/plans/weeks.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import { trainingPaceRanges } from '../../../shared/race/paces.ts';
 import { localDateTime } from '../../../shared/runs/local-time.ts';
@@ -36,8 +37,7 @@ function trimpOf(run: RunRow): number | null {
 function weekPlansOf(rows: SessionPlanRow[]): WeekPlan[] {
   const plans = rows.map((row) => {
     const parts = expandParts(row.items as PlanItem[]);
-    const distance = parts.reduce((sum, p) => sum + (p.amount.type === 'distance' ? p.amount.distance_m : 0), 0);
-    const duration = parts.reduce((sum, p) => sum + (p.amount.type === 'duration' ? p.amount.duration_s : 0), 0);
+    const { distance_m: distance, duration_s: duration } = plannedVolume(row.items as PlanItem[]);
     return {
       id: row.id,
       date: row.date,

@@ -1,20 +1,246 @@
-import { EmptyState } from '../../../components/ui/empty-state.tsx';
+import { useQueries, useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import type { SessionVerdict } from '../../../../shared/plans/plan-check.ts';
+import type { Plan } from '../../../../shared/plans/schemas.ts';
+import { addDays, mondayOf, parseIsoDate } from '../../../../shared/plans/weeks.ts';
+import { formatYearMonth, monthBounds, parseYearMonth, shiftMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
+import { formatLocalDate } from '../../../../shared/runs/display.ts';
+import { Button } from '../../../components/ui/button.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
+import { paths } from '../../../config/paths.ts';
+import { cn } from '../../../lib/cn.ts';
+import { goalRaceQueryOptions } from '../../../features/goals/api/get-goal-race.ts';
+import { planCheckKeys } from '../../../features/plan-check/api/plan-check-keys.ts';
+import { planCheckQueryOptions } from '../../../features/plan-check/api/get-plan-check.ts';
+import { useCopyWeek } from '../../../features/plans/api/copy-week.ts';
+import { plansQueryOptions, usePlans } from '../../../features/plans/api/get-plans.ts';
+import { GoalRaceLine } from '../../../features/plans/components/goal-race-line.tsx';
+import { PlanMonth } from '../../../features/plans/components/plan-month.tsx';
+import { PlanWeek, formatDay } from '../../../features/plans/components/plan-week.tsx';
+import { SessionEditor } from '../../../features/plans/components/session-editor.tsx';
+import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { MAX_RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
+
+/** Today on this device as `YYYY-MM-DD`. */
+function deviceToday(): string {
+  const now = new Date();
+  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+}
+
+type PlanView =
+  { view: 'week'; monday: string; from: string; to: string } | { view: 'month'; month: YearMonth; from: string; to: string };
+
+/** What the address asks for: `?week=` (any day of it) by default, `?view=month&month=YYYY-MM` for a month. */
+function readView(search: URLSearchParams, today: string): PlanView {
+  if (search.get('view') === 'month') {
+    const month = parseYearMonth(search.get('month')) ?? parseYearMonth(today.slice(0, 7))!;
+    return { view: 'month', month, ...monthBounds(month) };
+  }
+  const monday = mondayOf(parseIsoDate(search.get('week')) ?? today);
+  return { view: 'week', monday, from: monday, to: addDays(monday, 6) };
+}
+
+const runFilters = ({ from, to }: { from: string; to: string }) => ({ page: 1, per_page: MAX_RUNS_PER_PAGE, from, to });
+
+export const createLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const range = readView(new URL(request.url).searchParams, deviceToday());
+    await Promise.all([
+      queryClient.ensureQueryData(goalRaceQueryOptions()),
+      queryClient.ensureQueryData(plansQueryOptions({ from: range.from, to: range.to })),
+      queryClient.ensureQueryData(runsQueryOptions(runFilters(range))),
+    ]);
+    return null;
+  };
+
+const MONTH_TITLE = new Intl.DateTimeFormat('en-GB', { month: 'long', year: 'numeric', timeZone: 'UTC' });
+
+function weekTitle(monday: string): string {
+  const sunday = addDays(monday, 6);
+  return `${formatDay(monday)} – ${formatDay(sunday)} ${sunday.slice(0, 4)}`;
+}
+
+type EditorState = { plan: Plan | null; date: string; key: number };
 
 export default function PlanRoute() {
+  const [search] = useSearchParams();
+  const today = deviceToday();
+  const range = readView(search, today);
+  const profile = useProfile();
+  const goalRace = useSuspenseQuery(goalRaceQueryOptions()).data;
+  const plans = usePlans({ from: range.from, to: range.to });
+  const { runs } = useRuns(runFilters(range));
+  const queryClient = useQueryClient();
+  // One plan check per run, in the week view only (a month would be dozens of requests). Not
+  // suspended: the week shows at once and the verdicts follow.
+  const weekRunIds = range.view === 'week' ? runs.map((r) => r.id) : [];
+  const checks = useQueries({
+    queries: weekRunIds.map((id) => planCheckQueryOptions(id)),
+    combine: (results) => {
+      const byRun = new Map<string, SessionVerdict>();
+      results.forEach((r, i) => {
+        if (r.data) byRun.set(weekRunIds[i] as string, r.data.session_verdict);
+      });
+      return byRun;
+    },
+  });
+  // Plan checks (and the run page's list of plans to link) follow the plans: refresh them after a write.
+  const refreshChecks = () => queryClient.invalidateQueries({ queryKey: planCheckKeys.all });
+  const copyWeek = useCopyWeek();
+  const [editor, setEditor] = useState<EditorState | null>(null);
+  const [status, setStatus] = useState<{ text: string; link?: { to: string; label: string }; range: string } | null>(null);
+
+  const open = (plan: Plan | null, date: string) => {
+    setStatus(null);
+    setEditor((e) => ({ plan, date, key: (e?.key ?? 0) + 1 }));
+  };
+
+  function onDone(plan: Plan | null, message: string) {
+    setEditor(null);
+    void refreshChecks();
+    const outside = plan && (plan.date < range.from || plan.date > range.to);
+    setStatus({
+      range: range.from,
+      text: message,
+      link: outside
+        ? { to: paths.plan.getHref({ week: mondayOf(plan.date) }), label: `Show ${formatDay(plan.date)}` }
+        : undefined,
+    });
+  }
+
+  const title = range.view === 'week' ? weekTitle(range.monday) : MONTH_TITLE.format(new Date(`${range.from}T00:00:00Z`));
+  const previous =
+    range.view === 'week'
+      ? paths.plan.getHref({ week: addDays(range.monday, -7) })
+      : paths.plan.getHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, -1)) });
+  const next =
+    range.view === 'week'
+      ? paths.plan.getHref({ week: addDays(range.monday, 7) })
+      : paths.plan.getHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, 1)) });
+  const nav = 'inline-flex size-9 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
+  const tab = (active: boolean) =>
+    cn(
+      'inline-flex min-h-9 items-center px-3 text-sm font-semibold',
+      active ? 'bg-teal text-white' : 'bg-card text-teal hover:bg-teal-wash',
+    );
+
+  function copyToNextWeek() {
+    if (range.view !== 'week') return;
+    const to = addDays(range.monday, 7);
+    copyWeek.mutate(
+      { from_start: range.monday, to_start: to },
+      {
+        onSuccess: (copied) => {
+          void refreshChecks();
+          setStatus({
+            range: range.from,
+            text: `Copied ${copied.length} ${copied.length === 1 ? 'session' : 'sessions'} to the week of ${formatLocalDate(to)}.`,
+            link: { to: paths.plan.getHref({ week: to }), label: 'Show next week' },
+          });
+        },
+      },
+    );
+  }
+
   return (
     <>
-      <PageHeader title="Plan">Your goal race and the session plans that lead to it.</PageHeader>
-      <EmptyState title="No goal race or session plans yet.">
-        <p>
-          Writing plans arrives with the plan feature. You will set a goal race (date, distance, goal time) and write each session
-          as parts, for example “2 mi warm-up, 5 × 1 km at 3:50–3:55 /km with 400 m jog, 2 mi cool-down”.
-        </p>
-        <p>
-          Every run on a planned day then gets a plan check, part by part, with a verdict in words and a glyph: ● on pace, ▲
-          quick, ▼ slow, ◐ cut short or extended.
-        </p>
-      </EmptyState>
+      <PageHeader title="Plan">Your goal race and the session plans that lead to it, with what you ran beside them.</PageHeader>
+      <div className="flex flex-col gap-4">
+        <Card title="Goal race">
+          <GoalRaceLine goalRace={goalRace} unit={profile.unit} today={today} />
+        </Card>
+
+        {editor && (
+          <SessionEditor key={editor.key} plan={editor.plan} date={editor.date} onClose={() => setEditor(null)} onDone={onDone} />
+        )}
+
+        {status?.range === range.from && (
+          <FormAlert tone="success">
+            {status.text}{' '}
+            {status.link && (
+              <Link to={status.link.to} className="font-semibold underline underline-offset-2" onClick={() => setStatus(null)}>
+                {status.link.label}
+              </Link>
+            )}
+          </FormAlert>
+        )}
+        {copyWeek.error && <FormAlert>{copyWeek.error.message}</FormAlert>}
+
+        <Card>
+          <div className="mb-3 flex flex-wrap items-center gap-2">
+            <nav aria-label="Calendar view" className="flex overflow-hidden rounded-md border border-line">
+              <Link
+                to={paths.plan.getHref({ week: range.view === 'week' ? range.monday : mondayOf(range.from) })}
+                aria-current={range.view === 'week' ? 'page' : undefined}
+                className={tab(range.view === 'week')}
+              >
+                Week
+              </Link>
+              <Link
+                to={paths.plan.getHref({ view: 'month', month: range.from.slice(0, 7) })}
+                aria-current={range.view === 'month' ? 'page' : undefined}
+                className={cn(tab(range.view === 'month'), 'border-l border-line')}
+              >
+                Month
+              </Link>
+            </nav>
+            <div className="flex items-center gap-1">
+              <Link to={previous} className={nav} aria-label={range.view === 'week' ? 'Previous week' : 'Previous month'}>
+                ◀
+              </Link>
+              <h2 className="min-w-44 px-1 text-center font-semibold tabular-nums" aria-live="polite">
+                {title}
+              </h2>
+              <Link to={next} className={nav} aria-label={range.view === 'week' ? 'Next week' : 'Next month'}>
+                ▶
+              </Link>
+            </div>
+            {(range.view === 'week' ? today < range.from || today > range.to : range.from.slice(0, 7) !== today.slice(0, 7)) && (
+              <Link
+                to={range.view === 'week' ? paths.plan.getHref() : paths.plan.getHref({ view: 'month' })}
+                className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+              >
+                {range.view === 'week' ? 'This week' : 'This month'}
+              </Link>
+            )}
+            <div className="flex flex-wrap gap-2 sm:ml-auto">
+              {range.view === 'week' && (
+                <Button
+                  variant="secondary"
+                  onClick={copyToNextWeek}
+                  disabled={plans.length === 0 || copyWeek.isPending}
+                  title={plans.length === 0 ? 'This week has no sessions to copy.' : undefined}
+                >
+                  {copyWeek.isPending ? 'Copying…' : 'Copy this week to next week'}
+                </Button>
+              )}
+              <Button
+                onClick={() => open(null, range.view === 'week' && (today < range.from || today > range.to) ? range.from : today)}
+              >
+                New session
+              </Button>
+            </div>
+          </div>
+          {range.view === 'week' ? (
+            <PlanWeek
+              monday={range.monday}
+              plans={plans}
+              runs={runs}
+              unit={profile.unit}
+              today={today}
+              checks={checks}
+              onEdit={(plan) => open(plan, plan.date)}
+              onNew={(date) => open(null, date)}
+            />
+          ) : (
+            <PlanMonth month={range.month} plans={plans} runs={runs} unit={profile.unit} today={today} title={title} />
+          )}
+        </Card>
+      </div>
     </>
   );
 }

@@ -5,24 +5,36 @@ import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { tokensQueryOptions } from '../../../features/api-tokens/api/get-tokens.ts';
 import { ApiTokensCard } from '../../../features/api-tokens/components/api-tokens-card.tsx';
 import { authKeys } from '../../../features/auth/api/auth-keys.ts';
+import { goalRaceQueryOptions } from '../../../features/goals/api/get-goal-race.ts';
+import { raceResultsQueryOptions } from '../../../features/goals/api/get-race-results.ts';
+import { GoalRaceCard } from '../../../features/goals/components/goal-race-card.tsx';
+import { RaceResultsCard } from '../../../features/goals/components/race-results-card.tsx';
+import { planCheckKeys } from '../../../features/plan-check/api/plan-check-keys.ts';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
 import { formatDate } from '../../../lib/format.ts';
 
 export const createLoader = (queryClient: QueryClient) => async () => {
-  // prefetch, not ensure: a failing token list shows its error in its card, not instead of the page.
-  await queryClient.prefetchQuery(tokensQueryOptions());
+  // prefetch, not ensure: a failing list shows its error in its card, not instead of the page.
+  await Promise.all([
+    queryClient.prefetchQuery(tokensQueryOptions()),
+    queryClient.prefetchQuery(goalRaceQueryOptions()),
+    queryClient.prefetchQuery(raceResultsQueryOptions()),
+  ]);
   return null;
 };
 
 export default function ProfileRoute() {
   const profile = useProfile();
   const queryClient = useQueryClient();
+  // Race paces and the tolerance change every plan check.
+  const refreshPlanChecks = () => queryClient.invalidateQueries({ queryKey: planCheckKeys.all });
 
   return (
     <>
       <PageHeader title="Profile">
-        Your account, the numbers your splits and zones are based on, and access for scripts.
+        Your account, the numbers your splits, zones and plan checks are based on, and access for scripts.
       </PageHeader>
       <div className="grid max-w-3xl gap-4">
         <Card title="Account">
@@ -39,6 +51,14 @@ export default function ProfileRoute() {
         <Card title="About you">
           {/* The name also shows in the profile menu, which reads the session user. */}
           <ProfileForm onSaved={() => queryClient.invalidateQueries({ queryKey: authKeys.me() })} />
+        </Card>
+        <GoalRaceCard unit={profile.unit} onChanged={refreshPlanChecks} />
+        <RaceResultsCard unit={profile.unit} onChanged={refreshPlanChecks} />
+        <Card
+          title="Plan check tolerance"
+          description="How far from a session plan’s target pace a part may be and still count as on pace. You or your coach can change it."
+        >
+          <PaceToleranceForm onSaved={refreshPlanChecks} />
         </Card>
         <ApiTokensCard />
       </div>

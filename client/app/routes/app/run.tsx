@@ -6,6 +6,8 @@ import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
+import { planCheckQueryOptions } from '../../../features/plan-check/api/get-plan-check.ts';
+import { PlanCheckCard } from '../../../features/plan-check/components/plan-check-card.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import { runQueryOptions, useRun } from '../../../features/runs/api/get-run.ts';
 import { runTrackQueryOptions, useRunTrack } from '../../../features/runs/api/get-run-track.ts';
@@ -29,6 +31,8 @@ export const createLoader =
     const id = params.id ?? '';
     // The series is only for charts and the outline: start it, but show the splits without waiting.
     void queryClient.prefetchQuery(runTrackQueryOptions(id));
+    // The plan check reads the series too; it follows the splits in its own card.
+    void queryClient.prefetchQuery(planCheckQueryOptions(id));
     await queryClient.ensureQueryData(runQueryOptions(id));
     return null;
   };
@@ -53,6 +57,10 @@ export default function RunRoute() {
           <RunDownloads runId={run.id} />
           {isOwner && <RunOwnerActions key={run.name} runId={run.id} name={run.name} />}
         </div>
+      </div>
+
+      <div className="mb-4">
+        <PlanCheckCard runId={run.id} localDate={run.summary.local_date} unit={unit} isOwner={isOwner} />
       </div>
 
       <Card

@@ -1,0 +1,17 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { RaceResult, RaceResultInput } from '../../../../shared/goals/schemas.ts';
+import { api } from '../../../lib/api-client.ts';
+import { goalKeys } from './goal-keys.ts';
+
+export async function addRaceResult(input: RaceResultInput): Promise<RaceResult> {
+  const { result } = await api.post<{ result: RaceResult }>('/me/race-results', input);
+  return result;
+}
+
+export function useAddRaceResult() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: addRaceResult,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: goalKeys.resultLists() }),
+  });
+}
