@@ -20,6 +20,8 @@ import {
 const LAYERS = ['unit', 'api', 'e2e'] as const;
 type Layer = (typeof LAYERS)[number];
 const requested = process.argv.slice(2).filter((a): a is Layer => (LAYERS as readonly string[]).includes(a));
+// Anything else narrows the files, e.g. `npm run test:e2e -- plan-check`.
+const fileFilters = process.argv.slice(2).filter((a) => !(LAYERS as readonly string[]).includes(a));
 const layers: Layer[] = requested.length ? requested : [...LAYERS];
 const runStaticChecks = requested.length === 0 && process.env.SKIP_STATIC_CHECKS !== '1';
 const bin = (name: string) => path.join(ROOT, 'node_modules/.bin', name);
