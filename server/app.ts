@@ -7,12 +7,14 @@ import path from 'node:path';
 import type { AppConfig } from './config.ts';
 import { authenticate } from './features/auth/authenticate.ts';
 import { createAuthRouter } from './features/auth/auth.routes.ts';
+import { createFuelRouter } from './features/fuel/fuel.routes.ts';
 import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createPlansRouter } from './features/plans/plans.routes.ts';
 import { createSquadsRouter } from './features/squads/squads.routes.ts';
 import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
+import { createHistoryRouter } from './features/history/history.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
 import { createRunsRouter } from './features/runs/runs.routes.ts';
 import { createToolsRouter } from './features/tools/tools.routes.ts';
@@ -62,6 +64,8 @@ export function createApp({
     createSquadsRouter(mailer, config),
     createOutboxRouter(config),
     createWeeksRouter(mailer, config),
+    createFuelRouter(),
+    createHistoryRouter(store, config),
   ];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),

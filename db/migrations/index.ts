@@ -6,6 +6,8 @@ import * as m20261201000300 from './20261201000300_run_notes.ts';
 import * as m20261201000400 from './20261201000400_goal_races.ts';
 import * as m20261201000500 from './20261201000500_session_plans.ts';
 import * as m20261201000600 from './20261201000600_squads_mail.ts';
+import * as m20261201000700 from './20261201000700_fuel.ts';
+import * as m20261201000800 from './20261201000800_imports.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -21,6 +23,8 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000400_goal_races': m20261201000400,
   '20261201000500_session_plans': m20261201000500,
   '20261201000600_squads_mail': m20261201000600,
+  '20261201000700_fuel': m20261201000700,
+  '20261201000800_imports': m20261201000800,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

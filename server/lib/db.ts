@@ -280,6 +280,29 @@ export interface RunCheckinRow {
   updated_at: Date;
 }
 
+export interface ImportRow {
+  id: string;
+  user_id: string;
+  status: 'queued' | 'running' | 'done' | 'failed';
+  archive_name: string;
+  total: number;
+  done: number;
+  imported: number;
+  duplicates: number;
+  rejected: Array<{ file: string; error: string }>;
+  created_at: Date;
+  finished_at: Date | null;
+}
+
+export interface ImportFileRow {
+  import_id: string;
+  position: number;
+  name: string;
+  status: 'pending' | 'working' | 'imported' | 'duplicate' | 'rejected';
+  claimed_at: Date | null;
+  result: unknown;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -306,6 +329,8 @@ declare module 'knex/types/tables.js' {
     fuel_plans: FuelPlanRow;
     fuel_taken: FuelTakenRow;
     run_checkins: RunCheckinRow;
+    imports: ImportRow;
+    import_files: ImportFileRow;
   }
 }
 

@@ -5,7 +5,6 @@ import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
 import type { RunningServer } from '../../server/index.ts';
-import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
@@ -52,28 +51,18 @@ function writeWorkoutFile(repSpeeds: number[]): string {
   return file;
 }
 
-/** Writes a session plan through the API from the signed-in page, as the app itself would (CSRF header from the cookie). */
-async function createPlan(
-  page: Page,
-  body: { date: string; title: string; text: string },
-): Promise<{ status: number; id: string }> {
-  return page.evaluate(
-    async ({ body, cookie, header }) => {
-      const token = document.cookie
-        .split('; ')
-        .find((c) => c.startsWith(`${cookie}=`))
-        ?.slice(cookie.length + 1);
-      const res = await fetch('/api/plans', {
-        method: 'POST',
-        credentials: 'same-origin',
-        headers: { 'Content-Type': 'application/json', Accept: 'application/json', [header]: decodeURIComponent(token ?? '') },
-        body: JSON.stringify(body),
-      });
-      const json = (await res.json()) as { plan?: { id: string } };
-      return { status: res.status, id: json.plan?.id ?? '' };
-    },
-    { body, cookie: CSRF_COOKIE, header: CSRF_HEADER },
-  );
+/** Writes the session in shorthand on the Plan page, as a runner would, and waits for it to be saved. */
+async function writePlanInShorthand(page: Page, body: { date: string; title: string; text: string }): Promise<void> {
+  await page.goto(`${server.url}/plan?week=${body.date}`);
+  await page.getByRole('button', { name: 'New session', exact: true }).click();
+  const editor = page.getByRole('form', { name: 'New session', exact: true });
+  await editor.getByLabel('Date').fill(body.date);
+  await editor.getByLabel('Title (optional)').fill(body.title);
+  await editor.getByLabel('Session in shorthand').fill(body.text);
+  // The builder follows the shorthand before saving: a repeat of six.
+  await expect.poll(() => editor.getByLabel('Repeat count').inputValue()).toBe('6');
+  await editor.getByRole('button', { name: 'Save session' }).click();
+  await expect.poll(() => page.getByRole('status').filter({ hasText: 'Session added.' }).count()).toBe(1);
 }
 
 async function signedInPage(): Promise<Page> {
@@ -103,9 +92,9 @@ describe('plan check on the run page', () => {
     // Watched from here: before signing in, a 401 on /api/auth/me is how the app learns it is signed out.
     const errors = watchErrors(page);
 
-    const plan = await createPlan(page, { date: PLAN_DATE, title: 'Track 6 × 800 m', text: WORKOUT });
-    expect(plan.status).toBe(201);
+    await writePlanInShorthand(page, { date: PLAN_DATE, title: 'Track 6 × 800 m', text: WORKOUT });
 
+    await page.goto(`${server.url}/log`);
     await page.getByLabel('Choose files').setInputFiles(writeWorkoutFile([REP, REP, REP, JOG, REP, REP]));
     const uploads = page.getByRole('list', { name: 'Uploads' });
     await expect.poll(() => uploads.textContent(), { timeout: 20_000 }).toMatch(/imported →/);

@@ -16,7 +16,9 @@ export function toFuelItem(row: FuelItemRow): FuelItem {
 }
 
 export async function listFuelItems(userId: string, trx: Db = db): Promise<FuelItemRow[]> {
-  return trx('fuel_items').where({ user_id: userId }).orderBy([{ column: 'name' }, { column: 'created_at' }]);
+  return trx('fuel_items')
+    .where({ user_id: userId })
+    .orderBy([{ column: 'name' }, { column: 'created_at' }]);
 }
 
 export async function findFuelItemsByIds(userId: string, ids: readonly string[], trx: Db = db): Promise<FuelItemRow[]> {
@@ -109,10 +111,7 @@ export async function findRunCheckin(runId: string, trx: Db = db): Promise<RunCh
   return trx('run_checkins').where({ run_id: runId }).first();
 }
 
-export async function upsertRunCheckin(
-  values: Omit<RunCheckinRow, 'updated_at'>,
-  trx: Db = db,
-): Promise<RunCheckinRow> {
+export async function upsertRunCheckin(values: Omit<RunCheckinRow, 'updated_at'>, trx: Db = db): Promise<RunCheckinRow> {
   const [row] = await trx('run_checkins')
     .insert({ ...values, updated_at: new Date() })
     .onConflict('run_id')
