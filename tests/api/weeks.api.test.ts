@@ -112,6 +112,30 @@ describe('GET /api/runners/:id/week', () => {
     ]);
     expect(seenByRunner.reviewed_by.map((r: { coach_name: string }) => r.coach_name)).toEqual(['Cass Coach']);
   });
+
+  it('the coach sees what the runner took and how the run went', async () => {
+    const app = freshApp();
+    const runner = await person(app, 'runner', 'Wren Walker');
+    const coach = await person(app, 'coach', 'Cass Coach');
+    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'S' }).returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.user.id });
+    await upload(app, runner.auth, '2026-11-24', 6);
+    const runId = (await db('runs').first('id'))!.id as string;
+    const taken = await request(app)
+      .put(`/api/runs/${runId}/fuel-taken`)
+      .set(runner.auth)
+      .send({ entries: [{ kind: 'water', fluid_ml: 300, time_s: 1200 }], stomach: 4, energy: 3, notes: 'Fine.' });
+    expect(taken.status).toBe(200);
+    const checkin = await request(app)
+      .put(`/api/runs/${runId}/checkin`)
+      .set(runner.auth)
+      .send({ sleep_hours: 7.5, soreness: 2, cold_water: { water_temp_c: 12, minutes: 10 } });
+    expect(checkin.status).toBe(200);
+    const week = (await request(app).get(`/api/runners/${runner.user.id}/week?start=2026-11-23`).set(coach.auth)).body;
+    const run = week.days[1].runs[0];
+    expect(run.fuel_taken).toEqual({ entries: 1, stomach: 4, energy: 3, notes: 'Fine.' });
+    expect(run.checkin).toMatchObject({ sleep_hours: 7.5, soreness: 2, cold_water_temp_c: 12, cold_water_minutes: 10 });
+  });
 });
 
 describe('squad overview and weekly digest', () => {

@@ -10,6 +10,7 @@ import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
 import type { RunRow, SessionPlanRow, UserRow } from '../../lib/db.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { findGoalRace, listRaceResults } from '../goals/goals.repository.ts';
+import { findFuelTaken, findRunCheckin } from '../fuel/fuel.repository.ts';
 import { listPlans } from '../plans/plans.repository.ts';
 import { checkRun } from '../plans/plans.service.ts';
 import { toRunListItem } from '../runs/runs.repository.ts';
@@ -157,11 +158,33 @@ export async function buildRunnerWeek(
   });
 
   const runsById = new Map(weekRuns.map((r) => [r.id, r]));
+  // What the runner noted after each run, for the coach: fuel taken and the after-run check-in.
+  const afterRun = new Map(
+    await Promise.all(
+      weekRuns.map(async (r) => {
+        const [fuel, checkin] = await Promise.all([findFuelTaken(r.id), findRunCheckin(r.id)]);
+        return [
+          r.id,
+          {
+            fuel_taken: fuel
+              ? {
+                  entries: Array.isArray(fuel.entries) ? fuel.entries.length : 0,
+                  stomach: fuel.stomach,
+                  energy: fuel.energy,
+                  notes: fuel.notes,
+                }
+              : null,
+            checkin: checkin ? { ...checkin, updated_at: checkin.updated_at.toISOString() } : null,
+          },
+        ] as const;
+      }),
+    ),
+  );
   return {
     ...review,
     days: review.days.map((day) => ({
       ...day,
-      runs: day.runs.map((r) => ({ ...r, ...toRunListItem(runsById.get(r.id)!) })),
+      runs: day.runs.map((r) => ({ ...r, ...toRunListItem(runsById.get(r.id)!), ...afterRun.get(r.id) })),
     })),
     runner_id: runner.id,
     runner: { id: runner.id, name: runner.name },
