@@ -27,6 +27,13 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   const mailConfig = catcher ? { ...config, mailCatcherPort: catcher.port } : config;
   const { createSmtpMailer } = await import('./lib/mailer.ts');
   const app = createApp({ config, store, mailer: createSmtpMailer(mailConfig), clientDir: path.join(ROOT, 'dist/client') });
+  // Bulk imports run in the background through a pg-boss queue in the same database.
+  const { startImportWorker, stopImportWorker } = await import('./features/history/import-queue.ts');
+  await startImportWorker(store, {
+    dataDir: config.dataDir,
+    maxEntryBytes: config.uploadMaxFileBytes,
+    databaseUrl: config.databaseUrl,
+  });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on('error', reject);
@@ -40,6 +47,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
+      await stopImportWorker();
       await catcher?.close();
       await db.destroy();
     },

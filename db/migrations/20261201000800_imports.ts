@@ -16,7 +16,9 @@ export async function up(knex: Knex): Promise<void> {
     t.timestamp('finished_at', { useTz: true });
     t.index(['user_id', 'created_at']);
   });
-  await knex.raw("alter table imports add constraint imports_status_check check (status in ('queued','running','done','failed'))");
+  await knex.raw(
+    "alter table imports add constraint imports_status_check check (status in ('queued','running','done','failed'))",
+  );
 
   // One zip entry of an import: `position` is its place in the archive's central directory.
   await knex.schema.createTable('import_files', (t) => {

@@ -267,7 +267,7 @@ async function getOwnRun(actor: Actor, runId: string): Promise<RunRow> {
   return run;
 }
 
-function toSplit(row: RunSplitRow): Split {
+export function toSplit(row: RunSplitRow): Split {
   return {
     index: row.split_index,
     unit: row.unit,

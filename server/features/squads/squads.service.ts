@@ -1,5 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { Actor } from '../../../shared/auth/permissions.ts';
+import { INVITATION_GONE } from '../../../shared/squads/invitation-status.ts';
 import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { db, type InvitationRow } from '../../lib/db.ts';
@@ -103,12 +104,6 @@ export async function inviteRunner(
   return { id: invitation.id, email: invitation.email, expires_at: invitation.expires_at.toISOString() };
 }
 
-const INVITATION_GONE: Record<string, string> = {
-  accepted: 'This invitation has already been used. Ask your coach for a new one if you need it.',
-  revoked: 'This invitation was withdrawn by the coach.',
-  expired: 'This invitation has expired. Ask your coach to send a new one.',
-};
-
 async function invitationByToken(token: string) {
   const row = /^inv_[A-Za-z0-9_-]{43}$/.test(token) ? await findInvitationByTokenHash(hashToken(token)) : undefined;
   if (!row)
@@ -132,13 +127,13 @@ export async function previewInvitation(token: string, now = new Date()) {
 export async function acceptInvitation(actor: Actor, token: string, now = new Date()) {
   const row = await invitationByToken(token);
   const status = invitationStatus(row, now);
-  if (status !== 'open') throw new AppError(410, `invitation-${status}`, INVITATION_GONE[status]!);
+  if (status !== 'open') throw new AppError(410, `invitation-${status}`, INVITATION_GONE[status]);
   if (actor.role !== 'runner')
     throw new ForbiddenError('Invitations are for runners. Sign in with your runner account to accept it.');
   const squad = (await findSquadById(row.squad_id))!;
   await db.transaction(async (trx) => {
     const claimed = await claimInvitation(row.id, actor.id, now, trx);
-    if (!claimed) throw new AppError(410, 'invitation-accepted', INVITATION_GONE.accepted!);
+    if (!claimed) throw new AppError(410, 'invitation-accepted', INVITATION_GONE.accepted);
     await addMember(squad.id, actor.id, trx);
   });
   return { id: squad.id, name: squad.name };

@@ -1,5 +1,6 @@
-import type { QueryClient } from '@tanstack/react-query';
-import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useCallback } from 'react';
+import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { monthBounds, parseYearMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
 import type { RunPage } from '../../../../shared/runs/types.ts';
 import { Card } from '../../../components/ui/card.tsx';
@@ -7,8 +8,10 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { LinkButton } from '../../../components/ui/link-button.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
+import { HistoryImport } from '../../../features/imports/components/history-import.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import { MAX_RUNS_PER_PAGE, RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
+import { runKeys } from '../../../features/runs/api/run-keys.ts';
 import { RunUpload } from '../../../features/runs/components/run-upload.tsx';
 import { RunsCalendar } from '../../../features/runs/components/runs-calendar.tsx';
 import { RunsTable } from '../../../features/runs/components/runs-table.tsx';
@@ -61,6 +64,11 @@ export default function LogRoute() {
   const monthRuns = useRuns(monthFilters(month));
   const pages = Math.max(1, Math.ceil(list.total / list.per_page));
   const monthParam = search.get('month') ?? undefined;
+  const importId = search.get('import');
+  const navigate = useNavigate();
+  const queryClient = useQueryClient();
+  const refreshRuns = useCallback(() => void queryClient.invalidateQueries({ queryKey: runKeys.lists() }), [queryClient]);
+  const showImport = (id: string) => void navigate(paths.log.getHref({ page, month: monthParam, import: id }), { replace: true });
 
   return (
     <>
@@ -68,6 +76,12 @@ export default function LogRoute() {
       <div className="flex flex-col gap-4">
         <Card title="Add runs" description="Each file is read on its own: splits per mile and per km appear within seconds.">
           <RunUpload unit={profile.unit} />
+        </Card>
+        <Card
+          title="Whole history"
+          description="Years of watch files at once: they are imported in the background, and the progress stays here if you reload."
+        >
+          <HistoryImport importId={importId} onStarted={showImport} onFinished={refreshRuns} />
         </Card>
 
         {list.total === 0 ? (
@@ -88,7 +102,9 @@ export default function LogRoute() {
               {pages > 1 && (
                 <nav aria-label="Pages of runs" className="mt-3 flex items-center justify-between gap-2 text-sm">
                   {page > 1 ? (
-                    <LinkButton to={paths.log.getHref({ page: page - 1, month: monthParam })}>◀ Newer</LinkButton>
+                    <LinkButton to={paths.log.getHref({ page: page - 1, month: monthParam, import: importId ?? undefined })}>
+                      ◀ Newer
+                    </LinkButton>
                   ) : (
                     <span />
                   )}
@@ -96,7 +112,9 @@ export default function LogRoute() {
                     Page {page} of {pages}
                   </span>
                   {page < pages ? (
-                    <LinkButton to={paths.log.getHref({ page: page + 1, month: monthParam })}>Older ▶</LinkButton>
+                    <LinkButton to={paths.log.getHref({ page: page + 1, month: monthParam, import: importId ?? undefined })}>
+                      Older ▶
+                    </LinkButton>
                   ) : (
                     <span />
                   )}

@@ -1,0 +1,96 @@
+import PgBoss from 'pg-boss';
+import { databaseUrlFromEnv } from '../../config.ts';
+import { logger } from '../../lib/logger.ts';
+import type { FileStore } from '../../lib/storage.ts';
+import { listUnfinishedImportIds } from './imports.repository.ts';
+import { processImport } from './imports.service.ts';
+
+/**
+ * The background side of bulk imports: a pg-boss queue in the app's own PostgreSQL (schema
+ * `pgboss`), one job per import. Jobs only say "work on import X"; what is done lives in our
+ * tables, so any number of jobs for one import are safe and a restart simply queues the unfinished.
+ */
+const QUEUE = 'history-import';
+/** Imports worked on at the same time by one process. */
+const IMPORTS_AT_ONCE = 2;
+/** Files of one import imported at the same time (parsing is CPU-bound; two overlap the database writes). */
+const FILES_AT_ONCE = 2;
+/** A file claimed longer ago than this by a worker that never finished it is taken over. */
+const LEASE_SECONDS = 300;
+
+interface ImportJob {
+  importId: string;
+}
+
+let boss: Promise<PgBoss> | null = null;
+let workerIds: string[] = [];
+let stopping = false;
+
+function startBoss(databaseUrl: string): Promise<PgBoss> {
+  boss ??= (async () => {
+    const instance = new PgBoss({ connectionString: databaseUrl, max: 4, application_name: 'pacewright-imports' });
+    instance.on('error', (err) => logger.error({ err }, 'the import queue reported an error'));
+    await instance.start();
+    // A job that runs longer than expireIn is retried elsewhere; claims in import_files keep that harmless.
+    await instance.createQueue(QUEUE, { name: QUEUE, retryLimit: 3, retryDelay: 30, expireInSeconds: 4 * 3600 });
+    return instance;
+  })().catch((err: unknown) => {
+    boss = null;
+    throw err;
+  });
+  return boss;
+}
+
+/** Queues an import for the workers (of this or any other process using the same database). */
+export async function enqueueImport(importId: string, databaseUrl = databaseUrlFromEnv()): Promise<void> {
+  const instance = await startBoss(databaseUrl);
+  await instance.send(QUEUE, { importId } satisfies ImportJob);
+  for (const id of workerIds) instance.notifyWorker(id);
+}
+
+export interface ImportWorkerOptions {
+  dataDir: string;
+  /** Largest single file taken from an archive, bytes (the single-upload limit). */
+  maxEntryBytes: number;
+  databaseUrl?: string;
+  /** How often an idle worker looks for jobs; pg-boss allows 0.5 s at least. */
+  pollingIntervalSeconds?: number;
+}
+
+/**
+ * Starts this process's import workers and queues every import left unfinished by a stop or crash.
+ * Call once (server start; API tests start and stop it explicitly).
+ */
+export async function startImportWorker(store: FileStore, options: ImportWorkerOptions): Promise<void> {
+  stopping = false;
+  const instance = await startBoss(options.databaseUrl ?? databaseUrlFromEnv());
+  const deps = {
+    store,
+    dataDir: options.dataDir,
+    maxEntryBytes: options.maxEntryBytes,
+    filesAtOnce: FILES_AT_ONCE,
+    leaseSeconds: LEASE_SECONDS,
+    shouldStop: () => stopping,
+  };
+  for (let i = 0; i < IMPORTS_AT_ONCE; i++) {
+    workerIds.push(
+      await instance.work<ImportJob>(
+        QUEUE,
+        { batchSize: 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
+        async ([job]) => {
+          if (job) await processImport(job.data.importId, deps);
+        },
+      ),
+    );
+  }
+  for (const importId of await listUnfinishedImportIds()) await instance.send(QUEUE, { importId } satisfies ImportJob);
+}
+
+/** Stops the workers: files in hand are finished, no new one is started; the rest waits for the next start. */
+export async function stopImportWorker(): Promise<void> {
+  stopping = true;
+  const current = boss;
+  boss = null;
+  workerIds = [];
+  if (current) await (await current).stop({ graceful: true, wait: true, timeout: 60_000 });
+}

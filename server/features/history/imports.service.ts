@@ -1,0 +1,252 @@
+import { randomUUID } from 'node:crypto';
+import { mkdir, rename, rm } from 'node:fs/promises';
+import path from 'node:path';
+import type { Actor } from '../../../shared/auth/permissions.ts';
+import {
+  MAX_ARCHIVE_ENTRIES,
+  MAX_ARCHIVE_UNCOMPRESSED_BYTES,
+  MAX_COMPRESSION_RATIO,
+  RATIO_CHECK_MIN_BYTES,
+  compressionRatio,
+  entrySkipReason,
+} from '../../../shared/history/archive-rules.ts';
+import type { ImportProgress } from '../../../shared/history/schemas.ts';
+import { db } from '../../lib/db.ts';
+import { AppError, NotFoundError } from '../../lib/errors.ts';
+import { logger } from '../../lib/logger.ts';
+import type { FileStore } from '../../lib/storage.ts';
+import { importFiles } from '../runs/runs.service.ts';
+import { findUserById } from '../users/users.repository.ts';
+import {
+  claimFile,
+  completeFile,
+  finishImportIfComplete,
+  findImportById,
+  insertImport,
+  listOpenFiles,
+  markImportFailed,
+  markImportRunning,
+  releaseFile,
+  toImportProgress,
+  type FileOutcome,
+  type NewImportFile,
+} from './imports.repository.ts';
+import { openZip, readZipEntry, zipEntries } from './zip-reader.ts';
+
+/** Where uploaded archives wait for the worker: `DATA_DIR/imports/<id>.zip`, removed when the import ends. */
+export function importsDir(dataDir: string): string {
+  return path.join(dataDir, 'imports');
+}
+
+export function archivePath(dataDir: string, importId: string): string {
+  return path.join(importsDir(dataDir), `${importId}.zip`);
+}
+
+class ArchiveRefused extends AppError {
+  constructor(code: string, message: string, details?: unknown) {
+    super(422, code, message, details);
+  }
+}
+
+const mb = (bytes: number) => `${Math.round(bytes / 1024 / 1024)} MB`;
+
+/** An entry name as people can read it and PostgreSQL can store it (no NUL or control characters). */
+function printableName(name: string): string {
+  // eslint-disable-next-line no-control-regex
+  return name.replace(/[\u0000-\u001f\u007f]/g, '?').slice(0, 500);
+}
+
+/**
+ * Reads the archive's directory (never its contents) and decides, before anything is stored, whether
+ * to take it: refuses non-zips, too many entries, zip bombs and encrypted entries; lists every file
+ * entry with the reason it is skipped, if it is. Folder entries are only structure and are left out.
+ */
+export async function inspectArchive(file: string, maxEntryBytes: number): Promise<NewImportFile[]> {
+  let zip;
+  try {
+    zip = await openZip(file);
+  } catch {
+    throw new ArchiveRefused(
+      'not-a-zip',
+      'This file is not a zip archive (or it is damaged). Put your GPX and TCX files in a .zip and upload that.',
+    );
+  }
+  try {
+    if (zip.entryCount > MAX_ARCHIVE_ENTRIES) {
+      throw new ArchiveRefused(
+        'too-many-entries',
+        `This archive holds ${zip.entryCount} entries; at most ${MAX_ARCHIVE_ENTRIES} fit in one import. Split it into smaller zips.`,
+      );
+    }
+    const files: NewImportFile[] = [];
+    let uncompressed = 0;
+    try {
+      for await (const entry of zipEntries(zip)) {
+        const name = printableName(entry.name);
+        if (entry.isEncrypted) {
+          throw new ArchiveRefused(
+            'encrypted-archive',
+            `"${name}" is protected by a password, which Pacewright cannot open. Make the zip again without a password.`,
+          );
+        }
+        uncompressed += entry.uncompressedSize;
+        if (uncompressed > MAX_ARCHIVE_UNCOMPRESSED_BYTES) {
+          throw new ArchiveRefused(
+            'archive-too-large',
+            `This archive would unpack to more than ${MAX_ARCHIVE_UNCOMPRESSED_BYTES / 1024 ** 3} GB. Split it into smaller zips.`,
+          );
+        }
+        if (
+          entry.uncompressedSize >= RATIO_CHECK_MIN_BYTES &&
+          compressionRatio(entry.uncompressedSize, entry.compressedSize) > MAX_COMPRESSION_RATIO
+        ) {
+          throw new ArchiveRefused(
+            'zip-bomb',
+            `"${name}" is compressed more than ${MAX_COMPRESSION_RATIO} : 1, which GPS files never are; the archive looks like a zip bomb and was not opened.`,
+          );
+        }
+        if (entry.isDirectory) continue;
+        let reason = entrySkipReason(entry.name);
+        if (reason === null && entry.uncompressedSize > maxEntryBytes) {
+          reason = `larger than ${mb(maxEntryBytes)} once unpacked, more than one run ever needs, skipped`;
+        }
+        files.push({ position: entry.position, name, skipReason: reason });
+      }
+    } catch (err) {
+      if (err instanceof AppError) throw err;
+      throw new ArchiveRefused('not-a-zip', 'This zip archive is damaged, so it cannot be read. Make it again and upload it.');
+    }
+    if (!files.some((f) => f.skipReason === null)) {
+      throw new ArchiveRefused(
+        'no-gps-files',
+        'This archive holds no GPS files (.gpx, .tcx, .gpx.gz or .tcx.gz), so nothing was imported.',
+        { rejected: files.map((f) => ({ file: f.name, error: f.skipReason })) },
+      );
+    }
+    return files;
+  } finally {
+    zip.close();
+  }
+}
+
+/**
+ * Takes an uploaded archive (already on disk at `uploadedFile`): checks it, keeps it as
+ * `DATA_DIR/imports/<id>.zip`, records the import and its files, and queues it for the worker.
+ * A refused archive leaves nothing behind: the upload is deleted and no row is written.
+ */
+export async function createImport(
+  actor: Actor,
+  upload: { file: string; name: string },
+  options: { dataDir: string; maxEntryBytes: number; enqueue: (importId: string) => Promise<void> },
+): Promise<{ id: string }> {
+  const id = randomUUID();
+  const target = archivePath(options.dataDir, id);
+  try {
+    const files = await inspectArchive(upload.file, options.maxEntryBytes);
+    await mkdir(importsDir(options.dataDir), { recursive: true });
+    await rename(upload.file, target);
+    await db.transaction((trx) => insertImport({ id, userId: actor.id, archiveName: upload.name, files }, trx));
+  } catch (err) {
+    await rm(upload.file, { force: true });
+    await rm(target, { force: true });
+    throw err;
+  }
+  // The archive and its rows are safe; if queueing fails now, the worker's start-up sweep picks it up.
+  await options.enqueue(id).catch((err: unknown) => logger.error({ err, importId: id }, 'queueing an import failed'));
+  return { id };
+}
+
+export async function getImportProgress(actor: Actor, importId: string): Promise<ImportProgress> {
+  const row = await findImportById(importId);
+  if (!row || row.user_id !== actor.id) throw new NotFoundError('There is no import with this id.');
+  return toImportProgress(row);
+}
+
+export interface ImportWorkDeps {
+  store: FileStore;
+  dataDir: string;
+  /** Largest single file taken from an archive, bytes. */
+  maxEntryBytes: number;
+  /** Files imported at the same time within one import. */
+  filesAtOnce: number;
+  /** After this many seconds a claimed but unfinished file is taken over (its worker died). */
+  leaseSeconds: number;
+  /** True once the worker is asked to stop: finish the files in hand, start no more. */
+  shouldStop: () => boolean;
+}
+
+const DAMAGED_ENTRY = 'This file is damaged inside the archive, so it could not be read.';
+
+function outcomeOf(result: Awaited<ReturnType<typeof importFiles>>): FileOutcome {
+  if (result.imported.length > 0) return { status: 'imported', result: { runIds: result.imported.map((r) => r.id) } };
+  if (result.duplicates.length > 0) return { status: 'duplicate', result: { runId: result.duplicates[0]!.runId } };
+  const error = result.rejected[0]?.error ?? 'This file could not be imported.';
+  return { status: 'rejected', result: { error }, error };
+}
+
+async function finish(importId: string, dataDir: string): Promise<void> {
+  if (await finishImportIfComplete(importId)) await rm(archivePath(dataDir, importId), { force: true });
+}
+
+/**
+ * Works through an import's open files, `filesAtOnce` at a time, each through the ordinary
+ * `importFiles` (its own transaction; the SHA-256 rule turns a second copy into a duplicate).
+ * Each file is claimed before and counted after, in the database, so a stop or crash resumes with
+ * exactly the files not yet done. Returns when every file is done or the worker is stopping.
+ */
+export async function processImport(importId: string, deps: ImportWorkDeps): Promise<void> {
+  const row = await findImportById(importId);
+  if (!row || row.status === 'done' || row.status === 'failed') return;
+  const user = await findUserById(row.user_id);
+  if (!user) return;
+  await markImportRunning(importId);
+  const open = new Map((await listOpenFiles(importId, deps.leaseSeconds)).map((f) => [f.position, f]));
+  if (open.size === 0) return finish(importId, deps.dataDir);
+
+  let zip;
+  try {
+    zip = await openZip(archivePath(deps.dataDir, importId));
+  } catch (err) {
+    logger.error({ err, importId }, 'an import archive could not be opened');
+    await markImportFailed(importId, row.archive_name, 'The uploaded archive is no longer readable; please upload it again.');
+    return;
+  }
+
+  const record = async (position: number, name: string, outcome: FileOutcome) => {
+    const updated = await db.transaction((trx) => completeFile(importId, position, name, outcome, trx));
+    if (updated && updated.done >= updated.total) await finish(importId, deps.dataDir);
+  };
+  const importOne = async (position: number, name: string, data: Buffer) => {
+    try {
+      const result = await importFiles(user, [{ name, data }], deps.store);
+      await record(position, name, outcomeOf(result));
+    } catch (err) {
+      // Not the file's fault (the database went away, say): leave it open for the next attempt.
+      logger.error({ err, importId, file: name }, 'importing a file from an archive failed');
+      await releaseFile(importId, position).catch(() => undefined);
+    }
+  };
+
+  const inFlight = new Set<Promise<void>>();
+  try {
+    for await (const entry of zipEntries(zip)) {
+      if (deps.shouldStop()) break;
+      const file = open.get(entry.position);
+      if (!file || !(await claimFile(importId, file.position, deps.leaseSeconds))) continue;
+      let data: Buffer;
+      try {
+        data = await readZipEntry(zip, entry.entry, deps.maxEntryBytes);
+      } catch {
+        await record(file.position, file.name, { status: 'rejected', result: { error: DAMAGED_ENTRY }, error: DAMAGED_ENTRY });
+        continue;
+      }
+      const task: Promise<void> = importOne(file.position, file.name, data).finally(() => inFlight.delete(task));
+      inFlight.add(task);
+      if (inFlight.size >= deps.filesAtOnce) await Promise.race(inFlight);
+    }
+  } finally {
+    await Promise.all(inFlight);
+    zip.close();
+  }
+  if (!deps.shouldStop()) await finish(importId, deps.dataDir);
+}
