@@ -6,6 +6,7 @@ import { paths } from '../config/paths.ts';
 import AppLayout, { createLoader as createAppLoader } from './routes/app/layout.tsx';
 import AuthLayout, { createLoader as createAuthLoader } from './routes/auth/layout.tsx';
 import { NotFound } from './routes/not-found.tsx';
+import PublicLayout from './routes/public/layout.tsx';
 import { RootError, RouteError } from './routes/route-error.tsx';
 
 type RouteModule = {
@@ -31,8 +32,21 @@ export function createAppRouter(queryClient: QueryClient) {
           children: [
             { path: paths.signIn.path, lazy: page(() => import('./routes/auth/sign-in.tsx')) },
             { path: paths.signUp.path, lazy: page(() => import('./routes/auth/sign-up.tsx')) },
+            { path: paths.forgotPassword.path, lazy: page(() => import('./routes/auth/forgot-password.tsx')) },
           ],
         },
+        {
+          // Links from e-mails: they must open whether or not someone is signed in.
+          Component: PublicLayout,
+          children: [
+            { path: paths.invite.path, lazy: page(() => import('./routes/public/invite.tsx')) },
+            { path: paths.resetPassword.path, lazy: page(() => import('./routes/public/reset-password.tsx')) },
+          ],
+        },
+        { path: paths.devOutbox.path, lazy: page(() => import('./routes/dev/outbox.tsx')) },
+        // The night-before sheet prints without the app's navigation; its loader checks the session itself.
+        { path: paths.planFuelPrint.path, lazy: page(() => import('./routes/app/fuel-print.tsx')) },
+        { path: paths.goalFuelPrint.path, lazy: page(() => import('./routes/app/fuel-print.tsx')) },
         {
           path: paths.home.path,
           Component: AppLayout,
@@ -46,7 +60,12 @@ export function createAppRouter(queryClient: QueryClient) {
                 { path: paths.run.path, lazy: page(() => import('./routes/app/run.tsx')) },
                 { path: paths.plan.path, lazy: page(() => import('./routes/app/plan.tsx')) },
                 { path: paths.squad.path, lazy: page(() => import('./routes/app/squad.tsx')) },
+                { path: paths.weekReview.path, lazy: page(() => import('./routes/app/week-review.tsx')) },
+                { path: paths.myWeek.path, lazy: page(() => import('./routes/app/my-week.tsx')) },
                 { path: paths.tools.path, lazy: page(() => import('./routes/app/tools.tsx')) },
+                { path: paths.fuel.path, lazy: page(() => import('./routes/app/fuel.tsx')) },
+                { path: paths.planFuel.path, lazy: page(() => import('./routes/app/fuel-plan.tsx')) },
+                { path: paths.goalFuel.path, lazy: page(() => import('./routes/app/fuel-plan.tsx')) },
                 { path: paths.profile.path, lazy: page(() => import('./routes/app/profile.tsx')) },
                 { path: paths.admin.path, lazy: page(() => import('./routes/app/admin.tsx')) },
               ],

@@ -7,14 +7,27 @@ export const paths = {
   },
   signUp: {
     path: '/sign-up',
-    getHref: (next?: string) => (next ? `/sign-up?next=${encodeURIComponent(next)}` : '/sign-up'),
+    /** `email` prefills the form (an invitation link knows the invited address). */
+    getHref: (next?: string, email?: string) => {
+      const params = new URLSearchParams();
+      if (next) params.set('next', next);
+      if (email) params.set('email', email);
+      const query = params.toString();
+      return query ? `/sign-up?${query}` : '/sign-up';
+    },
   },
+  forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
+  resetPassword: { path: '/reset-password/:token', getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}` },
+  invite: { path: '/invite/:token', getHref: (token: string) => `/invite/${encodeURIComponent(token)}` },
+  devOutbox: { path: '/dev/outbox', getHref: () => '/dev/outbox' },
   log: {
     path: '/log',
-    getHref: (search?: { page?: number; month?: string }) => {
+    /** `import` keeps a bulk import's progress bar on the page across reloads. */
+    getHref: (search?: { page?: number; month?: string; import?: string }) => {
       const params = new URLSearchParams();
       if (search?.month) params.set('month', search.month);
       if (search?.page && search.page > 1) params.set('page', String(search.page));
+      if (search?.import) params.set('import', search.import);
       const query = params.toString();
       return query ? `/log?${query}` : '/log';
     },
@@ -32,8 +45,33 @@ export const paths = {
       return query ? `/plan?${query}` : '/plan';
     },
   },
-  squad: { path: '/squad', getHref: () => '/squad' },
+  squad: {
+    path: '/squad',
+    /** `squad` picks one of several squads; `week` is any day of the week shown. */
+    getHref: (search?: { squad?: string; week?: string }) => {
+      const params = new URLSearchParams();
+      if (search?.squad) params.set('squad', search.squad);
+      if (search?.week) params.set('week', search.week);
+      const query = params.toString();
+      return query ? `/squad?${query}` : '/squad';
+    },
+  },
+  weekReview: {
+    path: '/squad/:runnerId/week/:date',
+    getHref: (runnerId: string, date: string) => `/squad/${encodeURIComponent(runnerId)}/week/${encodeURIComponent(date)}`,
+  },
+  /** The signed-in runner's own week; without a date, the current one. */
+  myWeek: { path: '/week/:date?', getHref: (date?: string) => (date ? `/week/${encodeURIComponent(date)}` : '/week') },
   tools: { path: '/tools', getHref: () => '/tools' },
+  /** Fuel items, and the way to the fuel plans of sessions and the goal race. */
+  fuel: { path: '/fuel', getHref: () => '/fuel' },
+  planFuel: { path: '/plan/:planId/fuel', getHref: (planId: string) => `/plan/${encodeURIComponent(planId)}/fuel` },
+  planFuelPrint: {
+    path: '/plan/:planId/fuel/print',
+    getHref: (planId: string) => `/plan/${encodeURIComponent(planId)}/fuel/print`,
+  },
+  goalFuel: { path: '/goal-race/fuel', getHref: () => '/goal-race/fuel' },
+  goalFuelPrint: { path: '/goal-race/fuel/print', getHref: () => '/goal-race/fuel/print' },
   profile: { path: '/profile', getHref: () => '/profile' },
   admin: { path: '/admin', getHref: () => '/admin' },
 } as const;

@@ -148,14 +148,38 @@ export default function PlanRoute() {
 
   return (
     <>
-      <PageHeader title="Plan">Your goal race and the session plans that lead to it, with what you ran beside them.</PageHeader>
+      <PageHeader title="Plan">
+        Your goal race and the session plans that lead to it, with what you ran beside them.{' '}
+        <Link
+          to={paths.myWeek.getHref(range.view === 'week' ? range.monday : undefined)}
+          className="font-semibold text-teal underline-offset-2 hover:underline"
+        >
+          My week: totals, load, flags and notes
+        </Link>
+      </PageHeader>
       <div className="flex flex-col gap-4">
         <Card title="Goal race">
           <GoalRaceLine goalRace={goalRace} unit={profile.unit} today={today} />
+          {goalRace && (
+            <Link
+              to={paths.goalFuel.getHref()}
+              className="mt-1 inline-block text-sm font-semibold text-teal underline-offset-2 hover:underline"
+            >
+              Race fuel plan
+            </Link>
+          )}
         </Card>
 
         {editor && (
           <SessionEditor key={editor.key} plan={editor.plan} date={editor.date} onClose={() => setEditor(null)} onDone={onDone} />
+        )}
+        {editor?.plan && (
+          <Link
+            to={paths.planFuel.getHref(editor.plan.id)}
+            className="-mt-2 self-start text-sm font-semibold text-teal underline-offset-2 hover:underline"
+          >
+            Fuel plan for {editor.plan.title || 'this session'}
+          </Link>
         )}
 
         {status?.range === range.from && (

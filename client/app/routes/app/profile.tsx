@@ -5,14 +5,19 @@ import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { tokensQueryOptions } from '../../../features/api-tokens/api/get-tokens.ts';
 import { ApiTokensCard } from '../../../features/api-tokens/components/api-tokens-card.tsx';
 import { authKeys } from '../../../features/auth/api/auth-keys.ts';
+import { myCoachesQueryOptions } from '../../../features/coaches/api/get-my-coaches.ts';
+import { CoachesCard } from '../../../features/coaches/components/coaches-card.tsx';
 import { goalRaceQueryOptions } from '../../../features/goals/api/get-goal-race.ts';
 import { raceResultsQueryOptions } from '../../../features/goals/api/get-race-results.ts';
 import { GoalRaceCard } from '../../../features/goals/components/goal-race-card.tsx';
 import { RaceResultsCard } from '../../../features/goals/components/race-results-card.tsx';
+import { OutboxLink } from '../../../features/outbox/components/outbox-link.tsx';
 import { planCheckKeys } from '../../../features/plan-check/api/plan-check-keys.ts';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { ImportNoticeToggle } from '../../../features/profile/components/import-notice-toggle.tsx';
 import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
+import { WeekAndLoadForm } from '../../../features/profile/components/week-and-load-form.tsx';
 import { formatDate } from '../../../lib/format.ts';
 
 export const createLoader = (queryClient: QueryClient) => async () => {
@@ -21,6 +26,7 @@ export const createLoader = (queryClient: QueryClient) => async () => {
     queryClient.prefetchQuery(tokensQueryOptions()),
     queryClient.prefetchQuery(goalRaceQueryOptions()),
     queryClient.prefetchQuery(raceResultsQueryOptions()),
+    queryClient.prefetchQuery(myCoachesQueryOptions()),
   ]);
   return null;
 };
@@ -60,7 +66,17 @@ export default function ProfileRoute() {
         >
           <PaceToleranceForm onSaved={refreshPlanChecks} />
         </Card>
+        <Card title="Week and load">
+          <WeekAndLoadForm />
+        </Card>
+        {profile.role === 'runner' && <CoachesCard myId={profile.id} />}
+        {profile.role === 'coach' && (
+          <Card title="Notices" description="E-mail about your squads besides the weekly digest.">
+            <ImportNoticeToggle />
+          </Card>
+        )}
         <ApiTokensCard />
+        <OutboxLink />
       </div>
     </>
   );

@@ -6,9 +6,13 @@ import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { useMe } from '../../../features/auth/api/get-me.ts';
+import { CheckinCard } from '../../../features/fuel/components/checkin-card.tsx';
+import { FuelTakenCard } from '../../../features/fuel/components/fuel-taken-card.tsx';
 import { planCheckQueryOptions } from '../../../features/plan-check/api/get-plan-check.ts';
 import { PlanCheckCard } from '../../../features/plan-check/components/plan-check-card.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { runNotesQueryOptions } from '../../../features/run-notes/api/get-run-notes.ts';
+import { RunNotesCard } from '../../../features/run-notes/components/run-notes-card.tsx';
 import { runQueryOptions, useRun } from '../../../features/runs/api/get-run.ts';
 import { runTrackQueryOptions, useRunTrack } from '../../../features/runs/api/get-run-track.ts';
 import { EnergyEstimate, HeartRateZones } from '../../../features/runs/components/effort-figures.tsx';
@@ -33,6 +37,7 @@ export const createLoader =
     void queryClient.prefetchQuery(runTrackQueryOptions(id));
     // The plan check reads the series too; it follows the splits in its own card.
     void queryClient.prefetchQuery(planCheckQueryOptions(id));
+    void queryClient.prefetchQuery(runNotesQueryOptions(id));
     await queryClient.ensureQueryData(runQueryOptions(id));
     return null;
   };
@@ -110,6 +115,15 @@ export default function RunRoute() {
         <Card title="How this is computed">
           <HowComputed run={run} />
         </Card>
+      </div>
+
+      <div className="mt-4">
+        <RunNotesCard runId={run.id} myId={me?.id} />
+      </div>
+
+      <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
+        <FuelTakenCard runId={run.id} localDate={run.summary.local_date} isOwner={isOwner} unit={unit} />
+        <CheckinCard runId={run.id} isOwner={isOwner} />
       </div>
     </>
   );

@@ -1,5 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Outlet, redirect, type LoaderFunctionArgs } from 'react-router-dom';
+import { CardPage } from '../../../components/layout/card-page.tsx';
 import { resolveNext } from '../../../config/paths.ts';
 import { meQueryOptions } from '../../../features/auth/api/get-me.ts';
 
@@ -13,15 +14,8 @@ export const createLoader =
 
 export default function AuthLayout() {
   return (
-    <div className="flex min-h-dvh flex-col items-center px-4 py-10 sm:py-16">
-      <p className="mb-6 text-2xl font-bold tracking-tight">Pacewright</p>
-      <main className="w-full max-w-md rounded-lg border border-line bg-card p-5 shadow-xs sm:p-7">
-        <Outlet />
-      </main>
-      <p className="mt-6 max-w-md text-center text-sm text-ink-muted">
-        A training log for distance runners and their coaches: splits per mile and kilometre, plan checks, weekly load and
-        race-day fueling.
-      </p>
-    </div>
+    <CardPage>
+      <Outlet />
+    </CardPage>
   );
 }

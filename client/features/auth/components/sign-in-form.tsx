@@ -31,6 +31,11 @@ export function SignInForm() {
         required
         error={fieldErrors.password}
       />
+      <p className="-mt-2 text-sm">
+        <Link to={paths.forgotPassword.getHref()} className="font-semibold text-teal underline">
+          Forgot your password?
+        </Link>
+      </p>
       <Button type="submit" disabled={mutation.isPending}>
         {mutation.isPending ? 'Signing in…' : 'Sign in'}
       </Button>

@@ -36,7 +36,15 @@ export function SignUpForm() {
     <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">
       {formError && <FormAlert>{formError}</FormAlert>}
       <TextField label="Name" name="name" autoComplete="name" required error={fieldErrors.name} />
-      <TextField label="E-mail" name="email" type="email" autoComplete="email" required error={fieldErrors.email} />
+      <TextField
+        label="E-mail"
+        name="email"
+        type="email"
+        autoComplete="email"
+        required
+        defaultValue={searchParams.get('email') ?? undefined}
+        error={fieldErrors.email}
+      />
       <TextField
         label="Password"
         name="password"

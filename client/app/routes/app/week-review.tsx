@@ -1,0 +1,49 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { parseIsoDate } from '../../../../shared/plans/weeks.ts';
+import { PageHeader } from '../../../components/ui/page-header.tsx';
+import { paths } from '../../../config/paths.ts';
+import { useMe } from '../../../features/auth/api/get-me.ts';
+import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { runnerWeekQueryOptions, useRunnerWeek } from '../../../features/squad/api/get-runner-week.ts';
+import { WeekReview } from '../../../features/squad/components/week-review.tsx';
+import { requireAccess } from '../../guards.ts';
+
+export const createLoader =
+  (queryClient: QueryClient) =>
+  async ({ request, params }: LoaderFunctionArgs) => {
+    await requireAccess(queryClient, request, 'squads:manage');
+    await queryClient.ensureQueryData(runnerWeekQueryOptions(params.runnerId ?? '', parseIsoDate(params.date ?? null)));
+    return null;
+  };
+
+/** A coach's review of one squad runner's week. */
+export default function WeekReviewRoute() {
+  const params = useParams();
+  const runnerId = params.runnerId ?? '';
+  const week = useRunnerWeek(runnerId, parseIsoDate(params.date ?? null));
+  const me = useMe();
+  const profile = useProfile();
+  return (
+    <>
+      <PageHeader title={week.runner.name}>
+        Week review: what was planned and what was run, the load, flags to look at, and your notes with the runner.
+      </PageHeader>
+      <WeekReview
+        week={week}
+        unit={profile.unit}
+        meId={me?.id ?? ''}
+        viewer="coach"
+        weekHref={(date) => paths.weekReview.getHref(runnerId, date ?? week.today)}
+        lead={
+          <Link
+            to={paths.squad.getHref({ week: week.start })}
+            className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+          >
+            ← All runners
+          </Link>
+        }
+      />
+    </>
+  );
+}

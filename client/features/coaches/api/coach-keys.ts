@@ -1,0 +1,4 @@
+export const coachKeys = {
+  all: ['coaches'] as const,
+  lists: () => [...coachKeys.all, 'list'] as const,
+};

@@ -1,0 +1,20 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client.ts';
+import { coachKeys } from './coach-keys.ts';
+
+export type CoachAccess = {
+  squad: { id: string; name: string };
+  coach: { id: string; name: string; email: string };
+};
+
+/** The coaches who can read the signed-in runner's data, one entry per squad that gives them access. */
+export async function getMyCoaches(): Promise<CoachAccess[]> {
+  const { coaches } = await api.get<{ coaches: CoachAccess[] }>('/me/coaches');
+  return coaches;
+}
+
+export const myCoachesQueryOptions = () => queryOptions({ queryKey: coachKeys.lists(), queryFn: getMyCoaches });
+
+export function useMyCoaches() {
+  return useQuery(myCoachesQueryOptions());
+}

@@ -1,0 +1,17 @@
+import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
+import type { Plan } from '../../../../shared/plans/schemas.ts';
+import { api } from '../../../lib/api-client.ts';
+import { fuelKeys } from './fuel-keys.ts';
+
+/** The session plan a fuel plan is for (its date, title and parts). */
+export async function getFuelSession(planId: string): Promise<Plan> {
+  const { plan } = await api.get<{ plan: Plan }>(`/plans/${encodeURIComponent(planId)}`);
+  return plan;
+}
+
+export const fuelSessionQueryOptions = (planId: string) =>
+  queryOptions({ queryKey: fuelKeys.session(planId), queryFn: () => getFuelSession(planId) });
+
+export function useFuelSession(planId: string): Plan {
+  return useSuspenseQuery(fuelSessionQueryOptions(planId)).data;
+}

@@ -1,0 +1,23 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { z } from 'zod';
+import type { NewRunNoteInputSchema } from '../../../../shared/runs/schemas.ts';
+import { api } from '../../../lib/api-client.ts';
+import { weekKeys } from './week-keys.ts';
+
+type NoteInput = z.output<typeof NewRunNoteInputSchema>;
+
+export async function addWeekNote(runnerId: string, start: string, input: NoteInput): Promise<{ id: string; text: string }> {
+  const { note } = await api.post<{ note: { id: string; text: string } }>(
+    `/runners/${encodeURIComponent(runnerId)}/weeks/${encodeURIComponent(start)}/notes`,
+    input,
+  );
+  return note;
+}
+
+export function useAddWeekNote(runnerId: string, start: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: NoteInput) => addWeekNote(runnerId, start, input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: weekKeys.runner(runnerId) }),
+  });
+}

@@ -1,0 +1,138 @@
+import { createColumnHelper, useTable } from '@tanstack/react-table';
+import { Link } from 'react-router-dom';
+import { formatDistance } from '../../../../shared/runs/display.ts';
+import type { Unit } from '../../../../shared/users/schemas.ts';
+import { DataTable } from '../../../components/ui/data-table.tsx';
+import { paths } from '../../../config/paths.ts';
+import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
+import type { OverviewRow } from '../api/types.ts';
+import { flagWords, formatDaysAgo } from '../utils/week-format.ts';
+import { VolumeSparkline } from './volume-sparkline.tsx';
+
+type Row = {
+  source: OverviewRow;
+  unit: Unit;
+  today: string;
+  runner: string;
+  planned: number;
+  run: number;
+  /** Share of planned sessions run as planned; undefined when nothing was planned (sorts last). */
+  as_planned: number | undefined;
+  flag_count: number;
+  /** Milliseconds of the last upload; undefined when never (sorts last). */
+  last_upload: number | undefined;
+  reviewed: number;
+};
+
+const helper = createColumnHelper<SortableTableFeatures, Row>();
+const number = { meta: { align: 'right' }, sortUndefined: 'last' } as const;
+
+const distance = (metres: number, unit: Unit) => `${formatDistance(metres, unit, 1)} ${unit}`;
+
+const COLUMNS = helper.columns([
+  helper.accessor('runner', {
+    header: 'Runner',
+    sortFn: 'alphanumeric',
+    cell: (info) => {
+      const { runner, start } = info.row.original.source;
+      return (
+        <Link
+          to={paths.weekReview.getHref(runner.id, start)}
+          className="font-semibold text-teal underline-offset-2 hover:underline"
+          aria-label={`${runner.name}: week review`}
+        >
+          {runner.name}
+        </Link>
+      );
+    },
+  }),
+  helper.accessor('planned', {
+    header: 'Planned',
+    ...number,
+    cell: (info) => {
+      const { planned_distance_m: planned, sessions_planned: sessions } = info.row.original.source;
+      if (planned > 0) return distance(planned, info.row.original.unit);
+      // Plans given only by time have no distance (a time is not turned into a distance without a pace).
+      return <span className="text-ink-muted">{sessions > 0 ? 'by time' : 'nothing'}</span>;
+    },
+  }),
+  helper.accessor('run', {
+    header: 'Run',
+    ...number,
+    cell: (info) => <span className="font-semibold">{distance(info.getValue(), info.row.original.unit)}</span>,
+  }),
+  helper.accessor('as_planned', {
+    header: 'Sessions as planned',
+    ...number,
+    cell: (info) => {
+      const { sessions_as_planned: done, sessions_planned: planned } = info.row.original.source;
+      return planned === 0 ? (
+        <span className="text-ink-muted">none planned</span>
+      ) : (
+        <span aria-label={`${done} of ${planned}`}>
+          {done}/{planned}
+        </span>
+      );
+    },
+  }),
+  helper.accessor('flag_count', {
+    header: 'Flags',
+    sortUndefined: 'last',
+    cell: (info) => {
+      const { flags } = info.row.original.source;
+      if (flags.length === 0) return <span className="text-ink-muted">none</span>;
+      return (
+        <span className="inline-flex items-baseline gap-1.5" title={flags.map((f) => f.message).join('\n\n')}>
+          <span className="font-semibold text-tartan tabular-nums">{flags.length}</span>
+          <span>{flags.map((f) => flagWords(f.code)).join(', ')}</span>
+        </span>
+      );
+    },
+  }),
+  helper.accessor('last_upload', {
+    header: 'Last upload',
+    ...number,
+    cell: (info) => formatDaysAgo(info.row.original.source.last_upload, info.row.original.today),
+  }),
+  helper.accessor('reviewed', {
+    header: 'Reviewed',
+    meta: { align: 'right' },
+    cell: (info) =>
+      info.getValue() ? (
+        <span className="font-semibold text-teal">
+          <span aria-hidden="true">✓</span>
+          <span className="sr-only">reviewed</span>
+        </span>
+      ) : (
+        <span className="text-ink-muted">
+          <span aria-hidden="true">–</span>
+          <span className="sr-only">not reviewed</span>
+        </span>
+      ),
+  }),
+  helper.display({
+    id: 'volume',
+    header: '12 weeks',
+    cell: (info) => <VolumeSparkline values={info.row.original.source.volume_12_weeks} unit={info.row.original.unit} />,
+  }),
+]);
+
+type SquadOverviewTableProps = { rows: OverviewRow[]; unit: Unit; today: string; caption: string };
+
+/** One row per runner for the chosen week; every column but the sparkline sorts. */
+export function SquadOverviewTable({ rows, unit, today, caption }: SquadOverviewTableProps) {
+  const data: Row[] = rows.map((source) => ({
+    source,
+    unit,
+    today,
+    runner: source.runner.name,
+    planned: source.planned_distance_m,
+    run: source.run_distance_m,
+    as_planned: source.sessions_planned > 0 ? source.sessions_as_planned / source.sessions_planned : undefined,
+    flag_count: source.flags.length,
+    last_upload: source.last_upload ? Date.parse(source.last_upload) : undefined,
+    reviewed: source.reviewed ? 1 : 0,
+  }));
+  const table = useTable({ features: sortableTableFeatures, columns: COLUMNS, data });
+  return <DataTable table={table} caption={caption} minWidth="min-w-3xl" rowHeader="runner" />;
+}

@@ -1,0 +1,114 @@
+import type { ReactNode } from 'react';
+import type { Unit } from '../../../../shared/users/schemas.ts';
+import { addDays } from '../../../../shared/weeks/weeks.ts';
+import { Button } from '../../../components/ui/button.tsx';
+import { Card } from '../../../components/ui/card.tsx';
+import { FormAlert } from '../../../components/ui/form-alert.tsx';
+import { formatDate } from '../../../lib/format.ts';
+import { runnerWeekCsvHref } from '../api/get-runner-week.ts';
+import { useSetWeekReviewed } from '../api/set-week-reviewed.ts';
+import type { RunnerWeek } from '../api/types.ts';
+import { formatWeekRange } from '../utils/week-format.ts';
+import { WeekDays } from './week-days.tsx';
+import { WeekFlags } from './week-flags.tsx';
+import { WeekHow } from './week-how.tsx';
+import { WeekLoad } from './week-load.tsx';
+import { DownloadLink, WeekNav } from './week-nav.tsx';
+import { WeekNotes } from './week-notes.tsx';
+import { WeekTotals } from './week-totals.tsx';
+
+type WeekReviewProps = {
+  week: RunnerWeek;
+  unit: Unit;
+  meId: string;
+  /** The coach sees "Mark reviewed"; the runner sees who reviewed. */
+  viewer: 'coach' | 'runner';
+  /** Link to the week holding `date`, or to the current week when no date. */
+  weekHref: (date?: string) => string;
+  /** Extra links at the start of the toolbar (e.g. back to the squad). */
+  lead?: ReactNode;
+};
+
+/** One runner's week: the days, totals, load, flags, notes, and how every number is made. */
+export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekReviewProps) {
+  const isCurrent = week.today >= week.start && week.today <= week.end;
+  return (
+    <div className="flex flex-col gap-4">
+      <Card>
+        <div className="mb-3 flex flex-wrap items-center gap-3">
+          {lead}
+          <WeekNav
+            title={formatWeekRange(week.start)}
+            previous={weekHref(addDays(week.start, -7))}
+            next={weekHref(addDays(week.start, 7))}
+            current={isCurrent ? undefined : weekHref()}
+          />
+          <div className="flex flex-wrap items-center gap-2 lg:ml-auto">
+            <DownloadLink href={runnerWeekCsvHref(week.runner_id, week.start)}>Download CSV</DownloadLink>
+            {viewer === 'coach' && <ReviewToggle week={week} meId={meId} />}
+          </div>
+        </div>
+        <Reviewers week={week} meId={meId} />
+        <WeekDays week={week} unit={unit} />
+      </Card>
+
+      <div className="grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
+        <div className="flex min-w-0 flex-col gap-4">
+          <Card title="Planned and run">
+            <WeekTotals week={week} unit={unit} today={week.today} />
+          </Card>
+          <Card title="Flags">
+            <WeekFlags week={week} />
+          </Card>
+        </div>
+        <div className="flex min-w-0 flex-col gap-4">
+          <Card title="Load">
+            <WeekLoad week={week} unit={unit} />
+          </Card>
+          <Card title="Notes">
+            <WeekNotes week={week} meId={meId} otherSide={viewer === 'coach' ? week.runner.name : 'your coach'} />
+          </Card>
+        </div>
+      </div>
+
+      <Card title="How this is computed">
+        <WeekHow />
+      </Card>
+    </div>
+  );
+}
+
+function ReviewToggle({ week, meId }: { week: RunnerWeek; meId: string }) {
+  const review = useSetWeekReviewed();
+  const reviewed = week.reviewed_by.some((r) => r.coach_id === meId);
+  const toggle = () => review.mutate({ runnerId: week.runner_id, start: week.start, reviewed: !reviewed });
+  return (
+    <>
+      {reviewed ? (
+        <Button variant="secondary" onClick={toggle} disabled={review.isPending} aria-label="Reviewed ✓ — undo">
+          <span className="font-semibold text-teal">Reviewed ✓</span>
+          <span className="font-normal text-ink-muted">— undo</span>
+        </Button>
+      ) : (
+        <Button onClick={toggle} disabled={review.isPending}>
+          {review.isPending ? 'Saving…' : 'Mark reviewed'}
+        </Button>
+      )}
+      {review.isError && <FormAlert>{review.error.message}</FormAlert>}
+    </>
+  );
+}
+
+/** Who has reviewed the week, for both sides to see. */
+function Reviewers({ week, meId }: { week: RunnerWeek; meId: string }) {
+  if (week.reviewed_by.length === 0) return null;
+  return (
+    <p className="mb-3 text-sm text-ink-muted">
+      <span aria-hidden="true" className="font-semibold text-teal">
+        ✓{' '}
+      </span>
+      Reviewed by{' '}
+      {week.reviewed_by.map((r) => `${r.coach_id === meId ? 'you' : r.coach_name} on ${formatDate(r.reviewed_at)}`).join(', ')}.
+    </p>
+  );
+}

@@ -1,0 +1,66 @@
+import { addDays } from '../../../../shared/weeks/weeks.ts';
+
+const DAY_SHORT = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' });
+const DAY_LONG = new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', timeZone: 'UTC' });
+const DAY_MONTH = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
+const DAY_MS = 86_400_000;
+
+/** Today on this device as `YYYY-MM-DD`. */
+export function deviceToday(): string {
+  const now = new Date();
+  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+}
+
+/** "Mon 7 Dec" (or "Monday 7 December" when `long`) for a `YYYY-MM-DD`. */
+export function formatDay(date: string, long = false): string {
+  return (long ? DAY_LONG : DAY_SHORT).format(new Date(`${date}T00:00:00Z`));
+}
+
+/** "7 Dec" for a `YYYY-MM-DD`. */
+export function formatDayMonth(date: string): string {
+  return DAY_MONTH.format(new Date(`${date}T00:00:00Z`));
+}
+
+/** "Mon 28 Sep – Sun 4 Oct 2026" for the week starting `start`. */
+export function formatWeekRange(start: string): string {
+  const end = addDays(start, 6);
+  return `${formatDay(start)} – ${formatDay(end)} ${end.slice(0, 4)}`;
+}
+
+/** A device-local `YYYY-MM-DD` for an instant. */
+function localDate(iso: string): string {
+  const d = new Date(iso);
+  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
+}
+
+/**
+ * When something last happened, in calendar days on this device: "today", "yesterday", "3 days ago";
+ * "never" for null. Counted in dates, not hours, so last night's upload is "yesterday".
+ */
+export function formatDaysAgo(iso: string | null, today: string): string {
+  if (!iso) return 'never';
+  const days = Math.round((Date.parse(`${today}T00:00:00Z`) - Date.parse(`${localDate(iso)}T00:00:00Z`)) / DAY_MS);
+  if (days <= 0) return 'today';
+  if (days === 1) return 'yesterday';
+  return `${days} days ago`;
+}
+
+/** "4 h 35 min", "50 min". */
+export function formatHoursMinutes(seconds: number): string {
+  const minutes = Math.round(seconds / 60);
+  const h = Math.floor(minutes / 60);
+  const m = minutes % 60;
+  return h > 0 ? `${h} h${m > 0 ? ` ${m} min` : ''}` : `${m} min`;
+}
+
+/** Short words for each flag; the week review shows the full reason beside them. */
+const FLAG_WORDS: Record<string, string> = {
+  'volume-jump': 'weekly distance up',
+  'load-spike': 'load rose quickly',
+  'easy-too-fast': 'easy run too fast',
+  'long-run-missed': 'long run missed',
+};
+
+export function flagWords(code: string): string {
+  return FLAG_WORDS[code] ?? code.replace(/-/g, ' ');
+}
