@@ -84,11 +84,15 @@ try {
     const outputFile = path.join(resultsDir, `vitest-${layer}.json`);
     rmSync(outputFile, { force: true });
     console.log(`\n▶ ${layer} tests`);
-    spawnSync(bin('vitest'), ['run', '--project', layer, '--reporter=default', '--reporter=json', `--outputFile=${outputFile}`], {
-      cwd: ROOT,
-      stdio: 'inherit',
-      env,
-    });
+    spawnSync(
+      bin('vitest'),
+      ['run', '--project', layer, '--reporter=default', '--reporter=json', `--outputFile=${outputFile}`, ...fileFilters],
+      {
+        cwd: ROOT,
+        stdio: 'inherit',
+        env,
+      },
+    );
     if (!existsSync(outputFile)) {
       console.error(`The ${layer} tests did not report results.`);
       failed++;
