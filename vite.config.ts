@@ -30,8 +30,10 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           fileParallelism: false,
-          testTimeout: 60_000,
+          testTimeout: 90_000,
           hookTimeout: 120_000,
+          // Browser pages under a loaded 2-core CI machine can take seconds to settle.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],

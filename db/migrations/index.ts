@@ -8,6 +8,7 @@ import * as m20261201000500 from './20261201000500_session_plans.ts';
 import * as m20261201000600 from './20261201000600_squads_mail.ts';
 import * as m20261201000700 from './20261201000700_fuel.ts';
 import * as m20261201000800 from './20261201000800_imports.ts';
+import * as m20261201000900 from './20261201000900_load_indexes.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -25,6 +26,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000600_squads_mail': m20261201000600,
   '20261201000700_fuel': m20261201000700,
   '20261201000800_imports': m20261201000800,
+  '20261201000900_load_indexes': m20261201000900,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

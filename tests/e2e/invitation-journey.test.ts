@@ -126,9 +126,11 @@ describe('joining a squad by invitation', () => {
     await page.waitForURL(/\/runs\/[^/]+$/);
     const runPath = new URL(page.url()).pathname;
     const runId = runPath.split('/').pop()!;
-    const runName = (await page.getByRole('heading', { level: 1 }).textContent())!;
     const { user } = await getJson<{ user: { id: string } }>(page, '/api/auth/me');
-    const run = await getJson<{ summary: { local_date: string } }>(page, `/api/runs/${runId}`);
+    const run = await getJson<{ name: string; summary: { local_date: string } }>(page, `/api/runs/${runId}`);
+    // From the API, not the page's heading: read too early under load, the heading can still be empty.
+    const runName = run.name;
+    expect(runName).not.toBe('');
 
     // The profile now names the coach who can read this runner's data.
     await page.goto(`${server.url}/profile`);
