@@ -1,0 +1,378 @@
+/**
+ * HTTP load check (`npm run load`): the app under concurrent traffic on loopback, and the size of
+ * the first page's JavaScript. A plain script, not a test; it stops by itself.
+ *
+ * 1. A database: by default a fresh one on the embedded cluster, migrated and seeded with the demo
+ *    data (`server/cli/db.ts seed`) and dropped afterwards. `LOAD_DATABASE_URL` points it at a
+ *    bigger database made by `npm run seed:load` instead (left as it is, apart from the runs the
+ *    upload round adds to a runner registered for this run).
+ * 2. The app started in this process on 127.0.0.1 (a free port), original files in a temporary
+ *    folder. The sign-in rate limit is lifted for the run (AUTH_RATE_LIMIT), or the sign-in round
+ *    would measure 429s.
+ * 3. Bearer tokens for a runner and a coach, then one bounded autocannon round per endpoint
+ *    (LOAD_SECONDS, default 10 s; LOAD_CONNECTIONS, default 50): sign-in, the runs list, a run
+ *    page, the week review and the squad overview. autocannon runs in its own worker thread so the
+ *    load generator does not share the server's event loop.
+ * 4. 20 different generated 3-hour GPX files uploaded at once by a fresh runner.
+ * 5. The gzipped size of every script the built index.html loads (entry and modulepreloads).
+ *
+ * Prints a table, the issue #8 targets met or missed, and one JSON line.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import type { IncomingMessage, Server, ServerResponse } from 'node:http';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { gzipSync } from 'node:zlib';
+import autocannon from 'autocannon';
+import knexFactory from 'knex';
+import { LOAD_PASSWORD, loadCoachEmail, loadRunnerEmail } from '../../db/load/load-plan.ts';
+import { buildClientIfStale } from '../../server/cli/lib/client-build.ts';
+import { ROOT, startEmbeddedPostgres, withDatabase } from '../../server/cli/lib/postgres.ts';
+import { generateLakeRun, longRunPhases } from '../../shared/tracks/synthetic.ts';
+import { writeGpx } from '../../shared/tracks/write-track.ts';
+
+const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
+const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
+const UPLOADS = 20;
+/** No single upload may take longer than this; the round as a whole is bounded by it too. */
+const UPLOAD_TIMEOUT_MS = 180_000;
+/** After a round, wait this long at most for requests the server still holds (Knex gives up on a connection after 60 s). */
+const DRAIN_TIMEOUT_MS = 75_000;
+
+/** Issue #8 targets. */
+const TARGET_READ_P99_MS = 100;
+const TARGET_FIRST_PAGE_GZIP_KB = 250;
+
+interface RoundResult {
+  name: string;
+  method: string;
+  path: string;
+  requests: number;
+  rps: number;
+  p50_ms: number;
+  p99_ms: number;
+  max_ms: number;
+  non_2xx: number;
+  errors: number;
+  timeouts: number;
+  status_5xx: number;
+  /** 5xx the server sent, including to clients that had already given up (autocannon's 10 s timeout). */
+  server_5xx: number;
+  /** Requests still in the server when the round ended, and how long they took to drain. */
+  in_flight_at_end: number;
+  drain_ms: number;
+}
+
+interface UploadResult {
+  files: number;
+  stored: number;
+  statuses: Record<string, number>;
+  wall_ms: number;
+  p50_ms: number;
+  max_ms: number;
+  runs_after: number;
+}
+
+const runId = `${Date.now().toString(36)}_${process.pid}`;
+const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-load-data-'));
+const loaded = process.env.LOAD_DATABASE_URL;
+
+async function prepareDatabase(): Promise<{ url: string; drop: (() => Promise<void>) | null }> {
+  if (loaded) return { url: loaded, drop: null };
+  const serverUrl = startEmbeddedPostgres([]);
+  const name = `pacewright_load_${runId}`;
+  const admin = knexFactory({ client: 'pg', connection: withDatabase(serverUrl, 'postgres') });
+  await admin.raw('create database ??', [name]);
+  const url = withDatabase(serverUrl, name);
+  const drop = async (): Promise<void> => {
+    await admin.raw('drop database if exists ?? with (force)', [name]);
+    await admin.destroy();
+  };
+  console.log(`Seeding the demo data into ${name} (about half a minute)…`);
+  // The seed imports generated runs through the app's own import code, which binds to DATABASE_URL.
+  const seeded = spawnSync(process.execPath, ['--import', 'tsx', 'server/cli/db.ts', 'seed'], {
+    cwd: ROOT,
+    stdio: 'inherit',
+    env: { ...process.env, DATABASE_URL: url, DATA_DIR: dataDir },
+  });
+  if (seeded.status !== 0) {
+    await drop();
+    throw new Error('loading the demo data failed');
+  }
+  return { url, drop };
+}
+
+async function api<T>(base: string, method: string, urlPath: string, token: string | null, body?: unknown): Promise<T> {
+  const response = await fetch(`${base}${urlPath}`, {
+    method,
+    headers: { 'content-type': 'application/json', ...(token ? { authorization: `Bearer ${token}` } : {}) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  if (!response.ok) throw new Error(`${method} ${urlPath}: ${response.status} ${await response.text()}`);
+  return (await response.json()) as T;
+}
+
+/** Requests in the server and 5xx answers, counted on the server's side of the socket. */
+const serverSide = { inFlight: 0, status5xx: 0 };
+
+function watchServer(server: Server): void {
+  server.prependListener('request', (_req: IncomingMessage, res: ServerResponse) => {
+    serverSide.inFlight++;
+    // Counted when the handler answers, not when the socket closes: a handler goes on working (and
+    // may still fail) after autocannon has closed the connection at the end of a round.
+    const end = res.end.bind(res) as (...args: unknown[]) => ServerResponse;
+    let answered = false;
+    res.end = ((...args: unknown[]) => {
+      if (!answered) {
+        answered = true;
+        serverSide.inFlight--;
+        if (res.statusCode >= 500) serverSide.status5xx++;
+      }
+      return end(...args);
+    }) as ServerResponse['end'];
+  });
+}
+
+async function drain(): Promise<{ inFlight: number; ms: number }> {
+  const inFlight = serverSide.inFlight;
+  const t0 = performance.now();
+  while (serverSide.inFlight > 0 && performance.now() - t0 < DRAIN_TIMEOUT_MS) await new Promise((r) => setTimeout(r, 50));
+  return { inFlight, ms: Math.round(performance.now() - t0) };
+}
+
+async function round(
+  base: string,
+  name: string,
+  options: { method?: 'GET' | 'POST'; path: string; token?: string; body?: unknown },
+) {
+  const method = options.method ?? 'GET';
+  const headers: Record<string, string> = { 'content-type': 'application/json' };
+  if (options.token) headers.authorization = `Bearer ${options.token}`;
+  const before5xx = serverSide.status5xx;
+  const result = await autocannon({
+    url: `${base}${options.path}`,
+    method,
+    headers,
+    body: options.body === undefined ? undefined : JSON.stringify(options.body),
+    connections: CONNECTIONS,
+    duration: SECONDS,
+    workers: 1,
+    timeout: 10,
+  });
+  const drained = await drain();
+  const summary: RoundResult = {
+    name,
+    method,
+    path: options.path,
+    requests: result.requests.total,
+    rps: Math.round(result.requests.average),
+    p50_ms: result.latency.p50,
+    p99_ms: result.latency.p99,
+    max_ms: result.latency.max,
+    non_2xx: result.non2xx,
+    errors: result.errors,
+    timeouts: result.timeouts,
+    status_5xx: result['5xx'],
+    server_5xx: serverSide.status5xx - before5xx,
+    in_flight_at_end: drained.inFlight,
+    drain_ms: drained.ms,
+  };
+  console.log(
+    `  ${name.padEnd(16)} ${String(summary.rps).padStart(6)} req/s  p50 ${summary.p50_ms} ms  p99 ${summary.p99_ms} ms  non-2xx ${summary.non_2xx}` +
+      `  server 5xx ${summary.server_5xx}  still in the server at the end ${summary.in_flight_at_end} (drained in ${summary.drain_ms} ms)`,
+  );
+  return summary;
+}
+
+function threeHourFile(k: number): string {
+  // A different day and seed per file, so none is a duplicate of another (the import dedupes by content).
+  const { points } = generateLakeRun({
+    start_t: Date.UTC(2024, 2, 1 + k, 6, 0, 0),
+    phases: longRunPhases(3, 3.1 + k * 0.01),
+    seed: 100 + k,
+    gps_sigma_m: 1.5,
+    ele_sigma_m: 1,
+  });
+  return writeGpx(`Load upload ${k + 1}`, [points]);
+}
+
+async function uploadRound(base: string): Promise<UploadResult> {
+  const email = `load-upload-${runId}@pacewright.test`.toLowerCase();
+  const password = `upload-${runId}-password`;
+  await api(base, 'POST', '/api/auth/register', null, { email, password, name: 'Load Upload Runner', role: 'runner' });
+  const { token } = await api<{ token: string }>(base, 'POST', '/api/auth/token', null, { email, password });
+  const files = Array.from({ length: UPLOADS }, (_, k) => threeHourFile(k));
+  const statuses: Record<string, number> = {};
+  const latencies: number[] = [];
+  let stored = 0;
+  const t0 = performance.now();
+  await Promise.all(
+    files.map(async (data, k) => {
+      const form = new FormData();
+      form.append('files', new Blob([data], { type: 'application/gpx+xml' }), `load-${k + 1}.gpx`);
+      const started = performance.now();
+      try {
+        const response = await fetch(`${base}/api/runs`, {
+          method: 'POST',
+          headers: { authorization: `Bearer ${token}` },
+          body: form,
+          signal: AbortSignal.timeout(UPLOAD_TIMEOUT_MS),
+        });
+        const body = (await response.json()) as { imported?: unknown[] };
+        statuses[response.status] = (statuses[response.status] ?? 0) + 1;
+        if (response.status === 201 && body.imported?.length === 1) stored++;
+      } catch (error) {
+        const key = error instanceof Error ? error.name : 'error';
+        statuses[key] = (statuses[key] ?? 0) + 1;
+      }
+      latencies.push(performance.now() - started);
+    }),
+  );
+  const wall = performance.now() - t0;
+  latencies.sort((a, b) => a - b);
+  const { total } = await api<{ total: number }>(base, 'GET', '/api/runs', token);
+  return {
+    files: UPLOADS,
+    stored,
+    statuses,
+    wall_ms: Math.round(wall),
+    p50_ms: Math.round(latencies[Math.floor(latencies.length / 2)] ?? 0),
+    max_ms: Math.round(latencies[latencies.length - 1] ?? 0),
+    runs_after: total,
+  };
+}
+
+/** Gzipped bytes of the scripts index.html loads before anything else (entry + modulepreload). */
+function measureFirstPage(): { files: Array<{ file: string; bytes: number; gzip_bytes: number }>; gzip_kb: number } {
+  buildClientIfStale();
+  const clientDir = path.join(ROOT, 'dist/client');
+  const html = readFileSync(path.join(clientDir, 'index.html'), 'utf8');
+  const sources = new Set<string>();
+  for (const match of html.matchAll(/<script[^>]*\bsrc="([^"]+\.js)"/g)) sources.add(match[1] as string);
+  for (const match of html.matchAll(/<link[^>]*rel="modulepreload"[^>]*href="([^"]+\.js)"/g)) sources.add(match[1] as string);
+  const files = [...sources].map((src) => {
+    const bytes = readFileSync(path.join(clientDir, src.replace(/^\//, '')));
+    return { file: src, bytes: bytes.length, gzip_bytes: gzipSync(bytes, { level: 9 }).length };
+  });
+  const gzip = files.reduce((sum, f) => sum + f.gzip_bytes, 0);
+  return { files, gzip_kb: Math.round((gzip / 1024) * 10) / 10 };
+}
+
+async function main(): Promise<void> {
+  const bundle = measureFirstPage();
+  const database = await prepareDatabase();
+  Object.assign(process.env, {
+    DATABASE_URL: database.url,
+    DATA_DIR: dataDir,
+    HOST: '127.0.0.1',
+    PORT: '0',
+    MAIL_CATCHER_PORT: '0',
+    AUTH_RATE_LIMIT: '1000000',
+    // Errors are counted above; logging each one would bury the figures.
+    LOG_LEVEL: process.env.LOG_LEVEL ?? 'silent',
+  });
+  // Imported only now: the server's modules bind to DATABASE_URL when they load.
+  const { startServer } = await import('../../server/index.ts');
+  const server = await startServer();
+  watchServer(server.server);
+  const base = server.url;
+  const runner = loaded
+    ? { email: loadRunnerEmail(1), password: LOAD_PASSWORD }
+    : { email: 'ivy@harborline.test', password: 'harbor-ivy-demo' };
+  const coach = loaded
+    ? { email: loadCoachEmail(1), password: LOAD_PASSWORD }
+    : { email: 'coach@harborline.test', password: 'harbor-coach-demo' };
+  try {
+    const runnerToken = (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, runner)).token;
+    const coachToken = (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, coach)).token;
+    const me = await api<{ user: { id: string } }>(base, 'GET', '/api/auth/me', runnerToken);
+    const runs = await api<{ runs: Array<{ id: string; local_date: string }>; total: number }>(
+      base,
+      'GET',
+      '/api/runs',
+      runnerToken,
+    );
+    const latest = runs.runs[0];
+    if (!latest) throw new Error(`${runner.email} has no runs to read`);
+    const { squads } = await api<{ squads: Array<{ id: string }> }>(base, 'GET', '/api/squads', coachToken);
+    const squad = squads[0];
+    if (!squad) throw new Error(`${coach.email} has no squad`);
+    console.log(
+      `\n${loaded ? 'Loaded database' : 'Demo database'}: ${runner.email} has ${runs.total} runs; ` +
+        `${SECONDS} s per round, ${CONNECTIONS} connections, server and load generator on one machine.\n`,
+    );
+
+    const rounds: RoundResult[] = [];
+    rounds.push(await round(base, 'sign-in', { method: 'POST', path: '/api/auth/login', body: runner }));
+    rounds.push(await round(base, 'runs list', { path: '/api/runs', token: runnerToken }));
+    rounds.push(await round(base, 'run page', { path: `/api/runs/${latest.id}`, token: runnerToken }));
+    rounds.push(
+      await round(base, 'week review', { path: `/api/runners/${me.user.id}/week?start=${latest.local_date}`, token: coachToken }),
+    );
+    rounds.push(
+      await round(base, 'squad overview', {
+        path: `/api/squads/${squad.id}/overview?week=${latest.local_date}`,
+        token: coachToken,
+      }),
+    );
+    console.log(`  uploads: ${UPLOADS} different 3-hour GPX files at once…`);
+    const uploads = await uploadRound(base);
+    console.log(
+      `  uploads          stored ${uploads.stored}/${uploads.files}, statuses ${JSON.stringify(uploads.statuses)}, ` +
+        `all done in ${uploads.wall_ms} ms (p50 ${uploads.p50_ms} ms, max ${uploads.max_ms} ms); the runner now has ${uploads.runs_after} runs`,
+    );
+    console.log(
+      `  first page JS    ${bundle.gzip_kb} KB gzipped (${bundle.files.map((f) => `${f.file} ${Math.round(f.gzip_bytes / 1024)} KB`).join(', ')})`,
+    );
+
+    const reads = rounds.filter((r) => r.name !== 'sign-in');
+    const checks = [
+      ...reads.map((r) => ({
+        target: `${r.name}: p99 under ${TARGET_READ_P99_MS} ms`,
+        met: r.p99_ms < TARGET_READ_P99_MS,
+        detail: `${r.p99_ms} ms`,
+      })),
+      {
+        target: `uploads: all ${UPLOADS} stored`,
+        met: uploads.stored === UPLOADS && uploads.runs_after === UPLOADS,
+        detail: `${uploads.stored} stored, ${uploads.runs_after} runs`,
+      },
+      {
+        target: 'nothing answered 5xx',
+        met:
+          rounds.every((r) => r.status_5xx === 0 && r.server_5xx === 0) &&
+          Object.keys(uploads.statuses).every((s) => !s.startsWith('5')),
+        detail:
+          `${rounds.reduce((sum, r) => sum + r.status_5xx, 0)} received, ` +
+          `${rounds.reduce((sum, r) => sum + r.server_5xx, 0)} sent by the server, uploads ${JSON.stringify(uploads.statuses)}`,
+      },
+      {
+        target: `first page JS under ${TARGET_FIRST_PAGE_GZIP_KB} KB gzipped`,
+        met: bundle.gzip_kb < TARGET_FIRST_PAGE_GZIP_KB,
+        detail: `${bundle.gzip_kb} KB`,
+      },
+    ];
+    console.log('\nTargets (issue #8):');
+    for (const check of checks) console.log(`  ${check.met ? 'met   ' : 'MISSED'}  ${check.target} (${check.detail})`);
+    console.log(
+      JSON.stringify({
+        bench: 'http-load',
+        node: process.version,
+        database: loaded ? 'LOAD_DATABASE_URL' : 'demo',
+        seconds: SECONDS,
+        connections: CONNECTIONS,
+        rounds,
+        uploads,
+        bundle,
+        targets: checks,
+      }),
+    );
+  } finally {
+    await server.close();
+    await database.drop?.();
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+}
+
+await main();
