@@ -1,7 +1,13 @@
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
 import type { RunningServer } from '../../server/index.ts';
+import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
+import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
+import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
 
 // Ivy runs in miles; her demo long runs are "2 h easy, 30 min @ MP" (db/seeds/02_demo_runs.ts).
@@ -45,8 +51,36 @@ async function findLongRun(page: Page): Promise<{ date: string; runId: string }>
   }, LONG_RUN);
 }
 
+/** Deletes a run from the signed-in page, as the app does (CSRF header from the cookie). */
+async function deleteRun(page: Page, runId: string): Promise<void> {
+  const status = await page.evaluate(
+    async ({ runId, cookie, header }) => {
+      const token = document.cookie
+        .split('; ')
+        .find((c) => c.startsWith(`${cookie}=`))
+        ?.slice(cookie.length + 1);
+      const res = await fetch(`/api/runs/${runId}`, { method: 'DELETE', headers: { [header]: decodeURIComponent(token ?? '') } });
+      return res.status;
+    },
+    { runId, cookie: CSRF_COOKIE, header: CSRF_HEADER },
+  );
+  expect(status).toBe(204);
+}
+
+/** The long run as a GPX file on `date`: 2 h easy then 30 min quicker, starting 12:30 UTC (early morning in Chicago). */
+function writeLongRunFile(date: string): string {
+  const phases: Phase[] = [
+    { kind: 'run', duration_s: 7200, speed_mps: 3.1 },
+    { kind: 'run', duration_s: 1800, speed_mps: 3.6 },
+  ];
+  const run = generateLakeRun({ start_t: Date.parse(`${date}T12:30:00Z`), phases, seed: 77, gps_sigma_m: 1, sample_s: 5 });
+  const file = path.join(mkdtempSync(path.join(tmpdir(), 'pacewright-fuel-')), `long-run-${date}.gpx`);
+  writeFileSync(file, writeGpx('Long run', [run.points]));
+  return file;
+}
+
 describe('Fuel', () => {
-  it('adds a fuel item, plans a gel every 5 miles on a long run, prints it, and records fuel taken and a check-in', async () => {
+  it('adds a fuel item, plans a gel every 5 miles on a long run, prints it, uploads the run and records fuel taken against the plan and a check-in', async () => {
     await browser.context.clearCookies();
     const page = await browser.context.newPage();
     await page.goto(`${server.url}/sign-in?next=%2Ftools`);
@@ -134,8 +168,16 @@ describe('Fuel', () => {
     await screenshot(page, 'fuel-print');
     await page.emulateMedia({ media: 'screen' });
 
+    // After the long run the runner uploads it (the demo run of that day is replaced by a fresh upload).
+    await deleteRun(page, runId);
+    await page.goto(`${server.url}/log`);
+    await page.getByLabel('Choose files').setInputFiles(writeLongRunFile(date));
+    const uploads = page.getByRole('list', { name: 'Uploads' });
+    await expect.poll(() => uploads.textContent(), { timeout: 30_000 }).toMatch(/imported →/);
+    await uploads.getByRole('link').first().click();
+    await page.waitForURL(/\/runs\/[^/]+$/);
+
     // The run that day: tick off the first planned gel, say how it went, and see planned vs taken.
-    await page.goto(`${server.url}/runs/${runId}`);
     const taken = page.getByRole('form', { name: 'Fuel taken' });
     const firstGel = taken.getByRole('checkbox', { name: /^energy gel ×1 at mi 5\.00/ });
     // The planned intakes come after the run's fuel-taken answer names the fuel plan: allow for the extra requests.
