@@ -139,7 +139,7 @@ function expectedChange(part: CheckedPart, next: CheckedPart | undefined): numbe
   return b < a ? 1 : -1;
 }
 
-/** Rough relative effort of kinds without a pace target (s/km scale only matters by order). */
+/** How hard each kind without a pace target is usually run, as a rough pace in s/km (only the order matters). */
 const PACE_BY_KIND: Record<ExpandedPart['kind'], number | null> = {
   'warm-up': 400,
   easy: 380,
