@@ -53,3 +53,14 @@ export function monthWeeks(ym: YearMonth): Array<Array<string | null>> {
   for (let i = 0; i < cells.length; i += 7) weeks.push(cells.slice(i, i + 7));
   return weeks;
 }
+
+/** Column heads of a Monday-first calendar: short label and the full name for screen readers. */
+export const CALENDAR_WEEKDAYS = [
+  ['Mo', 'Monday'],
+  ['Tu', 'Tuesday'],
+  ['We', 'Wednesday'],
+  ['Th', 'Thursday'],
+  ['Fr', 'Friday'],
+  ['Sa', 'Saturday'],
+  ['Su', 'Sunday'],
+] as const;

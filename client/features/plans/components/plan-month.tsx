@@ -1,23 +1,13 @@
 import { Link } from 'react-router-dom';
 import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { mondayOf } from '../../../../shared/plans/weeks.ts';
-import { monthWeeks, type YearMonth } from '../../../../shared/runs/calendar.ts';
+import { CALENDAR_WEEKDAYS as WEEKDAYS, monthWeeks, type YearMonth } from '../../../../shared/runs/calendar.ts';
 import { formatDistance, formatLocalDate } from '../../../../shared/runs/display.ts';
 import type { RunListItem } from '../../../../shared/runs/schemas.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
-
-const WEEKDAYS = [
-  ['Mo', 'Monday'],
-  ['Tu', 'Tuesday'],
-  ['We', 'Wednesday'],
-  ['Th', 'Thursday'],
-  ['Fr', 'Friday'],
-  ['Sa', 'Saturday'],
-  ['Su', 'Sunday'],
-] as const;
 
 type PlanMonthProps = {
   month: YearMonth;

@@ -1,20 +1,17 @@
 import { Link } from 'react-router-dom';
-import { formatYearMonth, monthWeeks, shiftMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
+import {
+  CALENDAR_WEEKDAYS as WEEKDAYS,
+  formatYearMonth,
+  monthWeeks,
+  shiftMonth,
+  type YearMonth,
+} from '../../../../shared/runs/calendar.ts';
 import { formatDistance } from '../../../../shared/runs/display.ts';
 import type { RunListItem } from '../../../../shared/runs/schemas.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
 
-const WEEKDAYS = [
-  ['Mo', 'Monday'],
-  ['Tu', 'Tuesday'],
-  ['We', 'Wednesday'],
-  ['Th', 'Thursday'],
-  ['Fr', 'Friday'],
-  ['Sa', 'Saturday'],
-  ['Su', 'Sunday'],
-] as const;
 const MONTH_NAMES = new Intl.DateTimeFormat('en-GB', { month: 'long', year: 'numeric', timeZone: 'UTC' });
 
 type RunsCalendarProps = {
