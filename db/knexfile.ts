@@ -5,8 +5,12 @@ import { migrationSource } from './migrations/index.ts';
 export function knexConfig(databaseUrl: string): Knex.Config {
   return {
     client: 'pg',
-    connection: databaseUrl,
+    // A connection attempt to a PostgreSQL that does not answer gives up after 5 s (pg waits forever by default).
+    connection: { connectionString: databaseUrl, connectionTimeoutMillis: 5_000 },
     pool: { min: 0, max: 10 },
+    // Waiting for a free pooled connection: long enough for a burst of requests, short of Knex's 60 s default,
+    // so requests fail with a 503 within seconds while the database is away.
+    acquireConnectionTimeout: 10_000,
     migrations: { migrationSource, tableName: 'knex_migrations' },
   };
 }

@@ -20,7 +20,7 @@ import { createRunsRouter } from './features/runs/runs.routes.ts';
 import { createToolsRouter } from './features/tools/tools.routes.ts';
 import { createUsersRouter } from './features/users/users.routes.ts';
 import { errorHandler, notFoundHandler } from './lib/error-handler.ts';
-import { logger } from './lib/logger.ts';
+import { loggableUrl, logger } from './lib/logger.ts';
 import { createSmtpMailer, type Mailer } from './lib/mailer.ts';
 import { csrfProtection } from './lib/session.ts';
 import { createFsStore, type FileStore } from './lib/storage.ts';
@@ -49,7 +49,13 @@ export function createApp({
   if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);
 
   app.use(helmet());
-  app.use(pinoHttp({ logger, autoLogging: { ignore: (req) => req.url === '/api/health' } }));
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      serializers: { req: (req: { url?: string }) => ({ ...req, url: req.url && loggableUrl(req.url) }) },
+    }),
+  );
   app.use(express.json({ limit: config.jsonLimit }));
   app.use(cookieParser());
 

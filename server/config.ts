@@ -1,5 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import path from 'node:path';
+import { MAX_ARCHIVE_UPLOAD_BYTES } from '../shared/history/archive-rules.ts';
 
 export interface AppConfig {
   env: 'production' | 'development' | 'test';
@@ -16,11 +17,15 @@ export interface AppConfig {
   jsonLimit: string;
   /** Largest single uploaded watch file; a 100-mile run recorded every second is about 25 MB of GPX. */
   uploadMaxFileBytes: number;
+  /** Largest bulk-import .zip (MAX_ARCHIVE_UPLOAD_BYTES); lowered in tests to prove the 413. */
+  uploadMaxArchiveBytes: number;
   publicUrl: string;
   /** Outgoing mail server; unset = the local mail catcher on loopback (development). */
   smtpUrl: string | null;
   mailCatcherPort: number;
   mailFrom: string;
+  /** Stored files without rows are removed by the orphan sweeper only when older than this (ORPHAN_GRACE_SECONDS). */
+  orphanGraceSeconds: number;
 }
 
 /** `DATABASE_URL`, else the embedded cluster on loopback (scripts/pg.sh). */
@@ -41,6 +46,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
       'JWT_SECRET must be set to a random string of at least 32 characters when NODE_ENV=production (e.g. `openssl rand -hex 32`).',
     );
   }
+  const orphanGrace = env.ORPHAN_GRACE_SECONDS || '600';
+  if (!/^\d+$/.test(orphanGrace)) {
+    throw new ConfigError(`ORPHAN_GRACE_SECONDS must be a whole number of seconds (0 or more), not "${orphanGrace}".`);
+  }
   const port = Number(env.PORT ?? 3000);
   const host = env.HOST ?? '127.0.0.1';
   return {
@@ -57,9 +66,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     authRateLimit: { windowMs: 15 * 60 * 1000, max: Number(env.AUTH_RATE_LIMIT ?? 20) },
     jsonLimit: '1mb',
     uploadMaxFileBytes: 64 * 1024 * 1024,
+    uploadMaxArchiveBytes: MAX_ARCHIVE_UPLOAD_BYTES,
     publicUrl: env.PUBLIC_URL ?? `http://${host}:${port}`,
     smtpUrl: env.SMTP_URL || null,
     mailCatcherPort: Number(env.MAIL_CATCHER_PORT ?? 2525),
     mailFrom: env.MAIL_FROM ?? 'Pacewright <no-reply@pacewright.test>',
+    orphanGraceSeconds: Number(orphanGrace),
   };
 }

@@ -13,9 +13,23 @@ export interface RunningServer {
   close(): Promise<void>;
 }
 
+let logsStrayRejections = false;
+
+/**
+ * A promise rejected with nobody waiting ends a Node process by default. Libraries leave some behind
+ * while PostgreSQL is away (pg-boss records a job's outcome without awaiting it): log them and keep
+ * serving, so a database restart never needs a web server restart.
+ */
+function logStrayRejections(): void {
+  if (logsStrayRejections) return;
+  logsStrayRejections = true;
+  process.on('unhandledRejection', (reason) => logger.error({ err: reason }, 'a background task failed; the server carries on'));
+}
+
 /** Starts the web server (config from the environment). Only this module calls `listen`. */
 export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise<RunningServer> {
   const config = loadConfig(env);
+  logStrayRejections();
   // Imported after the config check so a bad production config fails before any connection is made.
   const { createApp } = await import('./app.ts');
   const { db } = await import('./lib/db.ts');
@@ -38,6 +52,10 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on('error', reject);
   });
+  // Files left by a crash (an original stored just before the process died, an old archive) are
+  // swept in the background now and hourly; listening never waits for it.
+  const { startOrphanSweeper } = await import('./features/runs/orphan-sweeper.ts');
+  const sweeper = startOrphanSweeper({ store, dataDir: config.dataDir, graceSeconds: config.orphanGraceSeconds });
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   return {
@@ -47,6 +65,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
+      await sweeper.stop();
       await stopImportWorker();
       await catcher?.close();
       await db.destroy();

@@ -7,3 +7,19 @@ export const METRES_PER_MILE = 1609.344;
 export const METRES_PER_KM = 1000;
 export const MARATHON_M = 42_195;
 export const HALF_MARATHON_M = 21_097.5;
+
+/**
+ * A size limit in words a runner reads: "2 GB", "1.5 GB", "50 MB", "800 KB" (binary units, as
+ * file managers show them), never "0 GB".
+ */
+export function formatFileSize(bytes: number): string {
+  const steps: [number, string][] = [
+    [1024 ** 3, 'GB'],
+    [1024 ** 2, 'MB'],
+    [1024, 'KB'],
+  ];
+  for (const [size, unit] of steps) {
+    if (bytes >= size) return `${Number((bytes / size).toFixed(1))} ${unit}`;
+  }
+  return `${Math.max(0, Math.round(bytes))} bytes`;
+}

@@ -4,7 +4,7 @@
  * `N passed, N failed` for CI. Each run makes its own databases and drops them afterwards.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import knexFactory from 'knex';
@@ -81,10 +81,11 @@ try {
     const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'test', DATA_DIR: dataDir };
     if (layer !== 'unit') env.DATABASE_URL = await freshDatabase(layer);
     if (layer === 'e2e') buildClientIfStale();
-    const outputFile = path.join(resultsDir, `vitest-${layer}.json`);
+    // One report per run, so two runs at once on one machine never read each other's.
+    const outputFile = path.join(resultsDir, `vitest-${layer}-${runId}.json`);
     rmSync(outputFile, { force: true });
     console.log(`\n▶ ${layer} tests`);
-    spawnSync(
+    const vitest = spawnSync(
       bin('vitest'),
       ['run', '--project', layer, '--reporter=default', '--reporter=json', `--outputFile=${outputFile}`, ...fileFilters],
       {
@@ -101,12 +102,20 @@ try {
     const report = JSON.parse(readFileSync(outputFile, 'utf8')) as {
       numPassedTests: number;
       numFailedTests: number;
+      numPendingTests: number;
+      numTodoTests: number;
       numTotalTests: number;
       success: boolean;
     };
+    renameSync(outputFile, path.join(resultsDir, `vitest-${layer}.json`)); // the latest report keeps the usual name
     passed += report.numPassedTests;
-    failed += report.numFailedTests;
-    if (report.numTotalTests === 0 || (!report.success && report.numFailedTests === 0)) failed++;
+    // Tests that never finished (a worker that ran out of memory or crashed) count as failed too.
+    const unfinished =
+      report.numTotalTests - report.numPassedTests - report.numFailedTests - report.numPendingTests - report.numTodoTests;
+    failed += report.numFailedTests + Math.max(0, unfinished);
+    const reportedFailure = report.numFailedTests > 0 || unfinished > 0;
+    // An unhandled error fails the run even when every test passed (vitest exits non-zero).
+    if (report.numTotalTests === 0 || ((!report.success || vitest.status !== 0) && !reportedFailure)) failed++;
   }
 } finally {
   if (admin) {

@@ -70,3 +70,49 @@ explain (analyze, buffers) select * from "run_splits" where "run_id" = :'run' or
 explain (analyze, buffers) select * from "runs" where "source_file_id" = :'source_file' order by "activity_index" asc limit 1;
 \echo '== run delete: does another run use the file'
 explain (analyze, buffers) select * from "runs" where "source_file_id" = :'source_file' limit 1;
+
+-- Since 20261202001000_plan_check_results: the week review and the squad overview read all their
+-- runners at once (server/features/weeks/weeks.repository.ts) and stored plan-check results.
+\set QUIET on
+select array_agg(runner_id)::text as members from squad_members where squad_id = :'squad' \gset
+select array_agg(id)::text as week_runs from runs
+  where user_id = any(:'members'::uuid[]) and local_date between :'week_start' and :'week_end' \gset
+\set QUIET off
+\echo '== squad overview: loads of every runner over the 12-week trend'
+explain (analyze, buffers) select "user_id", "local_date", "distance_m", (details->'trimp'->>'trimp')::float8 as trimp
+  from "runs" where "user_id" = any(:'members'::uuid[]) and "local_date" >= :'history_from' and "local_date" <= :'week_end'
+  order by "started_at" asc;
+\echo '== squad overview: runs of the week as list items'
+explain (analyze, buffers) select "id", "name", "started_at", "local_date", "local_time", "time_zone", "distance_m",
+  "elapsed_s", "moving_s", "ascent_m", "avg_hr", "user_id", (details->'trimp'->>'trimp')::float8 as trimp
+  from "runs" where "user_id" = any(:'members'::uuid[]) and "local_date" >= :'week_start' and "local_date" <= :'week_end'
+  order by "started_at" asc;
+\echo '== squad overview: last upload of every runner'
+explain (analyze, buffers) select r.id as user_id, (select max(created_at) from runs where runs.user_id = r.id) as last
+  from unnest(:'members'::uuid[]) as r(id);
+\echo '== squad overview: plans of the week'
+explain (analyze, buffers) select * from "session_plans"
+  where "runner_id" = any(:'members'::uuid[]) and "date" >= :'week_start' and "date" <= :'week_end'
+  order by "date" asc, "created_at" asc, "id" asc;
+\echo '== squad overview: reviews of the week'
+explain (analyze, buffers) select "week_reviews"."runner_id", "week_reviews"."week_start", "week_reviews"."coach_id",
+  "users"."name" as "coach_name", "week_reviews"."reviewed_at"
+  from "week_reviews" inner join "users" on "users"."id" = "week_reviews"."coach_id"
+  where "week_reviews"."runner_id" = any(:'members'::uuid[]) and "week_reviews"."week_start" in (:'week_start')
+  order by "week_reviews"."reviewed_at" asc;
+\echo '== plan checks of the week: chosen plans, plans of the days, stored results'
+explain (analyze, buffers) select * from "run_plan_links" where "run_id" = any(:'week_runs'::uuid[]);
+explain (analyze, buffers) select * from "session_plans"
+  where ("runner_id" = any(:'members'::uuid[]) and "date" between :'week_start' and :'week_end')
+  order by "date" asc, "created_at" asc, "id" asc;
+explain (analyze, buffers) select * from "plan_check_results" where "run_id" = any(:'week_runs'::uuid[]);
+\echo '== runs list: page 1 with its total in one query'
+explain (analyze, buffers) select "id", "name", "started_at", "local_date", "local_time", "time_zone", "distance_m",
+  "elapsed_s", "moving_s", "ascent_m", "avg_hr", (select count(*) from "runs" where "user_id" = :'runner') as "total"
+  from "runs" where "user_id" = :'runner' order by "started_at" desc limit 50;
+\echo '== run page: the run with its splits, laps and fastest sections in one query'
+explain (analyze, buffers) select runs.*,
+  (select coalesce(json_agg(s order by s.unit, s.split_index), '[]') from run_splits s where s.run_id = runs.id) as parts_splits,
+  (select coalesce(json_agg(l order by l.lap_index), '[]') from run_laps l where l.run_id = runs.id) as parts_laps,
+  (select coalesce(json_agg(f order by f.distance_m), '[]') from run_fastest_sections f where f.run_id = runs.id) as parts_fastest
+  from "runs" where "id" = :'run' limit 1;

@@ -2,6 +2,7 @@ import knexFactory, { type Knex } from 'knex';
 import pg from 'pg';
 import { knexConfig } from '../../db/knexfile.ts';
 import { databaseUrlFromEnv } from '../config.ts';
+import { logger } from './logger.ts';
 
 // Return numeric columns (weight_kg) as JS numbers; our values are small and never need arbitrary precision.
 pg.types.setTypeParser(pg.types.builtins.NUMERIC, (v) => Number(v));
@@ -180,6 +181,14 @@ export interface RunPlanLinkRow {
   linked_at: Date;
 }
 
+/** A stored plan-check result, valid while `inputs_key` matches the check's current inputs. */
+export interface PlanCheckResultRow {
+  run_id: string;
+  inputs_key: string;
+  result: unknown;
+  computed_at: Date;
+}
+
 export interface DevOutboxRow {
   id: string;
   to: string;
@@ -320,6 +329,7 @@ declare module 'knex/types/tables.js' {
     race_results: RaceResultRow;
     session_plans: SessionPlanRow;
     run_plan_links: RunPlanLinkRow;
+    plan_check_results: PlanCheckResultRow;
     dev_outbox: DevOutboxRow;
     invitations: InvitationRow;
     password_resets: PasswordResetRow;
@@ -335,7 +345,14 @@ declare module 'knex/types/tables.js' {
 }
 
 /** The single Knex instance. Only repositories (and scripts) import it. */
-export const db: Knex = knexFactory(knexConfig(databaseUrlFromEnv()));
+export const db: Knex = knexFactory({
+  ...knexConfig(databaseUrlFromEnv()),
+  // Knex's own warnings (a pooled connection dropped while PostgreSQL restarts) go to our log, not the console.
+  log: {
+    warn: (message: unknown) => logger.warn({ knex: message }, 'database driver warning'),
+    error: (message: unknown) => logger.error({ knex: message }, 'database driver error'),
+  },
+});
 
 export type Db = Knex | Knex.Transaction;
 
@@ -346,11 +363,24 @@ export function isUniqueViolation(err: unknown): boolean {
   return typeof err === 'object' && err !== null && (err as { code?: string }).code === PG_UNIQUE_VIOLATION;
 }
 
-export async function isDatabaseUp(): Promise<boolean> {
+/** How long the health check waits for `select 1` before it calls the database down. */
+const HEALTH_CHECK_TIMEOUT_MS = 1_500;
+
+/** Answers within `timeoutMs` even when PostgreSQL hangs instead of refusing the connection. */
+export async function isDatabaseUp(timeoutMs = HEALTH_CHECK_TIMEOUT_MS): Promise<boolean> {
+  let timer: NodeJS.Timeout | undefined;
+  const givenUp = new Promise<false>((resolve) => {
+    timer = setTimeout(() => resolve(false), timeoutMs);
+  });
   try {
-    await db.raw('select 1');
-    return true;
-  } catch {
-    return false;
+    return await Promise.race([
+      db.raw('select 1').then(
+        () => true,
+        () => false,
+      ),
+      givenUp,
+    ]);
+  } finally {
+    clearTimeout(timer);
   }
 }

@@ -1,17 +1,36 @@
-import { mkdir, readFile, rm, writeFile } from 'node:fs/promises';
+import { mkdir, opendir, readFile, rm, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import type { StoredFileInfo } from '../../shared/runs/orphan-files.ts';
 
 /** Where original files are kept byte for byte. Keys are relative paths made by the app, never by users. */
 export interface FileStore {
   put(key: string, data: Buffer): Promise<void>;
   get(key: string): Promise<Buffer>;
   delete(key: string): Promise<void>;
+  /** Every stored file with its last-write time, a page at a time (the orphan sweeper reads this). */
+  list(): AsyncIterable<StoredFileInfo>;
 }
 
 const SAFE_KEY = /^[a-z0-9][a-z0-9/_.-]*$/i;
 
 function checkKey(key: string): void {
   if (!SAFE_KEY.test(key) || key.split('/').includes('..')) throw new Error(`unsafe storage key: ${key}`);
+}
+
+/** Files under `dir`, depth first, streamed so a large store is never held in memory at once. */
+async function* walkFiles(dir: string): AsyncGenerator<string> {
+  let handle;
+  try {
+    handle = await opendir(dir);
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return;
+    throw err;
+  }
+  for await (const entry of handle) {
+    const full = path.join(dir, entry.name);
+    if (entry.isDirectory()) yield* walkFiles(full);
+    else if (entry.isFile()) yield full;
+  }
 }
 
 /** Local disk under `DATA_DIR/files` (the default). */
@@ -33,6 +52,13 @@ export function createFsStore(dataDir: string): FileStore {
     async delete(key) {
       await rm(resolve(key), { force: true });
     },
+    async *list() {
+      for await (const file of walkFiles(root)) {
+        // A file deleted between the walk and the stat is simply no longer there.
+        const info = await stat(file).catch(() => null);
+        if (info) yield { key: path.relative(root, file).split(path.sep).join('/'), modifiedAt: info.mtime };
+      }
+    },
   };
 }
 
@@ -44,11 +70,14 @@ export interface S3StoreOptions {
   credentials?: { accessKeyId: string; secretAccessKey: string };
   /** Prefix inside the bucket, e.g. `originals/`. */
   prefix?: string;
+  /** Keys per listing request: S3's maximum of 1000 unless a test wants to see paging. */
+  listPageSize?: number;
 }
 
 /** S3-compatible object storage (`STORAGE=s3`). Tested against a local fake (s3rver), never a real cloud. */
 export async function createS3Store(options: S3StoreOptions): Promise<FileStore> {
-  const { S3Client, PutObjectCommand, GetObjectCommand, DeleteObjectCommand } = await import('@aws-sdk/client-s3');
+  const { S3Client, PutObjectCommand, GetObjectCommand, DeleteObjectCommand, ListObjectsV2Command } =
+    await import('@aws-sdk/client-s3');
   const client = new S3Client({
     region: options.region,
     endpoint: options.endpoint,
@@ -69,6 +98,25 @@ export async function createS3Store(options: S3StoreOptions): Promise<FileStore>
     },
     async delete(key) {
       await client.send(new DeleteObjectCommand({ Bucket: options.bucket, Key: objectKey(key) }));
+    },
+    async *list() {
+      const prefix = options.prefix ?? '';
+      let continuationToken: string | undefined;
+      do {
+        const page = await client.send(
+          new ListObjectsV2Command({
+            Bucket: options.bucket,
+            Prefix: prefix || undefined,
+            MaxKeys: options.listPageSize ?? 1000,
+            ContinuationToken: continuationToken,
+          }),
+        );
+        for (const object of page.Contents ?? []) {
+          if (object.Key === undefined || !object.Key.startsWith(prefix) || !object.LastModified) continue;
+          yield { key: object.Key.slice(prefix.length), modifiedAt: object.LastModified };
+        }
+        continuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
+      } while (continuationToken);
     },
   };
 }

@@ -1,4 +1,5 @@
 import { isValidPosition } from './geodesy.ts';
+import { PointColumns } from './point-columns.ts';
 import type { CleanTrack, CleaningReport, TrackPoint } from './types.ts';
 
 /** Heart rates outside this range (bpm) are sensor errors and are dropped from the point. */
@@ -7,9 +8,15 @@ const HR_MAX = 250;
 /** Elevations outside this range (m) are treated as missing. */
 const ELE_MIN = -500;
 const ELE_MAX = 9000;
+/**
+ * A device's cumulative distance beyond this (m, 10 000 km) is a corrupt value, not a recording:
+ * it is treated as missing. (Without the cap one damaged number can ask for 10^17 splits.)
+ */
+const DEVICE_DISTANCE_MAX_M = 10_000_000;
 
-function finiteOrUndefined(v: number | undefined, min: number, max: number): number | undefined {
-  return typeof v === 'number' && Number.isFinite(v) && v >= min && v <= max ? v : undefined;
+/** `value` when it is a finite number within [min, max], else NaN. */
+function inRangeOrNaN(value: number, min: number, max: number): number {
+  return value >= min && value <= max ? value : Number.NaN;
 }
 
 /**
@@ -29,83 +36,108 @@ function finiteOrUndefined(v: number | undefined, min: number, max: number): num
  * The input is not modified.
  */
 export function cleanTrack(segments: readonly (readonly TrackPoint[])[]): CleanTrack {
+  const points = new PointColumns(segments.reduce((sum, segment) => sum + segment.length, 0));
+  const starts: number[] = [];
+  for (const segment of segments) {
+    starts.push(points.length);
+    for (const point of segment) points.push(point);
+  }
+  return cleanPoints(points, starts);
+}
+
+/**
+ * `cleanTrack` for points already in columns (as the file readers collect them);
+ * `segmentStarts` are the indices where segments begin, increasing (repeats mean empty segments).
+ */
+export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[]): CleanTrack {
   const report: CleaningReport = {
-    input_points: 0,
+    input_points: raw.length,
     dropped_untimed: 0,
     dropped_backwards: 0,
     merged_duplicates: 0,
     dropped_no_position: 0,
     invalid_positions: 0,
   };
-  const points: TrackPoint[] = [];
+  const out = new PointColumns(raw.length);
   const segment_starts: number[] = [];
   let lastT = Number.NEGATIVE_INFINITY;
+  let nextSegment = 0;
+  let segmentOpen = false;
 
-  for (const segment of segments) {
-    let segmentOpen = false;
-    for (const raw of segment) {
-      report.input_points++;
-      if (typeof raw.t !== 'number' || !Number.isFinite(raw.t)) {
-        report.dropped_untimed++;
-        continue;
-      }
-      const point = sanitizePoint(raw);
-      if (point.lat === undefined && (raw.lat !== undefined || raw.lon !== undefined)) {
-        report.invalid_positions++;
-      }
-      if (point.lat === undefined && point.distance_m === undefined) {
-        report.dropped_no_position++;
-        continue;
-      }
-      if (point.t < lastT) {
-        report.dropped_backwards++;
-        continue;
-      }
-      if (point.t === lastT) {
-        report.merged_duplicates++;
-        const kept = points[points.length - 1];
-        if (kept) points[points.length - 1] = mergePoints(kept, point);
-        continue;
-      }
-      if (!segmentOpen) {
-        segment_starts.push(points.length);
-        segmentOpen = true;
-      }
-      points.push(point);
-      lastT = point.t;
+  for (let i = 0; i < raw.length; i++) {
+    while (nextSegment < segmentStarts.length && (segmentStarts[nextSegment] as number) <= i) {
+      nextSegment++;
+      segmentOpen = false;
     }
+    const t = raw.t[i] as number;
+    if (!Number.isFinite(t)) {
+      report.dropped_untimed++;
+      continue;
+    }
+    const positioned = isValidPosition(raw.lat[i], raw.lon[i]);
+    if (!positioned && raw.position_given[i] === 1) report.invalid_positions++;
+    const distance = inRangeOrNaN(raw.distance_m[i] as number, 0, DEVICE_DISTANCE_MAX_M);
+    if (!positioned && Number.isNaN(distance)) {
+      report.dropped_no_position++;
+      continue;
+    }
+    if (t < lastT) {
+      report.dropped_backwards++;
+      continue;
+    }
+    const lat = positioned ? (raw.lat[i] as number) : Number.NaN;
+    const lon = positioned ? (raw.lon[i] as number) : Number.NaN;
+    const ele = inRangeOrNaN(raw.ele[i] as number, ELE_MIN, ELE_MAX);
+    const hr = inRangeOrNaN(raw.hr[i] as number, HR_MIN, HR_MAX);
+    const cad = inRangeOrNaN(raw.cad[i] as number, 0, 400);
+    const temp = inRangeOrNaN(raw.temp[i] as number, -80, 80);
+    if (t === lastT) {
+      // Merge into the kept point: its own values win, the gaps are filled from this one.
+      report.merged_duplicates++;
+      const k = out.length - 1;
+      if (Number.isNaN(out.lat[k] as number)) {
+        out.lat[k] = lat;
+        out.lon[k] = lon;
+        out.position_given[k] = positioned ? 1 : 0;
+      }
+      fillGap(out.ele, k, ele);
+      fillGap(out.hr, k, hr);
+      fillGap(out.cad, k, cad);
+      fillGap(out.temp, k, temp);
+      fillGap(out.distance_m, k, distance);
+      continue;
+    }
+    if (!segmentOpen) {
+      segment_starts.push(out.length);
+      segmentOpen = true;
+    }
+    const k = out.add();
+    out.t[k] = t;
+    out.lat[k] = lat;
+    out.lon[k] = lon;
+    out.ele[k] = ele;
+    out.hr[k] = hr;
+    out.cad[k] = cad;
+    out.temp[k] = temp;
+    out.distance_m[k] = distance;
+    out.position_given[k] = positioned ? 1 : 0;
+    lastT = t;
   }
-  return { points, segment_starts, report };
+  return withPointObjects({ columns: out, segment_starts, report });
 }
 
-function sanitizePoint(raw: TrackPoint): TrackPoint {
-  const point: TrackPoint = { t: raw.t };
-  if (isValidPosition(raw.lat, raw.lon)) {
-    point.lat = raw.lat;
-    point.lon = raw.lon;
-  }
-  const ele = finiteOrUndefined(raw.ele, ELE_MIN, ELE_MAX);
-  if (ele !== undefined) point.ele = ele;
-  const hr = finiteOrUndefined(raw.hr, HR_MIN, HR_MAX);
-  if (hr !== undefined) point.hr = hr;
-  const cad = finiteOrUndefined(raw.cad, 0, 400);
-  if (cad !== undefined) point.cad = cad;
-  const temp = finiteOrUndefined(raw.temp, -80, 80);
-  if (temp !== undefined) point.temp = temp;
-  const dist = finiteOrUndefined(raw.distance_m, 0, Number.MAX_VALUE);
-  if (dist !== undefined) point.distance_m = dist;
-  return point;
+function fillGap(column: Float64Array, k: number, value: number): void {
+  if (Number.isNaN(column[k] as number)) column[k] = value;
 }
 
-function mergePoints(kept: TrackPoint, extra: TrackPoint): TrackPoint {
-  const merged: TrackPoint = { ...extra, ...definedFields(kept) };
-  return merged;
-}
-
-function definedFields(point: TrackPoint): Partial<TrackPoint> {
-  const out: Partial<TrackPoint> = {};
-  for (const [key, value] of Object.entries(point) as [keyof TrackPoint, number | undefined][]) {
-    if (value !== undefined) out[key] = value;
-  }
-  return out;
+/** Give a cleaned track its `points` view, built from the columns on first use. */
+function withPointObjects(track: Omit<CleanTrack, 'points'>): CleanTrack {
+  let points: TrackPoint[] | undefined;
+  return {
+    ...track,
+    get points(): TrackPoint[] {
+      points ??= Array.from({ length: track.columns.length }, (_, i) => track.columns.pointAt(i));
+      return points;
+    },
+  };
 }

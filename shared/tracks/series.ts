@@ -7,7 +7,8 @@ import {
   smoothByTime,
 } from './elevation.ts';
 import { geodesicDistance } from './geodesy.ts';
-import type { CleanTrack, DistanceSource, TrackPoint, TrackSeries } from './types.ts';
+import type { PointColumns } from './point-columns.ts';
+import type { CleanTrack, DistanceSource, TrackSeries } from './types.ts';
 
 /**
  * Moving rule, step 1: an interval is moving when the displacement across a centred window around
@@ -29,18 +30,25 @@ export const MOVING_WINDOW_S = 10;
  * a stop covers more than 1 m in a second; standing jitter seldom does.
  */
 export const STOP_EDGE_SPEED_MPS = 1;
+/**
+ * A device distance that climbs faster than this since the last kept reading (m/s, about
+ * 360 km/h: beyond any runner or rider) is a glitch and is treated as missing, so one bad
+ * reading cannot lift the rest of the run (the series is forced non-decreasing). Value chosen
+ * by us, generous on purpose.
+ */
+export const DEVICE_DISTANCE_MAX_SPEED_MPS = 100;
 /** Share of points that must carry a device distance for it to be the run's distance. */
 export const DEVICE_DISTANCE_MIN_SHARE = 0.5;
 /** Gradient for flat-equivalent pace is measured over at least this much distance, metres. */
 export const GRADE_WINDOW_M = 20;
 
 /** Which distance a cleaned track will use: the device's when at least half its points carry one. */
-export function chooseDistanceSource(points: readonly TrackPoint[]): DistanceSource {
+export function chooseDistanceSource(points: PointColumns): DistanceSource {
   let device = 0;
   let positioned = 0;
-  for (const p of points) {
-    if (p.distance_m !== undefined) device++;
-    if (p.lat !== undefined) positioned++;
+  for (let i = 0; i < points.length; i++) {
+    if (!Number.isNaN(points.distance_m[i] as number)) device++;
+    if (!Number.isNaN(points.lat[i] as number)) positioned++;
   }
   if (device >= 2 && device >= points.length * DEVICE_DISTANCE_MIN_SHARE) return 'device';
   if (positioned >= 2) return 'geodesic';
@@ -65,14 +73,13 @@ export function chooseDistanceSource(points: readonly TrackPoint[]): DistanceSou
  * Requires at least one point; the input is not modified.
  */
 export function buildSeries(track: CleanTrack): TrackSeries {
-  const source = chooseDistanceSource(track.points);
+  const source = chooseDistanceSource(track.columns);
   const { points, starts } =
     source === 'geodesic'
-      ? keepPositioned(track.points, track.segment_starts)
-      : { points: track.points, starts: track.segment_starts };
+      ? keepPositioned(track.columns, track.segment_starts)
+      : { points: track.columns, starts: track.segment_starts };
   const n = points.length;
-  const t = new Float64Array(n);
-  for (let i = 0; i < n; i++) t[i] = (points[i] as TrackPoint).t;
+  const t = points.column('t');
 
   const segmentBreak = new Uint8Array(n);
   for (const s of starts) if (s > 0 && s < n) segmentBreak[s] = 1;
@@ -82,9 +89,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
   const d = new Float64Array(n);
   const moving = new Uint8Array(n);
   if (source === 'device') {
-    const raw = new Float64Array(n);
-    for (let i = 0; i < n; i++) raw[i] = (points[i] as TrackPoint).distance_m ?? Number.NaN;
-    const filled = fillMissing(t, raw) ?? new Float64Array(n);
+    const filled = fillMissing(t, withoutDistanceSpikes(t, points.column('distance_m'))) ?? new Float64Array(n);
     const d0 = filled[0] ?? 0;
     let level = 0;
     for (let i = 0; i < n; i++) {
@@ -94,28 +99,23 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     const displacement = (a: number, b: number): number => (d[b] as number) - (d[a] as number);
     classifyMoving(t, segmentOf, displacement, moving);
   } else if (source === 'geodesic') {
-    const displacement = (a: number, b: number): number => {
-      const pa = points[a] as TrackPoint;
-      const pb = points[b] as TrackPoint;
-      return approxDistance(pa.lat as number, pa.lon as number, pb.lat as number, pb.lon as number);
-    };
+    const { lat, lon } = points;
+    const displacement = (a: number, b: number): number =>
+      approxDistance(lat[a] as number, lon[a] as number, lat[b] as number, lon[b] as number);
     classifyMoving(t, segmentOf, displacement, moving);
     for (let i = 1; i < n; i++) {
-      let step = 0;
-      if (moving[i]) {
-        const pa = points[i - 1] as TrackPoint;
-        const pb = points[i] as TrackPoint;
-        step = geodesicDistance(pa.lat as number, pa.lon as number, pb.lat as number, pb.lon as number);
-      }
+      const step = moving[i]
+        ? geodesicDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number)
+        : 0;
       d[i] = (d[i - 1] as number) + step;
     }
   }
 
-  const ele = fillMissing(t, fieldArray(points, 'ele'));
+  const ele = fillMissing(t, points.column('ele'));
   const eleSmooth = ele ? smoothByTime(t, ele, ELEVATION_SMOOTHING_HALF_WINDOW_S) : null;
   const eleFiltered = eleSmooth ? hysteresisProfile(eleSmooth, ELEVATION_HYSTERESIS_M) : null;
-  const hr = fieldArray(points, 'hr');
-  const cad = fieldArray(points, 'cad');
+  const hr = points.column('hr');
+  const cad = points.column('cad');
 
   return {
     t,
@@ -131,28 +131,49 @@ export function buildSeries(track: CleanTrack): TrackSeries {
   };
 }
 
-function keepPositioned(points: readonly TrackPoint[], starts: readonly number[]): { points: TrackPoint[]; starts: number[] } {
-  const kept: TrackPoint[] = [];
+/** `distance` with readings that jump ahead faster than `DEVICE_DISTANCE_MAX_SPEED_MPS` set to NaN. */
+export function withoutDistanceSpikes(t: Float64Array, distance: Float64Array): Float64Array {
+  const out = Float64Array.from(distance);
+  let lastT = Number.NaN;
+  let lastD = Number.NaN;
+  for (let i = 0; i < out.length; i++) {
+    const d = out[i] as number;
+    if (Number.isNaN(d)) continue;
+    const seconds = ((t[i] as number) - lastT) / 1000;
+    // 1 m of slack: devices round their readings.
+    if (d - lastD > DEVICE_DISTANCE_MAX_SPEED_MPS * seconds + 1) {
+      out[i] = Number.NaN;
+      continue;
+    }
+    lastT = t[i] as number;
+    lastD = d;
+  }
+  return out;
+}
+
+function keepPositioned(points: PointColumns, starts: readonly number[]): { points: PointColumns; starts: number[] } {
+  const { lat, lon } = points;
+  let firstUnpositioned = 0;
+  while (firstUnpositioned < points.length && !Number.isNaN(lat[firstUnpositioned] as number)) firstUnpositioned++;
+  // Usually every point has a position: nothing to copy then.
+  if (firstUnpositioned === points.length) return { points, starts: [...starts] };
+  const kept: number[] = [];
   const keptStarts: number[] = [];
-  const startSet = new Set(starts);
+  let nextStart = 0;
   let pendingStart = false;
   for (let i = 0; i < points.length; i++) {
-    if (startSet.has(i)) pendingStart = true;
-    const p = points[i] as TrackPoint;
-    if (p.lat === undefined || p.lon === undefined) continue;
+    while (nextStart < starts.length && (starts[nextStart] as number) <= i) {
+      nextStart++;
+      pendingStart = true;
+    }
+    if (Number.isNaN(lat[i] as number) || Number.isNaN(lon[i] as number)) continue;
     if (pendingStart) {
       keptStarts.push(kept.length);
       pendingStart = false;
     }
-    kept.push(p);
+    kept.push(i);
   }
-  return { points: kept, starts: keptStarts };
-}
-
-function fieldArray(points: readonly TrackPoint[], key: 'ele' | 'hr' | 'cad'): Float64Array {
-  const out = new Float64Array(points.length);
-  for (let i = 0; i < points.length; i++) out[i] = (points[i] as TrackPoint)[key] ?? Number.NaN;
-  return out;
+  return { points: points.select(kept), starts: keptStarts };
 }
 
 /**
@@ -257,4 +278,18 @@ function flatEquivalentDistances(d: Float64Array, ele: Float64Array): Float64Arr
     out[i] = step * flatEquivalentFactor(grade);
   }
   return out;
+}
+
+/**
+ * Latitude and longitude of every point of `series` (NaN where a point has none), for storing
+ * the track: in geodesic mode the series holds only the positioned points, otherwise all of them.
+ */
+export function seriesPositions(track: CleanTrack, series: TrackSeries): { lat: Float64Array; lon: Float64Array } {
+  const { columns } = track;
+  const kept: number[] = [];
+  if (series.distance_source === 'geodesic') {
+    for (let i = 0; i < columns.length; i++) if (!Number.isNaN(columns.lat[i] as number)) kept.push(i);
+  }
+  const aligned = kept.length === 0 || kept.length === columns.length ? columns : columns.select(kept);
+  return { lat: aligned.column('lat'), lon: aligned.column('lon') };
 }

@@ -4,6 +4,7 @@
  * Field names carry their unit (`_m`, `_s`, `_ms`) and use the snake_case of the public
  * contract (api-contract.md), so summaries and splits can be sent as they are.
  */
+import type { PointColumns } from './point-columns.ts';
 
 /** One recorded sample. `t` is milliseconds since the Unix epoch (UTC). */
 export interface TrackPoint {
@@ -41,7 +42,10 @@ export interface RawTrack {
   name: string | null;
   /** TCX `Activity/@Sport` or GPX `trk/type`, as written. */
   sport: string | null;
-  segments: TrackPoint[][];
+  /** Every recorded point in file order. */
+  points: PointColumns;
+  /** Index of the first point of each segment, increasing; segments without points are left out. */
+  segment_starts: number[];
   laps: DeviceLap[];
 }
 
@@ -62,7 +66,13 @@ export interface CleaningReport {
 
 /** A cleaned track: strictly increasing times, valid values only, segments as start indices. */
 export interface CleanTrack {
-  points: TrackPoint[];
+  /** The kept points as columns (NaN where a point has no value); what the analysis reads. */
+  columns: PointColumns;
+  /**
+   * The same points as objects with only the fields they have, built on first use (for tests and
+   * small consumers; a long run has over 100 000 of them, so the import reads `columns`).
+   */
+  readonly points: TrackPoint[];
   /** Index of the first point of each segment; always starts with 0 when there are points. */
   segment_starts: number[];
   report: CleaningReport;

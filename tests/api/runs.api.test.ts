@@ -138,6 +138,7 @@ describe('POST /api/runs', () => {
       put: () => Promise.reject(new Error('disk full')),
       get: () => Promise.reject(new Error('missing')),
       delete: () => Promise.resolve(),
+      list: async function* () {},
     };
     const { app } = appWithStore(failing);
     const { auth } = await runnerWithToken(app);

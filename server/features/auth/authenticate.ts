@@ -4,7 +4,7 @@ import type { AppConfig } from '../../config.ts';
 import type { AuthLocals } from '../../lib/authorize.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
 import { sessionCookieOptions, verifySession } from '../../lib/session.ts';
-import { resolveApiToken } from '../tokens/tokens.service.ts';
+import { resolveApiTokenUser } from '../tokens/tokens.service.ts';
 import { findUserById } from '../users/users.repository.ts';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
@@ -20,8 +20,8 @@ export function authenticate(config: AppConfig): RequestHandler {
     const authorization = req.get('authorization');
     if (authorization) {
       const token = BEARER.exec(authorization)?.[1];
-      const userId = token ? await resolveApiToken(token) : null;
-      const user = userId ? await findUserById(userId) : undefined;
+      // One query for the token and its user: the user row is still read on every request.
+      const user = token ? await resolveApiTokenUser(token) : null;
       if (!user) throw new UnauthorizedError('This API token is not valid, has been revoked or has expired.', 'invalid-token');
       locals.actor = user;
       return next();

@@ -94,6 +94,11 @@ export async function findFuelTaken(runId: string, trx: Db = db): Promise<FuelTa
   return trx('fuel_taken').where({ run_id: runId }).first();
 }
 
+export async function findFuelTakenOf(runIds: readonly string[], trx: Db = db): Promise<FuelTakenRow[]> {
+  if (runIds.length === 0) return [];
+  return trx('fuel_taken').whereIn('run_id', runIds);
+}
+
 export async function upsertFuelTaken(
   runId: string,
   values: { entries: TakenEntry[]; stomach: number | null; energy: number | null; notes: string },
@@ -109,6 +114,11 @@ export async function upsertFuelTaken(
 
 export async function findRunCheckin(runId: string, trx: Db = db): Promise<RunCheckinRow | undefined> {
   return trx('run_checkins').where({ run_id: runId }).first();
+}
+
+export async function findRunCheckinsOf(runIds: readonly string[], trx: Db = db): Promise<RunCheckinRow[]> {
+  if (runIds.length === 0) return [];
+  return trx('run_checkins').whereIn('run_id', runIds);
 }
 
 export async function upsertRunCheckin(values: Omit<RunCheckinRow, 'updated_at'>, trx: Db = db): Promise<RunCheckinRow> {

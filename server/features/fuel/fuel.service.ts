@@ -227,9 +227,7 @@ async function saveFuelPlan(
 async function readablePlan(actor: Actor, planId: string) {
   const plan = await findPlanById(planId);
   if (!plan) throw new NotFoundError('There is no plan with this id.');
-  await assertCanReadRunner(actor, plan.runner_id).catch(() => {
-    throw new NotFoundError('There is no plan with this id.');
-  });
+  await assertCanReadRunner(actor, plan.runner_id, 'There is no plan with this id.');
   return plan;
 }
 

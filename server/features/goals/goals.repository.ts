@@ -19,6 +19,11 @@ export async function findGoalRace(userId: string, trx: Db = db): Promise<GoalRa
   return trx('goal_races').where({ user_id: userId }).first();
 }
 
+export async function findGoalRacesOf(userIds: readonly string[], trx: Db = db): Promise<GoalRaceRow[]> {
+  if (userIds.length === 0) return [];
+  return trx('goal_races').whereIn('user_id', userIds);
+}
+
 export async function upsertGoalRace(userId: string, goal: GoalRaceInput, trx: Db = db): Promise<GoalRaceRow> {
   const [row] = await trx('goal_races')
     .insert({ user_id: userId, ...goal, updated_at: new Date() })
@@ -34,6 +39,12 @@ export async function deleteGoalRace(userId: string, trx: Db = db): Promise<bool
 
 export async function listRaceResults(userId: string, trx: Db = db): Promise<RaceResultRow[]> {
   return trx('race_results').where({ user_id: userId }).orderBy('date', 'desc');
+}
+
+/** Race results of several runners, newest first (as `listRaceResults` gives one runner's). */
+export async function listRaceResultsOf(userIds: readonly string[], trx: Db = db): Promise<RaceResultRow[]> {
+  if (userIds.length === 0) return [];
+  return trx('race_results').whereIn('user_id', userIds).orderBy('date', 'desc');
 }
 
 export async function insertRaceResult(userId: string, result: RaceResultInput, trx: Db = db): Promise<RaceResultRow> {

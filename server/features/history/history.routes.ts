@@ -2,7 +2,6 @@ import { mkdirSync } from 'node:fs';
 import { randomUUID } from 'node:crypto';
 import multer from 'multer';
 import type { RequestHandler } from 'express';
-import { MAX_ARCHIVE_UPLOAD_BYTES } from '../../../shared/history/archive-rules.ts';
 import {
   DeleteAccountInputSchema,
   ImportCreatedSchema,
@@ -10,6 +9,7 @@ import {
   type DeleteAccountInput,
 } from '../../../shared/history/schemas.ts';
 import { SESSION_COOKIE } from '../../../shared/auth/schemas.ts';
+import { formatFileSize } from '../../../shared/units.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
@@ -48,7 +48,7 @@ function uploadArchive(dataDir: string, maxBytes: number): RequestHandler {
             new AppError(
               413,
               'too-large',
-              `A history archive can be at most ${Math.round(maxBytes / 1024 ** 3)} GB. Split it into smaller zips and upload them one after another.`,
+              `A history archive can be at most ${formatFileSize(maxBytes)}. Split it into smaller zips and upload them one after another.`,
             ),
           );
         if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_PART_COUNT')
@@ -73,7 +73,7 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
       access: 'own-data',
       response: ImportCreatedSchema,
       status: 202,
-      before: [uploadArchive(config.dataDir, MAX_ARCHIVE_UPLOAD_BYTES)],
+      before: [uploadArchive(config.dataDir, config.uploadMaxArchiveBytes)],
     },
     async (req, res) => {
       const file = req.file;

@@ -1,9 +1,12 @@
 import PgBoss from 'pg-boss';
+import { setTimeout as sleep } from 'node:timers/promises';
 import { databaseUrlFromEnv } from '../../config.ts';
+import { isDatabaseUnavailable } from '../../lib/database-errors.ts';
+import { isDatabaseUp } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { listUnfinishedImportIds } from './imports.repository.ts';
-import { processImport } from './imports.service.ts';
+import { processImport, type ImportWorkDeps } from './imports.service.ts';
 
 /**
  * The background side of bulk imports: a pg-boss queue in the app's own PostgreSQL (schema
@@ -17,6 +20,8 @@ const IMPORTS_AT_ONCE = 2;
 const FILES_AT_ONCE = 2;
 /** A file claimed longer ago than this by a worker that never finished it is taken over. */
 const LEASE_SECONDS = 300;
+/** How often a worker whose import lost the database looks whether it is back. */
+const DATABASE_RECHECK_MS = 2_000;
 
 interface ImportJob {
   importId: string;
@@ -78,12 +83,30 @@ export async function startImportWorker(store: FileStore, options: ImportWorkerO
         QUEUE,
         { batchSize: 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
         async ([job]) => {
-          if (job) await processImport(job.data.importId, deps);
+          if (job) await importOrResumeLater(instance, job.data.importId, deps);
         },
       ),
     );
   }
   for (const importId of await listUnfinishedImportIds()) await instance.send(QUEUE, { importId } satisfies ImportJob);
+}
+
+/**
+ * Works on an import; if the database goes away meanwhile, waits until it is back and queues the
+ * import again for when the claims on its files in flight have run out. Failing the job instead
+ * would not help: pg-boss cannot record a failure without the database either, and the job would
+ * then sit as active for hours.
+ */
+async function importOrResumeLater(instance: PgBoss, importId: string, deps: ImportWorkDeps): Promise<void> {
+  try {
+    await processImport(importId, deps);
+  } catch (err) {
+    if (!isDatabaseUnavailable(err)) throw err;
+    logger.warn({ err, importId }, 'the database went away during an import; it resumes once the database is back');
+    while (!stopping && !(await isDatabaseUp())) await sleep(DATABASE_RECHECK_MS);
+    // When stopping, the next start's sweep queues the import again.
+    if (!stopping) await instance.send(QUEUE, { importId } satisfies ImportJob, { startAfter: LEASE_SECONDS + 5 });
+  }
 }
 
 /** Stops the workers: files in hand are finished, no new one is started; the rest waits for the next start. */

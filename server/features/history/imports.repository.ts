@@ -164,3 +164,10 @@ export async function completeFile(
     .returning('*');
   return row as ImportRow | undefined;
 }
+
+/** The status of each of `ids` that still has an import row (the orphan sweeper asks about archives on disk). */
+export async function findImportStatuses(ids: readonly string[], trx: Db = db): Promise<Map<string, ImportRow['status']>> {
+  if (ids.length === 0) return new Map();
+  const rows = await trx('imports').whereIn('id', ids).select('id', 'status');
+  return new Map(rows.map((r) => [r.id, r.status]));
+}

@@ -1,4 +1,4 @@
-import { db, type Db, type SessionPlanRow } from '../../lib/db.ts';
+import { db, type Db, type RunPlanLinkRow, type SessionPlanRow } from '../../lib/db.ts';
 import { formatShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 
@@ -61,7 +61,22 @@ export async function listPlans(
   const query = trx('session_plans').where({ runner_id: runnerId });
   if (from) query.andWhere('date', '>=', from);
   if (to) query.andWhere('date', '<=', to);
-  return query.orderBy([{ column: 'date' }, { column: 'created_at' }]);
+  return query.orderBy([{ column: 'date' }, { column: 'created_at' }, { column: 'id' }]);
+}
+
+/** Several runners' plans between two dates (inclusive), in the order `listPlans` gives one runner's. */
+export async function listPlansOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = db,
+): Promise<SessionPlanRow[]> {
+  if (runnerIds.length === 0) return [];
+  return trx('session_plans')
+    .whereIn('runner_id', runnerIds)
+    .andWhere('date', '>=', from)
+    .andWhere('date', '<=', to)
+    .orderBy([{ column: 'date' }, { column: 'created_at' }, { column: 'id' }]);
 }
 
 export async function updatePlan(
@@ -84,7 +99,31 @@ export async function deletePlan(id: string, trx: Db = db): Promise<void> {
 
 /** The first plan of the runner's day (by creation), for linking a run automatically. */
 export async function findFirstPlanOnDate(runnerId: string, date: string, trx: Db = db): Promise<SessionPlanRow | undefined> {
-  return trx('session_plans').where({ runner_id: runnerId, date }).orderBy('created_at').first();
+  return trx('session_plans').where({ runner_id: runnerId, date }).orderBy(['created_at', 'id']).first();
+}
+
+/**
+ * The plans that can be the plan of these runs: the ones chosen for them (`ids`) and every plan of
+ * their runners on their dates, in the order "first plan of the day" reads them.
+ */
+export async function findPlansForRuns(
+  ids: readonly string[],
+  runnerIds: readonly string[],
+  dates: readonly string[],
+  trx: Db = db,
+): Promise<SessionPlanRow[]> {
+  if (ids.length === 0 && (runnerIds.length === 0 || dates.length === 0)) return [];
+  return trx('session_plans')
+    .where((q) => {
+      if (ids.length) q.whereIn('id', ids);
+      if (runnerIds.length && dates.length) q.orWhere((day) => day.whereIn('runner_id', runnerIds).whereIn('date', dates));
+    })
+    .orderBy([{ column: 'date' }, { column: 'created_at' }, { column: 'id' }]);
+}
+
+export async function findRunPlanLinks(runIds: readonly string[], trx: Db = db): Promise<RunPlanLinkRow[]> {
+  if (runIds.length === 0) return [];
+  return trx('run_plan_links').whereIn('run_id', runIds);
 }
 
 export async function findRunPlanLink(runId: string, trx: Db = db) {

@@ -1,22 +1,32 @@
+import { createHash } from 'node:crypto';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { expandParts, resolveTargets } from '../../../shared/plans/expand.ts';
-import { checkRunAgainstPlan, type PlanCheckResult } from '../../../shared/plans/plan-check.ts';
-import { racePacesFor } from '../../../shared/plans/race-paces.ts';
+import {
+  checkRunAgainstPlan,
+  DEFAULT_TOLERANCE,
+  type CheckedPart,
+  type PlanCheckResult,
+} from '../../../shared/plans/plan-check.ts';
+import { racePacesFor, type RaceTime } from '../../../shared/plans/race-paces.ts';
+import { firstPlanOfEachDay, planCheckInputsText, planOfRun } from '../../../shared/plans/run-plan-choice.ts';
 import type { CreatePlanInput, UpdatePlanInput } from '../../../shared/plans/schemas.ts';
 import { formatShorthand, normaliseItems, parseShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
-import { db, type RunRow, type SessionPlanRow } from '../../lib/db.ts';
+import { db, type GoalRaceRow, type RunRow, type SessionPlanRow, type UserRow } from '../../lib/db.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
-import { findGoalRace, listRaceResults } from '../goals/goals.repository.ts';
+import { logger } from '../../lib/logger.ts';
+import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
 import { getReadableRun, loadRunSeriesAndLaps } from '../runs/runs.service.ts';
 import { assertCanPlanFor, assertCanReadRunner } from '../squads/runner-access.ts';
-import { findUserById, updateUserProfile } from '../users/users.repository.ts';
+import { findUsersByIds, updateUserProfile } from '../users/users.repository.ts';
+import { findPlanCheckResults, savePlanCheckResults } from './plan-check-results.repository.ts';
+import { PLAN_CHECK_CODE_VERSION } from './plan-check-version.ts';
 import {
   deletePlan,
   deleteRunPlanLink,
-  findFirstPlanOnDate,
   findPlanById,
-  findRunPlanLink,
+  findPlansForRuns,
+  findRunPlanLinks,
   insertPlan,
   listPlans,
   toPlan,
@@ -73,9 +83,7 @@ export async function listPlansFor(
 async function readablePlan(actor: Actor, id: string): Promise<SessionPlanRow> {
   const row = await findPlanById(id);
   if (!row) throw new NotFoundError('There is no plan with this id.');
-  await assertCanReadRunner(actor, row.runner_id).catch(() => {
-    throw new NotFoundError('There is no plan with this id.');
-  });
+  await assertCanReadRunner(actor, row.runner_id, 'There is no plan with this id.');
   return row;
 }
 
@@ -129,13 +137,6 @@ export async function copyWeek(actor: Actor, input: { from_start: string; to_sta
   return copies.map(toPlan);
 }
 
-/** The plan a run is compared with: the one chosen for it, else the first plan on its local date. */
-async function planOfRun(run: { id: string; user_id: string; local_date: string }): Promise<SessionPlanRow | null> {
-  const link = await findRunPlanLink(run.id);
-  if (link) return link.plan_id ? ((await findPlanById(link.plan_id)) ?? null) : null;
-  return (await findFirstPlanOnDate(run.user_id, run.local_date)) ?? null;
-}
-
 export interface PlanCheckResponse extends Omit<PlanCheckResult, 'parts'> {
   plan_id: string | null;
   plan: StoredPlan | null;
@@ -148,46 +149,153 @@ export async function planCheckOfRun(actor: Actor, runId: string): Promise<PlanC
   return checkRun(await getReadableRun(actor, runId));
 }
 
-/** The plan check of a run the caller may read (also used by the week review). */
+/** The plan check of a run the caller may read. */
 export async function checkRun(run: RunRow): Promise<PlanCheckResponse> {
-  const plan = await planOfRun(run);
-  const runner = await findUserById(run.user_id);
-  const tolerance = runner?.pace_tolerance ?? 0.02;
-  if (!plan)
-    return {
-      plan_id: null,
-      plan: null,
-      linked: null,
-      tolerance,
-      method: 'planned amounts',
-      session_verdict: 'unplanned',
-      parts: [],
-    };
-  const [goal, results, link] = await Promise.all([
-    findGoalRace(run.user_id),
-    listRaceResults(run.user_id),
-    findRunPlanLink(run.id),
-  ]);
-  const paces = racePacesFor(
-    goal ? { date: goal.date, distance_m: goal.distance_m, time_s: goal.goal_time_s } : null,
-    results,
-    run.local_date,
-  );
-  const parts = resolveTargets(expandParts(plan.items as PlanItem[]), paces);
-  const { series, laps } = await loadRunSeriesAndLaps(run);
-  const result = checkRunAgainstPlan(parts, series, laps, tolerance);
+  const checks = await checkRuns([run], await loadRunnerCheckInputs([run.user_id]));
+  return toPlanCheckResponse(checks.get(run.id)!);
+}
+
+/** One run's plan check: the plan it was compared with (null: unplanned), how it was chosen, and the result. */
+export interface RunCheck {
+  plan: SessionPlanRow | null;
+  linked: 'chosen' | 'same day' | null;
+  tolerance: number;
+  /** The plan's expanded parts with their targets resolved, as checked. */
+  parts: CheckedPart[];
+  result: PlanCheckResult;
+}
+
+export function toPlanCheckResponse(check: RunCheck): PlanCheckResponse {
   return {
-    plan_id: plan.id,
-    plan: toPlan(plan),
-    linked: link ? 'chosen' : 'same day',
-    tolerance,
-    method: result.method,
-    session_verdict: result.session_verdict,
-    parts: result.parts.map((p) => {
-      const resolved = parts[p.index]!.resolved;
-      return resolved.type === 'unresolved' ? { ...p, unresolved: resolved.reason } : p;
+    plan_id: check.plan?.id ?? null,
+    plan: check.plan ? toPlan(check.plan) : null,
+    linked: check.linked,
+    tolerance: check.tolerance,
+    method: check.result.method,
+    session_verdict: check.result.session_verdict,
+    parts: check.result.parts.map((part) => {
+      const resolved = check.parts[part.index]!.resolved;
+      return resolved.type === 'unresolved' ? { ...part, unresolved: resolved.reason } : part;
     }),
   };
+}
+
+/** What a runner's plan checks read besides the runs and plans: the tolerance, the goal race and race results. */
+export interface RunnerCheckInputs {
+  tolerance: number;
+  goal: RaceTime | null;
+  results: readonly RaceTime[];
+}
+
+export function runnerCheckInputs(
+  runner: Pick<UserRow, 'pace_tolerance'> | undefined,
+  goal: GoalRaceRow | undefined,
+  results: readonly RaceTime[],
+): RunnerCheckInputs {
+  return {
+    tolerance: runner?.pace_tolerance ?? DEFAULT_TOLERANCE,
+    goal: goal ? { date: goal.date, distance_m: goal.distance_m, time_s: goal.goal_time_s } : null,
+    results,
+  };
+}
+
+/** The check inputs of several runners, in three queries. */
+export async function loadRunnerCheckInputs(runnerIds: readonly string[]): Promise<Map<string, RunnerCheckInputs>> {
+  const [runners, goals, results] = await Promise.all([
+    findUsersByIds(runnerIds),
+    findGoalRacesOf(runnerIds),
+    listRaceResultsOf(runnerIds),
+  ]);
+  return new Map(
+    runnerIds.map((id) => [
+      id,
+      runnerCheckInputs(
+        runners.find((r) => r.id === id),
+        goals.find((g) => g.user_id === id),
+        results.filter((r) => r.user_id === id),
+      ),
+    ]),
+  );
+}
+
+const UNPLANNED: PlanCheckResult = { method: 'planned amounts', parts: [], session_verdict: 'unplanned' };
+
+/** Runs whose stored track is decoded at the same time when their results have to be computed. */
+const COMPUTE_BATCH = 4;
+
+function sha256(text: string): string {
+  return createHash('sha256').update(text).digest('hex');
+}
+
+/**
+ * The plan checks of several runs (of one runner or many), with a few queries for all of them. A
+ * result is computed from the run's track only when no stored result has the key of its current
+ * inputs (plan, resolved targets, tolerance, plan-check code); computed results are stored for the
+ * next read. `inputsOf` must hold every run's runner.
+ */
+export async function checkRuns(
+  runs: ReadonlyArray<Pick<RunRow, 'id' | 'user_id' | 'local_date'>>,
+  inputsOf: ReadonlyMap<string, RunnerCheckInputs>,
+): Promise<Map<string, RunCheck>> {
+  const runIds = runs.map((r) => r.id);
+  const links = new Map((await findRunPlanLinks(runIds)).map((l) => [l.run_id, l]));
+  const chosenIds = [...new Set([...links.values()].flatMap((l) => (l.plan_id ? [l.plan_id] : [])))];
+  const unlinked = runs.filter((r) => !links.has(r.id));
+  const plans = await findPlansForRuns(
+    chosenIds,
+    [...new Set(unlinked.map((r) => r.user_id))],
+    [...new Set(unlinked.map((r) => r.local_date))],
+  );
+  const plansById = new Map(plans.map((p) => [p.id, p]));
+  const firstOfDay = firstPlanOfEachDay(plans);
+
+  const out = new Map<string, RunCheck>();
+  const pending: Array<{
+    run: (typeof runs)[number];
+    plan: SessionPlanRow;
+    linked: 'chosen' | 'same day';
+    parts: CheckedPart[];
+    key: string | null;
+    tolerance: number;
+  }> = [];
+  for (const run of runs) {
+    const inputs = inputsOf.get(run.user_id)!;
+    const { plan, linked } = planOfRun(run, links.get(run.id), plansById, firstOfDay);
+    if (!plan || !linked) {
+      out.set(run.id, { plan: null, linked: null, tolerance: inputs.tolerance, parts: [], result: UNPLANNED });
+      continue;
+    }
+    const paces = racePacesFor(inputs.goal, inputs.results, run.local_date);
+    const parts = resolveTargets(expandParts(plan.items as PlanItem[]), paces);
+    const key =
+      PLAN_CHECK_CODE_VERSION === null
+        ? null
+        : sha256(planCheckInputsText(run.id, parts, inputs.tolerance, PLAN_CHECK_CODE_VERSION));
+    pending.push({ run, plan, linked, parts, key, tolerance: inputs.tolerance });
+  }
+
+  const stored = new Map((await findPlanCheckResults(pending.map((p) => p.run.id))).map((r) => [r.run_id, r]));
+  const toCompute = pending.filter((p) => p.key === null || stored.get(p.run.id)?.inputs_key !== p.key);
+  const computed = new Map<string, PlanCheckResult>();
+  for (let i = 0; i < toCompute.length; i += COMPUTE_BATCH) {
+    await Promise.all(
+      toCompute.slice(i, i + COMPUTE_BATCH).map(async (p) => {
+        const { series, laps } = await loadRunSeriesAndLaps(p.run);
+        computed.set(p.run.id, checkRunAgainstPlan(p.parts, series, laps, p.tolerance));
+      }),
+    );
+  }
+  const fresh = toCompute.flatMap((p) =>
+    p.key === null ? [] : [{ run_id: p.run.id, inputs_key: p.key, result: computed.get(p.run.id)! }],
+  );
+  // A result that cannot be stored (its run deleted meanwhile) is still right for this answer.
+  await savePlanCheckResults(fresh).catch((err: unknown) => logger.warn({ err }, 'storing plan-check results failed'));
+
+  for (const p of pending) {
+    const result = computed.get(p.run.id) ?? (stored.get(p.run.id)!.result as PlanCheckResult);
+    out.set(p.run.id, { plan: p.plan, linked: p.linked, tolerance: p.tolerance, parts: p.parts, result });
+  }
+  return out;
 }
 
 /** The runner links a run to one of their plans, or to none (`planId` null); `auto` forgets the choice. */

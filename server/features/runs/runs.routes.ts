@@ -11,6 +11,7 @@ import {
   SplitsCsvQuerySchema,
   type ListRunsQuery,
 } from '../../../shared/runs/schemas.ts';
+import { formatFileSize } from '../../../shared/units.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { AppError, BadRequestError } from '../../lib/errors.ts';
@@ -51,7 +52,7 @@ function uploadFiles(maxFileBytes: number): RequestHandler {
             new AppError(
               413,
               'too-large',
-              `Each file can be at most ${Math.round(UPLOAD_LIMITS.fileSizeBytes / 1024 / 1024)} MB. Compress it as .gpx.gz or .tcx.gz, or split it.`,
+              `Each file can be at most ${formatFileSize(UPLOAD_LIMITS.fileSizeBytes)}. Compress it as .gpx.gz or .tcx.gz, or split it.`,
             ),
           );
         if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_PART_COUNT')

@@ -4,6 +4,7 @@ import { analyseTrack, type RunAnalysis } from '../../../shared/tracks/analyse.t
 import { localDateTime } from '../../../shared/runs/local-time.ts';
 import { estimateRunEnergy } from '../../../shared/tracks/energy.ts';
 import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.ts';
+import { seriesPositions } from '../../../shared/tracks/series.ts';
 import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import type { ImportResult, ListRunsQuery } from '../../../shared/runs/schemas.ts';
@@ -16,6 +17,11 @@ import type { FileStore } from '../../lib/storage.ts';
 import { assertCanReadRunner } from '../squads/runner-access.ts';
 import { decodeColumns, encodeColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
+import {
+  findReferencedStorageKeys,
+  holdOriginalFilesSharedLock,
+  withOriginalFilesExclusiveLock,
+} from './original-files.repository.ts';
 import { ImportRejection } from './parse/import-rejection.ts';
 import { parseTrackFile, type ParsedRun } from './parse/parse-track-file.ts';
 import {
@@ -24,6 +30,7 @@ import {
   findRunById,
   findRunParts,
   findRunTrack,
+  findRunWithParts,
   findSourceFileById,
   findSourceFileBySha,
   findSplits,
@@ -41,10 +48,12 @@ export interface UploadedFile {
 
 /** Time zone of the run's first position (tz-lookup), else the runner's profile time zone. */
 function timeZoneOf(parsed: ParsedRun, fallback: string): { zone: string; source: 'start position' | 'profile' } {
-  const first = parsed.track.points.find((p) => p.lat !== undefined && p.lon !== undefined);
-  if (first) {
+  const { lat, lon, length } = parsed.track.columns;
+  let first = 0;
+  while (first < length && Number.isNaN(lat[first])) first++;
+  if (first < length) {
     try {
-      const zone = tzLookup(first.lat!, first.lon!);
+      const zone = tzLookup(lat[first]!, lon[first]!);
       // Open sea answers a nautical Etc/GMT±N zone; the runner's own zone is a better guess there.
       if (!zone.startsWith('Etc/')) return { zone, source: 'start position' };
     } catch {
@@ -52,10 +61,6 @@ function timeZoneOf(parsed: ParsedRun, fallback: string): { zone: string; source
     }
   }
   return { zone: fallback, source: 'profile' };
-}
-
-function nan(value: number | undefined): number {
-  return value === undefined ? Number.NaN : value;
 }
 
 /**
@@ -122,16 +127,7 @@ function buildRunRecord(user: UserRow, sourceFileId: string, parsed: ParsedRun, 
     segments: summary.segments,
     details: { cleaning: parsed.track.report, format: parsed.format, ...profileDependentFigures(user, analysis) },
   };
-  // Positions aligned with the series: in geodesic mode the series holds only positioned points.
-  const positioned =
-    series.distance_source === 'geodesic' ? parsed.track.points.filter((p) => p.lat !== undefined) : parsed.track.points;
-  const n = series.t.length;
-  const lat = new Float64Array(n);
-  const lon = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    lat[i] = nan(positioned[i]?.lat);
-    lon[i] = nan(positioned[i]?.lon);
-  }
+  const { lat, lon } = seriesPositions(parsed.track, series);
   const columns: Record<string, Float64Array> = { t: series.t, d: series.d, lat, lon };
   if (series.ele_smooth) columns.ele = series.ele_smooth;
   if (series.hr) columns.hr = series.hr;
@@ -227,6 +223,8 @@ export async function importFiles(user: UserRow, files: UploadedFile[], store: F
           inserted.push(await insertRunWhole(record.run, record.children, trx));
         }
         // Last step inside the transaction: if storing the original fails, no row is committed.
+        // The shared lock keeps the orphan sweeper off this file until the rows are committed.
+        await holdOriginalFilesSharedLock(trx);
         await store.put(storageKey, file.data);
         return inserted;
       });
@@ -240,7 +238,7 @@ export async function importFiles(user: UserRow, files: UploadedFile[], store: F
       }
       // Nothing was committed; make sure no stray original is left either, and tell the runner.
       logger.error({ err, file: file.name }, 'storing an import failed');
-      await store.delete(storageKey).catch(() => undefined);
+      await deleteOriginalUnlessReferenced(storageKey, store).catch(() => undefined);
       result.rejected.push({
         file: file.name,
         error: 'This file could not be saved just now. Nothing was stored; please try again.',
@@ -252,12 +250,13 @@ export async function importFiles(user: UserRow, files: UploadedFile[], store: F
 
 /** The run if `actor` may read it; 404 otherwise (also for ids of other people's runs). */
 export async function getReadableRun(actor: Actor, runId: string): Promise<RunRow> {
-  const run = await findRunById(runId);
-  if (!run) throw new NotFoundError('There is no run with this id.');
-  await assertCanReadRunner(actor, run.user_id).catch(() => {
-    throw new NotFoundError('There is no run with this id.');
-  });
-  return run;
+  return readableOr404(actor, await findRunById(runId));
+}
+
+async function readableOr404<T extends { user_id: string }>(actor: Actor, found: T | undefined): Promise<T> {
+  if (!found) throw new NotFoundError('There is no run with this id.');
+  await assertCanReadRunner(actor, found.user_id, 'There is no run with this id.');
+  return found;
 }
 
 /** Only the owner may change or delete a run. */
@@ -287,8 +286,10 @@ export function toSplit(row: RunSplitRow): Split {
 }
 
 export async function describeRun(actor: Actor, runId: string) {
-  const run = await getReadableRun(actor, runId);
-  const parts = await findRunParts(run.id);
+  // The run and its parts in one query; nothing of it is answered unless the actor may read it.
+  const found = await findRunWithParts(runId);
+  const run = await readableOr404(actor, found?.run);
+  const { parts } = found!;
   const splits = parts.splits.map(toSplit);
   return {
     id: run.id,
@@ -349,7 +350,19 @@ export async function renameOwnRun(actor: Actor, runId: string, name: string) {
 export async function deleteOwnRun(actor: Actor, runId: string, store: FileStore): Promise<void> {
   const run = await getOwnRun(actor, runId);
   const orphan = await db.transaction((trx) => deleteRunAndOrphanFile(run, trx));
-  if (orphan) await store.delete(orphan.storage_key);
+  if (orphan) await deleteOriginalUnlessReferenced(orphan.storage_key, store);
+}
+
+/**
+ * Removes a stored original unless a row names it again by now: an upload of the same content
+ * may have committed in between (same key), and its file must stay. Checked under the lock
+ * imports hold while they store (decision 37).
+ */
+async function deleteOriginalUnlessReferenced(storageKey: string, store: FileStore): Promise<void> {
+  await withOriginalFilesExclusiveLock(async (trx) => {
+    if ((await findReferencedStorageKeys([storageKey], trx)).has(storageKey)) return;
+    await store.delete(storageKey);
+  });
 }
 
 export async function originalFileOf(actor: Actor, runId: string, store: FileStore) {
@@ -396,7 +409,7 @@ export async function addNote(actor: Actor, runId: string, text: string) {
 }
 
 /** The stored series and device laps of a run the caller has already been allowed to read. */
-export async function loadRunSeriesAndLaps(run: RunRow) {
+export async function loadRunSeriesAndLaps(run: Pick<RunRow, 'id'>) {
   const row = await findRunTrack(run.id);
   if (!row) throw new NotFoundError('This run has no stored track.');
   const columns = decodeColumns(row.columns, row.point_count, row.data);

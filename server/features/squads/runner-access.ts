@@ -5,11 +5,13 @@ import { findCoachIdsOfRunner } from './squads.repository.ts';
 /**
  * Throws 404 unless `actor` may read the data of runner `ownerId` (the rule lives in
  * shared/auth/permissions.ts). 404, not 403: other people's ids must not reveal that they exist.
+ * `notFoundMessage` names what was asked for ("There is no run with this id."). Database errors
+ * pass through untouched, so an outage answers 503 rather than a misleading 404.
  */
-export async function assertCanReadRunner(actor: Actor, ownerId: string): Promise<void> {
+export async function assertCanReadRunner(actor: Actor, ownerId: string, notFoundMessage?: string): Promise<void> {
   if (actor.id === ownerId || actor.role === 'admin') return;
   const coachIds = actor.role === 'coach' ? await findCoachIdsOfRunner(ownerId) : [];
-  if (!canReadRunnerData(actor, ownerId, coachIds)) throw new NotFoundError();
+  if (!canReadRunnerData(actor, ownerId, coachIds)) throw new NotFoundError(notFoundMessage);
 }
 
 /**

@@ -1,4 +1,4 @@
-import { db, type ApiTokenRow, type Db } from '../../lib/db.ts';
+import { db, type ApiTokenRow, type Db, type UserRow } from '../../lib/db.ts';
 import type { ApiToken } from '../../../shared/auth/schemas.ts';
 
 export function toApiToken(row: ApiTokenRow): ApiToken {
@@ -21,14 +21,29 @@ export async function insertApiToken(
   return row as ApiTokenRow;
 }
 
-/** The live (unexpired) token with this hash; marks it used. */
-export async function touchLiveApiToken(tokenHash: string, now: Date, trx: Db = db): Promise<ApiTokenRow | undefined> {
-  const [row] = await trx('api_tokens')
-    .where({ token_hash: tokenHash })
-    .andWhere('expires_at', '>', now)
-    .update({ last_used_at: now })
-    .returning('*');
-  return row as ApiTokenRow | undefined;
+/** The user behind the live (unexpired) token with this hash, and when the token was last marked used. */
+export async function findLiveApiTokenUser(
+  tokenHash: string,
+  now: Date,
+  trx: Db = db,
+): Promise<{ user: UserRow; tokenId: string; lastUsedAt: Date | null } | undefined> {
+  const row = (await trx('api_tokens')
+    .join('users', 'users.id', 'api_tokens.user_id')
+    .where('api_tokens.token_hash', tokenHash)
+    .andWhere('api_tokens.expires_at', '>', now)
+    .first('users.*', 'api_tokens.id as token_id', 'api_tokens.last_used_at as token_last_used_at')) as
+    (UserRow & { token_id: string; token_last_used_at: Date | null }) | undefined;
+  if (!row) return undefined;
+  const { token_id: tokenId, token_last_used_at: lastUsedAt, ...user } = row;
+  return { user, tokenId, lastUsedAt };
+}
+
+/** Marks the token used at `now`, unless that was already recorded after `since`. */
+export async function markApiTokenUsed(id: string, now: Date, since: Date, trx: Db = db): Promise<void> {
+  await trx('api_tokens')
+    .where({ id })
+    .andWhere((q) => q.whereNull('last_used_at').orWhere('last_used_at', '<', since))
+    .update({ last_used_at: now });
 }
 
 export async function listApiTokens(userId: string, now: Date, trx: Db = db): Promise<ApiTokenRow[]> {

@@ -1,7 +1,15 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { AppConfig } from '../../config.ts';
 import { NotFoundError } from '../../lib/errors.ts';
-import { deleteApiToken, insertApiToken, listApiTokens, toApiToken, touchLiveApiToken } from './tokens.repository.ts';
+import type { UserRow } from '../../lib/db.ts';
+import {
+  deleteApiToken,
+  findLiveApiTokenUser,
+  insertApiToken,
+  listApiTokens,
+  markApiTokenUsed,
+  toApiToken,
+} from './tokens.repository.ts';
 import type { ApiToken } from '../../../shared/auth/schemas.ts';
 
 const TOKEN_PREFIX = 'pw_';
@@ -23,11 +31,20 @@ export async function issueApiToken(
   return { token, expires_at: row.expires_at.toISOString(), id: row.id, name: row.name };
 }
 
-/** The user id behind a bearer token, or null when it is unknown, revoked or expired. */
-export async function resolveApiToken(token: string, now = new Date()): Promise<string | null> {
+/**
+ * How often a token's `last_used_at` is written: at its first use, then at most once a minute. A script
+ * sending many requests at once would otherwise queue every one of them on the same row's lock.
+ */
+const LAST_USED_RESOLUTION_MS = 60_000;
+
+/** The user behind a bearer token, or null when it is unknown, revoked or expired. */
+export async function resolveApiTokenUser(token: string, now = new Date()): Promise<UserRow | null> {
   if (!token.startsWith(TOKEN_PREFIX)) return null;
-  const row = await touchLiveApiToken(hashApiToken(token), now);
-  return row?.user_id ?? null;
+  const found = await findLiveApiTokenUser(hashApiToken(token), now);
+  if (!found) return null;
+  const since = new Date(now.getTime() - LAST_USED_RESOLUTION_MS);
+  if (!found.lastUsedAt || found.lastUsedAt < since) await markApiTokenUsed(found.tokenId, now, since);
+  return found.user;
 }
 
 export async function listTokensOf(userId: string, now = new Date()): Promise<ApiToken[]> {

@@ -31,6 +31,11 @@ export async function findUserById(id: string, trx: Db = db): Promise<UserRow | 
   return trx('users').where({ id }).first();
 }
 
+export async function findUsersByIds(ids: readonly string[], trx: Db = db): Promise<UserRow[]> {
+  if (ids.length === 0) return [];
+  return trx('users').whereIn('id', ids);
+}
+
 export async function findUserByEmail(email: string, trx: Db = db): Promise<UserRow | undefined> {
   return trx('users').whereRaw('lower(email) = lower(?)', [email]).first();
 }

@@ -1,16 +1,75 @@
-import { db, type Db, type RunRow } from '../../lib/db.ts';
+import { db, type Db } from '../../lib/db.ts';
+import { RUN_LIST_COLUMNS, type RunListRow } from '../runs/runs.repository.ts';
 
-export async function listRunsBetween(runnerId: string, from: string, to: string, trx: Db = db): Promise<RunRow[]> {
-  return trx('runs')
-    .where({ user_id: runnerId })
-    .andWhere('local_date', '>=', from)
-    .andWhere('local_date', '<=', to)
-    .orderBy('started_at');
+/** The run's TRIMP stored at import (`details.trimp.trimp`), null without heart rate. */
+const TRIMP = "(details->'trimp'->>'trimp')::float8 as trimp";
+
+/** What the load, the trend and the week totals read of a run. */
+export interface RunLoadRow {
+  user_id: string;
+  local_date: string;
+  distance_m: number;
+  trimp: number | null;
 }
 
-export async function lastUploadOf(runnerId: string, trx: Db = db): Promise<Date | null> {
-  const row = await trx('runs').where({ user_id: runnerId }).max({ last: 'created_at' }).first();
-  return (row?.last as Date | null) ?? null;
+/** Several runners' runs between two local dates (inclusive), light rows, in the order they started. */
+export async function listRunLoadsOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = db,
+): Promise<RunLoadRow[]> {
+  if (runnerIds.length === 0) return [];
+  return trx('runs')
+    .whereIn('user_id', runnerIds)
+    .andWhere('local_date', '>=', from)
+    .andWhere('local_date', '<=', to)
+    .orderBy('started_at')
+    .select<RunLoadRow[]>('user_id', 'local_date', 'distance_m', trx.raw(TRIMP));
+}
+
+/** Several runners' runs between two local dates (inclusive) as list items, in the order they started. */
+export async function listRunItemsOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = db,
+): Promise<Array<RunListRow & { user_id: string; trimp: number | null }>> {
+  if (runnerIds.length === 0) return [];
+  return trx('runs')
+    .whereIn('user_id', runnerIds)
+    .andWhere('local_date', '>=', from)
+    .andWhere('local_date', '<=', to)
+    .orderBy('started_at')
+    .select(...RUN_LIST_COLUMNS, 'user_id', trx.raw(TRIMP));
+}
+
+/** Each runner's latest upload time (runners without runs are left out). */
+export async function lastUploadsOf(runnerIds: readonly string[], trx: Db = db): Promise<Map<string, Date>> {
+  if (runnerIds.length === 0) return new Map();
+  // One backward step on runs (user_id, created_at) per runner, rather than reading all their runs.
+  const { rows } = await trx.raw<{ rows: Array<{ user_id: string; last: Date | null }> }>(
+    'select r.id as user_id, (select max(created_at) from runs where runs.user_id = r.id) as last from unnest(?::uuid[]) as r(id)',
+    [runnerIds as string[]],
+  );
+  return new Map(rows.flatMap((r) => (r.last ? [[r.user_id, r.last] as const] : [])));
+}
+
+/** Reviews of several runners' weeks (each runner's own week start is among `weekStarts`). */
+export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts: readonly string[], trx: Db = db) {
+  if (runnerIds.length === 0) return [];
+  return trx('week_reviews')
+    .join('users', 'users.id', 'week_reviews.coach_id')
+    .whereIn('week_reviews.runner_id', runnerIds)
+    .whereIn('week_reviews.week_start', [...new Set(weekStarts)])
+    .select<Array<{ runner_id: string; week_start: string; coach_id: string; coach_name: string; reviewed_at: Date }>>(
+      'week_reviews.runner_id',
+      'week_reviews.week_start',
+      'week_reviews.coach_id',
+      'users.name as coach_name',
+      'week_reviews.reviewed_at',
+    )
+    .orderBy('week_reviews.reviewed_at');
 }
 
 export async function weeklyDistances(runnerId: string, from: string, to: string, trx: Db = db) {
@@ -42,18 +101,6 @@ export async function insertWeekNote(runnerId: string, weekStart: string, author
     .insert({ runner_id: runnerId, week_start: weekStart, author_id: authorId, text })
     .returning('id');
   return (row as { id: string }).id;
-}
-
-export async function findWeekReviews(runnerId: string, weekStart: string, trx: Db = db) {
-  return trx('week_reviews')
-    .join('users', 'users.id', 'week_reviews.coach_id')
-    .where('week_reviews.runner_id', runnerId)
-    .andWhere('week_reviews.week_start', weekStart)
-    .select<Array<{ coach_id: string; coach_name: string; reviewed_at: Date }>>(
-      'week_reviews.coach_id',
-      'users.name as coach_name',
-      'week_reviews.reviewed_at',
-    );
 }
 
 export async function upsertWeekReview(runnerId: string, weekStart: string, coachId: string, trx: Db = db): Promise<void> {

@@ -40,4 +40,13 @@ describe('loadConfig', () => {
     });
     expect(loadConfig({ DATABASE_URL: 'postgres://u@db.internal/pw' }).databaseUrl).toBe('postgres://u@db.internal/pw');
   });
+
+  it('keeps unreferenced stored files for 10 minutes unless ORPHAN_GRACE_SECONDS says otherwise', () => {
+    expect(loadConfig({}).orphanGraceSeconds).toBe(600);
+    expect(loadConfig({ ORPHAN_GRACE_SECONDS: '' }).orphanGraceSeconds).toBe(600);
+    expect(loadConfig({ ORPHAN_GRACE_SECONDS: '3600' }).orphanGraceSeconds).toBe(3600);
+    expect(loadConfig({ ORPHAN_GRACE_SECONDS: '0' }).orphanGraceSeconds).toBe(0);
+    for (const bad of ['-1', '10m', '1.5', ' 60'])
+      expect(() => loadConfig({ ORPHAN_GRACE_SECONDS: bad })).toThrow(/ORPHAN_GRACE_SECONDS must be a whole number/);
+  });
 });

@@ -73,8 +73,8 @@ export function decodeXml(buffer: Buffer): string {
 
 /**
  * Decide from the content whether a document is GPX or TCX, refusing HTML, other XML, entity
- * declarations (XML bombs and external entities are never expanded or fetched) and documents
- * cut off before their root element closes.
+ * declarations (XML bombs and external entities are never expanded or fetched), references to an
+ * external DTD and documents cut off before their root element closes.
  */
 export function detectFormat(text: string): TrackFormat {
   const head = text.slice(0, 4096);
@@ -85,6 +85,13 @@ export function detectFormat(text: string): TrackFormat {
     throw new ImportRejection(
       'xml-entities',
       'This file declares XML entities, which Pacewright never expands for safety; export the run again from your watch or app.',
+    );
+  }
+  // Nothing here fetches a DTD, but a track never needs one: refusing it keeps a future parser honest too.
+  if (/<!DOCTYPE[^>[]*\b(?:SYSTEM|PUBLIC)\b/i.test(text)) {
+    throw new ImportRejection(
+      'xml-external-dtd',
+      'This file refers to an outside XML document type (DTD), which Pacewright never fetches for safety; export the run again from your watch or app.',
     );
   }
   const root = findRootName(head);

@@ -1,3 +1,4 @@
+import { PointColumns, pointCapacityFor } from '../../../../shared/tracks/point-columns.ts';
 import type { RawTrack, TrackPoint } from '../../../../shared/tracks/types.ts';
 import { parseIsoTime, parseNumber } from './parse-time.ts';
 import { readXmlEvents } from './xml-events.ts';
@@ -21,65 +22,78 @@ const TEMP_NAMES = new Set(['atemp', 'temp', 'temperature', 'wtemp']);
  * from any extension under any namespace prefix, heart rate, cadence and temperature.
  */
 export function readGpx(xml: string): GpxContents {
-  const segments: TrackPoint[][] = [];
+  const points = new PointColumns(pointCapacityFor(xml.length));
+  /** Where each segment begins in `points`; points always go to the segment opened last. */
+  const segmentStarts: number[] = [];
   const stack: string[] = [];
   let tracks = 0;
   let waypoints = 0;
   let routePoints = 0;
   let name: string | null = null;
   let sport: string | null = null;
-  let segment: TrackPoint[] | null = null;
+  let segmentOpen = false;
   let point: TrackPoint | null = null;
   let pointDepth = -1;
 
-  readXmlEvents(xml, {
-    open(tag, attrs) {
-      const parent = stack[stack.length - 1];
-      stack.push(tag);
-      if (tag === 'trk' && parent === 'gpx') tracks++;
-      else if (tag === 'wpt') waypoints++;
-      else if (tag === 'rtept') routePoints++;
-      else if (tag === 'trkseg' && parent === 'trk') {
-        segment = [];
-        segments.push(segment);
-      } else if (tag === 'trkpt' && (parent === 'trkseg' || parent === 'trk')) {
-        if (parent === 'trk' && segment === null) {
-          segment = [];
-          segments.push(segment);
+  readXmlEvents(
+    xml,
+    {
+      open(tag, attrs) {
+        const parent = stack[stack.length - 1];
+        stack.push(tag);
+        if (tag === 'trk' && parent === 'gpx') tracks++;
+        else if (tag === 'wpt') waypoints++;
+        else if (tag === 'rtept') routePoints++;
+        else if (tag === 'trkseg' && parent === 'trk') {
+          segmentStarts.push(points.length);
+          segmentOpen = true;
+        } else if (tag === 'trkpt' && (parent === 'trkseg' || parent === 'trk')) {
+          if (parent === 'trk' && !segmentOpen) {
+            segmentStarts.push(points.length);
+            segmentOpen = true;
+          }
+          point = { t: Number.NaN, lat: parseNumber(attrs.lat), lon: parseNumber(attrs.lon) };
+          pointDepth = stack.length;
         }
-        point = { t: Number.NaN, lat: parseNumber(attrs.lat), lon: parseNumber(attrs.lon) };
-        pointDepth = stack.length;
-      }
+      },
+      text(value) {
+        const tag = stack[stack.length - 1] ?? '';
+        const parent = stack[stack.length - 2];
+        if (point) {
+          const lower = tag.toLowerCase();
+          if (stack.length === pointDepth + 1) {
+            if (tag === 'time') point.t = parseIsoTime(value);
+            else if (tag === 'ele') point.ele = parseNumber(value);
+          } else if (HR_NAMES.has(lower)) point.hr = parseNumber(value);
+          else if (CAD_NAMES.has(lower)) point.cad = parseNumber(value);
+          else if (TEMP_NAMES.has(lower)) point.temp = parseNumber(value);
+        } else if (parent === 'trk' && tracks === 1) {
+          if (tag === 'name' && name === null) name = value;
+          else if (tag === 'type' && sport === null) sport = value;
+        }
+      },
+      close(tag) {
+        if (tag === 'trkpt' && point && stack.length === pointDepth) {
+          if (segmentOpen) points.push(point);
+          point = null;
+          pointDepth = -1;
+        } else if (tag === 'trkseg' || tag === 'trk') {
+          segmentOpen = false;
+        }
+        stack.pop();
+      },
     },
-    text(value) {
-      const tag = stack[stack.length - 1] ?? '';
-      const parent = stack[stack.length - 2];
-      if (point) {
-        const lower = tag.toLowerCase();
-        if (stack.length === pointDepth + 1) {
-          if (tag === 'time') point.t = parseIsoTime(value);
-          else if (tag === 'ele') point.ele = parseNumber(value);
-        } else if (HR_NAMES.has(lower)) point.hr = parseNumber(value);
-        else if (CAD_NAMES.has(lower)) point.cad = parseNumber(value);
-        else if (TEMP_NAMES.has(lower)) point.temp = parseNumber(value);
-      } else if (parent === 'trk' && tracks === 1) {
-        if (tag === 'name' && name === null) name = value;
-        else if (tag === 'type' && sport === null) sport = value;
-      }
-    },
-    close(tag) {
-      if (tag === 'trkpt' && point && stack.length === pointDepth) {
-        (segment as TrackPoint[] | null)?.push(point);
-        point = null;
-        pointDepth = -1;
-      } else if (tag === 'trkseg' || tag === 'trk') {
-        segment = null;
-      }
-      stack.pop();
-    },
-  });
+    { repeatedElement: 'trkpt' },
+  );
   return {
-    track: { format: 'gpx', name, sport, segments: segments.filter((s) => s.length > 0), laps: [] },
+    track: {
+      format: 'gpx',
+      name,
+      sport,
+      points,
+      segment_starts: segmentStarts.filter((start, k) => start < (segmentStarts[k + 1] ?? points.length)),
+      laps: [],
+    },
     tracks,
     waypoints,
     routePoints,

@@ -1,4 +1,4 @@
-import { cleanTrack } from '../../../../shared/tracks/clean.ts';
+import { cleanPoints } from '../../../../shared/tracks/clean.ts';
 import type { CleanTrack, DeviceLap, RawTrack } from '../../../../shared/tracks/types.ts';
 import { decodeXml, detectFormat, gunzipIfNeeded, rejectBinary, type TrackFormat } from './detect.ts';
 import { readGpx } from './gpx-reader.ts';
@@ -47,7 +47,7 @@ export function parseTrackFile(input: Buffer): ParsedRun[] {
 
 function runsFromGpx(text: string): ParsedRun[] {
   const contents = readGpx(text);
-  if (contents.track.segments.length === 0) {
+  if (contents.track.points.length === 0) {
     if (contents.tracks === 0 && (contents.waypoints > 0 || contents.routePoints > 0)) {
       throw new ImportRejection('no-recorded-track', 'This file only has waypoints or a planned route, not a recorded track.');
     }
@@ -79,9 +79,9 @@ function runsFromTcx(text: string): ParsedRun[] {
 }
 
 function toRun(raw: RawTrack, index: number): ParsedRun {
-  const total = raw.segments.reduce((sum, s) => sum + s.length, 0);
+  const total = raw.points.length;
   if (total === 0) throw new ImportRejection('empty-track', "This file's track is empty.");
-  const track = cleanTrack(raw.segments);
+  const track = cleanPoints(raw.points, raw.segment_starts);
   const { report } = track;
   if (report.dropped_untimed === total) {
     throw new ImportRejection('no-timestamps', 'This file has no timestamps, so splits cannot be computed.');
@@ -92,10 +92,10 @@ function toRun(raw: RawTrack, index: number): ParsedRun {
       `Most points in this file have no timestamps (${report.dropped_untimed} of ${total}), so splits cannot be computed.`,
     );
   }
-  if (track.points.length === 0) {
+  if (track.columns.length === 0) {
     throw new ImportRejection('no-valid-points', "This file's track has no valid positions or distances.");
   }
-  if (track.points.length === 1) {
+  if (track.columns.length === 1) {
     throw new ImportRejection('single-point', "This file's track has a single point, so there is no distance or time to split.");
   }
   return { format: raw.format, activity_index: index, name: raw.name, sport: raw.sport, track, laps: raw.laps };

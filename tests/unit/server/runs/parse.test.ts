@@ -235,6 +235,13 @@ describe('messy inputs built here', () => {
     expect(rejectionOf(xxe).code).toBe('xml-entities');
   });
 
+  it('refuses a document that names an external DTD, even without entities', () => {
+    for (const doctype of ['<!DOCTYPE gpx SYSTEM "http://lake.invalid/gpx.dtd">', '<!DOCTYPE gpx PUBLIC "-//X//Y" "gpx.dtd">']) {
+      const withDtd = gpx(pt(0) + pt(1)).replace('<?xml version="1.0"?>', `<?xml version="1.0"?>${doctype}`);
+      expect(rejectionOf(withDtd).code).toBe('xml-external-dtd');
+    }
+  });
+
   it('decodes only the predefined entities in a document it accepts', () => {
     const [run] = parseTrackFile(
       Buffer.from(gpx(pt(0) + pt(1, '46.20003')).replace('<trk>', '<trk><name>Tom &amp; Lake</name>')),

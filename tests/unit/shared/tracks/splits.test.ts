@@ -71,6 +71,29 @@ describe('computeSplits with device distance', () => {
     expect(timeAtDistance(series, 1000)).toBe(T0 + 350_000);
   });
 
+  // Found by the upload fuzz test (tests/api/faults.api.test.ts): one damaged reading once asked for ~10^17 splits.
+  it('ignores a damaged device distance (huge, or a jump faster than anything on foot or wheels)', () => {
+    for (const glitch of [1e20, 1e308, 5_000_000]) {
+      const series = deviceSeries([
+        [0, 0],
+        [300, 1000],
+        [310, glitch],
+        [600, 2000],
+      ]);
+      expect(series.d[series.d.length - 1]).toBe(2000);
+      expect(computeSplits(series, 'km').map((s) => s.distance_m)).toEqual([1000, 1000]);
+    }
+  });
+
+  it('keeps a fast but possible device distance (a descent on a bike at 25 m/s)', () => {
+    const series = deviceSeries([
+      [0, 0],
+      [40, 1000],
+      [80, 2000],
+    ]);
+    expect(series.d[series.d.length - 1]).toBe(2000);
+  });
+
   it('reports a boundary that falls exactly on a point at that point’s time', () => {
     const splits = computeSplits(
       deviceSeries([
