@@ -1,3 +1,5 @@
+import type { RunListOrder, RunListSort } from '../../shared/runs/schemas.ts';
+
 /** Every client URL lives here; components and loaders build links only through these helpers. */
 export const paths = {
   home: { path: '/', getHref: () => '/' },
@@ -22,12 +24,14 @@ export const paths = {
   devOutbox: { path: '/dev/outbox', getHref: () => '/dev/outbox' },
   log: {
     path: '/log',
-    /** `import` keeps a bulk import's progress bar on the page across reloads. */
-    getHref: (search?: { page?: number; month?: string; import?: string }) => {
+    /** `import` keeps a bulk import's progress bar on the page across reloads; the list's default order (date, desc) is left out. */
+    getHref: (search?: { page?: number; month?: string; import?: string; sort?: RunListSort; order?: RunListOrder }) => {
       const params = new URLSearchParams();
       if (search?.month) params.set('month', search.month);
       if (search?.page && search.page > 1) params.set('page', String(search.page));
       if (search?.import) params.set('import', search.import);
+      if (search?.sort && search.sort !== 'date') params.set('sort', search.sort);
+      if (search?.order && search.order !== 'desc') params.set('order', search.order);
       const query = params.toString();
       return query ? `/log?${query}` : '/log';
     },

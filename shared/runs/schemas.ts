@@ -6,6 +6,11 @@ export const SplitsCsvQuerySchema = z.object({ unit: SplitUnitSchema.default('mi
 
 const IsoDateSchema = z.iso.date({ error: 'Use a date like 2026-10-03.' });
 
+/** What the runs list can be ordered by: start time, distance, moving time, pace (moving time per metre). */
+export const RUN_LIST_SORTS = ['date', 'distance', 'duration', 'pace'] as const;
+export type RunListSort = (typeof RUN_LIST_SORTS)[number];
+export type RunListOrder = 'asc' | 'desc';
+
 export const ListRunsQuerySchema = z.object({
   from: IsoDateSchema.optional(),
   to: IsoDateSchema.optional(),
@@ -17,6 +22,8 @@ export const ListRunsQuerySchema = z.object({
     .max(200, 'At most 200 runs a page.')
     .default(50),
   runner_id: z.uuid({ error: 'Not a runner id.' }).optional(),
+  sort: z.enum(RUN_LIST_SORTS, { error: `Sort by one of: ${RUN_LIST_SORTS.join(', ')}.` }).default('date'),
+  order: z.enum(['asc', 'desc'], { error: 'Order must be asc or desc.' }).default('desc'),
 });
 export type ListRunsQuery = z.infer<typeof ListRunsQuerySchema>;
 

@@ -269,6 +269,130 @@ describe('listing, renaming and deleting runs', () => {
   });
 });
 
+type ListedRun = { id: string; started_at: string; distance_m: number; moving_s: number };
+
+/** Stores runs straight in the table (the list reads only summary columns), all from one source file. */
+async function storeRuns(userId: string, runs: Array<{ started_at: string; distance_m: number; moving_s: number }>) {
+  const [file] = await db('source_files')
+    .insert({
+      user_id: userId,
+      original_name: 'many.tcx',
+      sha256: 'f'.repeat(64),
+      size_bytes: '1',
+      storage_key: 'k',
+      format: 'tcx',
+    })
+    .returning('id');
+  await db('runs').insert(
+    runs.map((run, index) => ({
+      user_id: userId,
+      source_file_id: file!.id,
+      activity_index: index,
+      name: `Run ${index}`,
+      started_at: new Date(run.started_at),
+      ended_at: new Date(Date.parse(run.started_at) + run.moving_s * 1000),
+      local_date: run.started_at.slice(0, 10),
+      local_time: run.started_at.slice(11, 16),
+      time_zone: 'UTC',
+      time_zone_source: 'profile',
+      distance_m: run.distance_m,
+      distance_source: 'device',
+      elapsed_s: run.moving_s,
+      moving_s: run.moving_s,
+      points: 2,
+      segments: 1,
+      details: {},
+    })),
+  );
+}
+
+/** The order the API promises, computed over every run at once: nulls (pace without distance) last, then id. */
+function sortedInJs(runs: ListedRun[], sort: string, order: 'asc' | 'desc'): string[] {
+  const valueOf = (run: ListedRun): number | null => {
+    if (sort === 'date') return Date.parse(run.started_at);
+    if (sort === 'distance') return run.distance_m;
+    if (sort === 'duration') return run.moving_s;
+    return run.distance_m > 0 && run.moving_s > 0 ? run.moving_s / run.distance_m : null;
+  };
+  const sign = order === 'asc' ? 1 : -1;
+  return [...runs]
+    .sort((a, b) => {
+      const [va, vb] = [valueOf(a), valueOf(b)];
+      if (va === null || vb === null) return va === vb ? sign * (a.id < b.id ? -1 : 1) : va === null ? 1 : -1;
+      if (va !== vb) return sign * (va - vb);
+      return sign * (a.id < b.id ? -1 : 1);
+    })
+    .map((run) => run.id);
+}
+
+describe('GET /api/runs?sort=…&order=…', () => {
+  it('orders every run (not one page) by each sort and order; pages neither repeat nor skip a run', async () => {
+    const { app } = appWithStore();
+    const { user, auth } = await runnerWithToken(app);
+    // Ties on purpose (same start, same distance, same moving time, same pace) and two runs without distance.
+    await storeRuns(user.id, [
+      { started_at: '2026-03-01T07:00:00.000Z', distance_m: 10000, moving_s: 3000 },
+      { started_at: '2026-03-01T07:00:00.000Z', distance_m: 5000, moving_s: 1500 },
+      { started_at: '2026-03-02T18:30:00.000Z', distance_m: 5000, moving_s: 1400 },
+      { started_at: '2026-02-27T06:15:00.000Z', distance_m: 21097.5, moving_s: 6300 },
+      { started_at: '2026-03-05T12:00:00.000Z', distance_m: 0, moving_s: 1800 },
+      { started_at: '2026-03-04T12:00:00.000Z', distance_m: 0, moving_s: 900 },
+      { started_at: '2026-01-10T09:00:00.000Z', distance_m: 8000, moving_s: 3000 },
+      { started_at: '2026-01-11T09:00:00.000Z', distance_m: 12000, moving_s: 3000 },
+      { started_at: '2026-02-01T09:00:00.000Z', distance_m: 3000, moving_s: 1000 },
+      { started_at: '2026-02-02T09:00:00.000Z', distance_m: 3000, moving_s: 1000 },
+      { started_at: '2026-02-03T09:00:00.000Z', distance_m: 42195, moving_s: 12600 },
+    ]);
+    const all = await request(app).get('/api/runs?per_page=200').set(auth);
+    expect(all.body.total).toBe(11);
+    const everyRun = all.body.runs as ListedRun[];
+
+    for (const sort of ['date', 'distance', 'duration', 'pace']) {
+      for (const order of ['asc', 'desc'] as const) {
+        const paged: string[] = [];
+        for (let page = 1; page <= 3; page++) {
+          const res = await request(app).get(`/api/runs?sort=${sort}&order=${order}&per_page=4&page=${page}`).set(auth);
+          expect(res.status).toBe(200);
+          expect(res.body).toMatchObject({ total: 11, page, per_page: 4 });
+          paged.push(...(res.body.runs as ListedRun[]).map((run) => run.id));
+        }
+        expect({ sort, order, ids: paged }).toEqual({ sort, order, ids: sortedInJs(everyRun, sort, order) });
+      }
+    }
+    // Without sort and order: newest first, as before.
+    expect(everyRun.map((run) => run.id)).toEqual(sortedInJs(everyRun, 'date', 'desc'));
+    // Runs without distance have no pace: last in both orders.
+    const paceAsc = await request(app).get('/api/runs?sort=pace&order=asc').set(auth);
+    const paceDesc = await request(app).get('/api/runs?sort=pace&order=desc').set(auth);
+    expect(paceAsc.body.runs.slice(-2).map((run: ListedRun) => run.distance_m)).toEqual([0, 0]);
+    expect(paceDesc.body.runs.slice(-2).map((run: ListedRun) => run.distance_m)).toEqual([0, 0]);
+  });
+
+  it('answers 400 with a sentence for an unknown sort or order', async () => {
+    const { app } = appWithStore();
+    const { auth } = await runnerWithToken(app);
+    const badSort = await request(app).get('/api/runs?sort=heart_rate').set(auth);
+    expect(badSort.status).toBe(400);
+    expect(badSort.body.error).toMatch(/date, distance, duration, pace/);
+    const badOrder = await request(app).get('/api/runs?sort=pace&order=sideways').set(auth);
+    expect(badOrder.status).toBe(400);
+    expect(badOrder.body.error).toMatch(/asc or desc/);
+  });
+
+  it('documents sort and order in /api/openapi.json from the same schema', async () => {
+    const { app } = appWithStore();
+    const doc = await request(app).get('/api/openapi.json');
+    const parameters = doc.body.paths['/api/runs'].get.parameters as Array<{ name: string; in: string; schema: unknown }>;
+    expect(parameters.find((p) => p.name === 'sort')).toEqual({
+      name: 'sort',
+      in: 'query',
+      required: false,
+      schema: { default: 'date', type: 'string', enum: ['date', 'distance', 'duration', 'pace'] },
+    });
+    expect(parameters.find((p) => p.name === 'order')?.schema).toMatchObject({ default: 'desc', enum: ['asc', 'desc'] });
+  });
+});
+
 describe('POST /api/runs/:id/notes and GET /api/runs/:id/notes', () => {
   it('the runner and their coach write and read notes on a run; another runner gets 404; an empty note gets 400', async () => {
     const { app } = appWithStore();

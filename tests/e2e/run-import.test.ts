@@ -111,6 +111,33 @@ describe('importing a watch file', () => {
     await page.close();
   });
 
+  it('the runs list headers order all runs through the API and start again at the first page', async () => {
+    const page = await signedInPage();
+    const errors = watchErrors(page);
+    const runs = page.getByRole('table', { name: 'Your runs' });
+    const firstRunHref = () => runs.getByRole('link').first().getAttribute('href');
+    /** The first run of the whole history in that order, as the API gives it. */
+    const firstRunOf = async (sort: string, order: string) => {
+      const res = await page.request.get(`${server.url}/api/runs?sort=${sort}&order=${order}&per_page=1`);
+      return `/runs/${(await res.json()).runs[0].id as string}`;
+    };
+    await page.goto(`${server.url}/log?page=2`);
+    await runs.waitFor();
+
+    const distanceHeader = runs.getByRole('columnheader', { name: 'Distance', exact: true });
+    await distanceHeader.getByRole('button').click();
+    await page.waitForURL(/\/log\?sort=distance$/);
+    await expect.poll(() => distanceHeader.getAttribute('aria-sort')).toBe('descending');
+    await expect.poll(firstRunHref).toBe(await firstRunOf('distance', 'desc'));
+
+    await distanceHeader.getByRole('button').click();
+    await page.waitForURL(/\/log\?sort=distance&order=asc$/);
+    await expect.poll(() => distanceHeader.getAttribute('aria-sort')).toBe('ascending');
+    await expect.poll(firstRunHref).toBe(await firstRunOf('distance', 'asc'));
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
   it('at 375 px the Log and the run page do not scroll sideways', async () => {
     const page = await signedInPage();
     await page.setViewportSize({ width: 375, height: 740 });

@@ -14,6 +14,17 @@ function openApiPath(expressPath: string): string {
   return '/api' + expressPath.replace(/:(\w+)/g, '{$1}');
 }
 
+/** A route's query schema as OpenAPI query parameters (input side: a field with a default is optional). */
+function queryParameters(schema: z.ZodType): JsonSchema[] {
+  const json = toJsonSchema(schema, 'input') as { properties?: Record<string, JsonSchema>; required?: string[] };
+  return Object.entries(json.properties ?? {}).map(([name, property]) => ({
+    name,
+    in: 'query',
+    required: json.required?.includes(name) ?? false,
+    schema: property,
+  }));
+}
+
 const ERROR_RESPONSES = {
   400: 'Bad input; `details` lists the fields',
   401: 'Not signed in',
@@ -30,12 +41,15 @@ export function buildOpenApiDocument(specs: RouteSpec[], version: string): JsonS
   const errorSchema = toJsonSchema(ApiErrorBodySchema, 'output');
   for (const spec of specs) {
     const path = openApiPath(spec.path);
-    const parameters = [...spec.path.matchAll(/:(\w+)/g)].map((m) => ({
-      name: m[1],
-      in: 'path',
-      required: true,
-      schema: { type: 'string' },
-    }));
+    const parameters = [
+      ...[...spec.path.matchAll(/:(\w+)/g)].map((m) => ({
+        name: m[1],
+        in: 'path',
+        required: true,
+        schema: { type: 'string' },
+      })),
+      ...(spec.query ? queryParameters(spec.query) : []),
+    ];
     const status = String(spec.status ?? 200);
     const responses: Record<string, unknown> = {
       [status]: spec.response

@@ -7,7 +7,7 @@ import {
   type RunSplitRow,
   type SourceFileRow,
 } from '../../lib/db.ts';
-import type { ListRunsQuery, RunListItem } from '../../../shared/runs/schemas.ts';
+import type { ListRunsQuery, RunListItem, RunListOrder, RunListSort } from '../../../shared/runs/schemas.ts';
 
 /** The columns a run list item is made of (reading only these skips the track details on long lists). */
 export const RUN_LIST_COLUMNS = [
@@ -144,6 +144,28 @@ export async function findSourceFileById(id: string, trx: Db = db): Promise<Sour
   return trx('source_files').where({ id }).first();
 }
 
+/**
+ * The SQL each list sort orders by (fixed strings, never user input). Pace is null when it has no
+ * meaning (no distance or no moving time), like `pace_s_per_km`; those runs come last either way.
+ */
+const RUN_LIST_ORDER_BY: Record<RunListSort, string> = {
+  date: 'started_at',
+  distance: 'distance_m',
+  duration: 'moving_s',
+  pace: 'case when distance_m > 0 and moving_s > 0 then moving_s / distance_m end',
+};
+
+/**
+ * `id` breaks ties so that every run has one place in the order and paging never repeats or skips one.
+ * Only pace can be null; the other columns get no `nulls last`, which keeps the date order able to
+ * read the (user_id, started_at) index backwards.
+ */
+function runListOrderBy(sort: RunListSort, order: RunListOrder): string {
+  const direction = order === 'asc' ? 'asc' : 'desc';
+  const nulls = sort === 'pace' ? ' nulls last' : '';
+  return `${RUN_LIST_ORDER_BY[sort]} ${direction}${nulls}, id ${direction}`;
+}
+
 export async function listRunsOf(
   userId: string,
   query: ListRunsQuery,
@@ -158,7 +180,7 @@ export async function listRunsOf(
   // The total rides along on every row as a subquery (computed once): one round trip instead of two.
   const rows = (await matching()
     .select(...RUN_LIST_COLUMNS, { total: matching().count('*') })
-    .orderBy('started_at', 'desc')
+    .orderByRaw(runListOrderBy(query.sort, query.order))
     .limit(query.per_page)
     .offset((query.page - 1) * query.per_page)) as Array<RunListRow & { total: string }>;
   if (rows.length > 0) return { rows, total: Number(rows[0]!.total) };

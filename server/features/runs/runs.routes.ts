@@ -106,7 +106,8 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       method: 'get',
       path: '/runs',
       tag: 'runs',
-      summary: 'List runs, newest first, paged, optionally between local dates (from/to) and for a squad runner (runner_id)',
+      summary:
+        'List runs, paged, newest first unless sort (date|distance|duration|pace) and order (asc|desc) say otherwise; optionally between local dates (from/to) and for a squad runner (runner_id)',
       access: 'own-data',
       query: ListRunsQuerySchema,
       response: z.object({ runs: z.array(RunListItemSchema), total: z.number(), page: z.number(), per_page: z.number() }),

@@ -2,6 +2,13 @@ import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { useCallback } from 'react';
 import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { monthBounds, parseYearMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
+import {
+  describeRunListSorting,
+  isDefaultRunListSorting,
+  readRunListSorting,
+  runListPagerLabels,
+  type RunListSorting,
+} from '../../../../shared/runs/list-sort.ts';
 import type { RunPage } from '../../../../shared/runs/types.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
@@ -40,6 +47,18 @@ function readMonth(search: URLSearchParams, newest: RunPage): YearMonth {
   return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? deviceToday().month;
 }
 
+/** The list's order from the address (`?sort=&order=`), so a sorted list survives reloads and shared links. */
+function readSorting(search: URLSearchParams): RunListSorting {
+  return readRunListSorting(search.get('sort'), search.get('order'));
+}
+
+/** The default order is left out of the filters, so page 1 shares its cache entry with `FIRST_PAGE`. */
+const listFilters = (page: number, sorting: RunListSorting) => ({
+  page,
+  per_page: RUNS_PER_PAGE,
+  ...(isDefaultRunListSorting(sorting) ? {} : sorting),
+});
+
 const monthFilters = (month: YearMonth) => ({ page: 1, per_page: MAX_RUNS_PER_PAGE, ...monthBounds(month) });
 
 export const createLoader =
@@ -48,7 +67,7 @@ export const createLoader =
     const search = new URL(request.url).searchParams;
     const [newest] = await Promise.all([
       queryClient.ensureQueryData(runsQueryOptions(FIRST_PAGE)),
-      queryClient.ensureQueryData(runsQueryOptions({ page: readPage(search), per_page: RUNS_PER_PAGE })),
+      queryClient.ensureQueryData(runsQueryOptions(listFilters(readPage(search), readSorting(search)))),
     ]);
     await queryClient.ensureQueryData(runsQueryOptions(monthFilters(readMonth(search, newest))));
     return null;
@@ -59,7 +78,8 @@ export default function LogRoute() {
   const page = readPage(search);
   const profile = useProfile();
   const newest = useRuns(FIRST_PAGE);
-  const list = useRuns({ page, per_page: RUNS_PER_PAGE });
+  const sorting = readSorting(search);
+  const list = useRuns(listFilters(page, sorting));
   const month = readMonth(search, newest);
   const monthRuns = useRuns(monthFilters(month));
   const pages = Math.max(1, Math.ceil(list.total / list.per_page));
@@ -68,7 +88,12 @@ export default function LogRoute() {
   const navigate = useNavigate();
   const queryClient = useQueryClient();
   const refreshRuns = useCallback(() => void queryClient.invalidateQueries({ queryKey: runKeys.lists() }), [queryClient]);
-  const showImport = (id: string) => void navigate(paths.log.getHref({ page, month: monthParam, import: id }), { replace: true });
+  const showImport = (id: string) =>
+    void navigate(paths.log.getHref({ page, month: monthParam, import: id, ...sorting }), { replace: true });
+  // A new order starts again at its first page: page 3 of another order is a different set of runs.
+  const sortRuns = (next: RunListSorting) =>
+    void navigate(paths.log.getHref({ page: 1, month: monthParam, import: importId ?? undefined, ...next }));
+  const pager = runListPagerLabels(sorting);
 
   return (
     <>
@@ -95,15 +120,27 @@ export default function LogRoute() {
         ) : (
           <div className="grid grid-cols-1 gap-4 lg:grid-cols-[minmax(0,5fr)_minmax(0,7fr)] lg:items-start">
             <Card title="Month">
-              <RunsCalendar month={month} runs={monthRuns.runs} unit={profile.unit} today={deviceToday().date} page={page} />
+              <RunsCalendar
+                month={month}
+                runs={monthRuns.runs}
+                unit={profile.unit}
+                today={deviceToday().date}
+                page={page}
+                sorting={sorting}
+              />
             </Card>
-            <Card title="Runs" description={`${list.total} in all, newest first. The headers sort the runs on this page.`}>
-              <RunsTable runs={list.runs} unit={profile.unit} />
+            <Card
+              title="Runs"
+              description={`${list.total} in all, ${describeRunListSorting(sorting)}. The headers sort all your runs, not just this page.`}
+            >
+              <RunsTable runs={list.runs} unit={profile.unit} sorting={sorting} onSortingChange={sortRuns} />
               {pages > 1 && (
                 <nav aria-label="Pages of runs" className="mt-3 flex items-center justify-between gap-2 text-sm">
                   {page > 1 ? (
-                    <LinkButton to={paths.log.getHref({ page: page - 1, month: monthParam, import: importId ?? undefined })}>
-                      ◀ Newer
+                    <LinkButton
+                      to={paths.log.getHref({ page: page - 1, month: monthParam, import: importId ?? undefined, ...sorting })}
+                    >
+                      ◀ {pager.back}
                     </LinkButton>
                   ) : (
                     <span />
@@ -112,8 +149,10 @@ export default function LogRoute() {
                     Page {page} of {pages}
                   </span>
                   {page < pages ? (
-                    <LinkButton to={paths.log.getHref({ page: page + 1, month: monthParam, import: importId ?? undefined })}>
-                      Older ▶
+                    <LinkButton
+                      to={paths.log.getHref({ page: page + 1, month: monthParam, import: importId ?? undefined, ...sorting })}
+                    >
+                      {pager.forward} ▶
                     </LinkButton>
                   ) : (
                     <span />

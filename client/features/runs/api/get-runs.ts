@@ -12,6 +12,8 @@ export async function getRuns(filters: RunListFilters): Promise<RunPage> {
   const params = new URLSearchParams({ page: String(filters.page), per_page: String(filters.per_page) });
   if (filters.from) params.set('from', filters.from);
   if (filters.to) params.set('to', filters.to);
+  if (filters.sort) params.set('sort', filters.sort);
+  if (filters.order) params.set('order', filters.order);
   return api.get<RunPage>(`/runs?${params}`);
 }
 

@@ -1,4 +1,14 @@
-export type RunListFilters = { page: number; per_page: number; from?: string; to?: string };
+import type { RunListOrder, RunListSort } from '../../../../shared/runs/schemas.ts';
+
+/** The sort and order are part of the key: each order of the list is its own cached set of pages. */
+export type RunListFilters = {
+  page: number;
+  per_page: number;
+  from?: string;
+  to?: string;
+  sort?: RunListSort;
+  order?: RunListOrder;
+};
 
 export const runKeys = {
   all: ['runs'] as const,

@@ -7,6 +7,7 @@ import {
   type YearMonth,
 } from '../../../../shared/runs/calendar.ts';
 import { formatDistance } from '../../../../shared/runs/display.ts';
+import type { RunListSorting } from '../../../../shared/runs/list-sort.ts';
 import type { RunListItem } from '../../../../shared/runs/schemas.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { paths } from '../../../config/paths.ts';
@@ -22,10 +23,11 @@ type RunsCalendarProps = {
   today: string;
   /** Other search parameters of the page to keep when changing month. */
   page: number;
+  sorting?: RunListSorting;
 };
 
 /** A month, Monday first: each day its distance linked to its run(s), and each week's total. No coloured cells. */
-export function RunsCalendar({ month, runs, unit, today, page }: RunsCalendarProps) {
+export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCalendarProps) {
   const byDate = new Map<string, RunListItem[]>();
   for (const run of runs) byDate.set(run.local_date, [...(byDate.get(run.local_date) ?? []), run]);
   const weeks = monthWeeks(month);
@@ -37,7 +39,7 @@ export function RunsCalendar({ month, runs, unit, today, page }: RunsCalendarPro
     <div className="flex flex-col gap-2">
       <div className="flex items-center gap-2">
         <Link
-          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, -1)), page })}
+          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, -1)), page, ...sorting })}
           className={nav}
           aria-label="Previous month"
         >
@@ -47,7 +49,7 @@ export function RunsCalendar({ month, runs, unit, today, page }: RunsCalendarPro
           {title}
         </h3>
         <Link
-          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, 1)), page })}
+          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, 1)), page, ...sorting })}
           className={nav}
           aria-label="Next month"
         >

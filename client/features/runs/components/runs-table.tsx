@@ -1,7 +1,8 @@
-import { createColumnHelper, useTable } from '@tanstack/react-table';
+import { createColumnHelper, functionalUpdate, useTable, type SortingState, type Updater } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
 import { formatDistance, formatLocalDate, pacePerUnit } from '../../../../shared/runs/display.ts';
-import type { RunListItem } from '../../../../shared/runs/schemas.ts';
+import type { RunListSorting } from '../../../../shared/runs/list-sort.ts';
+import type { RunListItem, RunListSort } from '../../../../shared/runs/schemas.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { DataTable } from '../../../components/ui/data-table.tsx';
@@ -58,9 +59,45 @@ const COLUMNS = helper.columns([
   }),
 ]);
 
-/** One page of runs, newest first as the server sends them; the headers re-sort this page. */
-export function RunsTable({ runs, unit }: { runs: RunListItem[]; unit: Unit }) {
+/** The column that shows each of the API's sorts. */
+const SORT_COLUMNS: Record<RunListSort, string> = {
+  date: 'when',
+  distance: 'distance_m',
+  duration: 'moving_s',
+  pace: 'pace_s_per_km',
+};
+
+function sortOfColumn(columnId: string): RunListSort | undefined {
+  return (Object.keys(SORT_COLUMNS) as RunListSort[]).find((sort) => SORT_COLUMNS[sort] === columnId);
+}
+
+type RunsTableProps = {
+  runs: RunListItem[];
+  unit: Unit;
+  /** The order the server sent this page in (over all runs, not just this page). */
+  sorting: RunListSorting;
+  /** A header click: the page asks the server for the runs in the new order. */
+  onSortingChange: (sorting: RunListSorting) => void;
+};
+
+/** One page of runs in the server's order; the headers re-order all runs, so the table never sorts rows itself. */
+export function RunsTable({ runs, unit, sorting, onSortingChange }: RunsTableProps) {
   const data = runs.map((run) => ({ ...run, unit, when: `${run.local_date} ${run.local_time}` }));
-  const table = useTable({ features: sortableTableFeatures, columns: COLUMNS, data });
+  const tableSorting: SortingState = [{ id: SORT_COLUMNS[sorting.sort], desc: sorting.order === 'desc' }];
+  const changeSorting = (updater: Updater<SortingState>) => {
+    const [next] = functionalUpdate(updater, tableSorting);
+    const sort = next && sortOfColumn(next.id);
+    if (sort) onSortingChange({ sort, order: next.desc ? 'desc' : 'asc' });
+  };
+  const table = useTable({
+    features: sortableTableFeatures,
+    columns: COLUMNS,
+    data,
+    manualSorting: true,
+    enableSortingRemoval: false,
+    enableMultiSort: false,
+    state: { sorting: tableSorting },
+    onSortingChange: changeSorting,
+  });
   return <DataTable table={table} caption="Your runs" minWidth="min-w-xl" />;
 }
