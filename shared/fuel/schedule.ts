@@ -446,6 +446,23 @@ function summariseBottle(bottle: Bottle, items: ReadonlyMap<string, FuelItemFact
   };
 }
 
+/** The concentrations of a bottle that a drink from it carries (a `BottleSummary` has them). */
+export type BottleMixFacts = Pick<BottleSummary, 'carbohydrate_pct' | 'sodium_mg_per_l' | 'caffeine_mg_per_l'>;
+
+/**
+ * What `ml` drunk from a bottle carries: the millilitres as fluid and the bottle's carbohydrate, sodium and caffeine
+ * in proportion (half the bottle, half of each). Used for planned drinks and for drinks ticked off after the run.
+ */
+export function bottleDrinkAmounts(bottle: BottleMixFacts, ml: number): Amounts {
+  const litres = ml / 1000;
+  return {
+    carbohydrate_g: bottle.carbohydrate_pct * 10 * litres,
+    fluid_ml: ml,
+    sodium_mg: bottle.sodium_mg_per_l * litres,
+    caffeine_mg: bottle.caffeine_mg_per_l * litres,
+  };
+}
+
 /**
  * Builds the schedule: every rule's points on the course (distance rules placed by the planned paces), each intake's
  * amounts, bottle refills (a drink that needs more than is left in its bottle starts a fresh one), and per clock
@@ -483,13 +500,7 @@ export function buildSchedule(input: ScheduleInput): FuelSchedule {
       const ml = rule.ml ?? 0;
       assertPositive(ml, 'Give the millilitres of each drink.', `${field}.ml`);
       if (ml > bottle.volume_ml) throw new FuelPlanError('A drink cannot be more than the bottle holds.', `${field}.ml`);
-      const litres = ml / 1000;
-      amounts = {
-        carbohydrate_g: bottle.carbohydrate_pct * 10 * litres,
-        fluid_ml: ml,
-        sodium_mg: bottle.sodium_mg_per_l * litres,
-        caffeine_mg: bottle.caffeine_mg_per_l * litres,
-      };
+      amounts = bottleDrinkAmounts(bottle, ml);
       label = `bottle ${bottle.id}, ${ml} ml`;
     } else {
       throw new FuelPlanError('Each intake is either a fuel item or a drink from a bottle.', field);

@@ -250,8 +250,17 @@ export const TakenEntrySchema = z.discriminatedUnion(
         time_s: SecondsSchema.nullable().default(null),
       })
       .strict(),
+    // A drink from one of the bottles of the run's fuel plan: it carries the bottle's mix in proportion.
+    z
+      .object({
+        kind: z.literal('drink'),
+        bottle: BottleIdSchema,
+        fluid_ml: z.number({ error: 'Give the millilitres.' }).min(1, 'At least 1 ml.').max(2000, 'At most 2000 ml at a time.'),
+        time_s: SecondsSchema.nullable().default(null),
+      })
+      .strict(),
   ],
-  { error: 'An entry is a fuel item (kind "item") or plain water (kind "water").' },
+  { error: 'An entry is a fuel item (kind "item"), plain water (kind "water") or a drink from a planned bottle (kind "drink").' },
 );
 export type TakenEntryInput = z.infer<typeof TakenEntrySchema>;
 

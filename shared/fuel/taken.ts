@@ -1,11 +1,13 @@
-import type { Amounts, FuelItemFacts } from './schedule.ts';
+import { bottleDrinkAmounts, type Amounts, type BottleSummary, type FuelItemFacts } from './schedule.ts';
 
 /** What was actually taken during a run, and how it compares with the fuel plan hour by hour. */
 
 /** One recorded intake with what it carried (a snapshot: later edits of the item do not rewrite history). */
 export interface TakenEntry extends Amounts {
-  kind: 'item' | 'water';
+  kind: 'item' | 'water' | 'drink';
   item_id: string | null;
+  /** The plan's bottle a drink came from (drink entries only). */
+  bottle?: string;
   name: string;
   servings: number | null;
   /** Seconds from the start; null when the runner did not say. */
@@ -14,19 +16,61 @@ export interface TakenEntry extends Amounts {
 
 export type TakenEntryInput =
   | { kind: 'item'; item_id: string; servings: number; time_s: number | null }
-  | { kind: 'water'; fluid_ml: number; time_s: number | null };
+  | { kind: 'water'; fluid_ml: number; time_s: number | null }
+  | { kind: 'drink'; bottle: string; fluid_ml: number; time_s: number | null };
+
+/** A bottle of the run's fuel plan, as its schedule summarises it. */
+export type PlannedBottle = Pick<
+  BottleSummary,
+  'id' | 'volume_ml' | 'carbohydrate_pct' | 'sodium_mg_per_l' | 'caffeine_mg_per_l'
+>;
+
+/** Why an entry cannot be resolved: its index, the field to blame and a sentence for the runner. */
+export interface TakenEntryProblem {
+  ok: false;
+  index: number;
+  field: 'item_id' | 'bottle' | 'fluid_ml';
+  message: string;
+}
+
+const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
 /**
- * Resolves entries against the runner's fuel items: an item entry carries the item's amounts × servings, water only
- * its millilitres. Returns the index of the first entry whose item is unknown as `unknown`.
+ * Resolves entries against the runner's fuel items and the bottles of the run's fuel plan: an item entry carries the
+ * item's amounts × servings, water only its millilitres, and a drink its millilitres with the bottle's carbohydrate,
+ * sodium and caffeine in proportion (the plan's own bottle-drink computation). Returns the first entry that names an
+ * unknown item or bottle, or drinks more than the bottle holds, as a problem.
  */
 export function resolveTakenEntries(
   entries: readonly TakenEntryInput[],
   items: readonly FuelItemFacts[],
-): { ok: true; entries: TakenEntry[] } | { ok: false; unknown: number } {
+  bottles: readonly PlannedBottle[] = [],
+): { ok: true; entries: TakenEntry[] } | TakenEntryProblem {
   const byId = new Map(items.map((i) => [i.id, i]));
+  const bottleById = new Map(bottles.map((b) => [b.id, b]));
   const out: TakenEntry[] = [];
   for (const [index, e] of entries.entries()) {
+    if (e.kind === 'drink') {
+      const bottle = bottleById.get(e.bottle);
+      if (!bottle)
+        return { ok: false, index, field: 'bottle', message: "There is no bottle with this name in the run's fuel plan." };
+      if (e.fluid_ml > bottle.volume_ml)
+        return { ok: false, index, field: 'fluid_ml', message: 'A drink cannot be more than the bottle holds.' };
+      const a = bottleDrinkAmounts(bottle, e.fluid_ml);
+      out.push({
+        kind: 'drink',
+        item_id: null,
+        bottle: bottle.id,
+        name: `bottle ${bottle.id}`,
+        servings: null,
+        time_s: e.time_s,
+        carbohydrate_g: round3(a.carbohydrate_g),
+        fluid_ml: round3(a.fluid_ml),
+        sodium_mg: round3(a.sodium_mg),
+        caffeine_mg: round3(a.caffeine_mg),
+      });
+      continue;
+    }
     if (e.kind === 'water') {
       out.push({
         kind: 'water',
@@ -42,7 +86,7 @@ export function resolveTakenEntries(
       continue;
     }
     const item = byId.get(e.item_id);
-    if (!item) return { ok: false, unknown: index };
+    if (!item) return { ok: false, index, field: 'item_id', message: 'There is no fuel item with this id.' };
     out.push({
       kind: 'item',
       item_id: item.id,

@@ -405,7 +405,73 @@ describe('fuel taken and check-in on a run', () => {
     expect(await count('fuel_taken')).toBe(1);
   });
 
+  it("ticks off planned bottle drinks: each carries its share of the bottle's mix in the hour it was drunk", async () => {
+    const { app, runner, gel, runId } = await setUp();
+    const plan = (await request(app).get(`/api/runs/${runId}/fuel-taken`).set(runner.auth)).body.planned_vs_taken;
+    const planId = (await db('fuel_plans').where({ id: plan.fuel_plan_id }).first())!.plan_id as string;
+    // Bottle A: 500 ml with two gels (50 g carbohydrate, 100 mg sodium); 250 ml at 0:30 and at 1:10.
+    const saved = await request(app)
+      .put(`/api/plans/${planId}/fuel-plan`)
+      .set(runner.auth)
+      .send({
+        body_mass_kg: 70,
+        easy_pace_s_per_km: EIGHT_PER_MILE,
+        expected_duration_s: 5400,
+        bottles: [{ id: 'A', volume_ml: 500, contents: [{ item_id: gel, servings: 2 }] }],
+        intakes: [{ bottle: 'A', ml: 250, when: { type: 'at_times', at_s: [1800, 4200] } }],
+      });
+    expect(saved.status).toBe(200);
+
+    const res = await request(app)
+      .put(`/api/runs/${runId}/fuel-taken`)
+      .set(runner.auth)
+      .send({
+        entries: [
+          { kind: 'drink', bottle: 'A', fluid_ml: 250, time_s: 1800 },
+          // Only half of the second drink went down.
+          { kind: 'drink', bottle: 'A', fluid_ml: 125, time_s: 4300 },
+        ],
+      });
+    expect(res.status).toBe(200);
+    expect(res.body.fuel_taken.entries[1]).toMatchObject({
+      kind: 'drink',
+      bottle: 'A',
+      name: 'bottle A',
+      fluid_ml: 125,
+      carbohydrate_g: 12.5,
+      sodium_mg: 25,
+    });
+    const hours = res.body.planned_vs_taken.hours.map(
+      (h: { planned: { carbohydrate_g: number; fluid_ml: number }; taken: { carbohydrate_g: number; fluid_ml: number } }) => [
+        h.planned.fluid_ml,
+        h.taken.fluid_ml,
+        h.planned.carbohydrate_g,
+        h.taken.carbohydrate_g,
+      ],
+    );
+    expect(hours).toEqual([
+      [250, 250, 25, 25],
+      [250, 125, 25, 12.5],
+    ]);
+    // Fluid and sodium numbers keep their cautions.
+    expect(res.body.cautions.map((c: { topic: string }) => c.topic)).toEqual(['fluid', 'sodium']);
+  });
+
+  it('refuses a drink from a bottle the fuel plan does not have, and stores nothing', async () => {
+    const { app, runner, runId } = await setUp();
+    const res = await request(app)
+      .put(`/api/runs/${runId}/fuel-taken`)
+      .set(runner.auth)
+      .send({ entries: [{ kind: 'drink', bottle: 'A', fluid_ml: 200, time_s: 600 }] });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual([
+      { field: 'entries.0.bottle', message: "There is no bottle with this name in the run's fuel plan." },
+    ]);
+    expect(await count('fuel_taken')).toBe(0);
+  });
+
   it.each([
+    [{ entries: [{ kind: 'drink', bottle: 'A', fluid_ml: 0 }] }, 'entries.0.fluid_ml'],
     [{ entries: [{ kind: 'item', item_id: '7a4a1f5e-2f0b-4e4c-8d7e-3c1f9b0a6d21', servings: 1 }] }, 'entries.0.item_id'],
     [{ entries: [{ kind: 'water', fluid_ml: -100 }] }, 'entries.0.fluid_ml'],
     [{ entries: [], stomach: 6 }, 'stomach'],

@@ -80,7 +80,7 @@ function writeLongRunFile(date: string): string {
 }
 
 describe('Fuel', () => {
-  it('adds a fuel item, plans a gel every 5 miles on a long run, prints it, uploads the run and records fuel taken against the plan and a check-in', async () => {
+  it('adds a fuel item, plans a gel every 5 miles and a bottle drink on a long run, prints it, uploads the run and records fuel taken against the plan and a check-in', async () => {
     await browser.context.clearCookies();
     const page = await browser.context.newPage();
     await page.goto(`${server.url}/sign-in?next=%2Ftools`);
@@ -125,6 +125,17 @@ describe('Fuel', () => {
     await intake.getByLabel('When, intake 1').selectOption('every_distance');
     await intake.getByLabel('Unit, intake 1').selectOption('mi');
     await intake.getByLabel('Every (mi), intake 1').fill('5');
+    // Bottle A: 500 ml with one gel mixed in (25 g carbohydrate), 200 ml drunk at 0:30.
+    await form.getByRole('button', { name: 'Add a bottle' }).click();
+    const bottle = form.getByRole('group', { name: 'Bottle 1' });
+    await bottle.getByRole('button', { name: 'Mix in an item' }).click();
+    await expect.poll(() => bottle.getByText('25 g carbohydrate', { exact: false }).count()).toBe(1);
+    await form.getByRole('button', { name: 'Add an intake' }).click();
+    const drink = form.getByRole('group', { name: 'Intake 2' });
+    await drink.getByLabel('What, intake 2').selectOption({ label: 'a drink from bottle A' });
+    await drink.getByLabel('Ml each, intake 2').fill('200');
+    await drink.getByLabel('When, intake 2').selectOption('at_times');
+    await drink.getByLabel('At (h:mm, separated by commas), intake 2').fill('0:30');
     await form.getByRole('button', { name: 'Save and compute the schedule' }).click();
     await expect.poll(() => page.getByRole('status').filter({ hasText: 'Fuel plan saved.' }).count()).toBe(1);
 
@@ -183,13 +194,25 @@ describe('Fuel', () => {
     // The planned intakes come after the run's fuel-taken answer names the fuel plan: allow for the extra requests.
     await expect.poll(() => firstGel.count(), { timeout: 10_000 }).toBe(1);
     await firstGel.check();
+    // The planned drink is ticked off too; only half of it went down.
+    const plannedDrink = taken.getByRole('checkbox', { name: /^bottle A, 200 ml at mi .* \(0:30:00\)$/ });
+    await plannedDrink.check();
+    expect(await taken.getByLabel('Time, entry 2').inputValue()).toBe('0:30');
+    expect(await taken.getByLabel('Ml, entry 2').inputValue()).toBe('200');
+    await taken.getByLabel('Ml, entry 2').fill('100');
     await taken.getByLabel('Stomach (1–5)').selectOption('4');
     await taken.getByLabel('Energy (1–5)').selectOption('3');
     await taken.getByRole('button', { name: 'Save fuel taken' }).click();
     await expect.poll(() => page.getByRole('status').filter({ hasText: 'Fuel taken saved.' }).count()).toBe(1);
     const versus = page.getByRole('table', { name: 'Planned and taken per hour' });
     const whole = versus.getByRole('row', { name: /^whole run/ });
-    await expect.poll(() => whole.getByRole('cell').nth(1).textContent()).toBe('25');
+    // Taken: the gel's 25 g and half the drink's 10 g; the drink's 100 ml in the first hour.
+    await expect.poll(() => whole.getByRole('cell').nth(1).textContent()).toBe('30');
+    const firstHour = versus.getByRole('row', { name: /^0:00–1:00/ });
+    await expect.poll(() => firstHour.getByRole('cell').nth(2).textContent()).toBe('200');
+    await expect.poll(() => firstHour.getByRole('cell').nth(3).textContent()).toBe('100');
+    // The fluid and sodium numbers keep their cautions on the run page.
+    await expect.poll(() => page.getByRole('region', { name: 'Cautions' }).getByText('Drink to thirst').count()).toBe(1);
 
     // The after-run check-in: the cold-water caution shows as soon as cold water is entered.
     const checkin = page.getByRole('form', { name: 'After-run check-in' });

@@ -362,10 +362,13 @@ export async function putFuelTaken(actor: Actor, runId: string, input: FuelTaken
   const run = await ownRun(actor, runId);
   const ids = [...new Set(input.entries.flatMap((e) => (e.kind === 'item' ? [e.item_id] : [])))];
   const items = (await findFuelItemsByIds(actor.id, ids)).map(toFuelItem);
-  const resolved = resolveTakenEntries(input.entries, items);
+  // Drinks are resolved against the bottles of the fuel plan the run rehearsed; no plan, no bottles to name.
+  const plan = input.entries.some((e) => e.kind === 'drink') ? await fuelPlanOfRun(run) : null;
+  const bottles = plan ? (plan.schedule as StoredSchedule).schedule.bottles : [];
+  const resolved = resolveTakenEntries(input.entries, items, bottles);
   if (!resolved.ok) {
-    const field = `entries.${resolved.unknown}.item_id`;
-    throw new ValidationError('There is no fuel item with this id.', [{ field, message: 'There is no fuel item with this id.' }]);
+    const field = `entries.${resolved.index}.${resolved.field}`;
+    throw new ValidationError(resolved.message, [{ field, message: resolved.message }]);
   }
   await upsertFuelTaken(run.id, { entries: resolved.entries, stomach: input.stomach, energy: input.energy, notes: input.notes });
   return fuelTakenView(run);

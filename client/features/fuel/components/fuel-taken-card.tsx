@@ -19,8 +19,10 @@ import { FuelCautions } from './fuel-cautions.tsx';
 
 type EntryDraft = {
   key: number;
-  kind: 'item' | 'water';
+  kind: 'item' | 'water' | 'drink';
   itemId: string;
+  /** The plan's bottle a drink came from. */
+  bottle: string;
   name: string;
   amount: string;
   time: string;
@@ -37,16 +39,28 @@ function entryDraft(e: TakenEntry, planned: number | null): EntryDraft {
     key: nextKey++,
     kind: e.kind,
     itemId: e.item_id ?? '',
+    bottle: e.bottle ?? '',
     name: e.name,
-    amount: String(e.kind === 'water' ? e.fluid_ml : (e.servings ?? 1)),
+    amount: String(e.kind === 'item' ? (e.servings ?? 1) : e.fluid_ml),
     time: e.time_s === null ? '' : formatHoursMinutes(e.time_s),
     planned,
   };
 }
 
-/** The planned intakes a runner can tick off: items taken by hand (bottle drinks are recorded as water or extra items). */
-function plannedItems(plan: FuelPlan | undefined) {
-  return (plan?.schedule.intakes ?? []).flatMap((x, index) => (x.item_id ? [{ ...x, index }] : []));
+/** The planned intakes a runner can tick off: items taken by hand and drinks from the plan's bottles. */
+function plannedIntakes(plan: FuelPlan | undefined) {
+  return (plan?.schedule.intakes ?? []).flatMap((x, index) => (x.item_id || x.bottle ? [{ ...x, index }] : []));
+}
+
+/** Whether a recorded entry is the planned intake `p` (same item or bottle, within a minute of its time). */
+function isPlannedEntry(p: ReturnType<typeof plannedIntakes>[number], e: TakenEntry): boolean {
+  const same = e.kind === 'drink' ? p.bottle !== null && p.bottle === e.bottle : p.item_id !== null && p.item_id === e.item_id;
+  return same && e.time_s !== null && Math.abs(p.time_s - e.time_s) < 60;
+}
+
+/** The amount field of an entry: millilitres for water and drinks, servings for items. */
+function amountWord(kind: EntryDraft['kind']): 'ml' | 'servings' {
+  return kind === 'item' ? 'servings' : 'ml';
 }
 
 function AmountsRow({ label, a, b }: { label: string; a: Amounts; b: Amounts }) {
@@ -137,7 +151,7 @@ function ReadOnly({ view }: { view: FuelTakenView }) {
         {taken.entries.map((e, i) => (
           <li key={i}>
             {e.time_s === null ? 'no time' : formatHoursMinutes(e.time_s)} ·{' '}
-            {e.kind === 'water' ? `water ${formatAmount(e.fluid_ml)} ml` : `${e.name} ×${e.servings}`}
+            {e.kind === 'item' ? `${e.name} ×${e.servings}` : `${e.name} ${formatAmount(e.fluid_ml)} ml`}
           </li>
         ))}
       </ul>
@@ -158,12 +172,9 @@ type FuelTakenFormProps = {
 };
 
 function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
-  const planned = plannedItems(plan);
+  const planned = plannedIntakes(plan);
   const [entries, setEntries] = useState<EntryDraft[]>(() =>
-    (view.fuel_taken?.entries ?? []).map((e) => {
-      const match = planned.find((p) => p.item_id === e.item_id && e.time_s !== null && Math.abs(p.time_s - e.time_s) < 60);
-      return entryDraft(e, match?.index ?? null);
-    }),
+    (view.fuel_taken?.entries ?? []).map((e) => entryDraft(e, planned.find((p) => isPlannedEntry(p, e))?.index ?? null)),
   );
   const [stomach, setStomach] = useState(String(view.fuel_taken?.stomach ?? ''));
   const [energy, setEnergy] = useState(String(view.fuel_taken?.energy ?? ''));
@@ -180,15 +191,28 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
       on
         ? [
             ...es,
-            {
-              key: nextKey++,
-              kind: 'item',
-              itemId: p.item_id!,
-              name: p.label,
-              amount: String(p.servings ?? 1),
-              time: formatHoursMinutes(p.time_s),
-              planned: p.index,
-            },
+            // A drink is recorded by the ml from its bottle (editable: half a drink is half of each nutrient).
+            p.bottle !== null
+              ? {
+                  key: nextKey++,
+                  kind: 'drink',
+                  itemId: '',
+                  bottle: p.bottle,
+                  name: `bottle ${p.bottle}`,
+                  amount: String(p.ml ?? ''),
+                  time: formatHoursMinutes(p.time_s),
+                  planned: p.index,
+                }
+              : {
+                  key: nextKey++,
+                  kind: 'item',
+                  itemId: p.item_id!,
+                  bottle: '',
+                  name: p.label,
+                  amount: String(p.servings ?? 1),
+                  time: formatHoursMinutes(p.time_s),
+                  planned: p.index,
+                },
           ]
         : es.filter((e) => e.planned !== p.index),
     );
@@ -204,6 +228,7 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
         key: nextKey++,
         kind: isWater ? 'water' : 'item',
         itemId: item?.id ?? '',
+        bottle: '',
         name: isWater ? 'water' : (item?.name ?? ''),
         amount: extra.amount,
         time: extra.time,
@@ -218,11 +243,12 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
     setSaved(false);
     const time = (t: string) => (t.trim() === '' ? null : (parseRunTime(t) ?? Number.NaN));
     const parsed = FuelTakenInputSchema.safeParse({
-      entries: entries.map((e) =>
-        e.kind === 'water'
-          ? { kind: 'water', fluid_ml: readNumber(e.amount) ?? Number.NaN, time_s: time(e.time) }
-          : { kind: 'item', item_id: e.itemId, servings: readNumber(e.amount) ?? Number.NaN, time_s: time(e.time) },
-      ),
+      entries: entries.map((e) => {
+        const amount = readNumber(e.amount) ?? Number.NaN;
+        if (e.kind === 'water') return { kind: 'water', fluid_ml: amount, time_s: time(e.time) };
+        if (e.kind === 'drink') return { kind: 'drink', bottle: e.bottle, fluid_ml: amount, time_s: time(e.time) };
+        return { kind: 'item', item_id: e.itemId, servings: amount, time_s: time(e.time) };
+      }),
       stomach: stomach === '' ? null : Number(stomach),
       energy: energy === '' ? null : Number(energy),
       notes,
@@ -264,11 +290,11 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
           <div key={e.key} className="grid grid-cols-[1fr_5rem_5rem_auto] items-end gap-2 text-sm">
             <span className="pb-2 font-semibold">{e.kind === 'water' ? 'water' : e.name}</span>
             <label className="flex flex-col gap-1">
-              <span className="text-xs">{e.kind === 'water' ? 'ml' : 'servings'}</span>
+              <span className="text-xs">{amountWord(e.kind)}</span>
               <input
                 className={small}
                 inputMode="decimal"
-                aria-label={`${e.kind === 'water' ? 'Ml' : 'Servings'}, entry ${i + 1}`}
+                aria-label={`${amountWord(e.kind) === 'ml' ? 'Ml' : 'Servings'}, entry ${i + 1}`}
                 value={e.amount}
                 onChange={(ev) => setEntries(entries.map((x) => (x.key === e.key ? { ...x, amount: ev.target.value } : x)))}
               />

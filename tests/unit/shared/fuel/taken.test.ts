@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import type { FuelItemFacts } from '../../../../shared/fuel/schedule.ts';
+import { buildSchedule, courseFromRace, type FuelItemFacts } from '../../../../shared/fuel/schedule.ts';
 import { comparePlannedWithTaken, resolveTakenEntries } from '../../../../shared/fuel/taken.ts';
+import { proposeTargets } from '../../../../shared/fuel/targets.ts';
 
 const GEL: FuelItemFacts = {
   id: 'gel',
@@ -62,8 +63,71 @@ describe('resolveTakenEntries', () => {
       ),
     ).toEqual({
       ok: false,
-      unknown: 1,
+      index: 1,
+      field: 'item_id',
+      message: 'There is no fuel item with this id.',
     });
+  });
+
+  // 500 ml with 60 g carbohydrate, 400 mg sodium and 100 mg caffeine mixed in.
+  const BOTTLE = { id: 'A', volume_ml: 500, carbohydrate_pct: 12, sodium_mg_per_l: 800, caffeine_mg_per_l: 200 };
+
+  it('a drink from a planned bottle carries its share of the mix: half the bottle, half of each', () => {
+    const half = resolveTakenEntries([{ kind: 'drink', bottle: 'A', fluid_ml: 250, time_s: 1800 }], [], [BOTTLE]);
+    expect(half).toEqual({
+      ok: true,
+      entries: [
+        {
+          kind: 'drink',
+          item_id: null,
+          bottle: 'A',
+          name: 'bottle A',
+          servings: null,
+          time_s: 1800,
+          carbohydrate_g: 30,
+          fluid_ml: 250,
+          sodium_mg: 200,
+          caffeine_mg: 50,
+        },
+      ],
+    });
+    const whole = resolveTakenEntries([{ kind: 'drink', bottle: 'A', fluid_ml: 500, time_s: null }], [], [BOTTLE]);
+    expect(whole.ok && whole.entries[0]).toMatchObject({ carbohydrate_g: 60, fluid_ml: 500, sodium_mg: 400, caffeine_mg: 100 });
+  });
+
+  it('a ticked drink carries what the same drink carries in the plan', () => {
+    const powder: FuelItemFacts = { ...GEL, id: 'powder', name: 'drink powder', carbohydrate_g: 30, sodium_mg: 300 };
+    const schedule = buildSchedule({
+      course: courseFromRace(10_000, 3600),
+      items: [powder],
+      bottles: [{ id: 'A', volume_ml: 500, contents: [{ item_id: 'powder', servings: 1 }] }],
+      intakes: [{ bottle: 'A', ml: 150, when: { type: 'at_times', at_s: [1200] } }],
+      targets: proposeTargets({ duration_s: 3600, body_mass_kg: 60 }),
+    });
+    const planned = schedule.intakes[0]!;
+    const taken = resolveTakenEntries([{ kind: 'drink', bottle: 'A', fluid_ml: 150, time_s: 1200 }], [], schedule.bottles);
+    expect(taken.ok && taken.entries[0]).toMatchObject({
+      carbohydrate_g: planned.carbohydrate_g,
+      fluid_ml: planned.fluid_ml,
+      sodium_mg: planned.sodium_mg,
+      caffeine_mg: planned.caffeine_mg,
+    });
+    expect(planned).toMatchObject({ carbohydrate_g: 9, sodium_mg: 90 });
+  });
+
+  it.each([
+    [
+      { kind: 'drink' as const, bottle: 'Z', fluid_ml: 100, time_s: 0 },
+      'bottle',
+      "There is no bottle with this name in the run's fuel plan.",
+    ],
+    [
+      { kind: 'drink' as const, bottle: 'A', fluid_ml: 501, time_s: 0 },
+      'fluid_ml',
+      'A drink cannot be more than the bottle holds.',
+    ],
+  ])('refuses drink %j', (entry, field, message) => {
+    expect(resolveTakenEntries([entry], [], [BOTTLE])).toEqual({ ok: false, index: 0, field, message });
   });
 });
 
