@@ -52,6 +52,9 @@ export async function findPlanById(id: string, trx: Db = db): Promise<SessionPla
   return trx('session_plans').where({ id }).first();
 }
 
+/** Plans in date order, then as written; id settles ties so every list agrees. */
+const PLAN_ORDER = [{ column: 'date' }, { column: 'created_at' }, { column: 'id' }];
+
 export async function listPlans(
   runnerId: string,
   from: string | undefined,
@@ -61,7 +64,7 @@ export async function listPlans(
   const query = trx('session_plans').where({ runner_id: runnerId });
   if (from) query.andWhere('date', '>=', from);
   if (to) query.andWhere('date', '<=', to);
-  return query.orderBy([{ column: 'date' }, { column: 'created_at' }, { column: 'id' }]);
+  return query.orderBy(PLAN_ORDER);
 }
 
 /** Several runners' plans between two dates (inclusive), in the order `listPlans` gives one runner's. */
@@ -76,7 +79,7 @@ export async function listPlansOf(
     .whereIn('runner_id', runnerIds)
     .andWhere('date', '>=', from)
     .andWhere('date', '<=', to)
-    .orderBy([{ column: 'date' }, { column: 'created_at' }, { column: 'id' }]);
+    .orderBy(PLAN_ORDER);
 }
 
 export async function updatePlan(
@@ -118,7 +121,7 @@ export async function findPlansForRuns(
       if (ids.length) q.whereIn('id', ids);
       if (runnerIds.length && dates.length) q.orWhere((day) => day.whereIn('runner_id', runnerIds).whereIn('date', dates));
     })
-    .orderBy([{ column: 'date' }, { column: 'created_at' }, { column: 'id' }]);
+    .orderBy(PLAN_ORDER);
 }
 
 export async function findRunPlanLinks(runIds: readonly string[], trx: Db = db): Promise<RunPlanLinkRow[]> {
