@@ -11,6 +11,8 @@ export default defineConfig({
   server: { proxy: { '/api': `http://127.0.0.1:${API_PORT}` } },
   test: {
     root: '.',
+    // A stray `.only` fails the run instead of quietly running one test (the lint rule catches it first).
+    allowOnly: false,
     projects: [
       { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
       {

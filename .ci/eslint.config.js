@@ -49,5 +49,19 @@ export default tseslint.config(
       ],
     },
   },
+  {
+    // `.only` would silently narrow CI to one test; `.skip`/`.todo` would let a test stop counting.
+    files: ['tests/**/*.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector:
+            "CallExpression[callee.type='MemberExpression'][callee.object.name=/^(describe|it|test|bench)$/][callee.property.name=/^(only|skip|skipIf|runIf|todo)$/]",
+          message: 'Focused or skipped tests never reach main: every test runs in CI.',
+        },
+      ],
+    },
+  },
   { files: ['client/**/*.tsx', 'client/**/*.ts'], ...reactHooks.configs.flat['recommended-latest'] },
 );

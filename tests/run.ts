@@ -75,6 +75,8 @@ const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-test-data-'));
 mkdirSync(resultsDir, { recursive: true });
 let passed = 0;
 let failed = failedChecks;
+// Skipped and todo tests are reported; CI runs every test, so any of them fails the run.
+let pending = 0;
 
 try {
   for (const layer of layers) {
@@ -109,6 +111,7 @@ try {
     };
     renameSync(outputFile, path.join(resultsDir, `vitest-${layer}.json`)); // the latest report keeps the usual name
     passed += report.numPassedTests;
+    pending += report.numPendingTests + report.numTodoTests;
     // Tests that never finished (a worker that ran out of memory or crashed) count as failed too.
     const unfinished =
       report.numTotalTests - report.numPassedTests - report.numFailedTests - report.numPendingTests - report.numTodoTests;
@@ -127,5 +130,6 @@ try {
 }
 
 if (failedChecks) console.log(`\n${failedChecks} static check(s) failed (counted as failures).`);
-console.log(`\n${passed} passed, ${failed} failed`);
-process.exit(failed === 0 ? 0 : 1);
+if (pending) console.log(`\n${pending} test(s) skipped or todo (counted as failures: every test runs in CI).`);
+console.log(`\n${passed} passed, ${failed + pending} failed, ${pending} skipped`);
+process.exit(failed + pending === 0 ? 0 : 1);
