@@ -12,8 +12,13 @@ export interface AppConfig {
   sessionDays: number;
   apiTokenDays: number;
   bcryptCost: number;
-  /** Sign-in and sign-up attempts per IP per window; lowered in tests. */
+  /**
+   * Per address and window: failed password checks (credential-limiter.ts), and sign-ups and
+   * reset requests (every one); raised in tests.
+   */
   authRateLimit: { windowMs: number; max: number };
+  /** Failed password checks per account in the same window. */
+  credentialFailuresPerAccount: number;
   jsonLimit: string;
   /** Largest single uploaded watch file; a 100-mile run recorded every second is about 25 MB of GPX. */
   uploadMaxFileBytes: number;
@@ -64,6 +69,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     apiTokenDays: 90,
     bcryptCost: Number(env.BCRYPT_COST ?? 12),
     authRateLimit: { windowMs: 15 * 60 * 1000, max: Number(env.AUTH_RATE_LIMIT ?? 20) },
+    credentialFailuresPerAccount: 20,
     jsonLimit: '1mb',
     uploadMaxFileBytes: 64 * 1024 * 1024,
     uploadMaxArchiveBytes: MAX_ARCHIVE_UPLOAD_BYTES,

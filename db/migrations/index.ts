@@ -10,6 +10,7 @@ import * as m20261201000700 from './20261201000700_fuel.ts';
 import * as m20261201000800 from './20261201000800_imports.ts';
 import * as m20261201000900 from './20261201000900_load_indexes.ts';
 import * as m20261202001000 from './20261202001000_plan_check_results.ts';
+import * as m20261205003000 from './20261205003000_sessions_and_credential_limits.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -29,6 +30,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000800_imports': m20261201000800,
   '20261201000900_load_indexes': m20261201000900,
   '20261202001000_plan_check_results': m20261202001000,
+  '20261205003000_sessions_and_credential_limits': m20261205003000,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

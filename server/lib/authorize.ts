@@ -7,6 +7,24 @@ import { ForbiddenError, UnauthorizedError } from './errors.ts';
 export interface AuthLocals {
   actor: UserRow | null;
   sessionEnded?: boolean;
+  /** The `sessions` row of a cookie-authenticated request; null for bearer tokens and the signed out. */
+  sessionId?: string | null;
+}
+
+/**
+ * The signed-in user of a request made with a session cookie (a browser), not a bearer token:
+ * minting tokens and changing the password need it, so a leaked script token cannot outlive its
+ * own revocation or take over the account (issue 13 #12).
+ */
+export function requireCookieSession(res: Response): { actor: UserRow; sessionId: string } {
+  const actor = requireActor(res);
+  const { sessionId } = res.locals as AuthLocals;
+  if (!sessionId)
+    throw new ForbiddenError(
+      'This needs you signed in on the website: an API token cannot do it. Sign in on the profile page and try there.',
+      'cookie-session-required',
+    );
+  return { actor, sessionId };
 }
 
 /** The signed-in user of this request; 401 when there is none. */

@@ -217,6 +217,20 @@ export interface PasswordResetRow {
   token_hash: string;
   expires_at: Date;
   used_at: Date | null;
+  created_at: Date;
+}
+
+export interface SessionRow {
+  id: string;
+  user_id: string;
+  created_at: Date;
+  expires_at: Date;
+}
+
+export interface CredentialFailureRow {
+  id: string;
+  key: string;
+  failed_at: Date;
 }
 
 export interface WeekNoteRow {
@@ -333,6 +347,8 @@ declare module 'knex/types/tables.js' {
     dev_outbox: DevOutboxRow;
     invitations: InvitationRow;
     password_resets: PasswordResetRow;
+    sessions: SessionRow;
+    credential_failures: CredentialFailureRow;
     week_notes: WeekNoteRow;
     week_reviews: WeekReviewRow;
     fuel_items: FuelItemRow;

@@ -9,24 +9,32 @@ const JWT_ALGORITHM = 'HS256';
 const JWT_AUDIENCE = 'pacewright-session';
 
 export interface SessionClaims {
-  sub: string;
+  userId: string;
+  /** The `sessions` row this cookie stands for; deleting the row ends the session. */
+  sessionId: string;
 }
 
-/** Signs a session JWT for `userId`, valid for the configured number of days. */
-export function signSession(userId: string, config: AppConfig): string {
+/** Signs a session JWT for one `sessions` row, valid for the configured number of days. */
+export function signSession(claims: SessionClaims, config: AppConfig): string {
   return jwt.sign({}, config.jwtSecret, {
     algorithm: JWT_ALGORITHM,
     audience: JWT_AUDIENCE,
-    subject: userId,
+    subject: claims.userId,
+    jwtid: claims.sessionId,
     expiresIn: `${config.sessionDays}d`,
   });
 }
 
-/** The user id in a valid, unexpired session token, or null for anything else (forged, expired, malformed). */
-export function verifySession(token: string, config: AppConfig): string | null {
+/**
+ * The user and session ids in a valid, unexpired session token, or null for anything else (forged,
+ * expired, malformed, or a cookie from before sessions had rows). Whether the session is still live
+ * is the database's answer (authenticate.ts).
+ */
+export function verifySession(token: string, config: AppConfig): SessionClaims | null {
   try {
     const claims = jwt.verify(token, config.jwtSecret, { algorithms: [JWT_ALGORITHM], audience: JWT_AUDIENCE });
-    return typeof claims === 'object' && typeof claims.sub === 'string' ? claims.sub : null;
+    if (typeof claims !== 'object' || typeof claims.sub !== 'string' || typeof claims.jti !== 'string') return null;
+    return { userId: claims.sub, sessionId: claims.jti };
   } catch {
     return null;
   }

@@ -66,3 +66,18 @@ export const CSRF_HEADER = 'X-CSRF-Token';
 
 export const PasswordResetRequestSchema = z.object({ email: EmailSchema }).strict();
 export const PasswordResetInputSchema = z.object({ password: NewPasswordSchema }).strict();
+
+export const ChangePasswordInputSchema = z
+  .object({
+    current_password: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.'),
+    new_password: NewPasswordSchema,
+  })
+  .strict();
+export type ChangePasswordInput = z.infer<typeof ChangePasswordInputSchema>;
+
+/** An answer that is only a sentence for the person (sign-up, reset request). */
+export const MessageResponseSchema = z.object({ message: z.string() });
+export type MessageResponse = z.infer<typeof MessageResponseSchema>;
+
+/** Live API tokens one account may hold (issue 13 #12); the profile page says so when it is reached. */
+export const MAX_API_TOKENS_PER_USER = 20;

@@ -94,7 +94,7 @@ describe('POST /api/auth/login', () => {
     for (let i = 0; i < 5; i++) {
       const res = await request(app).post('/api/auth/login').send({ email: 'a@example.test', password: 'whatever123' });
       statuses.push(res.status);
-      if (res.status === 429) expect(res.body.error).toMatch(/Too many attempts/);
+      if (res.status === 429) expect(res.body.error).toMatch(/Too many wrong passwords/);
     }
     expect(statuses).toEqual([401, 401, 401, 429, 429]);
   });

@@ -182,8 +182,14 @@ async function buildWorld(): Promise<World> {
     .id as string;
   await must('run note', as(owner).post(`/api/runs/${runId}/notes`).send({ text: 'Felt steady.' }), 201);
   await must('week note', as(coach).post(`/api/runners/${owner.id}/weeks/2012-10-22/notes`).send({ text: 'Good week.' }), 201);
-  const namedToken = (await must('named token', as(owner).post('/api/auth/tokens').send({ name: 'Spreadsheet' }), 201)).body
-    .id as string;
+  // Only a website session can mint a named token (issue 13 #12).
+  const namedToken = (
+    await must(
+      'named token',
+      owner.browser.agent.post('/api/auth/tokens').set(CSRF_HEADER, owner.browser.csrf).send({ name: 'Spreadsheet' }),
+      201,
+    )
+  ).body.id as string;
   const invitation = (
     await must('invitation', as(coach).post(`/api/squads/${squad}/invitations`).send({ email: 'invitee@example.test' }), 201)
   ).body.invitation.id as string;
@@ -238,6 +244,8 @@ interface Row {
   noStranger?: string;
   /** The answer may carry the bearer token it has just issued. */
   issuesToken?: true;
+  /** Needs a website session: a bearer token gets 403 cookie-session-required (issue 13 #12). */
+  cookieOnly?: true;
 }
 
 const id = (value: (w: World) => string): Param => ({ kind: 'id', value });
@@ -272,7 +280,14 @@ const ROUTES: Record<string, Row> = {
   },
   'GET /api/auth/me': { caller: 'owner' },
   'GET /api/auth/tokens': { caller: 'owner' },
-  'POST /api/auth/tokens': { caller: 'owner', body: () => ({ name: 'Nightly script' }), issuesToken: true },
+  'POST /api/auth/tokens': { caller: 'owner', body: () => ({ name: 'Nightly script' }), issuesToken: true, cookieOnly: true },
+  // Other people than the owner: these end sessions and tokens the other checks still use.
+  'POST /api/auth/sign-out-everywhere': { caller: 'other coach', takes: 'nothing' },
+  'POST /api/me/password': {
+    caller: 'other runner',
+    body: (w) => ({ current_password: w.people['other runner'].password, new_password: w.newPassword }),
+    cookieOnly: true,
+  },
   'DELETE /api/auth/tokens/{id}': { caller: 'owner', params: { id: id((w) => w.ids.namedToken) } },
 
   'GET /api/me': { caller: 'owner' },
@@ -728,11 +743,11 @@ describe('OWASP basics on every route', () => {
     const owner = w.people.owner;
     const session = (claims: object, secret: string, options: SignOptions) =>
       jwt.sign(claims, secret, { audience: 'pacewright-session', ...options });
-    const revoked = (await must('token', request(app).post('/api/auth/tokens').set(owner.bearer).send({ name: 'Old' }), 201))
-      .body;
+    const mint = (name: string) =>
+      owner.browser.agent.post('/api/auth/tokens').set(CSRF_HEADER, owner.browser.csrf).send({ name });
+    const revoked = (await must('token', mint('Old'), 201)).body;
     await must('revoke', request(app).delete(`/api/auth/tokens/${revoked.id}`).set(owner.bearer), 204);
-    const expired = (await must('token', request(app).post('/api/auth/tokens').set(owner.bearer).send({ name: 'Aged' }), 201))
-      .body;
+    const expired = (await must('token', mint('Aged'), 201)).body;
     await db('api_tokens')
       .where({ id: expired.id })
       .update({ expires_at: new Date(Date.now() - 86_400_000) });
@@ -830,7 +845,11 @@ describe('OWASP basics on every route', () => {
     for (const c of [...writes].sort((a, b) => order(a) - order(b))) {
       const person = c.row.caller === 'anyone' ? 'owner' : c.row.caller;
       const got = await answer(c, call(request(app), c, w, { headers: w.people[person].bearer }));
-      expectStatus(`${c.key} with a bearer token`, got, c.success);
+      if (c.row.cookieOnly) {
+        expectStatus(`${c.key} with a bearer token`, got, 403, 'cookie-session-required');
+        const { client, headers } = asBrowser(w, person);
+        expectStatus(`${c.key} with the website session`, await answer(c, call(client, c, w, { headers })), c.success);
+      } else expectStatus(`${c.key} with a bearer token`, got, c.success);
     }
     // Let the archive just imported finish before the next test empties the tables.
     const unfinished = await db('imports').whereNotIn('status', ['done', 'failed']).select('id');

@@ -2,31 +2,34 @@ import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 import {
   ApiTokenSchema,
+  ChangePasswordInputSchema,
   CreateTokenInputSchema,
   LoginInputSchema,
   NamedTokenInputSchema,
   PasswordResetInputSchema,
   PasswordResetRequestSchema,
   RegisterInputSchema,
-  SESSION_COOKIE,
   TokenResponseSchema,
   UserResponseSchema,
 } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
-import { requireActor } from '../../lib/authorize.ts';
+import { requireActor, requireCookieSession, type AuthLocals } from '../../lib/authorize.ts';
 import { AppError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
-import { sessionCookieOptions, signSession } from '../../lib/session.ts';
 import { issueApiToken, listTokensOf, revokeToken } from '../tokens/tokens.service.ts';
 import { toUser } from '../users/users.repository.ts';
-import { checkCredentials, registerUser } from './auth.service.ts';
+import { changePassword, checkCredentials, registerUser } from './auth.service.ts';
+import { deleteSession } from './sessions.repository.ts';
+import { clearSessionCookie, endSessionsOf, startSession } from './sessions.service.ts';
 import { requestPasswordReset, resetPassword } from './password-reset.service.ts';
 import type { Mailer } from '../../lib/mailer.ts';
 
 export function createAuthRouter(config: AppConfig, mailer: Mailer) {
   const api = createApiRouter();
-  const credentialLimiter = rateLimit({
+  // Sign-ups and reset requests per address (every request counts); password checks have their own
+  // limiter that counts failures only (credential-limiter.ts).
+  const addressLimiter = rateLimit({
     windowMs: config.authRateLimit.windowMs,
     limit: config.authRateLimit.max,
     standardHeaders: 'draft-8',
@@ -35,7 +38,7 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       throw new AppError(
         429,
         'too-many-attempts',
-        'Too many attempts from this address. Please wait a few minutes and try again.',
+        'Too many requests from this address. Please wait a few minutes and try again.',
       );
     },
   });
@@ -50,11 +53,11 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       body: RegisterInputSchema,
       response: UserResponseSchema,
       status: 201,
-      before: [credentialLimiter],
+      before: [addressLimiter],
     },
     async (req, res) => {
       const user = await registerUser(req.body, config);
-      res.cookie(SESSION_COOKIE, signSession(user.id, config), sessionCookieOptions(config));
+      await startSession(res, user.id, config);
       res.status(201).json({ user: toUser(user) });
     },
   );
@@ -68,11 +71,10 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       access: 'public',
       body: LoginInputSchema,
       response: UserResponseSchema,
-      before: [credentialLimiter],
     },
     async (req, res) => {
-      const user = await checkCredentials(req.body, config);
-      res.cookie(SESSION_COOKIE, signSession(user.id, config), sessionCookieOptions(config));
+      const user = await checkCredentials(req.body, config, req.ip);
+      await startSession(res, user.id, config);
       res.json({ user: toUser(user) });
     },
   );
@@ -82,13 +84,47 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       method: 'post',
       path: '/auth/logout',
       tag: 'auth',
-      summary: 'Sign out (clears the session cookie)',
+      summary: 'Sign out: ends this session on the server and clears its cookie',
       access: 'public',
       status: 204,
     },
-    (_req, res) => {
-      const { maxAge: _maxAge, ...clearOptions } = sessionCookieOptions(config);
-      res.clearCookie(SESSION_COOKIE, clearOptions);
+    async (_req, res) => {
+      const { sessionId } = res.locals as AuthLocals;
+      if (sessionId) await deleteSession(sessionId);
+      clearSessionCookie(res, config);
+      res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/auth/sign-out-everywhere',
+      tag: 'auth',
+      summary: 'End every session of the signed-in user, on every device (API tokens stay; revoke them one by one)',
+      access: 'own-data',
+      status: 204,
+    },
+    async (_req, res) => {
+      await endSessionsOf(requireActor(res).id);
+      clearSessionCookie(res, config);
+      res.status(204).end();
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/me/password',
+      tag: 'auth',
+      summary: 'Change the password (current one required; website sessions only): every other session and every API token ends',
+      access: 'own-data',
+      body: ChangePasswordInputSchema,
+      status: 204,
+    },
+    async (req, res) => {
+      const { actor, sessionId } = requireCookieSession(res);
+      await changePassword(actor, sessionId, req.body, config, req.ip);
       res.status(204).end();
     },
   );
@@ -116,10 +152,9 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       access: 'public',
       body: CreateTokenInputSchema,
       response: TokenResponseSchema,
-      before: [credentialLimiter],
     },
     async (req, res) => {
-      const user = await checkCredentials(req.body, config);
+      const user = await checkCredentials(req.body, config, req.ip);
       const issued = await issueApiToken(user.id, 'Script token', config);
       res.json(issued);
     },
@@ -144,14 +179,15 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       method: 'post',
       path: '/auth/tokens',
       tag: 'auth',
-      summary: 'Create a named API token while signed in (shown once)',
+      summary: 'Create a named API token while signed in on the website (shown once); an API token cannot make another',
       access: 'own-data',
       body: NamedTokenInputSchema,
       response: TokenResponseSchema,
       status: 201,
     },
     async (req, res) => {
-      res.status(201).json(await issueApiToken(requireActor(res).id, req.body.name, config));
+      const { actor } = requireCookieSession(res);
+      res.status(201).json(await issueApiToken(actor.id, req.body.name, config));
     },
   );
 
@@ -180,7 +216,7 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       access: 'public',
       body: PasswordResetRequestSchema,
       status: 202,
-      before: [credentialLimiter],
+      before: [addressLimiter],
     },
     async (req, res) => {
       await requestPasswordReset(req.body.email, mailer, config);
@@ -197,7 +233,7 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       access: 'public',
       body: PasswordResetInputSchema,
       status: 204,
-      before: [credentialLimiter],
+      before: [addressLimiter],
     },
     async (req, res) => {
       await resetPassword(typeof req.params.token === 'string' ? req.params.token : '', req.body.password, config);

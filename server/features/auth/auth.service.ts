@@ -1,14 +1,25 @@
 import bcrypt from 'bcryptjs';
 import type { AppConfig } from '../../config.ts';
-import type { UserRow } from '../../lib/db.ts';
+import { db, type UserRow } from '../../lib/db.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
 import { findUserByEmail, insertUser } from '../users/users.repository.ts';
 import type { LoginInput, RegisterInput } from '../../../shared/auth/schemas.ts';
+import { limitPasswordCheck } from './credential-limiter.ts';
+import { endSessionsOf } from './sessions.service.ts';
 
 const WRONG_CREDENTIALS = 'That e-mail and password do not match an account.';
 
-// Compared against when the e-mail is unknown, so both failures take the same time.
-let dummyHash: string | undefined;
+// Compared against when the e-mail is unknown, so both failures take the same time; made at the
+// configured cost, the cost every stored hash is brought to at its next sign-in.
+const dummyHashes = new Map<number, Promise<string>>();
+function dummyHash(cost: number): Promise<string> {
+  let hash = dummyHashes.get(cost);
+  if (!hash) {
+    hash = bcrypt.hash('not-a-real-password', cost);
+    dummyHashes.set(cost, hash);
+  }
+  return hash;
+}
 
 export async function hashPassword(password: string, config: AppConfig): Promise<string> {
   return bcrypt.hash(password, config.bcryptCost);
@@ -19,11 +30,64 @@ export async function registerUser(input: RegisterInput, config: AppConfig): Pro
   return insertUser({ email: input.email, passwordHash, name: input.name, role: input.role });
 }
 
-/** The user with these credentials; the same 401 for an unknown e-mail and a wrong password. */
-export async function checkCredentials(input: LoginInput, config: AppConfig): Promise<UserRow> {
-  const user = await findUserByEmail(input.email);
-  dummyHash ??= await bcrypt.hash('not-a-real-password', config.bcryptCost);
-  const matches = await bcrypt.compare(input.password, user?.password_hash ?? dummyHash);
-  if (!user || !matches) throw new UnauthorizedError(WRONG_CREDENTIALS, 'wrong-credentials');
-  return user;
+/** A hash made at another cost than the configured one is made again now that the password is known. */
+async function rehashIfOutdated(user: UserRow, password: string, config: AppConfig): Promise<void> {
+  if (bcrypt.getRounds(user.password_hash) === config.bcryptCost) return;
+  const passwordHash = await hashPassword(password, config);
+  await db('users').where({ id: user.id, password_hash: user.password_hash }).update({ password_hash: passwordHash });
+}
+
+/**
+ * The user with these credentials; the same 401 for an unknown e-mail and a wrong password, with
+ * the same bcrypt work. Guarded by the credential limiter (failures per account and address).
+ */
+export async function checkCredentials(input: LoginInput, config: AppConfig, address: string | undefined): Promise<UserRow> {
+  return limitPasswordCheck({ email: input.email, address }, config, async () => {
+    const user = await findUserByEmail(input.email);
+    const matches = await bcrypt.compare(input.password, user?.password_hash ?? (await dummyHash(config.bcryptCost)));
+    if (!user || !matches) throw new UnauthorizedError(WRONG_CREDENTIALS, 'wrong-credentials');
+    await rehashIfOutdated(user, input.password, config);
+    return user;
+  });
+}
+
+/** Checks the signed-in user's own password (account deletion, password change) under the same limiter. */
+export async function confirmOwnPassword(
+  user: UserRow,
+  password: string,
+  config: AppConfig,
+  address: string | undefined,
+  wrongMessage: string,
+): Promise<void> {
+  await limitPasswordCheck({ email: user.email, address }, config, async () => {
+    if (!(await bcrypt.compare(password, user.password_hash))) throw new UnauthorizedError(wrongMessage, 'wrong-password');
+  });
+}
+
+/**
+ * A signed-in user chooses a new password: every other session and every API token ends (they
+ * were opened with the old password), the session asking stays signed in.
+ */
+export async function changePassword(
+  user: UserRow,
+  sessionId: string,
+  input: { current_password: string; new_password: string },
+  config: AppConfig,
+  address: string | undefined,
+): Promise<void> {
+  await confirmOwnPassword(
+    user,
+    input.current_password,
+    config,
+    address,
+    'That is not your current password, so it was not changed.',
+  );
+  const passwordHash = await hashPassword(input.new_password, config);
+  await db.transaction(async (trx) => {
+    await trx('users').where({ id: user.id }).update({ password_hash: passwordHash, updated_at: new Date() });
+    await endSessionsOf(user.id, { keep: sessionId, trx });
+    await trx('api_tokens').where({ user_id: user.id }).delete();
+    // A reset link asked for before the change must not undo it.
+    await trx('password_resets').where({ user_id: user.id }).whereNull('used_at').update({ used_at: new Date() });
+  });
 }

@@ -3,20 +3,23 @@ import { SESSION_COOKIE } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import type { AuthLocals } from '../../lib/authorize.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
-import { sessionCookieOptions, verifySession } from '../../lib/session.ts';
+import { verifySession } from '../../lib/session.ts';
 import { resolveApiTokenUser } from '../tokens/tokens.service.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { findSessionUser } from './sessions.repository.ts';
+import { clearSessionCookie } from './sessions.service.ts';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
 
 /**
  * Finds who is calling: a bearer token (scripts) or the session cookie (browser).
- * The user row is read on every request so role changes and deletions apply at once.
+ * The user row is read on every request so role changes and deletions apply at once; for a cookie
+ * it is read through the session's row, so an ended session (sign-out, reset) stops at once too.
  */
 export function authenticate(config: AppConfig): RequestHandler {
   return async (req, res, next) => {
     const locals = res.locals as AuthLocals;
     locals.actor = null;
+    locals.sessionId = null;
     const authorization = req.get('authorization');
     if (authorization) {
       const token = BEARER.exec(authorization)?.[1];
@@ -28,13 +31,14 @@ export function authenticate(config: AppConfig): RequestHandler {
     }
     const sessionToken = (req.cookies as Record<string, string | undefined>)[SESSION_COOKIE];
     if (sessionToken) {
-      const userId = verifySession(sessionToken, config);
-      const user = userId ? await findUserById(userId) : undefined;
-      if (user) locals.actor = user;
-      else {
+      const claims = verifySession(sessionToken, config);
+      const user = claims ? await findSessionUser(claims.sessionId, claims.userId, new Date()) : undefined;
+      if (user && claims) {
+        locals.actor = user;
+        locals.sessionId = claims.sessionId;
+      } else {
         locals.sessionEnded = true;
-        const { maxAge: _maxAge, ...clearOptions } = sessionCookieOptions(config);
-        res.clearCookie(SESSION_COOKIE, clearOptions);
+        clearSessionCookie(res, config);
       }
     }
     next();

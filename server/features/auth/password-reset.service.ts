@@ -5,6 +5,7 @@ import { AppError } from '../../lib/errors.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { findUserByEmail } from '../users/users.repository.ts';
 import { hashPassword } from './auth.service.ts';
+import { endSessionsOf } from './sessions.service.ts';
 
 /** Reset links work once, for an hour. */
 export const RESET_LINK_MINUTES = 60;
@@ -59,7 +60,10 @@ export async function resetPassword(token: string, password: string, config: App
     if (!claimed)
       throw new AppError(410, 'reset-link-used', 'This reset link has already been used. Ask for a new one if you need it.');
     await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, updated_at: now });
-    // A new password ends every script token issued under the old one.
+    // A new password ends every script token and every session opened under the old one (issue 13 #3),
+    // and every other reset link still outstanding (#10): whoever held one must not undo this reset.
     await trx('api_tokens').where({ user_id: row.user_id }).delete();
+    await endSessionsOf(row.user_id, { trx });
+    await trx('password_resets').where({ user_id: row.user_id }).whereNull('used_at').update({ used_at: now });
   });
 }

@@ -8,15 +8,14 @@ import {
   ImportProgressSchema,
   type DeleteAccountInput,
 } from '../../../shared/history/schemas.ts';
-import { SESSION_COOKIE } from '../../../shared/auth/schemas.ts';
 import { formatFileSize } from '../../../shared/units.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
-import { sessionCookieOptions } from '../../lib/session.ts';
 import type { FileStore } from '../../lib/storage.ts';
+import { clearSessionCookie } from '../auth/sessions.service.ts';
 import { deleteAccount } from './account.service.ts';
 import { streamExport } from './export.service.ts';
 import { enqueueImport } from './import-queue.ts';
@@ -133,9 +132,8 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
       status: 204,
     },
     async (req, res) => {
-      await deleteAccount(requireActor(res), (req.body as DeleteAccountInput).password, store, config.dataDir);
-      const { maxAge: _maxAge, ...clearOptions } = sessionCookieOptions(config);
-      res.clearCookie(SESSION_COOKIE, clearOptions);
+      await deleteAccount(requireActor(res), (req.body as DeleteAccountInput).password, store, config, req.ip);
+      clearSessionCookie(res, config);
       res.status(204).end();
     },
   );

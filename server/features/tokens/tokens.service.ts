@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { AppConfig } from '../../config.ts';
-import { NotFoundError } from '../../lib/errors.ts';
-import type { UserRow } from '../../lib/db.ts';
+import { ConflictError, NotFoundError } from '../../lib/errors.ts';
+import { db, type UserRow } from '../../lib/db.ts';
 import {
   deleteApiToken,
   findLiveApiTokenUser,
@@ -10,7 +10,7 @@ import {
   markApiTokenUsed,
   toApiToken,
 } from './tokens.repository.ts';
-import type { ApiToken } from '../../../shared/auth/schemas.ts';
+import { MAX_API_TOKENS_PER_USER, type ApiToken } from '../../../shared/auth/schemas.ts';
 
 const TOKEN_PREFIX = 'pw_';
 
@@ -18,7 +18,10 @@ export function hashApiToken(token: string): string {
   return createHash('sha256').update(token).digest('hex');
 }
 
-/** Issues a new bearer token. The plain token is returned once and only its hash is stored. */
+/**
+ * Issues a new bearer token. The plain token is returned once and only its hash is stored. An
+ * account holds at most MAX_API_TOKENS_PER_USER live tokens (409 beyond, with a sentence).
+ */
 export async function issueApiToken(
   userId: string,
   name: string,
@@ -27,7 +30,20 @@ export async function issueApiToken(
 ): Promise<{ token: string; expires_at: string; id: string; name: string }> {
   const token = TOKEN_PREFIX + randomBytes(32).toString('base64url');
   const expiresAt = new Date(now.getTime() + config.apiTokenDays * 24 * 3600 * 1000);
-  const row = await insertApiToken({ userId, name, tokenHash: hashApiToken(token), expiresAt });
+  const row = await db.transaction(async (trx) => {
+    // The user's row is locked so two requests at once cannot both take the last place.
+    await trx('users').where({ id: userId }).forUpdate().first('id');
+    const [{ live }] = (await trx('api_tokens')
+      .where({ user_id: userId })
+      .andWhere('expires_at', '>', now)
+      .count({ live: '*' })) as [{ live: string | number }];
+    if (Number(live) >= MAX_API_TOKENS_PER_USER)
+      throw new ConflictError(
+        `You already have ${MAX_API_TOKENS_PER_USER} API tokens, the most one account can hold. Revoke one you no longer use on your profile page, then create the new one.`,
+        'too-many-tokens',
+      );
+    return insertApiToken({ userId, name, tokenHash: hashApiToken(token), expiresAt }, trx);
+  });
   return { token, expires_at: row.expires_at.toISOString(), id: row.id, name: row.name };
 }
 

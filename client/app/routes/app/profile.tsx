@@ -5,6 +5,7 @@ import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { tokensQueryOptions } from '../../../features/api-tokens/api/get-tokens.ts';
 import { ApiTokensCard } from '../../../features/api-tokens/components/api-tokens-card.tsx';
 import { authKeys } from '../../../features/auth/api/auth-keys.ts';
+import { PasswordAndSessionsCard } from '../../../features/auth/components/password-and-sessions-card.tsx';
 import { myCoachesQueryOptions } from '../../../features/coaches/api/get-my-coaches.ts';
 import { CoachesCard } from '../../../features/coaches/components/coaches-card.tsx';
 import { goalRaceQueryOptions } from '../../../features/goals/api/get-goal-race.ts';
@@ -75,6 +76,7 @@ export default function ProfileRoute() {
             <ImportNoticeToggle />
           </Card>
         )}
+        <PasswordAndSessionsCard />
         <ApiTokensCard />
         <OutboxLink />
       </div>
