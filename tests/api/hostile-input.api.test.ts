@@ -63,7 +63,9 @@ describe('hostile and malformed input', () => {
         .post('/api/auth/token')
         .send({ email: 'meta@example.test', password: `${nasty} padding` })
     ).body.token;
-    const named = await request(app).post('/api/auth/tokens').set('Authorization', `Bearer ${token}`).send({ name: nasty });
+    // Named tokens are made from the website session only (issue 13 #12).
+    const browser = await signedInAgent(app, 'meta@example.test', `${nasty} padding`);
+    const named = await browser.agent.post('/api/auth/tokens').set(CSRF_HEADER, browser.csrf).send({ name: nasty });
     expect(named.status).toBe(201);
     expect(named.body.name).toBe(nasty.trim());
     const tz = await request(app).patch('/api/me').set('Authorization', `Bearer ${token}`).send({ time_zone: nasty });
