@@ -1,4 +1,5 @@
-import { PLAN_LIMITS } from './types.ts';
+import { raceNamedPaceLabel } from '../race/training-ranges.ts';
+import { PLAN_LIMITS, RELATIVE_PACE_REFS } from './types.ts';
 import type { ExpandedPart, Part, PlanItem, RacePaces, RelativePaceRef, ResolvedTarget } from './types.ts';
 
 /**
@@ -33,13 +34,13 @@ function copyPart(part: Part): Part {
   return { type: 'part', kind: part.kind, amount: { ...part.amount }, target };
 }
 
-const REF_NAMES: Record<RelativePaceRef, string> = {
-  goal: 'goal race pace',
-  MP: 'marathon pace',
-  HMP: 'half marathon pace',
-  '10K': '10K pace',
-  '5K': '5K pace',
-};
+/** The words the Tools page and the plan editor use (`raceNamedPaceLabel`), in a sentence. */
+const REF_NAMES: Record<RelativePaceRef, string> = Object.fromEntries(
+  RELATIVE_PACE_REFS.map((ref) => {
+    const label = raceNamedPaceLabel(ref);
+    return [ref, label.charAt(0).toLowerCase() + label.slice(1)];
+  }),
+) as Record<RelativePaceRef, string>;
 
 const REF_HELP: Record<RelativePaceRef, string> = {
   goal: 'set a goal race on your profile',

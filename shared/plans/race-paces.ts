@@ -1,5 +1,5 @@
-import { equivalentTime, performanceIndex } from '../race/equivalence.ts';
-import type { RacePaces, RelativePaceRef } from './types.ts';
+import { RACE_EFFORTS, raceEffortPaces, type RaceEffort } from '../race/training-ranges.ts';
+import type { RacePaces } from './types.ts';
 
 export interface RaceTime {
   date: string;
@@ -7,12 +7,10 @@ export interface RaceTime {
   time_s: number;
 }
 
-const REF_DISTANCES_M: Readonly<Record<Exclude<RelativePaceRef, 'goal'>, number>> = {
-  MP: 42195,
-  HMP: 21097.5,
-  '10K': 10000,
-  '5K': 5000,
-};
+/** The race efforts a plan can name (`@ MP`, `@ HMP`, `@ 10K`, `@ 5K`). */
+const NAMED_EFFORTS = RACE_EFFORTS.filter(
+  (e): e is RaceEffort & { shorthand: NonNullable<RaceEffort['shorthand']> } => e.shorthand !== null,
+);
 
 /** Race results older than this no longer speak for current fitness. */
 export const RECENT_RESULT_DAYS = 182;
@@ -26,20 +24,22 @@ function daysBetween(from: string, to: string): number {
  *
  * - `goal`: the goal race's goal time over its distance.
  * - A race pace at the goal race's own distance is the goal pace (the runner trains for it).
- * - Others come from the most recent race result of the last `RECENT_RESULT_DAYS` days (current
- *   fitness), else from the goal, carried to the distance with the Daniels & Gilbert (1979)
- *   equations (equivalent performance at the same index).
+ * - Others are the runner's race efforts (shared/race/training-ranges.ts) from the most recent race
+ *   result of the last `RECENT_RESULT_DAYS` days (current fitness), else from the goal: the Daniels &
+ *   Gilbert (1979) pace of the equivalents table at that distance, the very number the Tools page's
+ *   race-effort range shows for the same result.
  * `today` is the runner's local date (pure code reads no clock). Missing inputs leave paces out.
  */
 export function racePacesFor(goal: RaceTime | null, results: readonly RaceTime[], today: string): RacePaces {
   const paces: RacePaces = {};
   if (goal) paces.goal = goal.time_s / (goal.distance_m / 1000);
   const reference = referencePerformance(goal, results, today);
-  for (const [ref, distance] of Object.entries(REF_DISTANCES_M) as Array<[Exclude<RelativePaceRef, 'goal'>, number]>) {
-    if (goal && Math.abs(goal.distance_m / distance - 1) < 0.01) {
-      paces[ref] = paces.goal;
+  for (const effort of NAMED_EFFORTS) {
+    if (goal && Math.abs(goal.distance_m / effort.distance_m - 1) < 0.01) {
+      paces[effort.shorthand] = paces.goal;
     } else if (reference) {
-      paces[ref] = equivalentTime(performanceIndex(reference.distance_m, reference.time_s), distance) / (distance / 1000);
+      // The same number as the Tools page's race-effort range (its Daniels & Gilbert pace) for this result.
+      paces[effort.shorthand] = raceEffortPaces(effort, reference.distance_m, reference.time_s).daniels_gilbert.s_per_km;
     }
   }
   return paces;

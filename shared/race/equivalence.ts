@@ -113,12 +113,20 @@ export interface RaceEquivalent {
  * to the millisecond. The row for the result's own distance gives back the result (both methods).
  */
 export function raceEquivalents(distanceM: number, timeS: number): RaceEquivalent[] {
-  const index = performanceIndex(distanceM, timeS);
-  return EQUIVALENT_DISTANCES_M.map((d) => ({
-    distance_m: d,
-    riegel_s: roundMs(riegelTime(timeS, distanceM, d)),
-    daniels_gilbert_s: roundMs(d === distanceM ? timeS : equivalentTime(index, d)),
-  }));
+  return EQUIVALENT_DISTANCES_M.map((d) => raceEquivalentAt(distanceM, timeS, d));
+}
+
+/**
+ * One row of the race equivalents table: the times at `targetM` metres equivalent to `distanceM` metres in `timeS`
+ * seconds, by Riegel and by Daniels & Gilbert, rounded to the millisecond; at the result's own distance, the result.
+ * Training ranges and the plans' race-named paces read their race efforts from here, so all three agree.
+ */
+export function raceEquivalentAt(distanceM: number, timeS: number, targetM: number): RaceEquivalent {
+  return {
+    distance_m: targetM,
+    riegel_s: roundMs(riegelTime(timeS, distanceM, targetM)),
+    daniels_gilbert_s: roundMs(targetM === distanceM ? timeS : equivalentTime(performanceIndex(distanceM, timeS), targetM)),
+  };
 }
 
 function roundMs(seconds: number): number {

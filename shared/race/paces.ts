@@ -1,5 +1,4 @@
 import { MILE_M } from './distances.ts';
-import { performanceIndex, speedForOxygenCost } from './equivalence.ts';
 
 export type PaceUnit = 'mi' | 'km';
 
@@ -142,83 +141,4 @@ function boundaries(distanceM: number, stepM: number): number[] {
   for (let k = 1; k * stepM < distanceM - SAME_POINT_M; k++) points.push(k * stepM);
   points.push(distanceM);
   return points;
-}
-
-export type TrainingPaceKind = 'easy' | 'marathon' | 'threshold' | 'interval' | 'repetition';
-
-/**
- * The %VO₂max band of each kind of training pace. These bands are COMMON PRACTICE in coaching and exercise
- * physiology teaching — not a published table this project has checked (references.md has none). Only the
- * equations that turn a band into a pace are from references.md §3.2 (Daniels & Gilbert 1979).
- */
-export const TRAINING_PACE_BANDS: ReadonlyArray<{
-  kind: TrainingPaceKind;
-  label: string;
-  low: number;
-  high: number;
-  purpose: string;
-}> = [
-  { kind: 'easy', label: 'Easy', low: 0.6, high: 0.74, purpose: 'Most of the week’s running, long runs and recovery days.' },
-  { kind: 'marathon', label: 'Marathon pace', low: 0.75, high: 0.84, purpose: 'Steady running at about marathon effort.' },
-  {
-    kind: 'threshold',
-    label: 'Threshold',
-    low: 0.83,
-    high: 0.88,
-    purpose: 'Comfortably hard tempo running, about an hour’s race effort.',
-  },
-  { kind: 'interval', label: 'Interval', low: 0.95, high: 1.0, purpose: 'Hard repeats of 3–5 minutes with jog recoveries.' },
-  { kind: 'repetition', label: 'Repetition', low: 1.05, high: 1.1, purpose: 'Short, fast repeats with full recoveries.' },
-];
-
-/** Where a band's numbers come from; it is also in the data, so the page and API can say so. */
-export const TRAINING_BAND_SOURCE = 'common practice';
-export const INDEX_SOURCE = 'Daniels & Gilbert (1979), oxygen cost and sustainable fraction equations';
-
-export interface TrainingPaceRange {
-  kind: TrainingPaceKind;
-  label: string;
-  purpose: string;
-  /** The band, as fractions of the Daniels & Gilbert index (1 = 100 %). */
-  vo2max_fraction_low: number;
-  vo2max_fraction_high: number;
-  /** The faster and slower ends of the range. */
-  fast: Pace;
-  slow: Pace;
-  /** Always "common practice": the bands are not from a checked published table. */
-  source: typeof TRAINING_BAND_SOURCE;
-}
-
-export interface TrainingPaces {
-  /** Daniels & Gilbert index of the result, ml·kg⁻¹·min⁻¹. */
-  index: number;
-  index_source: typeof INDEX_SOURCE;
-  ranges: TrainingPaceRange[];
-}
-
-/**
- * Training pace ranges from a race result of `distanceM` metres in `timeS` seconds. The result's Daniels &
- * Gilbert index X (references.md §3.2) times each common-practice %VO₂max band gives an oxygen cost; the
- * speed with that cost (the inverse of VO₂(v)) gives the pace. Example: X = 50 gives easy 5:47–4:53 per km.
- */
-export function trainingPaceRanges(distanceM: number, timeS: number): TrainingPaces {
-  const index = performanceIndex(distanceM, timeS);
-  const paceAt = (fraction: number): Pace => {
-    const kmPerMin = speedForOxygenCost(index * fraction) / 1000;
-    return { s_per_km: 60 / kmPerMin, s_per_mi: (60 / kmPerMin) * (MILE_M / 1000) };
-  };
-  return {
-    index,
-    index_source: INDEX_SOURCE,
-    ranges: TRAINING_PACE_BANDS.map((band) => ({
-      kind: band.kind,
-      label: band.label,
-      purpose: band.purpose,
-      vo2max_fraction_low: band.low,
-      vo2max_fraction_high: band.high,
-      fast: paceAt(band.high),
-      slow: paceAt(band.low),
-      source: TRAINING_BAND_SOURCE,
-    })),
-  };
 }

@@ -3,7 +3,14 @@ import { parseClockTime } from './clock-time.ts';
 import { MILE_M, RACE_DISTANCE_CHOICES } from './distances.ts';
 import type { RaceEquivalent } from './equivalence.ts';
 import { checkNegativeSplit, checkRaceDistance, checkRacePace, checkRaceResult, checkRaceTime } from './limits.ts';
-import { INDEX_SOURCE, TRAINING_BAND_SOURCE, type Pace, type SplitTable, type TrainingPaces } from './paces.ts';
+import {
+  DEPRECATED_INDEX_SOURCE,
+  DEPRECATED_TRAINING_PACE_KINDS,
+  DEPRECATION_NOTICE,
+  type DeprecatedTrainingPaces,
+} from './deprecated-training-paces.ts';
+import type { Pace, SplitTable } from './paces.ts';
+import { RACE_EFFORTS, type RaceEffortKind, type TrainingRanges } from './training-ranges.ts';
 
 /**
  * A number from a query string (or a form): text is read as a number, blank counts as missing.
@@ -55,7 +62,8 @@ export type EquivalentsQuery = z.infer<typeof EquivalentsQuerySchema>;
 
 /**
  * `GET /api/tools/paces?distance_m=&time_s=&unit=&negative_split_s=`: a goal (or a result) in metres and seconds,
- * the split table's unit (default mi) and the negative split in seconds (default 0, even pacing).
+ * the split table's unit (default mi) and the negative split in seconds (default 0, even pacing). `include=training_paces`
+ * adds the deprecated field of the previous release (kept for one release).
  */
 export const PacesQuerySchema = z
   .object({
@@ -66,6 +74,13 @@ export const PacesQuerySchema = z
       'Give the negative split in seconds, or leave it out for even pacing.',
       'The negative split must be a number of seconds, e.g. 60 for a second half one minute faster.',
     ).optional(),
+    include: z
+      .enum(['training_paces'], { error: 'include can only be training_paces (deprecated), or left out.' })
+      .optional()
+      .meta({
+        deprecated: true,
+        description: 'Deprecated, for one release: training_paces adds the previous release’s field; read training_ranges.',
+      }),
   })
   .superRefine((q, ctx) => {
     if (!addPaceIssue(q, ctx)) return;
@@ -108,32 +123,80 @@ const SplitTableSchema = z.object({
   checkpoints: z.array(z.object({ distance_m: z.number(), cumulative_s: z.number(), segment_s: z.number() })),
 }) satisfies z.ZodType<SplitTable>;
 
-const TrainingPacesSchema = z.object({
-  index: z.number(),
-  index_source: z.literal(INDEX_SOURCE),
-  ranges: z.array(
-    z.object({
-      kind: z.enum(['easy', 'marathon', 'threshold', 'interval', 'repetition']),
-      label: z.string(),
-      purpose: z.string(),
-      vo2max_fraction_low: z.number(),
-      vo2max_fraction_high: z.number(),
-      fast: PaceSchema,
-      slow: PaceSchema,
-      source: z.literal(TRAINING_BAND_SOURCE),
-    }),
-  ),
-}) satisfies z.ZodType<TrainingPaces>;
+const RACE_EFFORT_KINDS = RACE_EFFORTS.map((e) => e.kind) as [RaceEffortKind, ...RaceEffortKind[]];
 
-/** `GET /api/tools/paces` answer: the even pace, the split table and training pace ranges for the same race. */
+const TrainingRangeSchema = z.discriminatedUnion('basis', [
+  z.object({
+    basis: z.literal('marathon-effort'),
+    kind: z.enum(['easy', 'steady']),
+    label: z.string(),
+    purpose: z.string(),
+    /** The range is this share slower (more time per km) than the Daniels & Gilbert marathon effort, 0.12 = 12 %. */
+    slower_low: z.number(),
+    slower_high: z.number(),
+    fast: PaceSchema,
+    slow: PaceSchema,
+    source: z.string(),
+  }),
+  z.object({
+    basis: z.literal('race-equivalent'),
+    kind: z.enum(RACE_EFFORT_KINDS),
+    label: z.string(),
+    purpose: z.string(),
+    distance_m: z.number(),
+    shorthand: z.enum(['MP', 'HMP', '10K', '5K']).nullable(),
+    riegel: PaceSchema,
+    daniels_gilbert: PaceSchema,
+    fast: PaceSchema,
+    slow: PaceSchema,
+    source: z.string(),
+  }),
+]);
+
+const TrainingRangesSchema = z.object({
+  result: z.object({ distance_m: z.number(), time_s: z.number() }),
+  ranges: z.array(TrainingRangeSchema),
+}) satisfies z.ZodType<TrainingRanges>;
+
+const DeprecatedTrainingPacesSchema = z
+  .object({
+    notice: z.literal(DEPRECATION_NOTICE),
+    index: z.number(),
+    index_source: z.literal(DEPRECATED_INDEX_SOURCE),
+    ranges: z.array(
+      z.object({
+        kind: z.enum(DEPRECATED_TRAINING_PACE_KINDS),
+        label: z.string(),
+        purpose: z.string(),
+        vo2max_fraction_low: z.number(),
+        vo2max_fraction_high: z.number(),
+        fast: PaceSchema,
+        slow: PaceSchema,
+        source: z.string(),
+      }),
+    ),
+  })
+  .meta({
+    deprecated: true,
+    description:
+      'Deprecated, for one release, and only with ?include=training_paces: the previous kind values, each mapped onto one of training_ranges. Read training_ranges.',
+  }) satisfies z.ZodType<DeprecatedTrainingPaces>;
+
+/**
+ * `GET /api/tools/paces` answer: the even pace, the split table and the training pace ranges (named by race effort,
+ * plus easy and steady) for the same race; `training_paces` only with `?include=training_paces` (deprecated).
+ */
 export const PacesResponseSchema = z.object({
   distance_m: z.number(),
   time_s: z.number(),
   pace: PaceSchema,
   split_table: SplitTableSchema,
-  training_paces: TrainingPacesSchema,
+  training_ranges: TrainingRangesSchema,
+  training_paces: DeprecatedTrainingPacesSchema.optional(),
 });
 export type PacesResponse = z.infer<typeof PacesResponseSchema>;
+export type TrainingRangesAnswer = PacesResponse['training_ranges'];
+export type TrainingRangeAnswer = TrainingRangesAnswer['ranges'][number];
 
 // ---- Forms: what people type on the Tools page, turned into the query values above with the same checks. ----
 

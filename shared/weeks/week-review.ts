@@ -4,6 +4,7 @@
  * Flags describe; they do not diagnose. Each message says in plain words what was seen and ends by
  * leaving the decision to the coach; each names where its rule comes from.
  */
+import { describeMarathonEffortRule, EASY_RULE } from '../race/training-ranges.ts';
 import { acuteChronicRatio, type AcuteChronic, type DailyLoad } from './load.ts';
 import { dayOfWeek, isIsoDate, weekDates } from './weeks.ts';
 
@@ -108,8 +109,8 @@ const SOURCES: Record<FlagCode, string> = {
     'Gabbett, T. J. (2016), Br J Sports Med 50:273–280: acute:chronic workload ratio, last 7 days against the ' +
     'mean week of the last 28 (coupled).',
   'easy-too-fast':
-    "The runner's easy range from their training paces (Daniels & Gilbert equations); the width of the easy " +
-    'band is common practice.',
+    `The runner's easy range: ${describeMarathonEffortRule(EASY_RULE)} (the pace @ MP resolves to, from the goal ` +
+    'race or a recent result with the Daniels & Gilbert equations); the width of the range is our own choice.',
   'long-run-missed': "The runner's plan.",
 };
 

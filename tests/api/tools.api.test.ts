@@ -94,9 +94,70 @@ describe('GET /api/tools/paces', () => {
     expect(table.checkpoints.map((c: { distance_m: number }) => c.distance_m)).toEqual([
       5000, 10000, 15000, 20000, 25000, 30000, 35000, 40000, 42195,
     ]);
-    expect(res.body.training_paces.index).toBeCloseTo(53.5283, 4); // references.md §3.2
-    expect(res.body.training_paces.ranges).toHaveLength(5);
-    for (const range of res.body.training_paces.ranges) expect(range.source).toBe('common practice');
+    const ranges = res.body.training_ranges.ranges as Array<Record<string, unknown> & { kind: string; source: string }>;
+    expect(ranges.map((r) => r.kind)).toEqual([
+      'easy',
+      'steady',
+      'marathon-effort',
+      'half-marathon-effort',
+      '10k-effort',
+      '5k-effort',
+      'mile-effort',
+    ]);
+    // The result's own distance: marathon effort is the goal pace itself, 255.9545 s/km by both models (references.md §1).
+    const marathon = ranges.find((r) => r.kind === 'marathon-effort') as unknown as {
+      shorthand: string;
+      riegel: { s_per_km: number };
+      daniels_gilbert: { s_per_km: number };
+    };
+    expect(marathon.shorthand).toBe('MP');
+    expect(marathon.riegel.s_per_km).toBeCloseTo(255.9545, 4);
+    expect(marathon.daniels_gilbert.s_per_km).toBeCloseTo(255.9545, 4);
+    // Easy: 12–30 % more time per km than marathon effort (our own choice): 286.669–332.741 s/km.
+    const easy = ranges.find((r) => r.kind === 'easy') as unknown as { fast: { s_per_km: number }; slow: { s_per_km: number } };
+    expect(easy.fast.s_per_km).toBeCloseTo(286.669, 3);
+    expect(easy.slow.s_per_km).toBeCloseTo(332.741, 3);
+    for (const range of ranges) expect(range.source).toMatch(/^(Riegel \(1981\) and Daniels & Gilbert \(1979\)|our own choice)/);
+    expect(res.body).not.toHaveProperty('training_paces');
+    expect(JSON.stringify(res.body)).not.toMatch(/threshold|interval|repetition|VO2max|VO₂max/i);
+  });
+
+  it('with include=training_paces, also answers the deprecated field: earlier kind values mapped onto today’s ranges', async () => {
+    const app = testApp();
+    const auth = await bearerFor(app);
+
+    const res = await request(app)
+      .get('/api/tools/paces')
+      .query({ distance_m: HALF_M, time_s: 5100, include: 'training_paces' })
+      .set(auth);
+
+    expect(res.status).toBe(200);
+    const old = res.body.training_paces as { notice: string; index: number; ranges: Array<{ kind: string; fast: unknown }> };
+    expect(old.notice).toMatch(/^Deprecated/);
+    expect(old.index).toBeCloseTo(54.4535, 4); // references.md §3.2
+    expect(old.ranges).toHaveLength(5);
+    const today = res.body.training_ranges.ranges as Array<{ kind: string; fast: unknown }>;
+    expect(old.ranges[0]).toMatchObject({ kind: 'easy', fast: today.find((r) => r.kind === 'easy')!.fast });
+  });
+
+  it('when include names anything else, responds 400 with a field error', async () => {
+    const app = testApp();
+    const auth = await bearerFor(app);
+    const res = await request(app).get('/api/tools/paces').query({ distance_m: 5000, time_s: 1200, include: 'bands' }).set(auth);
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual([{ field: 'include', message: expect.stringMatching(/deprecated.*\.$/) }]);
+  });
+
+  it('the OpenAPI document marks the include parameter and the training_paces field deprecated', async () => {
+    const res = await request(testApp()).get('/api/openapi.json');
+    expect(res.status).toBe(200);
+    const op = res.body.paths['/api/tools/paces'].get;
+    const include = op.parameters.find((p: { name: string }) => p.name === 'include');
+    expect(include).toMatchObject({ in: 'query', required: false, deprecated: true });
+    const schema = op.responses['200'].content['application/json'].schema;
+    expect(schema.properties.training_paces.deprecated).toBe(true);
+    expect(schema.required).not.toContain('training_paces');
+    expect(schema.required).toContain('training_ranges');
   });
 
   it('with unit=km and negative_split_s=120, runs two even halves two minutes apart', async () => {

@@ -39,8 +39,19 @@ describe('Tools page', () => {
     await resultForm.getByRole('button', { name: 'Show equivalents' }).click();
     const marathonRow = page.getByRole('row', { name: /^Marathon/ });
     await expect.poll(() => marathonRow.first().textContent()).toMatch(/2:57:13.*2:57:24/); // references.md §3.1, §3.2
-    // Every training pace band says where it comes from (product.md: every computed number explains itself).
-    await expect.poll(() => page.getByRole('cell', { name: /common practice/ }).count()).toBe(5);
+    // Training ranges are named by race effort, plus easy and steady; each says where it comes from
+    // (product.md: every computed number explains itself).
+    const ranges = page.getByRole('region', { name: 'Training pace ranges' });
+    await expect
+      .poll(() => ranges.getByRole('rowheader').evaluateAll((cells) => cells.map((c) => c.firstChild?.textContent)))
+      .toEqual(['Easy', 'Steady', 'Marathon effort', 'Half marathon effort', '10K effort', '5K effort', 'Mile effort']);
+    expect(await ranges.getByRole('cell', { name: /our own choice/ }).count()).toBe(2);
+    expect(
+      await ranges.getByRole('cell', { name: /^Riegel \(1981\) and Daniels & Gilbert \(1979\) race equivalents$/ }).count(),
+    ).toBe(5);
+    // The demo runner reads miles: marathon effort from the half spans Riegel 2:57:13 (6:46 /mi) to D&G 2:57:24 (6:46 /mi).
+    await expect.poll(() => ranges.getByRole('row', { name: /^Marathon effort/ }).textContent()).toMatch(/in a plan: @ MP.*6:46/);
+    expect(await ranges.textContent()).not.toMatch(/threshold|interval|repetition/i);
 
     const paceForm = page.locator('section', { has: page.getByRole('heading', { name: 'Pace calculator' }) });
     await paceForm.getByLabel('Distance').selectOption('marathon');
@@ -75,6 +86,47 @@ describe('Tools page', () => {
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
     expect(overflow).toBeLessThanOrEqual(0);
     await screenshot(page, 'tools-phone');
+    await page.close();
+  });
+
+  it('a coach at 1280 px sees the same race-effort words on the Tools page and in the plan editor', async () => {
+    const coach = DEMO_PEOPLE.find((p) => p.role === 'coach')!;
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    await page.setViewportSize({ width: 1280, height: 900 });
+    await page.goto(`${server.url}/sign-in?next=%2Ftools`);
+    await signIn(page, coach.email, coach.password);
+    await page.waitForURL(/\/tools$/);
+    const errors = watchErrors(page);
+
+    const resultForm = page.locator('section', { has: page.getByRole('heading', { name: 'Race equivalents' }) });
+    await resultForm.getByLabel('Distance').selectOption('10k');
+    await resultForm.getByLabel('Your time').fill('40:00');
+    await resultForm.getByRole('button', { name: 'Show equivalents' }).click();
+    const ranges = page.getByRole('region', { name: 'Training pace ranges' });
+    // A 10K in 40:00 is 6:26 /mi by both models at its own distance (references.md §1: 4:00/km = 386.2426 s/mi).
+    await expect.poll(() => ranges.getByRole('row', { name: /^10K effort/ }).textContent()).toMatch(/in a plan: @ 10K.*6:26/);
+    const toolsWords = await ranges
+      .getByRole('rowheader')
+      .evaluateAll((cells) => cells.map((c) => c.firstChild?.textContent ?? ''));
+    await screenshot(page, 'tools-coach-desktop');
+
+    await page.goto(`${server.url}/plan`);
+    await page.getByRole('button', { name: 'New session', exact: true }).click();
+    const editor = page.getByRole('form', { name: 'New session', exact: true });
+    await editor.getByLabel('Session in shorthand').fill('3 mi @ 10K');
+    const effort = editor.getByLabel('Race effort, part 1');
+    await expect
+      .poll(() => effort.evaluate((el: HTMLSelectElement) => el.selectedOptions[0]?.textContent))
+      .toBe('10K effort (@ 10K)');
+    const editorWords = await effort.evaluate((el: HTMLSelectElement) => [...el.options].map((o) => o.textContent ?? ''));
+    // Every race effort the plan editor offers is named as on the Tools page.
+    for (const word of editorWords.filter((w) => !w.startsWith('Goal race pace'))) {
+      expect(toolsWords).toContain(word.replace(/ \(@ .*\)$/, ''));
+    }
+    expect(editorWords).toHaveLength(5);
+    await screenshot(page, 'plan-editor-race-effort');
+    expect(errors).toEqual([]);
     await page.close();
   });
 });

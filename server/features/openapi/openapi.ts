@@ -21,6 +21,9 @@ function queryParameters(schema: z.ZodType): JsonSchema[] {
     name,
     in: 'query',
     required: json.required?.includes(name) ?? false,
+    // OpenAPI marks a deprecated parameter on the parameter itself, not only in its schema.
+    ...(property.deprecated === true ? { deprecated: true } : {}),
+    ...(typeof property.description === 'string' ? { description: property.description } : {}),
     schema: property,
   }));
 }

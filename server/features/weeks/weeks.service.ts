@@ -1,9 +1,9 @@
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { expandParts } from '../../../shared/plans/expand.ts';
-import { referencePerformance } from '../../../shared/plans/race-paces.ts';
+import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import { plannedVolume } from '../../../shared/plans/weeks.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
-import { trainingPaceRanges } from '../../../shared/race/paces.ts';
+import { EASY_RULE, rangeFromMarathonEffort } from '../../../shared/race/training-ranges.ts';
 import { localDateTime } from '../../../shared/runs/local-time.ts';
 import { longRunPlanId, summariseWeek, type WeekPlan, type WeekReview, type WeekRun } from '../../../shared/weeks/week-review.ts';
 import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
@@ -66,11 +66,10 @@ function todayOf(runner: UserRow, now: Date): string {
   return localDateTime(now.getTime(), runner.time_zone).date;
 }
 
+/** The fast end of the runner's easy range, set from their marathon effort: the pace their plans' `@ MP` resolves to. */
 function easyPaceFastest(inputs: RunnerCheckInputs, today: string): number | null {
-  const reference = referencePerformance(inputs.goal, inputs.results, today);
-  if (!reference) return null;
-  const easy = trainingPaceRanges(reference.distance_m, reference.time_s).ranges.find((r) => r.kind === 'easy');
-  return easy ? easy.fast.s_per_km : null;
+  const marathonEffort = racePacesFor(inputs.goal, inputs.results, today).MP;
+  return marathonEffort === undefined ? null : rangeFromMarathonEffort(EASY_RULE, marathonEffort).fast.s_per_km;
 }
 
 export interface RunnerWeek extends WeekReview {

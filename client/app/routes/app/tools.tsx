@@ -13,7 +13,7 @@ export default function ToolsRoute() {
       <PageHeader title="Tools">Calculators for race day and the training that leads to it.</PageHeader>
       <div className="grid gap-4">
         <PaceCalculator defaultUnit={profile.unit} />
-        <RaceResultTools />
+        <RaceResultTools unit={profile.unit} />
         <Card title="Fuel planner" description="Fuel items, and fuel plans for long runs and your goal race.">
           <p className="mb-3">
             Carbohydrate, fluid and sodium per hour for a long run or a race, and when to take each gel or drink, by distance and

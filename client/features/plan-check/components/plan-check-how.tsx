@@ -38,10 +38,10 @@ export function PlanCheckHow({ method, tolerance }: Pick<PlanCheck, 'method' | '
           range (before the tolerance): + slower, − quicker, 0 inside it.
         </li>
         <li>
-          <strong className="text-ink">Race paces</strong> in a plan (@ goal, @ MP, @ HMP, @ 10K, @ 5K) come from the profile
-          page: @ goal, and the pace of the goal race’s own distance, from the goal race; the others from the most recent race
-          result of the last 6 months (else from the goal race), carried to each distance with the Daniels &amp; Gilbert (1979)
-          equations.
+          <strong className="text-ink">Race paces</strong> in a plan (@ goal, and the race efforts @ MP, @ HMP, @ 10K, @ 5K) come
+          from the profile page: @ goal, and the pace of the goal race’s own distance, from the goal race; the others from the
+          most recent race result of the last 6 months (else from the goal race), carried to each distance with the Daniels &amp;
+          Gilbert (1979) equations — the same pace the Tools page shows for that race effort.
         </li>
         <li>
           <strong className="text-ink">The session</strong> is <em>as planned</em> when every part is on pace, <em>missed</em>{' '}

@@ -10,6 +10,7 @@ import {
   type DraftTargetType,
 } from '../../../../shared/plans/builder.ts';
 import { PACE_PERS, PART_KINDS, RELATIVE_PACE_REFS } from '../../../../shared/plans/types.ts';
+import { raceNamedPaceLabel } from '../../../../shared/race/training-ranges.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { CONTROL_CLASSES } from '../../../components/ui/field.tsx';
 import { cn } from '../../../lib/cn.ts';
@@ -25,18 +26,13 @@ type SessionBuilderProps = {
 const UNIT_LABELS: Record<DraftAmountUnit, string> = { mi: 'mi', km: 'km', m: 'm', time: 'min:sec' };
 const TARGET_LABELS: Record<DraftTargetType, string> = {
   pace: 'Pace range',
-  relative: 'Race pace',
+  relative: 'Race effort',
   heart_rate: 'Heart rate',
   effort: 'Effort only',
 };
 const PER_LABELS: Record<(typeof PACE_PERS)[number], string> = { mi: 'per mi', km: 'per km', rep: "for the part's distance" };
-const REF_LABELS: Record<(typeof RELATIVE_PACE_REFS)[number], string> = {
-  goal: 'goal race pace',
-  MP: 'marathon pace (MP)',
-  HMP: 'half marathon pace (HMP)',
-  '10K': '10K pace',
-  '5K': '5K pace',
-};
+/** "Marathon effort (@ MP)": the Tools page's words for each race-named pace, with its shorthand. */
+const refLabel = (ref: (typeof RELATIVE_PACE_REFS)[number]): string => `${raceNamedPaceLabel(ref)} (@ ${ref})`;
 
 /**
  * The form way of writing a session: parts and repeats in order, each movable with buttons (so the
@@ -355,7 +351,7 @@ function PartRow({
         )}
         {part.target === 'relative' && (
           <>
-            <Mini label="Race pace" context={name}>
+            <Mini label="Race effort" context={name}>
               {(control) => (
                 <select
                   {...control}
@@ -365,7 +361,7 @@ function PartRow({
                 >
                   {RELATIVE_PACE_REFS.map((r) => (
                     <option key={r} value={r}>
-                      {REF_LABELS[r]}
+                      {refLabel(r)}
                     </option>
                   ))}
                 </select>

@@ -54,8 +54,8 @@ export function ShorthandField({ value, onChange, result, inputRef }: ShorthandF
       ) : null}
       <p id={hintId} className="text-sm text-ink-muted">
         Parts separated by commas: an amount (2 mi, 800 m, 45 min), a kind (warm-up, easy, steady, tempo, goal pace, rep, jog,
-        cool-down, strides) and a target after @ (7:05/mi, 2:55-3:00 for the rep's distance, MP, 150-160 bpm). Repeats:{' '}
-        <code>6 x 800 m w/ 400 m jog</code>.
+        cool-down, strides) and a target after @ (7:05/mi, 2:55-3:00 for the rep's distance, a race effort such as MP, HMP, 10K or
+        5K, goal, 150-160 bpm). Repeats: <code>6 x 800 m w/ 400 m jog</code>.
       </p>
     </div>
   );

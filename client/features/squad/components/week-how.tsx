@@ -1,3 +1,5 @@
+import { describeMarathonEffortRule, EASY_RULE } from '../../../../shared/race/training-ranges.ts';
+
 // Figures follow shared/weeks/week-review.ts (VOLUME_JUMP_FRACTION, LOAD_SPIKE_RATIO, LONG_RUN_MIN_DURATION_S,
 // LONG_RUN_MIN_SHARE), shared/weeks/load.ts and shared/weeks/trimp.ts.
 
@@ -41,7 +43,9 @@ export function WeekHow() {
         <strong className="text-ink">Weekly distance up</strong> is flagged above 10 % more than the week before: a rule of thumb
         with no published source; a trial in novice runners (Buist et al. 2008) found no fewer injuries with it.{' '}
         <strong className="text-ink">Easy run too fast</strong>: a run whose plan is all easy running, with a mean pace quicker
-        than the fast end of the runner’s easy range (from their goal race or a recent result, Daniels &amp; Gilbert equations).
+        than the fast end of the runner’s easy range: {describeMarathonEffortRule(EASY_RULE)}, marathon effort being the pace
+        their plans’ @ MP resolves to (from their goal race or a recent result, Daniels &amp; Gilbert equations); the width of the
+        range is our own choice, as on the Tools page.
       </li>
     </ul>
   );

@@ -1,7 +1,14 @@
 import { useState } from 'react';
 import { describeDistance } from '../../../../shared/race/distances.ts';
-import type { TrainingPaces } from '../../../../shared/race/paces.ts';
-import { RaceResultFormSchema, type EquivalentsQuery, type EquivalentsResponse } from '../../../../shared/race/schemas.ts';
+import type { Pace, PaceUnit } from '../../../../shared/race/paces.ts';
+import {
+  RaceResultFormSchema,
+  type EquivalentsQuery,
+  type EquivalentsResponse,
+  type TrainingRangeAnswer,
+  type TrainingRangesAnswer,
+} from '../../../../shared/race/schemas.ts';
+import { describeMarathonEffortRule, EASY_RULE, STEADY_RULE } from '../../../../shared/race/training-ranges.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
@@ -13,8 +20,11 @@ import { HowComputedNote } from './how-computed-note.tsx';
 import { RaceEntryFields, readRaceEntry } from './race-entry-fields.tsx';
 import { ScrollTable, TD, TD_NUM, TH, TH_NUM } from './scroll-table.tsx';
 
-/** One race result → equivalent times at other distances, and training pace ranges, each with its method named. */
-export function RaceResultTools() {
+/**
+ * One race result → equivalent times at other distances, and training pace ranges named by race effort (plus easy and
+ * steady), each with its method named. Paces show in `unit`, the profile's unit.
+ */
+export function RaceResultTools({ unit }: { unit: PaceUnit }) {
   const [result, setResult] = useState<EquivalentsQuery | null>(null);
   const { onSubmit, fieldErrors } = useToolForm(RaceResultFormSchema, readRaceEntry, setResult);
 
@@ -43,12 +53,16 @@ export function RaceResultTools() {
           </p>
         )}
       </Card>
-      <Card title="Training pace ranges" description="Pace ranges for each kind of session, derived from the same race result.">
+      <Card
+        title="Training pace ranges"
+        description="Pace ranges for each kind of session, named by race effort, from the same race result."
+      >
         {result ? (
-          <TrainingPacesResult result={result} />
+          <TrainingRangesResult result={result} unit={unit} />
         ) : (
           <p className="text-sm text-ink-muted">
-            Enter a race result above to see pace ranges for easy, steady and hard sessions.
+            Enter a race result above to see your easy and steady ranges and your mile, 5K, 10K, half marathon and marathon
+            efforts.
           </p>
         )}
       </Card>
@@ -140,7 +154,7 @@ function EquivalentsTable({ result, data }: { result: EquivalentsQuery; data: Eq
   );
 }
 
-function TrainingPacesResult({ result }: { result: EquivalentsQuery }) {
+function TrainingRangesResult({ result, unit }: { result: EquivalentsQuery; unit: PaceUnit }) {
   // Training ranges come with the pace answer for the same race; the split unit does not change them.
   const paces = usePaces({ ...result, unit: 'km', negative_split_s: 0 });
   if (paces.isPending) return <Loading />;
@@ -148,30 +162,44 @@ function TrainingPacesResult({ result }: { result: EquivalentsQuery }) {
   return (
     <div aria-busy={paces.isPlaceholderData}>
       <p className="mb-3 rounded-md border-l-4 border-tartan bg-tartan-wash px-3 py-2 text-sm text-tartan-deep">
-        These ranges are common-practice starting points, not a prescription. A qualified coach adapts them to you: to heat,
-        hills, fatigue, illness and how you respond. Easy days go by feel first; slow down whenever the effort says so.
+        These ranges are starting points, not a prescription. A qualified coach adapts them to you: to heat, hills, fatigue,
+        illness and how you respond. Easy days go by feel first; slow down whenever the effort says so.
       </p>
-      <TrainingPacesTable paces={paces.data.training_paces} />
+      <TrainingRangesTable answer={paces.data.training_ranges} unit={unit} />
       <HowComputedNote>
         <p>
-          Your race gives a Daniels &amp; Gilbert index of{' '}
-          <strong className="text-ink">{paces.data.training_paces.index.toFixed(1)}</strong> (an effective VO₂max in ml per kg per
-          minute, from their 1979 oxygen-cost and sustainable-fraction equations).
+          <strong className="text-ink">Race efforts</strong> (mile, 5K, 10K, half marathon and marathon effort) are the paces of
+          your equivalent times in the race equivalents table above, by Riegel (1981) and by Daniels &amp; Gilbert (1979) side by
+          side; each range runs from one model’s pace to the other’s, and is a single pace at your own race’s distance.
         </p>
         <p>
-          Each range is a band of that index — for example 60–74 % for easy running. Its ends are the speeds whose oxygen cost, by
-          the same equations, equals that share of the index.
+          A session plan that says <strong className="text-ink">@ MP, @ HMP, @ 10K or @ 5K</strong> targets the Daniels &amp;
+          Gilbert pace of that row, taken from the goal race and race results on your profile: the same number you see here for
+          the same result.
         </p>
         <p>
-          The bands themselves are <strong className="text-ink">common practice</strong> in coaching, not taken from a published
-          table we have checked; only the equations are from Daniels &amp; Gilbert (1979).
+          <strong className="text-ink">Easy</strong> is {describeMarathonEffortRule(EASY_RULE)} and{' '}
+          <strong className="text-ink">steady</strong> {describeMarathonEffortRule(STEADY_RULE)} (the Daniels &amp; Gilbert
+          marathon effort). These widths are <strong className="text-ink">our own choice</strong>, not a published rule: easy is
+          wide so recovery days fit, and steady fills the gap up to marathon effort.
         </p>
       </HowComputedNote>
     </div>
   );
 }
 
-function TrainingPacesTable({ paces }: { paces: TrainingPaces }) {
+function paceIn(pace: Pace, unit: PaceUnit): string {
+  return formatPace(unit === 'mi' ? pace.s_per_mi : pace.s_per_km);
+}
+
+function rangeIn(range: TrainingRangeAnswer, unit: PaceUnit): string {
+  const slow = paceIn(range.slow, unit);
+  const fast = paceIn(range.fast, unit);
+  return slow === fast ? fast : `${slow}–${fast}`;
+}
+
+function TrainingRangesTable({ answer, unit }: { answer: TrainingRangesAnswer; unit: PaceUnit }) {
+  const per = unit === 'mi' ? 'mile' : 'km';
   return (
     <ScrollTable label="Training pace ranges">
       <thead>
@@ -180,13 +208,16 @@ function TrainingPacesTable({ paces }: { paces: TrainingPaces }) {
             Session
           </th>
           <th scope="col" className={TH_NUM}>
-            Per km
+            Range <span className="font-normal text-ink-muted">per {per}</span>
           </th>
           <th scope="col" className={TH_NUM}>
-            Per mile
+            Riegel <span className="font-normal text-ink-muted">(1981)</span>
           </th>
           <th scope="col" className={TH_NUM}>
-            Band
+            Daniels &amp; Gilbert <span className="font-normal text-ink-muted">(1979)</span>
+          </th>
+          <th scope="col" className={TH}>
+            Set by
           </th>
           <th scope="col" className={TH}>
             For
@@ -194,24 +225,34 @@ function TrainingPacesTable({ paces }: { paces: TrainingPaces }) {
         </tr>
       </thead>
       <tbody>
-        {paces.ranges.map((range) => (
-          <tr key={range.kind}>
-            <th scope="row" className={TD}>
-              {range.label}
-            </th>
-            <td className={TD_NUM}>
-              {formatPace(range.slow.s_per_km)}–{formatPace(range.fast.s_per_km)}
-            </td>
-            <td className={TD_NUM}>
-              {formatPace(range.slow.s_per_mi)}–{formatPace(range.fast.s_per_mi)}
-            </td>
-            <td className={TD_NUM}>
-              {Math.round(range.vo2max_fraction_low * 100)}–{Math.round(range.vo2max_fraction_high * 100)} %
-              <span className="block text-xs text-ink-muted">{range.source}</span>
-            </td>
-            <td className="min-w-56 border-t border-line px-3 py-1.5 text-ink-muted">{range.purpose}</td>
-          </tr>
-        ))}
+        {answer.ranges.map((range) => {
+          const isResult = range.basis === 'race-equivalent' && range.distance_m === answer.result.distance_m;
+          return (
+            <tr key={range.kind} className={isResult ? 'bg-teal-wash' : undefined}>
+              <th scope="row" className={TD}>
+                {range.label}
+                {range.basis === 'race-equivalent' && range.shorthand && (
+                  <span className="block text-xs font-normal text-ink-muted">in a plan: @ {range.shorthand}</span>
+                )}
+                {isResult && <span className="block text-xs font-semibold text-teal">your race</span>}
+              </th>
+              <td className={TD_NUM}>{rangeIn(range, unit)}</td>
+              <td className={TD_NUM}>{range.basis === 'race-equivalent' ? paceIn(range.riegel, unit) : '–'}</td>
+              <td className={TD_NUM}>{range.basis === 'race-equivalent' ? paceIn(range.daniels_gilbert, unit) : '–'}</td>
+              <td className="min-w-48 border-t border-line px-3 py-1.5 text-ink-muted">
+                {range.basis === 'race-equivalent' ? (
+                  range.source
+                ) : (
+                  <>
+                    {describeMarathonEffortRule(range)}
+                    <span className="block text-xs">{range.source}</span>
+                  </>
+                )}
+              </td>
+              <td className="min-w-56 border-t border-line px-3 py-1.5 text-ink-muted">{range.purpose}</td>
+            </tr>
+          );
+        })}
       </tbody>
     </ScrollTable>
   );

@@ -101,7 +101,7 @@ describe('expectedDurationFromPlan', () => {
   });
 
   it('says what to set when a race pace is missing', () => {
-    expect(() => courseFromPlanItems(items('10 mi @ MP'), {}, EIGHT_PER_MILE)).toThrow(/marathon pace/);
+    expect(() => courseFromPlanItems(items('10 mi @ MP'), {}, EIGHT_PER_MILE)).toThrow(/marathon effort/);
   });
 
   it.each([0, -300, Number.NaN])('refuses an easy pace of %s', (pace) => {

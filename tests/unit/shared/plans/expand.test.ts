@@ -97,7 +97,7 @@ describe('resolveTargets', () => {
       ref: 'goal',
       reason: 'No goal race pace yet: set a goal race on your profile.',
     });
-    expect(resolved[2]).toMatchObject({ type: 'unresolved', ref: 'MP', reason: expect.stringContaining('marathon pace') });
+    expect(resolved[2]).toMatchObject({ type: 'unresolved', ref: 'MP', reason: expect.stringContaining('marathon effort') });
     expect(resolved[5]).toMatchObject({ type: 'unresolved', ref: '10K' });
     expect(resolved[7]).toStrictEqual({ type: 'heart_rate', low_bpm: 140, high_bpm: 150 });
     expect(resolved[8]).toMatchObject({ type: 'pace', from: 'written' });

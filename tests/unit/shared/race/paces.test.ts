@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { HALF_MARATHON_M, MARATHON_M, MILE_M } from '../../../../shared/race/distances.ts';
-import { oxygenCost, performanceIndex } from '../../../../shared/race/equivalence.ts';
-import { paceFromGoal, splitTable, trainingPaceRanges, TRAINING_PACE_BANDS } from '../../../../shared/race/paces.ts';
+import { paceFromGoal, splitTable } from '../../../../shared/race/paces.ts';
 
 describe('paceFromGoal (international mile 1609.344 m)', () => {
   it.each<[string, number, number, number, number]>([
@@ -121,55 +120,5 @@ describe('splitTable, negative split as two even halves', () => {
     ['NaN split', 10000, 2400, Number.NaN],
   ])('refuses %s', (_name, d, goal, n) => {
     expect(() => splitTable(d, goal, { unit: 'km', negativeSplitS: n })).toThrow(RangeError);
-  });
-});
-
-describe('trainingPaceRanges (Daniels & Gilbert index × common-practice %VO₂max bands)', () => {
-  const paces = trainingPaceRanges(HALF_MARATHON_M, 5100);
-
-  it('uses the Daniels & Gilbert index of the result: half 1:25:00 → 54.4535 (references.md §3.2)', () => {
-    expect(paces.index).toBeCloseTo(54.4535, 4);
-    expect(paces.index_source).toMatch(/Daniels & Gilbert \(1979\)/);
-  });
-
-  it('labels every band as common practice, in the data', () => {
-    expect(paces.ranges.map((r) => r.kind)).toEqual(['easy', 'marathon', 'threshold', 'interval', 'repetition']);
-    for (const range of paces.ranges) expect(range.source).toBe('common practice');
-  });
-
-  it('each end of a range costs band × index in oxygen (inverse of VO₂(v), references.md §3.2)', () => {
-    for (const range of paces.ranges) {
-      const fastSpeed = 60_000 / range.fast.s_per_km; // m/min
-      const slowSpeed = 60_000 / range.slow.s_per_km;
-      expect(oxygenCost(fastSpeed)).toBeCloseTo(paces.index * range.vo2max_fraction_high, 9);
-      expect(oxygenCost(slowSpeed)).toBeCloseTo(paces.index * range.vo2max_fraction_low, 9);
-      expect(range.fast.s_per_mi).toBeCloseTo(range.fast.s_per_km * 1.609344, 9);
-    }
-  });
-
-  it('ranges run from slow to fast and get quicker from easy to repetition', () => {
-    for (const range of paces.ranges) expect(range.fast.s_per_km).toBeLessThan(range.slow.s_per_km);
-    const fastEnds = paces.ranges.map((r) => r.fast.s_per_km);
-    expect([...fastEnds].sort((a, b) => b - a)).toEqual(fastEnds);
-  });
-
-  it('100 % of the index is the speed the equations give for a race of about 11 minutes (F(t) = 1 at 11.03 min, references.md §3.2)', () => {
-    const interval = paces.ranges.find((r) => r.kind === 'interval')!;
-    const speed = 60_000 / interval.fast.s_per_km; // m/min at 100 %
-    expect(performanceIndex(speed * 11.0304, 11.0304 * 60)).toBeCloseTo(paces.index, 3);
-  });
-
-  it('bands are the documented ones (common practice, not from references.md)', () => {
-    expect(TRAINING_PACE_BANDS.map((b) => [b.kind, b.low, b.high])).toEqual([
-      ['easy', 0.6, 0.74],
-      ['marathon', 0.75, 0.84],
-      ['threshold', 0.83, 0.88],
-      ['interval', 0.95, 1.0],
-      ['repetition', 1.05, 1.1],
-    ]);
-  });
-
-  it('refuses a non-positive result', () => {
-    expect(() => trainingPaceRanges(0, 1200)).toThrow(RangeError);
   });
 });

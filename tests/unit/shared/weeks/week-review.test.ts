@@ -274,7 +274,7 @@ describe('summariseWeek: every flag explains itself and defers to the coach', ()
   it.each([
     ['volume-jump', /'10 % rule'.*no published source/],
     ['load-spike', /Gabbett.*2016.*Br J Sports Med 50:273–280/],
-    ['easy-too-fast', /Daniels & Gilbert.*common practice/],
+    ['easy-too-fast', /12–30 % more time per km than marathon effort.*Daniels & Gilbert.*our own choice/],
     ['long-run-missed', /plan/],
   ])('%s names its source and ends with the coach', (code, source) => {
     const flag = review.flags.find((f) => f.code === code);
