@@ -79,3 +79,20 @@ export const RunNoteSchema = z.object({
   created_at: z.string(),
 });
 export type RunNote = z.infer<typeof RunNoteSchema>;
+
+/**
+ * How a run's distance was measured (`details.distance` of `GET /api/runs/:id`; null for runs
+ * imported before it was recorded). See shared/tracks/README.md.
+ */
+export const DistanceReportSchema = z.object({
+  source: z.enum(['device', 'geodesic', 'none']),
+  /** Noisy positions were smoothed before measuring. */
+  smoothed: z.boolean(),
+  /** Measured position jitter per axis, m (positions only). */
+  jitter_m: z.number().nullable(),
+  median_interval_s: z.number().nullable(),
+  /** Point-to-point moving distance before smoothing, m. */
+  raw_distance_m: z.number(),
+  distance_m: z.number(),
+});
+export type DistanceReportAnswer = z.infer<typeof DistanceReportSchema>;

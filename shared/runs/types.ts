@@ -1,5 +1,5 @@
 import type { CleaningReport, Split } from '../tracks/types.ts';
-import type { RunListItem } from './schemas.ts';
+import type { DistanceReportAnswer, RunListItem } from './schemas.ts';
 
 /** `GET /api/runs` */
 export interface RunPage {
@@ -71,6 +71,8 @@ export interface RunDetail {
     format: string;
     hr_zones: HeartRateZonesDetail | null;
     energy: EnergyDetail | null;
+    /** Absent on runs imported before issue #14. */
+    distance?: DistanceReportAnswer | null;
   };
 }
 

@@ -8,7 +8,8 @@ import {
 } from './elevation.ts';
 import { geodesicDistance } from './geodesy.ts';
 import type { PointColumns } from './point-columns.ts';
-import type { CleanTrack, DistanceSource, TrackSeries } from './types.ts';
+import { arcFactors, localDistance, measureJitter, shouldSmooth, smoothPositions } from './position-smoother.ts';
+import type { CleanTrack, DistanceReport, DistanceSource, TrackSeries } from './types.ts';
 
 /**
  * Moving rule, step 1: an interval is moving when the displacement across a centred window around
@@ -88,6 +89,14 @@ export function buildSeries(track: CleanTrack): TrackSeries {
 
   const d = new Float64Array(n);
   const moving = new Uint8Array(n);
+  let report: DistanceReport = {
+    source,
+    smoothed: false,
+    jitter_m: null,
+    median_interval_s: null,
+    raw_distance_m: 0,
+    distance_m: 0,
+  };
   if (source === 'device') {
     const filled = fillMissing(t, withoutDistanceSpikes(t, points.column('distance_m'))) ?? new Float64Array(n);
     const d0 = filled[0] ?? 0;
@@ -98,16 +107,66 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     }
     const displacement = (a: number, b: number): number => (d[b] as number) - (d[a] as number);
     classifyMoving(t, segmentOf, displacement, moving);
+    const total = n > 0 ? (d[n - 1] as number) : 0;
+    report = { ...report, raw_distance_m: total, distance_m: total };
   } else if (source === 'geodesic') {
     const { lat, lon } = points;
-    const displacement = (a: number, b: number): number =>
-      approxDistance(lat[a] as number, lon[a] as number, lat[b] as number, lon[b] as number);
-    classifyMoving(t, segmentOf, displacement, moving);
-    for (let i = 1; i < n; i++) {
-      const step = moving[i]
-        ? geodesicDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number)
-        : 0;
-      d[i] = (d[i - 1] as number) + step;
+    const jitter = measureJitter(t, lat, lon, segmentBreak);
+    const smoothing = shouldSmooth(jitter);
+    if (smoothing) {
+      // Noisy 1–2 s track: moving time and distance from the smoothed path (position-smoother.ts),
+      // so standing jitter neither counts as moving nor adds length; the raw sum is kept for the report.
+      const smooth = smoothPositions(t, lat, lon, segmentBreak, jitter.sigma_m);
+      const displacement = (a: number, b: number): number =>
+        approxDistance(smooth.lat[a] as number, smooth.lon[a] as number, smooth.lat[b] as number, smooth.lon[b] as number);
+      classifyMoving(t, segmentOf, displacement, moving, noiseAwareMovingSpeed(jitter.sigma_m));
+      const bends = arcFactors(t, smooth.lat, smooth.lon, segmentBreak, moving);
+      let raw = 0;
+      for (let i = 1; i < n; i++) {
+        let step = 0;
+        if (moving[i]) {
+          step =
+            (bends[i] as number) *
+            localDistance(
+              smooth.lat[i - 1] as number,
+              smooth.lon[i - 1] as number,
+              smooth.lat[i] as number,
+              smooth.lon[i] as number,
+            );
+          raw += localDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number);
+        }
+        d[i] = (d[i - 1] as number) + step;
+      }
+      report = {
+        source,
+        smoothed: true,
+        jitter_m: jitter.sigma_m,
+        median_interval_s: jitter.median_interval_s,
+        raw_distance_m: raw,
+        distance_m: n > 0 ? (d[n - 1] as number) : 0,
+      };
+    } else {
+      const displacement = (a: number, b: number): number =>
+        approxDistance(lat[a] as number, lon[a] as number, lat[b] as number, lon[b] as number);
+      classifyMoving(t, segmentOf, displacement, moving);
+      const bends = arcFactors(t, lat, lon, segmentBreak, moving);
+      let raw = 0;
+      for (let i = 1; i < n; i++) {
+        const chord = moving[i]
+          ? geodesicDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number)
+          : 0;
+        raw += chord;
+        d[i] = (d[i - 1] as number) + chord * (bends[i] as number);
+      }
+      const total = n > 0 ? (d[n - 1] as number) : 0;
+      report = {
+        source,
+        smoothed: false,
+        jitter_m: jitter.sigma_m,
+        median_interval_s: Number.isFinite(jitter.median_interval_s) ? jitter.median_interval_s : null,
+        raw_distance_m: raw,
+        distance_m: total,
+      };
     }
   }
 
@@ -128,6 +187,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     cad: cad.some((v) => !Number.isNaN(v)) ? cad : null,
     flat_d: eleSmooth ? flatEquivalentDistances(d, eleSmooth) : null,
     distance_source: source,
+    distance_report: report,
   };
 }
 
@@ -197,11 +257,24 @@ function approxDistance(lat1: number, lon1: number, lat2: number, lon2: number):
   return Math.hypot(dx, dy);
 }
 
+/**
+ * The moving threshold (m/s) for a noisy track: wander of the positions while standing must not
+ * count as moving. White jitter σ seen in third differences (20σ²) is matched by a random walk
+ * of 20σ²/6 m² per second (third differences of a random walk: 6 × its step variance); over the
+ * window that walk drifts √(2·W·20σ²/6) metres (both axes, rms). A window must beat 1.5 times
+ * that drift (our margin) and never less than `MOVING_SPEED_MPS`.
+ */
+export function noiseAwareMovingSpeed(jitterM: number): number {
+  const drift = Math.sqrt((2 * MOVING_WINDOW_S * 20 * jitterM * jitterM) / 6);
+  return Math.max(MOVING_SPEED_MPS, (1.5 * drift) / MOVING_WINDOW_S);
+}
+
 function classifyMoving(
   t: Float64Array,
   segmentOf: Int32Array,
   displacement: (a: number, b: number) => number,
   moving: Uint8Array,
+  threshold = MOVING_SPEED_MPS,
 ): void {
   const n = t.length;
   const windowMs = MOVING_WINDOW_S * 1000;
@@ -211,8 +284,10 @@ function classifyMoving(
     let a = i - 1;
     let b = i;
     while ((t[b] as number) - (t[a] as number) < windowMs) {
-      const canLeft = a > 0 && segmentOf[a - 1] === seg;
-      const canRight = b + 1 < n && segmentOf[b + 1] === seg;
+      // A window never reaches across a recording gap or auto-pause (an interval longer than the
+      // window itself): the running just before and after it is judged on its own.
+      const canLeft = a > 0 && segmentOf[a - 1] === seg && (t[a] as number) - (t[a - 1] as number) <= windowMs;
+      const canRight = b + 1 < n && segmentOf[b + 1] === seg && (t[b + 1] as number) - (t[b] as number) <= windowMs;
       if (!canLeft && !canRight) break;
       const leftSpan = (t[i - 1] as number) - (t[a] as number);
       const rightSpan = (t[b] as number) - (t[i] as number);
@@ -220,7 +295,7 @@ function classifyMoving(
       else b++;
     }
     const seconds = ((t[b] as number) - (t[a] as number)) / 1000;
-    moving[i] = displacement(a, b) / seconds >= MOVING_SPEED_MPS ? 1 : 0;
+    moving[i] = displacement(a, b) / seconds >= threshold ? 1 : 0;
   }
   refineStopEdges(t, segmentOf, displacement, moving);
 }

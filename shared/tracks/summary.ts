@@ -22,6 +22,7 @@ export function summarizeRun(series: TrackSeries, segments: number): RunSummary 
     ended_at_t: last,
     distance_m: distance,
     distance_source: series.distance_source,
+    distance_report: series.distance_report,
     elapsed_s: n > 1 ? (last - first) / 1000 : 0,
     moving_s: moving,
     pace_s_per_km: paced ? moving / (distance / METRES_PER_KM) : null,

@@ -81,6 +81,21 @@ export interface CleanTrack {
 /** Where the distance of a run comes from. */
 export type DistanceSource = 'device' | 'geodesic' | 'none';
 
+/** How the distance of a run was measured, for the run page (see position-smoother.ts). */
+export interface DistanceReport {
+  source: DistanceSource;
+  /** True when noisy positions were smoothed before measuring (geodesic source only). */
+  smoothed: boolean;
+  /** Measured position jitter per axis, m (geodesic source), else null. */
+  jitter_m: number | null;
+  /** Median interval between points, s (geodesic source), else null. */
+  median_interval_s: number | null;
+  /** Moving distance point to point before smoothing, m (equal to `distance_m` when not smoothed). */
+  raw_distance_m: number;
+  /** The run's distance, m. */
+  distance_m: number;
+}
+
 /**
  * The per-point series every computation works on. Interval `i` (1 ≤ i < n) is the stretch
  * from point `i − 1` to point `i`.
@@ -105,6 +120,7 @@ export interface TrackSeries {
   /** Flat-equivalent distance of interval i (Minetti et al. 2002), or null without elevation. */
   flat_d: Float64Array | null;
   distance_source: DistanceSource;
+  distance_report: DistanceReport;
 }
 
 export type SplitUnit = 'mi' | 'km';
@@ -150,6 +166,7 @@ export interface RunSummary {
   ended_at_t: number;
   distance_m: number;
   distance_source: DistanceSource;
+  distance_report: DistanceReport;
   elapsed_s: number;
   moving_s: number;
   /** Moving pace, seconds per km and per mile; null without moving time or distance. */

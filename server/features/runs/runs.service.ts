@@ -7,7 +7,7 @@ import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.t
 import { seriesPositions } from '../../../shared/tracks/series.ts';
 import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
-import type { ImportResult, ListRunsQuery } from '../../../shared/runs/schemas.ts';
+import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
 import { db, isUniqueViolation, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
@@ -125,7 +125,12 @@ function buildRunRecord(user: UserRow, sourceFileId: string, parsed: ParsedRun, 
     avg_cad: summary.avg_cad,
     points: summary.points,
     segments: summary.segments,
-    details: { cleaning: parsed.track.report, format: parsed.format, ...profileDependentFigures(user, analysis) },
+    details: {
+      cleaning: parsed.track.report,
+      format: parsed.format,
+      distance: DistanceReportSchema.parse(summary.distance_report),
+      ...profileDependentFigures(user, analysis),
+    },
   };
   const { lat, lon } = seriesPositions(parsed.track, series);
   const columns: Record<string, Float64Array> = { t: series.t, d: series.d, lat, lon };

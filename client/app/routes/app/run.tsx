@@ -26,6 +26,7 @@ import { RunOwnerActions } from '../../../features/runs/components/run-owner-act
 import { RunSummary } from '../../../features/runs/components/run-summary.tsx';
 import { SplitTable } from '../../../features/runs/components/split-table.tsx';
 import { UnitToggle } from '../../../features/runs/components/unit-toggle.tsx';
+import { describeDistanceMeasure } from '../../../../shared/runs/display.ts';
 
 const UNIT_WORDS: Record<Unit, string> = { mi: 'mile', km: 'kilometre' };
 
@@ -58,6 +59,11 @@ export default function RunRoute() {
       <PageHeader title={run.name} />
       <div className="-mt-3 mb-5 flex flex-col gap-4">
         <RunSummary summary={run.summary} unit={unit} />
+        {run.details.distance && (
+          <p className="text-sm text-ink-muted" data-testid="distance-measure">
+            Distance: {describeDistanceMeasure(run.details.distance, unit)}
+          </p>
+        )}
         <div className="flex flex-wrap items-center justify-between gap-3">
           <RunDownloads runId={run.id} />
           {isOwner && <RunOwnerActions key={run.name} runId={run.id} name={run.name} />}

@@ -4,7 +4,7 @@ import type { RunDetail } from '../../../../shared/runs/types.ts';
 const DISTANCE_SOURCE = {
   device: 'the device’s own record of distance (TCX DistanceMeters), as the watch measured it',
   geodesic:
-    'the sum of distances between consecutive points on the WGS-84 ellipsoid (GeographicLib, Karney 2013); GPS jitter while stopped is not counted',
+    'the sum of distances between consecutive points on the WGS-84 ellipsoid (GeographicLib, Karney 2013); GPS jitter while stopped is not counted. On noisy 1–2 s files the positions are first smoothed (a constant-velocity Kalman filter with the Rauch–Tung–Striebel smoother, 1965), as strongly as the file’s own measured jitter calls for, because jitter makes a path drawn through the points read long; chords through bends are lengthened to the arc they cut',
   none: 'nothing: the file has neither positions nor a device distance',
 } as const;
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   describeCleaning,
+  describeDistanceMeasure,
   formatDistance,
   formatLocalDate,
   formatRunStart,
@@ -79,5 +80,25 @@ describe('describeCleaning', () => {
       '1 point without a time was left out.',
       '4 points with neither a position nor a distance were left out.',
     ]);
+  });
+});
+
+describe('describeDistanceMeasure', () => {
+  const base = { source: 'geodesic' as const, median_interval_s: 1, jitter_m: 0.31 };
+  it('says how much smoothing took off, in the unit shown', () => {
+    expect(describeDistanceMeasure({ ...base, smoothed: true, raw_distance_m: 10_130, distance_m: 10_000 }, 'km')).toBe(
+      'Noisy positions (0.31 m of jitter per point) were smoothed before measuring: the distance is 0.13 km (1.3 %) shorter than the point-to-point sum of 10.13 km.',
+    );
+  });
+  it('names clean, sparse and device-measured runs', () => {
+    expect(
+      describeDistanceMeasure({ ...base, jitter_m: 0.01, smoothed: false, raw_distance_m: 5000, distance_m: 5000 }, 'mi'),
+    ).toBe('Measured point to point, no smoothing (positions clean, 0.01 m of jitter per point).');
+    expect(
+      describeDistanceMeasure({ ...base, median_interval_s: 5, smoothed: false, raw_distance_m: 5000, distance_m: 5000 }, 'mi'),
+    ).toBe('Measured point to point, no smoothing (points 5 s apart).');
+    expect(describeDistanceMeasure({ ...base, source: 'device', smoothed: false, raw_distance_m: 1, distance_m: 1 }, 'mi')).toBe(
+      'The watch’s own distance was used (no smoothing).',
+    );
   });
 });

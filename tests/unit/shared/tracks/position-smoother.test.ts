@@ -1,0 +1,189 @@
+import { describe, expect, it } from 'vitest';
+import { geodesicDistance } from '../../../../shared/tracks/geodesy.ts';
+import {
+  arcFactors,
+  localDistance,
+  measureJitter,
+  metresPerDegree,
+  shouldSmooth,
+  smoothPositions,
+} from '../../../../shared/tracks/position-smoother.ts';
+import { createPrng } from '../../../../shared/tracks/synthetic.ts';
+
+function gaussian(random: () => number): number {
+  return Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
+}
+
+/** A straight run north-east at `speed` m/s, 1 s apart, with white noise of `sigma` m per axis. */
+function straight(n: number, speed: number, sigma: number, seed = 1) {
+  const random = createPrng(seed);
+  const scale = metresPerDegree(46);
+  const t = Float64Array.from({ length: n }, (_, i) => i * 1000);
+  const lat = Float64Array.from(
+    { length: n },
+    (_, i) => 46 + (i * speed * Math.SQRT1_2 + sigma * gaussian(random)) / scale.north,
+  );
+  const lon = Float64Array.from({ length: n }, (_, i) => 7 + (i * speed * Math.SQRT1_2 + sigma * gaussian(random)) / scale.east);
+  return { t, lat, lon, segment: new Uint8Array(n) };
+}
+
+describe('localDistance', () => {
+  // references.md §2.4(a): 100 m at azimuth 45° from (lat0, 0°) on WGS-84, GeographicLib 2.0.
+  it.each([
+    [0, 0.000639486, 0.000635205],
+    [45, 45.000636274, 0.000896821],
+    [70, 70.000633814, 0.001851774],
+  ])('agrees with the geodesic within 1 mm over 100 m at latitude %d°', (lat0, lat2, lon2) => {
+    expect(Math.abs(localDistance(lat0, 0, lat2, lon2) - 100)).toBeLessThan(0.001);
+    expect(Math.abs(localDistance(lat0, 0, lat2, lon2) - geodesicDistance(lat0, 0, lat2, lon2))).toBeLessThan(0.001);
+  });
+});
+
+describe('measureJitter', () => {
+  it.each([0.2, 0.5, 1.5])('finds white noise of %f m per axis within 10 %%', (sigma) => {
+    const track = straight(4000, 3.2, sigma, 3);
+    const jitter = measureJitter(track.t, track.lat, track.lon, track.segment);
+    expect(jitter.median_interval_s).toBe(1);
+    expect(Math.abs(jitter.sigma_m / sigma - 1)).toBeLessThan(0.1);
+    expect(shouldSmooth(jitter)).toBe(true);
+  });
+
+  it('calls a clean track clean and a sparse track sparse', () => {
+    const clean = straight(600, 3.2, 0);
+    expect(shouldSmooth(measureJitter(clean.t, clean.lat, clean.lon, clean.segment))).toBe(false);
+    const sparse = straight(600, 3.2, 1);
+    const t5 = sparse.t.map((x) => x * 5);
+    const jitter = measureJitter(t5, sparse.lat, sparse.lon, sparse.segment);
+    expect(jitter.median_interval_s).toBe(5);
+    expect(shouldSmooth(jitter)).toBe(false);
+  });
+
+  it('says nothing about tracks too short to measure', () => {
+    expect(measureJitter([0], [46], [7], [0]).sigma_m).toBe(0);
+    const short = straight(8, 3, 1);
+    expect(measureJitter(short.t, short.lat, short.lon, short.segment).sigma_m).toBe(0);
+  });
+});
+
+/**
+ * Rauch, Tung & Striebel (1965) show their smoother gives the maximum-likelihood estimate of all
+ * states of the linear Gaussian model. So the smoother must equal the batch least-squares solution
+ * of that model, solved here directly from the normal equations: prior x₀ ~ N([z₀, 0], diag(r, 100)),
+ * dynamics xₖ₊₁ − F xₖ ~ N(0, Q) with Q = q[[Δt³/3, Δt²/2], [Δt²/2, Δt]] (Bar-Shalom et al. 2001,
+ * §6.2.2), measurements zₖ − xₖ ~ N(0, r).
+ */
+function batchSmooth(t: number[], z: number[], r: number, q: number): number[] {
+  const n = z.length;
+  const m = 2 * n;
+  const A = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+  const b = new Array<number>(m).fill(0);
+  A[0]![0]! += 1 / r;
+  b[0]! += z[0]! / r;
+  A[1]![1]! += 1 / 100;
+  for (let k = 1; k < n; k++) {
+    A[2 * k]![2 * k]! += 1 / r;
+    b[2 * k]! += z[k]! / r;
+    const dt = (t[k]! - t[k - 1]!) / 1000;
+    const q00 = (q * dt ** 3) / 3;
+    const q01 = (q * dt ** 2) / 2;
+    const q11 = q * dt;
+    const det = q00 * q11 - q01 * q01;
+    const W = [
+      [q11 / det, -q01 / det],
+      [-q01 / det, q00 / det],
+    ];
+    // residual e = x_k − F x_{k−1} = G·[x_{k−1}, x_k] with G = [[-1, -dt, 1, 0], [0, -1, 0, 1]].
+    const G = [
+      [-1, -dt, 1, 0],
+      [0, -1, 0, 1],
+    ];
+    const idx = [2 * k - 2, 2 * k - 1, 2 * k, 2 * k + 1];
+    for (let i = 0; i < 4; i++)
+      for (let j = 0; j < 4; j++) {
+        let v = 0;
+        for (let a = 0; a < 2; a++) for (let c = 0; c < 2; c++) v += G[a]![i]! * W[a]![c]! * G[c]![j]!;
+        A[idx[i]!]![idx[j]!]! += v;
+      }
+  }
+  // Gaussian elimination.
+  for (let c = 0; c < m; c++) {
+    for (let row = c + 1; row < m; row++) {
+      const f = A[row]![c]! / A[c]![c]!;
+      if (f === 0) continue;
+      for (let j = c; j < m; j++) A[row]![j]! -= f * A[c]![j]!;
+      b[row]! -= f * b[c]!;
+    }
+  }
+  const x = new Array<number>(m).fill(0);
+  for (let row = m - 1; row >= 0; row--) {
+    let s = b[row]!;
+    for (let j = row + 1; j < m; j++) s -= A[row]![j]! * x[j]!;
+    x[row] = s / A[row]![row]!;
+  }
+  return Array.from({ length: n }, (_, k) => x[2 * k]!);
+}
+
+describe('smoothPositions', () => {
+  it('equals the batch maximum-likelihood solution of the same model (Rauch, Tung & Striebel 1965)', () => {
+    const random = createPrng(9);
+    const t = [0, 1000, 2000, 3000, 5000, 6000, 7000, 8500, 9500, 10500, 11500, 12500];
+    const north = t.map((ms) => 3 * (ms / 1000) + 0.8 * gaussian(random));
+    const scale = metresPerDegree(46);
+    const lat = north.map((y) => 46 + y / scale.north);
+    const lon = t.map(() => 7);
+    const sigma = 0.8;
+    const q = 0.05;
+    const smooth = smoothPositions(t, lat, lon, new Uint8Array(t.length), sigma, q);
+    const expected = batchSmooth(t, north, sigma * sigma, q);
+    smooth.lat.forEach((value, k) => expect((value - 46) * scale.north).toBeCloseTo(expected[k]!, 6));
+  });
+
+  it('leaves a straight run at constant speed where it is and shortens a noisy one', () => {
+    const clean = straight(300, 3.5, 0);
+    const same = smoothPositions(clean.t, clean.lat, clean.lon, clean.segment, 0.5);
+    // Within 1 cm: only the first seconds move, while the filter learns the speed (its prior is 0 ± 10 m/s).
+    same.lat.forEach((v, i) => expect(Math.abs(v - clean.lat[i]!) * metresPerDegree(46).north).toBeLessThan(0.01));
+    const noisy = straight(1200, 3.5, 0.5, 4);
+    const length = (lat: ArrayLike<number>, lon: ArrayLike<number>) => {
+      let s = 0;
+      for (let i = 1; i < lat.length; i++) s += localDistance(lat[i - 1]!, lon[i - 1]!, lat[i]!, lon[i]!);
+      return s;
+    };
+    const truth = 1199 * 3.5;
+    const smoothed = smoothPositions(noisy.t, noisy.lat, noisy.lon, noisy.segment, 0.5);
+    expect(length(noisy.lat, noisy.lon) / truth - 1).toBeGreaterThan(0.01);
+    expect(Math.abs(length(smoothed.lat, smoothed.lon) / truth - 1)).toBeLessThan(0.002);
+  });
+
+  it('restarts at segment starts and long gaps rather than smoothing across them', () => {
+    const track = straight(40, 3, 0.5, 5);
+    const segment = new Uint8Array(40);
+    segment[20] = 1;
+    const smooth = smoothPositions(track.t, track.lat, track.lon, segment, 0.5);
+    // Moving the second segment far away changes nothing in the first.
+    const moved = Float64Array.from(track.lat, (v, i) => (i >= 20 ? v + 0.01 : v));
+    const again = smoothPositions(track.t, moved, track.lon, segment, 0.5);
+    for (let i = 0; i < 20; i++) expect(again.lat[i]).toBe(smooth.lat[i]);
+  });
+});
+
+describe('arcFactors', () => {
+  it('gives back the arc a chord cuts on a circle and nothing on a straight', () => {
+    // 1 s chords on a circle of 12 m radius at 4.4 m/s: central angle 0.3667 rad each.
+    const radius = 12;
+    const step = 4.4 / radius;
+    const scale = metresPerDegree(46);
+    const n = 12;
+    const t = Array.from({ length: n }, (_, i) => i * 1000);
+    const lat = t.map((_, i) => 46 + (radius * Math.sin(i * step)) / scale.north);
+    const lon = t.map((_, i) => 7 + (radius * Math.cos(i * step)) / scale.east);
+    const factors = arcFactors(t, lat, lon, new Uint8Array(n), new Uint8Array(n).fill(1));
+    const expected = step / 2 / Math.sin(step / 2);
+    for (let i = 2; i < n - 1; i++) expect(factors[i]).toBeCloseTo(expected, 5);
+    expect(factors[1]).toBe(1);
+    const line = straight(10, 3, 0);
+    expect([...arcFactors(line.t, line.lat, line.lon, line.segment, new Uint8Array(10).fill(1))].every((f) => f === 1)).toBe(
+      true,
+    );
+  });
+});
