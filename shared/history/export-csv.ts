@@ -1,3 +1,4 @@
+import { CSV_LINE_END, csvCell, csvLine, csvNumber } from '../csv/csv-writer.ts';
 import { formatPace } from '../tracks/format.ts';
 import type { Split, SplitUnit } from '../tracks/types.ts';
 import { splitsToCsv } from '../runs/splits-csv.ts';
@@ -38,58 +39,46 @@ export const RUNS_CSV_COLUMNS = [
   'original_file',
 ] as const;
 
-const CRLF = '\r\n';
-
-/** One CSV cell (RFC 4180): quoted when it holds a comma, quote or line break; formula starts are defused. */
-export function csvCell(value: string): string {
-  const safe = /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
-  return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-}
-
-function fixed(value: number | null, decimals: number): string {
-  return value === null || !Number.isFinite(value) ? '' : value.toFixed(decimals);
-}
+const CRLF = CSV_LINE_END;
 
 function paceOf(run: ExportRun, unitM: number): string {
   return run.moving_s > 0 && run.distance_m > 0 ? formatPace(run.moving_s / (run.distance_m / unitM)) : '';
 }
 
 export function runsCsvHeader(): string {
-  return RUNS_CSV_COLUMNS.join(',') + CRLF;
+  return csvLine(RUNS_CSV_COLUMNS);
 }
 
-/** One runs.csv line (with its CRLF). Pace is from moving time, `m:ss` per km and per mile. */
+/** One runs.csv line (with its CRLF), by the app's one CSV writer. Pace is from moving time, `m:ss` per km and per mile. */
 export function runCsvLine(run: ExportRun): string {
-  return (
-    [
-      run.id,
-      csvCell(run.name),
-      run.local_date,
-      run.local_time,
-      run.time_zone,
-      fixed(run.distance_m, 1),
-      fixed(run.elapsed_s, 1),
-      fixed(run.moving_s, 1),
-      paceOf(run, 1000),
-      paceOf(run, 1609.344),
-      fixed(run.ascent_m, 1),
-      fixed(run.descent_m, 1),
-      fixed(run.avg_hr === null ? null : Math.round(run.avg_hr), 0),
-      fixed(run.max_hr === null ? null : Math.round(run.max_hr), 0),
-      csvCell(run.original_file),
-    ].join(',') + CRLF
-  );
+  return csvLine([
+    run.id,
+    run.name,
+    run.local_date,
+    run.local_time,
+    run.time_zone,
+    csvNumber(run.distance_m, 1),
+    csvNumber(run.elapsed_s, 1),
+    csvNumber(run.moving_s, 1),
+    paceOf(run, 1000),
+    paceOf(run, 1609.344),
+    csvNumber(run.ascent_m, 1),
+    csvNumber(run.descent_m, 1),
+    csvNumber(run.avg_hr === null ? null : Math.round(run.avg_hr), 0),
+    csvNumber(run.max_hr === null ? null : Math.round(run.max_hr), 0),
+    run.original_file,
+  ]);
 }
 
 /** The header of splits-mi.csv / splits-km.csv: `run_id` then the columns of one run's splits CSV. */
 export function allSplitsCsvHeader(unit: SplitUnit): string {
-  return `run_id,${splitsToCsv([], unit).split(CRLF)[0]!}${CRLF}`;
+  return `${csvCell('run_id')},${splitsToCsv([], unit).split(CRLF)[0]!}${CRLF}`;
 }
 
 /** A run's split lines for the all-runs CSV: exactly its splits CSV rows, each led by the run id. */
 export function allSplitsCsvLines(runId: string, splits: readonly Split[], unit: SplitUnit): string {
   const rows = splitsToCsv(splits, unit).split(CRLF).slice(1, -1);
-  return rows.map((row) => `${runId},${row}${CRLF}`).join('');
+  return rows.map((row) => `${csvCell(runId)},${row}${CRLF}`).join('');
 }
 
 /** A name safe inside a zip and on any disk: letters, digits, dot, dash and underscore only. */

@@ -1,3 +1,4 @@
+import { csvNumber, toCsv } from '../csv/csv-writer.ts';
 import type { PartCheck } from './plan-check.ts';
 
 const COLUMNS = [
@@ -15,26 +16,24 @@ const COLUMNS = [
   'verdict',
 ] as const;
 
-const num = (v: number | null | undefined, decimals: number) =>
-  v === null || v === undefined || !Number.isFinite(v) ? '' : v.toFixed(decimals);
-
-/** The plan check as CSV: one row per expanded part, paces in seconds per km, CRLF line ends (RFC 4180). */
+/**
+ * The plan check as CSV: one row per expanded part, paces in seconds per km (the difference stays a signed number),
+ * written by the app's one CSV writer (RFC 4180, CRLF, formula starts defused).
+ */
 export function planCheckToCsv(parts: readonly PartCheck[]): string {
-  const rows = parts.map((p) =>
-    [
-      String(p.index + 1),
-      p.kind,
-      num(p.planned.distance_m, 1),
-      num(p.planned.duration_s, 0),
-      num(p.planned.pace_fast_s_per_km, 1),
-      num(p.planned.pace_slow_s_per_km, 1),
-      num(p.actual.distance_m, 1),
-      num(p.actual.duration_s, 1),
-      num(p.actual.pace_s_per_km, 1),
-      num(p.actual.avg_hr === null ? null : Math.round(p.actual.avg_hr), 0),
-      num(p.difference_s_per_km, 1),
-      p.verdict,
-    ].join(','),
-  );
-  return [COLUMNS.join(','), ...rows].join('\r\n') + '\r\n';
+  const rows = parts.map((p) => [
+    p.index + 1,
+    p.kind,
+    csvNumber(p.planned.distance_m, 1),
+    csvNumber(p.planned.duration_s, 0),
+    csvNumber(p.planned.pace_fast_s_per_km, 1),
+    csvNumber(p.planned.pace_slow_s_per_km, 1),
+    csvNumber(p.actual.distance_m, 1),
+    csvNumber(p.actual.duration_s, 1),
+    csvNumber(p.actual.pace_s_per_km, 1),
+    csvNumber(p.actual.avg_hr === null ? null : Math.round(p.actual.avg_hr), 0),
+    csvNumber(p.difference_s_per_km, 1),
+    p.verdict,
+  ]);
+  return toCsv(COLUMNS, rows);
 }

@@ -1,3 +1,4 @@
+import { csvNumber, toCsv } from '../csv/csv-writer.ts';
 import { formatPace } from '../tracks/format.ts';
 import type { Split, SplitUnit } from '../tracks/types.ts';
 import { SPLIT_UNIT_M } from '../tracks/splits.ts';
@@ -18,32 +19,26 @@ export const SPLITS_CSV_COLUMNS = [
 
 const EXTRA_COLUMNS = ['flat_pace', 'avg_cadence'] as const;
 
-function fixed(value: number | null, decimals: number): string {
-  return value === null || !Number.isFinite(value) ? '' : value.toFixed(decimals);
-}
-
 /**
  * Splits as CSV (api-contract.md): a header row then one row per split. `distance` in `unit`
  * with 3 decimals, times in seconds with 1 decimal, pace `m:ss` per unit from moving time,
- * empty cells where a value is unknown. Lines end with CRLF (RFC 4180).
+ * empty cells where a value is unknown. Written by the app's one CSV writer (shared/csv/csv-writer.ts).
  */
 export function splitsToCsv(splits: readonly Split[], unit: SplitUnit): string {
   const unitM = SPLIT_UNIT_M[unit];
-  const rows = splits.map((s) =>
-    [
-      String(s.index),
-      unit,
-      (s.distance_m / unitM).toFixed(3),
-      fixed(s.elapsed_s, 1),
-      fixed(s.moving_s, 1),
-      formatPace(s.pace_s),
-      fixed(s.avg_hr === null ? null : Math.round(s.avg_hr), 0),
-      fixed(s.max_hr === null ? null : Math.round(s.max_hr), 0),
-      fixed(s.elev_gain_m, 1),
-      fixed(s.elev_loss_m, 1),
-      formatPace(s.flat_pace_s),
-      fixed(s.avg_cad === null ? null : Math.round(s.avg_cad), 0),
-    ].join(','),
-  );
-  return [[...SPLITS_CSV_COLUMNS, ...EXTRA_COLUMNS].join(','), ...rows].join('\r\n') + '\r\n';
+  const rows = splits.map((s) => [
+    s.index,
+    unit,
+    csvNumber(s.distance_m / unitM, 3),
+    csvNumber(s.elapsed_s, 1),
+    csvNumber(s.moving_s, 1),
+    formatPace(s.pace_s),
+    csvNumber(s.avg_hr === null ? null : Math.round(s.avg_hr), 0),
+    csvNumber(s.max_hr === null ? null : Math.round(s.max_hr), 0),
+    csvNumber(s.elev_gain_m, 1),
+    csvNumber(s.elev_loss_m, 1),
+    formatPace(s.flat_pace_s),
+    csvNumber(s.avg_cad === null ? null : Math.round(s.avg_cad), 0),
+  ]);
+  return toCsv([...SPLITS_CSV_COLUMNS, ...EXTRA_COLUMNS], rows);
 }

@@ -1,14 +1,5 @@
-/** CSV helpers for the week review and the squad overview (RFC 4180: quoted where needed, CRLF). */
-
-function cell(value: string | number | null | undefined): string {
-  if (value === null || value === undefined || (typeof value === 'number' && !Number.isFinite(value))) return '';
-  const text = String(value);
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
-
-export function toCsv(header: readonly string[], rows: ReadonlyArray<ReadonlyArray<string | number | null | undefined>>): string {
-  return [header.map(cell).join(','), ...rows.map((r) => r.map(cell).join(','))].join('\r\n') + '\r\n';
-}
+/** The week review and the squad overview as CSV, by the app's one CSV writer (shared/csv/csv-writer.ts). */
+import { toCsv, type CsvValue } from '../csv/csv-writer.ts';
 
 export interface WeekCsvDay {
   date: string;
@@ -24,7 +15,7 @@ export interface WeekCsvDay {
 
 /** One row per plan or run of the week: date, what, planned and run figures, verdict. */
 export function weekToCsv(days: readonly WeekCsvDay[]): string {
-  const rows: Array<Array<string | number | null>> = [];
+  const rows: CsvValue[][] = [];
   for (const day of days) {
     for (const p of day.plans)
       rows.push([
