@@ -13,6 +13,7 @@ import { createPlansRouter } from './features/plans/plans.routes.ts';
 import { createSquadsRouter } from './features/squads/squads.routes.ts';
 import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
+import { createNotesRouter } from './features/notes/notes.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { createHistoryRouter } from './features/history/history.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
@@ -70,6 +71,7 @@ export function createApp({
     createSquadsRouter(mailer, config),
     createOutboxRouter(config),
     createWeeksRouter(mailer, config),
+    createNotesRouter(),
     createFuelRouter(),
     createHistoryRouter(store, config),
   ];

@@ -142,6 +142,7 @@ export interface RunNoteRow {
   author_id: string;
   text: string;
   created_at: Date;
+  concern: NoteConcern | null;
 }
 
 export interface GoalRaceRow {
@@ -240,6 +241,16 @@ export interface WeekNoteRow {
   author_id: string;
   text: string;
   created_at: Date;
+  concern: NoteConcern | null;
+}
+
+/** What a runner may flag a note as being about (the coach is told at once). */
+export type NoteConcern = 'pain' | 'illness';
+
+export interface NoteReadRow {
+  note_id: string;
+  user_id: string;
+  read_at: Date;
 }
 
 export interface WeekReviewRow {
@@ -351,6 +362,7 @@ declare module 'knex/types/tables.js' {
     credential_failures: CredentialFailureRow;
     week_notes: WeekNoteRow;
     week_reviews: WeekReviewRow;
+    note_reads: NoteReadRow;
     fuel_items: FuelItemRow;
     fuel_plans: FuelPlanRow;
     fuel_taken: FuelTakenRow;

@@ -35,8 +35,8 @@ export function canReadRunnerData(actor: Actor, ownerId: string, coachIdsOfOwner
 }
 
 /** Roles the navigation shows each section to (client) — the same table the server enforces. */
-export function visibleSections(role: Role): Array<'log' | 'plan' | 'squad' | 'tools' | 'admin'> {
-  const sections: Array<'log' | 'plan' | 'squad' | 'tools' | 'admin'> = ['log', 'plan'];
+export function visibleSections(role: Role): Array<'log' | 'plan' | 'week' | 'squad' | 'tools' | 'admin'> {
+  const sections: Array<'log' | 'plan' | 'week' | 'squad' | 'tools' | 'admin'> = ['log', 'plan', 'week'];
   if (hasPermission(role, 'squads:manage')) sections.push('squad');
   sections.push('tools');
   if (hasPermission(role, 'users:manage')) sections.push('admin');

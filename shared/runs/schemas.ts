@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { NoteConcernSchema } from '../notes/schemas.ts';
 
 export const SplitUnitSchema = z.enum(['mi', 'km'], { error: 'Unit must be mi or km.' });
 
@@ -68,6 +69,8 @@ export const NewRunNoteInputSchema = z
       .trim()
       .min(1, 'Write the note first.')
       .max(4000, 'Keep a note under 4000 characters.'),
+    /** The runner flags a note about pain or illness; their coach is told at once. */
+    concern: NoteConcernSchema.nullable().optional(),
   })
   .strict();
 
@@ -77,6 +80,9 @@ export const RunNoteSchema = z.object({
   author: z.object({ id: z.string(), name: z.string(), role: z.string() }),
   text: z.string(),
   created_at: z.string(),
+  concern: NoteConcernSchema.nullable(),
+  /** The reader has not opened it yet (never true for the reader's own notes). */
+  unread: z.boolean(),
 });
 export type RunNote = z.infer<typeof RunNoteSchema>;
 

@@ -47,6 +47,8 @@ export interface WeekRun {
   pace_s_per_km: number | null;
   /** The plan this run was checked against, when known; otherwise runs are matched to plans by date. */
   plan_id?: string | null;
+  /** Moving seconds spent in goal-pace parts, from the plan check (0 or absent when none). */
+  goal_pace_s?: number;
 }
 
 export interface WeekReviewInput {
@@ -68,6 +70,11 @@ export interface WeekReviewInput {
   today: string;
   /** Unit for distances and paces in flag messages; km by default. */
   unit?: DistanceUnit;
+  /**
+   * Who reads the flags: the runner themself (the default: "You ran …") or their coach, in which case the
+   * messages name the runner ("Ivy ran …") and leave the decision to the coach reading them.
+   */
+  reader?: { role: 'runner' } | { role: 'coach'; runner_name: string };
 }
 
 export interface WeekFlag {
@@ -91,6 +98,12 @@ export interface WeekReview {
     run_distance_m: number;
     moving_s: number;
     sessions: { as_planned: number; partly: number; missed: number; unplanned: number };
+    /** Plans dated up to `today` (the runner's local date): the sessions that could have been run by now. */
+    sessions_due: number;
+    /** Moving time of the runs on plans given only by time, to set against `planned_duration_s`. */
+    moving_s_on_timed_plans: number;
+    /** Moving seconds spent in goal-pace parts (plan check). */
+    goal_pace_s: number;
     /** Sum of the runs' TRIMP; null when no run has one. */
     trimp: number | null;
     /** Runs with no TRIMP (no heart rate), so not in `trimp`. */
@@ -195,6 +208,9 @@ export function summariseWeek(input: WeekReviewInput): WeekReview {
     run_distance_m: runDistance,
     moving_s: sum(runs.map((r) => r.moving_s)),
     sessions,
+    sessions_due: plans.filter((p) => p.date <= input.today).length,
+    moving_s_on_timed_plans: sum(runs.filter((r) => timedPlanOf(r, plans)).map((r) => r.moving_s)),
+    goal_pace_s: sum(runs.map((r) => r.goal_pace_s ?? 0)),
     trimp: withTrimp.length > 0 ? sum(withTrimp.map((r) => r.trimp ?? 0)) : null,
     runs_without_trimp: runs.length - withTrimp.length,
   };
@@ -212,23 +228,31 @@ export function summariseWeek(input: WeekReviewInput): WeekReview {
       : acuteChronicRatio(input.daily_loads_last_28_days, input.today < weekEnd ? input.today : weekEnd);
 
   const flags: WeekFlag[] = [];
+  const voice = voiceOf(input.reader);
   const previous = input.previous_week_run_distance_m;
   if (previous !== null && previous > 0 && exceeds(runDistance, previous * (1 + VOLUME_JUMP_FRACTION))) {
-    flags.push(volumeJumpFlag(runDistance, previous, unit));
+    flags.push(volumeJumpFlag(runDistance, previous, unit, voice));
   }
   const ratio = acute_chronic_ratio?.ratio ?? null;
-  if (ratio !== null && exceeds(ratio, LOAD_SPIKE_RATIO)) flags.push(loadSpikeFlag(ratio));
+  if (ratio !== null && exceeds(ratio, LOAD_SPIKE_RATIO)) flags.push(loadSpikeFlag(ratio, voice));
   const easyFastest = input.easy_pace_fastest_s_per_km;
   if (easyFastest !== null && easyFastest > 0) {
     for (const run of runs) {
       if (run.pace_s_per_km === null || !(run.pace_s_per_km > 0) || run.pace_s_per_km >= easyFastest) continue;
       const plan = easyOnlyPlanOf(run, plans);
-      if (plan) flags.push(easyTooFastFlag(run, plan, easyFastest, unit));
+      if (plan) flags.push(easyTooFastFlag(run, plan, easyFastest, unit, voice));
     }
   }
-  for (const plan of missedPlans) if (plan.is_long_run) flags.push(longRunMissedFlag(plan, unit));
+  for (const plan of missedPlans) if (plan.is_long_run) flags.push(longRunMissedFlag(plan, unit, voice));
 
   return { days, totals, long_run, acute_chronic_ratio, flags };
+}
+
+/** The run's plan when it is given only by time (no distance part): its `plan_id`, else a plan of its date. */
+function timedPlanOf(run: WeekRun, plans: readonly WeekPlan[]): WeekPlan | null {
+  const timed = (p: WeekPlan | undefined) => (p && p.planned_distance_m === null && p.planned_duration_s !== null ? p : null);
+  if (run.plan_id != null) return timed(plans.find((p) => p.id === run.plan_id));
+  return timed(plans.find((p) => p.date === run.date));
 }
 
 /** The run's plan when it is easy-only: its `plan_id` when given, else the plans of its date when all are easy-only. */
@@ -241,50 +265,79 @@ function easyOnlyPlanOf(run: WeekRun, plans: readonly WeekPlan[]): WeekPlan | nu
   return sameDay.length > 0 && sameDay.every((p) => p.easy_only) ? (sameDay[0] as WeekPlan) : null;
 }
 
-function volumeJumpFlag(runDistance: number, previous: number, unit: DistanceUnit): WeekFlag {
+/** How a flag addresses its reader: the runner ("you") or the coach (the runner by name). */
+interface Voice {
+  /** "You" / "Ivy" at the start of a sentence. */
+  who: string;
+  /** "Your" / "Ivy's" at the start of a sentence. */
+  whose: string;
+  /** "your" / "Ivy's" inside a sentence. */
+  whoseInner: string;
+  /** The closing words that leave the decision to the coach. */
+  lastWord: (about: string) => string;
+}
+
+function voiceOf(reader: WeekReviewInput['reader']): Voice {
+  if (reader?.role === 'coach') {
+    const name = reader.runner_name.trim() || 'The runner';
+    return {
+      who: name,
+      whose: `${name}’s`,
+      whoseInner: `${name}’s`,
+      lastWord: (about) => `As the coach, you have the last word on ${about}.`,
+    };
+  }
+  return { who: 'You', whose: 'Your', whoseInner: 'your', lastWord: (about) => `Your coach has the last word on ${about}.` };
+}
+
+function volumeJumpFlag(runDistance: number, previous: number, unit: DistanceUnit, v: Voice): WeekFlag {
   const up = Math.round((runDistance / previous - 1) * 100);
   return {
     code: 'volume-jump',
     message:
-      `You ran ${formatDistance(runDistance, unit)} this week, ${up} % more than the ${formatDistance(previous, unit)} ` +
+      `${v.who} ran ${formatDistance(runDistance, unit)} this week, ${up} % more than the ${formatDistance(previous, unit)} ` +
       'of the week before. A common rule of thumb keeps weekly increases to about 10 %, though studies have not ' +
-      'shown that it prevents injury. Your coach has the last word on how fast to build up.',
+      `shown that it prevents injury. ${v.lastWord('how fast to build up')}`,
     source: SOURCES['volume-jump'],
   };
 }
 
-function loadSpikeFlag(ratio: number): WeekFlag {
+function loadSpikeFlag(ratio: number, v: Voice): WeekFlag {
   return {
     code: 'load-spike',
     message:
-      `Your training load over the last 7 days is ${ratio.toFixed(2)} times your average week over the last 4 weeks. ` +
+      `${v.whose} training load over the last 7 days is ${ratio.toFixed(2)} times the average week over the last 4 weeks. ` +
       'Gabbett (2016) linked ratios of 1.5 and above with more injuries in team-sport athletes; later studies ' +
-      'question that link, so read it as a sign that your load rose quickly, not as a prediction. Your coach has ' +
-      'the last word on whether to ease off.',
+      'question that link, so read it as a sign that the load rose quickly, not as a prediction. ' +
+      v.lastWord('whether to ease off'),
     source: SOURCES['load-spike'],
   };
 }
 
-function easyTooFastFlag(run: WeekRun, plan: WeekPlan, easyFastest: number, unit: DistanceUnit): WeekFlag {
+function easyTooFastFlag(run: WeekRun, plan: WeekPlan, easyFastest: number, unit: DistanceUnit, v: Voice): WeekFlag {
   return {
     code: 'easy-too-fast',
     message:
-      `Your run on ${formatDay(run.date)} ("${plan.title}") averaged ${formatPace(run.pace_s_per_km ?? 0, unit)}, ` +
-      `quicker than the fast end of your easy range (${formatPace(easyFastest, unit)}). Easy days kept easy ` +
-      'leave you fresh for the hard ones. Your coach has the last word on your paces.',
+      `${v.whose} run on ${formatDay(run.date)} ("${plan.title}") averaged ${formatPace(run.pace_s_per_km ?? 0, unit)}, ` +
+      `quicker than the fast end of ${v.whoseInner} easy range (${formatPace(easyFastest, unit)}). Easy days kept easy ` +
+      `leave the legs fresh for the hard ones. ${v.lastWord('the paces')}`,
     source: SOURCES['easy-too-fast'],
     plan_id: plan.id,
     run_id: run.id,
   };
 }
 
-function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit): WeekFlag {
+function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit, v: Voice): WeekFlag {
   const amount = plan.planned_distance_m !== null ? ` of ${formatDistance(plan.planned_distance_m, unit)}` : '';
   return {
     code: 'long-run-missed',
     message:
       `The long run${amount} planned for ${formatDay(plan.date)} ("${plan.title}") has no run recorded that day. ` +
-      'If it was moved or cut short, your coach can decide how to fit it into the coming weeks.',
+      `If it was moved or cut short, ${v
+        .lastWord('how to fit it into the coming weeks')
+        .replace(/\.$/, '')
+        .replace(/^As the coach, you have the last word on /, 'you decide, as the coach, ')
+        .replace(/^Your coach has the last word on /, 'your coach can decide ')}.`,
     source: SOURCES['long-run-missed'],
     plan_id: plan.id,
   };

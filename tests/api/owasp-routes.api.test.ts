@@ -80,6 +80,7 @@ interface World {
     squad: string;
     invitation: string;
     import: string;
+    weekNote: string;
   };
   inviteToken: string;
   resetToken: string;
@@ -181,7 +182,9 @@ async function buildWorld(): Promise<World> {
   const raceResult = (await must('race result', as(owner).post('/api/me/race-results').send(RACE_RESULT), 201)).body.result
     .id as string;
   await must('run note', as(owner).post(`/api/runs/${runId}/notes`).send({ text: 'Felt steady.' }), 201);
-  await must('week note', as(coach).post(`/api/runners/${owner.id}/weeks/2012-10-22/notes`).send({ text: 'Good week.' }), 201);
+  const weekNote = (
+    await must('week note', as(coach).post(`/api/runners/${owner.id}/weeks/2012-10-22/notes`).send({ text: 'Good week.' }), 201)
+  ).body.note.id as string;
   // Only a website session can mint a named token (issue 13 #12).
   const namedToken = (
     await must(
@@ -201,7 +204,7 @@ async function buildWorld(): Promise<World> {
 
   return {
     people,
-    ids: { run: runId, plan, fuelItem, raceResult, namedToken, squad, invitation, import: importId },
+    ids: { run: runId, plan, fuelItem, raceResult, namedToken, squad, invitation, import: importId, weekNote },
     inviteToken: linkTokenMailedTo(owner.email, 'inv'),
     resetToken: linkTokenMailedTo(people.spare.email, 'rst'),
     week: '2012-10-22',
@@ -362,6 +365,8 @@ const ROUTES: Record<string, Row> = {
     params: { id: ownerId, start: weekStart },
     body: () => ({ text: 'Legs were heavy.' }),
   },
+  'GET /api/me/unread': { caller: 'owner' },
+  'POST /api/notes/{id}/read': { caller: 'owner', params: { id: id((w) => w.ids.weekNote) }, takes: 'nothing' },
   'PUT /api/runners/{id}/weeks/{start}/review': {
     caller: 'coach',
     params: { id: ownerId, start: weekStart },

@@ -11,6 +11,7 @@ import type { Mailer } from '../../server/lib/mailer.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
+import { RunnerWeekSchema, WeekDayRunSchema } from '../../shared/weeks/week-answer.ts';
 import { startTestMail } from '../support/mail.ts';
 import { testConfig } from '../support/test-app.ts';
 
@@ -133,8 +134,63 @@ describe('GET /api/runners/:id/week', () => {
     expect(checkin.status).toBe(200);
     const week = (await request(app).get(`/api/runners/${runner.user.id}/week?start=2026-11-23`).set(coach.auth)).body;
     const run = week.days[1].runs[0];
-    expect(run.fuel_taken).toEqual({ entries: 1, stomach: 4, energy: 3, notes: 'Fine.' });
+    expect(run.fuel_taken).toEqual({
+      entries: 1,
+      carbohydrate_g: 0,
+      fluid_ml: 300,
+      sodium_mg: 0,
+      caffeine_mg: 0,
+      planned: null,
+      stomach: 4,
+      energy: 3,
+      notes: 'Fine.',
+    });
     expect(run.checkin).toMatchObject({ sleep_hours: 7.5, soreness: 2, cold_water_temp_c: 12, cold_water_minutes: 10 });
+    // The answer is exactly the shared schema: no field is sent that the client type does not know.
+    expect(RunnerWeekSchema.safeParse(week).success).toBe(true);
+    expect(Object.keys(run).sort()).toEqual(Object.keys(WeekDayRunSchema.shape).sort());
+    expect(Object.keys(week).sort()).toEqual(Object.keys(RunnerWeekSchema.shape).sort());
+  });
+
+  it('notes carry an unread marker for the other side until opened; the count follows', async () => {
+    const app = freshApp();
+    const runner = await person(app, 'runner', 'Wren Walker');
+    const coach = await person(app, 'coach', 'Cass Coach');
+    const stranger = await person(app, 'runner', 'Sol Stranger');
+    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'S' }).returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.user.id });
+    await upload(app, runner.auth, '2026-11-24', 6);
+    const runId = (await db('runs').first('id'))!.id as string;
+    const note = await request(app)
+      .post(`/api/runs/${runId}/notes`)
+      .set(runner.auth)
+      .send({ text: 'Calf tight late on.', concern: 'pain' });
+    expect(note.status).toBe(201);
+    expect(note.body.note).toMatchObject({ concern: 'pain', unread: false });
+    const coachConcern = await request(app)
+      .post(`/api/runs/${runId}/notes`)
+      .set(coach.auth)
+      .send({ text: 'x', concern: 'illness' });
+    expect(coachConcern.status).toBe(400);
+
+    const unread = (await request(app).get('/api/me/unread').set(coach.auth)).body;
+    expect(unread).toMatchObject({ count: 1, items: [{ kind: 'run-note', id: note.body.note.id, run_id: runId }] });
+    expect((await request(app).get('/api/me/unread').set(runner.auth)).body.count).toBe(0);
+    const week = (await request(app).get(`/api/runners/${runner.user.id}/week?start=2026-11-23`).set(coach.auth)).body;
+    expect(week.unread_notes).toBe(1);
+    expect(week.days[1].unread_notes).toBe(1);
+    expect(week.days[1].runs[0].notes[0]).toMatchObject({ text: 'Calf tight late on.', concern: 'pain', unread: true });
+
+    // Someone who cannot read the note: a clear 404 and nothing changes.
+    const foreign = await request(app).post(`/api/notes/${note.body.note.id}/read`).set(stranger.auth);
+    expect(foreign.status).toBe(404);
+    expect(foreign.body.error).toMatch(/no note with this id/);
+    expect(await db('note_reads').count({ n: '*' }).first()).toMatchObject({ n: '0' });
+
+    expect((await request(app).post(`/api/notes/${note.body.note.id}/read`).set(coach.auth)).status).toBe(204);
+    expect((await request(app).get('/api/me/unread').set(coach.auth)).body).toEqual({ count: 0, items: [] });
+    const notes = (await request(app).get(`/api/runs/${runId}/notes`).set(coach.auth)).body.notes;
+    expect(notes[0].unread).toBe(false);
   });
 });
 

@@ -8,16 +8,23 @@ import { cn } from '../../lib/cn.ts';
 const SECTIONS = {
   log: { label: 'Log', href: paths.log.getHref() },
   plan: { label: 'Plan', href: paths.plan.getHref() },
+  week: { label: 'My week', href: paths.myWeek.getHref() },
   squad: { label: 'Squad', href: paths.squad.getHref() },
   tools: { label: 'Tools', href: paths.tools.getHref() },
   admin: { label: 'Admin', href: paths.admin.getHref() },
 } as const;
 
-type AppShellProps = { role: Role; actions: ReactNode; children: ReactNode };
+type AppShellProps = {
+  role: Role;
+  actions: ReactNode;
+  children: ReactNode;
+  /** Unread notes per section (a small count beside its word), e.g. `{ log: 2, squad: 1 }`. */
+  unread?: Partial<Record<'log' | 'squad', number>>;
+};
 
 /** Top bar with the sections; below 768 px the same nav sits at the bottom of the screen, within thumb reach. */
-export function AppShell({ role, actions, children }: AppShellProps) {
-  const sections = visibleSections(role).map((section) => SECTIONS[section]);
+export function AppShell({ role, actions, children, unread = {} }: AppShellProps) {
+  const sections = visibleSections(role).map((key) => ({ key, ...SECTIONS[key] }));
   return (
     <div className="min-h-dvh">
       <a
@@ -42,12 +49,13 @@ export function AppShell({ role, actions, children }: AppShellProps) {
                     to={section.href}
                     className={({ isActive }) =>
                       cn(
-                        'flex h-14 items-center justify-center border-t-3 px-3 font-semibold md:h-full md:border-t-0 md:border-b-3',
+                        'flex h-14 items-center justify-center gap-1 border-t-3 px-2 text-sm font-semibold md:h-full md:border-t-0 md:border-b-3 md:px-3 md:text-base',
                         isActive ? 'border-teal text-teal' : 'border-transparent text-ink-muted hover:text-ink',
                       )
                     }
                   >
                     {section.label}
+                    <UnreadCount count={section.key === 'log' || section.key === 'squad' ? (unread[section.key] ?? 0) : 0} />
                   </NavLink>
                 </li>
               ))}
@@ -60,5 +68,19 @@ export function AppShell({ role, actions, children }: AppShellProps) {
         {children}
       </main>
     </div>
+  );
+}
+
+/** The number of notes the other side wrote that the user has not opened, read out with its meaning. */
+function UnreadCount({ count }: { count: number }) {
+  if (count <= 0) return null;
+  return (
+    <span
+      className="inline-flex min-w-5 items-center justify-center rounded-full bg-tartan px-1.5 text-xs leading-5 font-bold text-white tabular-nums"
+      data-unread-count={count}
+    >
+      {count > 99 ? '99+' : count}
+      <span className="sr-only"> unread {count === 1 ? 'note' : 'notes'}</span>
+    </span>
   );
 }

@@ -7,6 +7,7 @@ import {
   courseFromRace,
   FuelPlanError,
   scaleCourse,
+  type Amounts,
   type Bottle,
   type Course,
   type FuelItemFacts,
@@ -297,7 +298,7 @@ async function ownRun(actor: Actor, runId: string): Promise<RunRow> {
 }
 
 /** The fuel plan a run rehearsed: its session plan's (the chosen one, else the same day's), else on race day the goal race's. */
-async function fuelPlanOfRun(run: RunRow): Promise<FuelPlanRow | null> {
+async function fuelPlanOfRun(run: Pick<RunRow, 'id' | 'user_id' | 'local_date'>): Promise<FuelPlanRow | null> {
   const link = await findRunPlanLink(run.id);
   const plan = link
     ? link.plan_id
@@ -311,6 +312,14 @@ async function fuelPlanOfRun(run: RunRow): Promise<FuelPlanRow | null> {
   const goal = await findGoalRace(run.user_id);
   if (goal && goal.date === run.local_date) return (await findFuelPlan({ goal_race_user_id: run.user_id })) ?? null;
   return null;
+}
+
+/** The totals of the fuel plan a run rehearsed (carbohydrate, fluid, sodium, caffeine), or null without one. */
+export async function plannedFuelTotalsOf(run: Pick<RunRow, 'id' | 'user_id' | 'local_date'>): Promise<Amounts | null> {
+  const plan = await fuelPlanOfRun(run);
+  if (!plan) return null;
+  const { carbohydrate_g, fluid_ml, sodium_mg, caffeine_mg } = (plan.schedule as StoredSchedule).schedule.totals;
+  return { carbohydrate_g, fluid_ml, sodium_mg, caffeine_mg };
 }
 
 export interface FuelTakenView {

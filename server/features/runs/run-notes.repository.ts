@@ -1,4 +1,4 @@
-import { db, type Db } from '../../lib/db.ts';
+import { db, type Db, type NoteConcern } from '../../lib/db.ts';
 import type { RunNote } from '../../../shared/runs/schemas.ts';
 
 interface NoteWithAuthor {
@@ -9,10 +9,13 @@ interface NoteWithAuthor {
   author_id: string;
   author_name: string;
   author_role: string;
+  concern: NoteConcern | null;
 }
 
 function toRunNote(row: NoteWithAuthor): RunNote {
   return {
+    concern: row.concern,
+    unread: false,
     id: row.id,
     run_id: row.run_id,
     author: { id: row.author_id, name: row.author_name, role: row.author_role },
@@ -29,14 +32,21 @@ function notesWithAuthors(trx: Db) {
       'run_notes.run_id',
       'run_notes.text',
       'run_notes.created_at',
+      'run_notes.concern',
       'run_notes.author_id',
       'users.name as author_name',
       'users.role as author_role',
     );
 }
 
-export async function insertRunNote(runId: string, authorId: string, text: string, trx: Db = db): Promise<RunNote> {
-  const [{ id }] = (await trx('run_notes').insert({ run_id: runId, author_id: authorId, text }).returning('id')) as [
+export async function insertRunNote(
+  runId: string,
+  authorId: string,
+  text: string,
+  concern: NoteConcern | null = null,
+  trx: Db = db,
+): Promise<RunNote> {
+  const [{ id }] = (await trx('run_notes').insert({ run_id: runId, author_id: authorId, text, concern }).returning('id')) as [
     { id: string },
   ];
   const row = await notesWithAuthors(trx).where('run_notes.id', id).first();
@@ -45,4 +55,10 @@ export async function insertRunNote(runId: string, authorId: string, text: strin
 
 export async function listRunNotes(runId: string, trx: Db = db): Promise<RunNote[]> {
   return (await notesWithAuthors(trx).where('run_notes.run_id', runId).orderBy('run_notes.created_at', 'asc')).map(toRunNote);
+}
+
+/** Notes on several runs, oldest first. */
+export async function listRunNotesOf(runIds: readonly string[], trx: Db = db): Promise<RunNote[]> {
+  if (runIds.length === 0) return [];
+  return (await notesWithAuthors(trx).whereIn('run_notes.run_id', runIds).orderBy('run_notes.created_at', 'asc')).map(toRunNote);
 }

@@ -229,7 +229,9 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       status: 201,
     },
     async (req, res) => {
-      res.status(201).json({ note: await addNote(requireActor(res), parseIdParam(req.params.id), req.body.text) });
+      res
+        .status(201)
+        .json({ note: await addNote(requireActor(res), parseIdParam(req.params.id), req.body.text, req.body.concern ?? null) });
     },
   );
 

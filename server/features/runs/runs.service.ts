@@ -10,13 +10,14 @@ import type { Actor } from '../../../shared/auth/permissions.ts';
 import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
-import { db, isUniqueViolation, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
-import { NotFoundError } from '../../lib/errors.ts';
+import { db, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
+import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { assertCanReadRunner } from '../squads/runner-access.ts';
 import { decodeColumns, encodeColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
+import { findReadNoteIds } from '../notes/notes.repository.ts';
 import {
   findReferencedStorageKeys,
   holdOriginalFilesSharedLock,
@@ -405,12 +406,22 @@ export async function trackOf(actor: Actor, runId: string, maxPoints = 2000) {
 /** Notes on a run: the runner and anyone who may read the run (their coaches, admins) read and write them. */
 export async function notesOf(actor: Actor, runId: string) {
   const run = await getReadableRun(actor, runId);
-  return listRunNotes(run.id);
+  const notes = await listRunNotes(run.id);
+  const read = await findReadNoteIds(
+    actor.id,
+    notes.map((n) => n.id),
+  );
+  return notes.map((n) => ({ ...n, unread: n.author.id !== actor.id && !read.has(n.id) }));
 }
 
-export async function addNote(actor: Actor, runId: string, text: string) {
+/** Only the runner flags their own note as about pain or illness. */
+export async function addNote(actor: Actor, runId: string, text: string, concern: NoteConcern | null = null) {
   const run = await getReadableRun(actor, runId);
-  return insertRunNote(run.id, actor.id, text);
+  if (concern && run.user_id !== actor.id)
+    throw new ValidationError('Only the runner flags a note as about pain or illness.', [
+      { field: 'concern', message: 'Only the runner flags a note as about pain or illness.' },
+    ]);
+  return insertRunNote(run.id, actor.id, text, concern);
 }
 
 /** The stored series and device laps of a run the caller has already been allowed to read. */

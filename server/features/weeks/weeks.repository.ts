@@ -1,4 +1,4 @@
-import { db, type Db } from '../../lib/db.ts';
+import { db, type Db, type NoteConcern } from '../../lib/db.ts';
 import { RUN_LIST_COLUMNS, type RunListRow } from '../runs/runs.repository.ts';
 
 /** The run's TRIMP stored at import (`details.trimp.trimp`), null without heart rate. */
@@ -86,9 +86,20 @@ export async function listWeekNotes(runnerId: string, weekStart: string, trx: Db
     .where('week_notes.runner_id', runnerId)
     .andWhere('week_notes.week_start', weekStart)
     .orderBy('week_notes.created_at')
-    .select<Array<{ id: string; text: string; created_at: Date; author_id: string; author_name: string; author_role: string }>>(
+    .select<
+      Array<{
+        id: string;
+        text: string;
+        created_at: Date;
+        concern: NoteConcern | null;
+        author_id: string;
+        author_name: string;
+        author_role: string;
+      }>
+    >(
       'week_notes.id',
       'week_notes.text',
+      'week_notes.concern',
       'week_notes.created_at',
       'week_notes.author_id',
       'users.name as author_name',
@@ -96,9 +107,16 @@ export async function listWeekNotes(runnerId: string, weekStart: string, trx: Db
     );
 }
 
-export async function insertWeekNote(runnerId: string, weekStart: string, authorId: string, text: string, trx: Db = db) {
+export async function insertWeekNote(
+  runnerId: string,
+  weekStart: string,
+  authorId: string,
+  text: string,
+  concern: NoteConcern | null = null,
+  trx: Db = db,
+) {
   const [row] = await trx('week_notes')
-    .insert({ runner_id: runnerId, week_start: weekStart, author_id: authorId, text })
+    .insert({ runner_id: runnerId, week_start: weekStart, author_id: authorId, text, concern })
     .returning('id');
   return (row as { id: string }).id;
 }

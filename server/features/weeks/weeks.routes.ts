@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { NewRunNoteInputSchema } from '../../../shared/runs/schemas.ts';
 import { overviewToCsv, weekToCsv } from '../../../shared/weeks/csv.ts';
+import { RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
@@ -31,6 +32,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       summary: 'One runner’s week (start = any date in it): plans and runs with verdicts, totals, load, flags, notes',
       access: 'own-data',
       query: WeekQuerySchema,
+      response: RunnerWeekSchema,
     },
     async (req, res) => {
       const { start } = res.locals.query as z.infer<typeof WeekQuerySchema>;
@@ -66,7 +68,13 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     },
     async (req, res) => {
       res.status(201).json({
-        note: await addWeekNote(requireActor(res), parseIdParam(req.params.id), weekParam(req.params.start), req.body.text),
+        note: await addWeekNote(
+          requireActor(res),
+          parseIdParam(req.params.id),
+          weekParam(req.params.start),
+          req.body.text,
+          req.body.concern ?? null,
+        ),
       });
     },
   );

@@ -5,11 +5,18 @@ import { plannedVolume } from '../../../shared/plans/weeks.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import { EASY_RULE, rangeFromMarathonEffort } from '../../../shared/race/training-ranges.ts';
 import { localDateTime } from '../../../shared/runs/local-time.ts';
-import { longRunPlanId, summariseWeek, type WeekPlan, type WeekReview, type WeekRun } from '../../../shared/weeks/week-review.ts';
+import type { PartCheck } from '../../../shared/plans/plan-check.ts';
+import type { TakenEntry } from '../../../shared/fuel/taken.ts';
+import type { RunnerWeek, WeekFuelTaken } from '../../../shared/weeks/week-answer.ts';
+import { repsLine, verdictReason } from '../../../shared/weeks/verdict-reason.ts';
+import { longRunPlanId, summariseWeek, type WeekPlan, type WeekRun } from '../../../shared/weeks/week-review.ts';
 import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
-import type { SessionPlanRow, UserRow } from '../../lib/db.ts';
-import { NotFoundError } from '../../lib/errors.ts';
+import type { FuelTakenRow, NoteConcern, SessionPlanRow, UserRow } from '../../lib/db.ts';
+import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { findFuelTakenOf, findRunCheckinsOf } from '../fuel/fuel.repository.ts';
+import { plannedFuelTotalsOf } from '../fuel/fuel.service.ts';
+import { findReadNoteIds } from '../notes/notes.repository.ts';
+import { listRunNotesOf } from '../runs/run-notes.repository.ts';
 import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
 import { listPlansOf } from '../plans/plans.repository.ts';
 import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/plans.service.ts';
@@ -72,17 +79,10 @@ function easyPaceFastest(inputs: RunnerCheckInputs, today: string): number | nul
   return marathonEffort === undefined ? null : rangeFromMarathonEffort(EASY_RULE, marathonEffort).fast.s_per_km;
 }
 
-export interface RunnerWeek extends WeekReview {
-  runner_id: string;
-  runner: { id: string; name: string };
-  start: string;
-  end: string;
-  today: string;
-  week_starts_on: number;
-  trend: Array<{ start: string; run_distance_m: number; trimp: number }>;
-  last_upload: string | null;
-  reviewed_by: Array<{ coach_id: string; coach_name: string; reviewed_at: string }>;
-  notes: Array<{ id: string; text: string; created_at: string; author: { id: string; name: string; role: string } }>;
+/** Who reads a week: their id decides unread markers and the flags' wording, their unit the reasons' unit. */
+export interface WeekViewer {
+  id: string;
+  unit: 'km' | 'mi';
 }
 
 /** The dates one runner's week review covers: the week itself, the 12-week trend and the 28 days of load. */
@@ -116,7 +116,7 @@ const latest = (dates: string[]) => dates.reduce((a, b) => (b > a ? b : a));
  * all of them rather than a few per runner. `forReview` adds what only the week review shows: notes
  * and, per run, fuel taken and the after-run check-in.
  */
-async function buildWeeks(frames: WeekFrame[], forReview: boolean): Promise<RunnerWeek[]> {
+async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekViewer): Promise<RunnerWeek[]> {
   if (frames.length === 0) return [];
   const ids = frames.map((f) => f.runner.id);
   const weekFrom = earliest(frames.map((f) => f.start));
@@ -150,14 +150,22 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean): Promise<Runn
   );
   const weekRuns = [...weekRunsOf.values()].flat();
   const weekRunIds = weekRuns.map((r) => r.id);
-  const [checks, notes, fuelTaken, checkins] = await Promise.all([
+  const [checks, notes, fuelTaken, checkins, runNotes] = await Promise.all([
     checkRuns(weekRuns, inputsOf),
     forReview ? listWeekNotes(frames[0]!.runner.id, frames[0]!.start) : [],
     forReview ? findFuelTakenOf(weekRunIds) : [],
     forReview ? findRunCheckinsOf(weekRunIds) : [],
+    forReview ? listRunNotesOf(weekRunIds) : [],
   ]);
   const fuelOf = new Map(fuelTaken.map((f) => [f.run_id, f]));
   const checkinOf = new Map(checkins.map((c) => [c.run_id, c]));
+  const runNotesOf = groupBy(runNotes, (n) => n.run_id);
+  const runsById = new Map(weekRuns.map((r) => [r.id, r]));
+  const plannedFuel = new Map(
+    await Promise.all(fuelTaken.map(async (f) => [f.run_id, await plannedFuelTotalsOf(runsById.get(f.run_id)!)] as const)),
+  );
+  const readIds = await findReadNoteIds(viewer.id, [...notes.map((n) => n.id), ...runNotes.map((n) => n.id)]);
+  const unread = (authorId: string, id: string) => authorId !== viewer.id && !readIds.has(id);
 
   return frames.map((frame) => {
     const { runner, today, start, dates, end, trendStart, loadStart, historyFrom } = frame;
@@ -175,6 +183,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean): Promise<Runn
         session_verdict: check.result.session_verdict,
         pace_s_per_km: run.moving_s > 0 && run.distance_m > 0 ? run.moving_s / (run.distance_m / 1000) : null,
         plan_id: check.plan?.id ?? null,
+        goal_pace_s: goalPaceSeconds(check.result.parts),
       };
     });
 
@@ -197,7 +206,8 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean): Promise<Runn
       daily_loads_last_28_days: dailyLoads,
       easy_pace_fastest_s_per_km: easyPaceFastest(inputsOf.get(runner.id)!, today),
       today,
-      unit: runner.unit,
+      unit: viewer.unit,
+      reader: viewer.id === runner.id ? { role: 'runner' } : { role: 'coach', runner_name: runner.name },
     });
 
     const trend = Array.from({ length: TREND_WEEKS }, (_, k) => {
@@ -212,30 +222,42 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean): Promise<Runn
     });
 
     const itemsById = new Map(items.map((r) => [r.id, r]));
-    // What the runner noted after each run, for the coach: fuel taken and the after-run check-in.
+    // What the runner noted after each run, for the coach: fuel taken, the after-run check-in and the notes.
     const afterRun = (runId: string) => {
-      if (!forReview) return {};
-      const fuel = fuelOf.get(runId);
-      const checkin = checkinOf.get(runId);
+      const check = checks.get(runId)!;
+      const fuel = forReview ? fuelOf.get(runId) : undefined;
+      const checkin = forReview ? checkinOf.get(runId) : undefined;
       return {
-        fuel_taken: fuel
-          ? {
-              entries: Array.isArray(fuel.entries) ? fuel.entries.length : 0,
-              stomach: fuel.stomach,
-              energy: fuel.energy,
-              notes: fuel.notes,
-            }
-          : null,
+        verdict_reason: verdictReason(check.result, viewer.unit),
+        reps_line: repsLine(check.result.parts, viewer.unit),
+        fuel_taken: fuel ? fuelTakenSummary(fuel, plannedFuel.get(runId) ?? null) : null,
         checkin: checkin ? { ...checkin, updated_at: checkin.updated_at.toISOString() } : null,
+        notes: (runNotesOf.get(runId) ?? []).map((n) => ({
+          id: n.id,
+          text: n.text,
+          created_at: n.created_at,
+          author: n.author,
+          concern: n.concern,
+          unread: unread(n.author.id, n.id),
+        })),
       };
     };
+    const weekNotes = notes.map((n) => ({
+      id: n.id,
+      text: n.text,
+      created_at: n.created_at.toISOString(),
+      author: { id: n.author_id, name: n.author_name, role: n.author_role },
+      concern: n.concern,
+      unread: unread(n.author_id, n.id),
+    }));
+    const days = review.days.map((day) => {
+      const dayRuns = day.runs.map((r) => ({ ...toRunListItem(itemsById.get(r.id)!), ...r, ...afterRun(r.id) }));
+      return { ...day, runs: dayRuns, unread_notes: dayRuns.reduce((n, r) => n + r.notes.filter((x) => x.unread).length, 0) };
+    });
     const lastUpload = lastUploads.get(runner.id) ?? null;
     return {
       ...review,
-      days: review.days.map((day) => ({
-        ...day,
-        runs: day.runs.map((r) => ({ ...r, ...toRunListItem(itemsById.get(r.id)!), ...afterRun(r.id) })),
-      })),
+      days,
       runner_id: runner.id,
       runner: { id: runner.id, name: runner.name },
       start,
@@ -249,14 +271,33 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean): Promise<Runn
         coach_name: r.coach_name,
         reviewed_at: r.reviewed_at.toISOString(),
       })),
-      notes: notes.map((n) => ({
-        id: n.id,
-        text: n.text,
-        created_at: n.created_at.toISOString(),
-        author: { id: n.author_id, name: n.author_name, role: n.author_role },
-      })),
+      notes: weekNotes,
+      unread_notes: weekNotes.filter((n) => n.unread).length + days.reduce((n, d) => n + d.unread_notes, 0),
     };
   });
+}
+
+/** Moving seconds in goal-pace parts that were run (plan check). */
+function goalPaceSeconds(parts: readonly PartCheck[]): number {
+  return parts.filter((p) => p.kind === 'goal pace' && p.verdict !== 'missed').reduce((s, p) => s + p.actual.duration_s, 0);
+}
+
+/** What was taken on a run, added up from its entries, beside the fuel plan's totals when there is one. */
+function fuelTakenSummary(row: FuelTakenRow, planned: WeekFuelTaken['planned']): WeekFuelTaken {
+  const entries = (Array.isArray(row.entries) ? row.entries : []) as TakenEntry[];
+  const total = (key: 'carbohydrate_g' | 'fluid_ml' | 'sodium_mg' | 'caffeine_mg') =>
+    Math.round(entries.reduce((s, e) => s + (Number(e[key]) || 0), 0) * 10) / 10;
+  return {
+    entries: entries.length,
+    carbohydrate_g: total('carbohydrate_g'),
+    fluid_ml: total('fluid_ml'),
+    sodium_mg: total('sodium_mg'),
+    caffeine_mg: total('caffeine_mg'),
+    planned,
+    stomach: row.stomach,
+    energy: row.energy,
+    notes: row.notes,
+  };
 }
 
 /**
@@ -270,17 +311,28 @@ export async function buildRunnerWeek(
   now = new Date(),
 ): Promise<RunnerWeek> {
   await assertCanReadRunner(actor, runnerId);
-  const runner = await findUserById(runnerId);
+  const [runner, reader] = await Promise.all([findUserById(runnerId), findUserById(actor.id)]);
   if (!runner) throw new NotFoundError();
-  const [week] = await buildWeeks([frameOf(runner, requestedStart, now)], true);
+  const viewer = { id: actor.id, unit: reader?.unit ?? runner.unit };
+  const [week] = await buildWeeks([frameOf(runner, requestedStart, now)], true, viewer);
   return week!;
 }
 
 /** The runner and their coaches write notes on a week; the other side reads them. */
-export async function addWeekNote(actor: Actor, runnerId: string, start: string, text: string) {
+export async function addWeekNote(
+  actor: Actor,
+  runnerId: string,
+  start: string,
+  text: string,
+  concern: NoteConcern | null = null,
+) {
   await assertCanReadRunner(actor, runnerId);
-  const id = await insertWeekNote(runnerId, start, actor.id, text);
-  return { id, text };
+  if (concern && actor.id !== runnerId)
+    throw new ValidationError('Only the runner flags a note as about pain or illness.', [
+      { field: 'concern', message: 'Only the runner flags a note as about pain or illness.' },
+    ]);
+  const id = await insertWeekNote(runnerId, start, actor.id, text, concern);
+  return { id, text, concern };
 }
 
 /** A coach of the runner marks the week reviewed (or not). */
@@ -318,7 +370,8 @@ export async function buildSquadOverview(actor: Actor, squadId: string, week: st
     const user = users.get(m.id);
     return user ? [frameOf(user, week, now)] : [];
   });
-  const weeks = await buildWeeks(frames, false);
+  const coach = await findUserById(actor.id);
+  const weeks = await buildWeeks(frames, false, { id: actor.id, unit: coach?.unit ?? 'km' });
   const rows: OverviewRow[] = weeks.map((w) => {
     const s = w.totals.sessions;
     return {

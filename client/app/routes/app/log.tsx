@@ -15,7 +15,9 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { LinkButton } from '../../../components/ui/link-button.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
+import { useMe } from '../../../features/auth/api/get-me.ts';
 import { HistoryImport } from '../../../features/imports/components/history-import.tsx';
+import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import { MAX_RUNS_PER_PAGE, RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
 import { runKeys } from '../../../features/runs/api/run-keys.ts';
@@ -94,11 +96,13 @@ export default function LogRoute() {
   const sortRuns = (next: RunListSorting) =>
     void navigate(paths.log.getHref({ page: 1, month: monthParam, import: importId ?? undefined, ...next }));
   const pager = runListPagerLabels(sorting);
+  const me = useMe();
 
   return (
     <>
       <PageHeader title="Log">Your runs, split by mile and by kilometre, and a month of them at a glance.</PageHeader>
       <div className="flex flex-col gap-4">
+        {me && <NewNotesCard about={me.id} weekHref={(_runner, start) => paths.myWeek.getHref(start)} />}
         <Card title="Add runs" description="Each file is read on its own: splits per mile and per km appear within seconds.">
           <RunUpload unit={profile.unit} />
         </Card>

@@ -124,7 +124,7 @@ export default function RunRoute() {
       </div>
 
       <div className="mt-4">
-        <RunNotesCard runId={run.id} myId={me?.id} />
+        <RunNotesCard runId={run.id} myId={me?.id} ownerId={run.owner_id} />
       </div>
 
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">

@@ -10,6 +10,7 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
+import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import {
   squadOverviewCsvHref,
@@ -65,6 +66,11 @@ export default function SquadRoute() {
         Your runners’ weeks side by side: planned against run, sessions run as planned, flags to look at, and which weeks you have
         reviewed.
       </PageHeader>
+      {me && (
+        <div className="mb-4">
+          <NewNotesCard notAbout={me.id} weekHref={(runner, start) => paths.weekReview.getHref(runner, start)} />
+        </div>
+      )}
       {squad ? (
         <SquadWeek
           key={squad.id}

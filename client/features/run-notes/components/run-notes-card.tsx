@@ -7,16 +7,18 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { formatDateTime } from '../../../lib/format.ts';
+import { useMarkReadOnOpen } from '../../notes/components/mark-read-on-open.ts';
+import { UnreadDot } from '../../notes/components/unread-dot.tsx';
 import { useAddRunNote } from '../api/add-run-note.ts';
 import { useRunNotes } from '../api/get-run-notes.ts';
 
 /** The thread between a runner and their coaches about one run. */
-export function RunNotesCard({ runId, myId }: { runId: string; myId: string | undefined }) {
+export function RunNotesCard({ runId, myId, ownerId }: { runId: string; myId: string | undefined; ownerId?: string }) {
   return (
     <Card title="Notes" description="Between the runner and their coaches: nobody else reads them.">
       <div className="flex flex-col gap-4">
         <NoteThread runId={runId} myId={myId} />
-        <NoteForm runId={runId} />
+        <NoteForm runId={runId} canFlag={ownerId !== undefined && ownerId === myId} />
       </div>
     </Card>
   );
@@ -24,6 +26,8 @@ export function RunNotesCard({ runId, myId }: { runId: string; myId: string | un
 
 function NoteThread({ runId, myId }: { runId: string; myId: string | undefined }) {
   const { data: notes, isPending, error } = useRunNotes(runId);
+  // Opening the run opens its notes: marked read now, their "new" marker kept for this visit.
+  useMarkReadOnOpen((notes ?? []).filter((n) => n.unread).map((n) => n.id));
   if (isPending) return <p className="text-ink-muted">Loading the notes…</p>;
   if (error) return <FormAlert>{error.message}</FormAlert>;
   if (notes.length === 0) return <p className="text-ink-muted">No notes on this run yet.</p>;
@@ -48,19 +52,24 @@ function NoteItem({ note, mine }: { note: RunNote; mine: boolean }) {
           {' · '}
           <time dateTime={note.created_at}>{formatDateTime(note.created_at)}</time>
         </span>
+        {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
+        {note.unread && <UnreadDot />}
       </p>
       <p className="mt-1 break-words whitespace-pre-wrap">{note.text}</p>
     </li>
   );
 }
 
-function NoteForm({ runId }: { runId: string }) {
+function NoteForm({ runId, canFlag }: { runId: string; canFlag: boolean }) {
   const mutation = useAddRunNote(runId);
   const formRef = useRef<HTMLFormElement>(null);
   const { onSubmit, fieldErrors, formError } = useSchemaForm({
     schema: NewRunNoteInputSchema,
     mutation,
-    readValues: (data) => ({ text: readText(data, 'text') }),
+    readValues: (data) => ({
+      text: readText(data, 'text'),
+      ...(canFlag && data.get('concern') ? { concern: String(data.get('concern')) } : {}),
+    }),
     onSuccess: () => formRef.current?.reset(),
   });
 
@@ -78,6 +87,17 @@ function NoteForm({ runId }: { runId: string }) {
           />
         )}
       </FieldShell>
+      {canFlag && (
+        <FieldShell label="Is it about pain or illness?" hint="Your coach gets an e-mail at once." error={fieldErrors.concern}>
+          {(control) => (
+            <select name="concern" className={cn(CONTROL_CLASSES, 'min-h-11 px-3 text-base')} {...control}>
+              <option value="">No</option>
+              <option value="pain">Pain</option>
+              <option value="illness">Illness</option>
+            </select>
+          )}
+        </FieldShell>
+      )}
       <div>
         <Button type="submit" disabled={mutation.isPending}>
           {mutation.isPending ? 'Adding…' : 'Add note'}

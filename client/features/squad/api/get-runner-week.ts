@@ -1,6 +1,6 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
-import type { RunnerWeek } from './types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { weekKeys } from './week-keys.ts';
 
 /** `start` is any day of the week (the server finds the runner's own week start), or null for this week. */

@@ -1,20 +1,22 @@
-import { Link } from 'react-router-dom';
-import { formatDistance, pacePerUnit } from '../../../../shared/runs/display.ts';
-import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
+import { formatDistance } from '../../../../shared/runs/display.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import type { WeekPlan } from '../../../../shared/weeks/week-review.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
-import { paths } from '../../../config/paths.ts';
 import { cn } from '../../../lib/cn.ts';
-import type { RunnerWeek, WeekDayRun } from '../api/types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
+import { UnreadDot } from '../../notes/components/unread-dot.tsx';
+import { WeekRunEntry } from './week-run-entry.tsx';
 import { formatDay, formatHoursMinutes } from '../utils/week-format.ts';
 
-type WeekDaysProps = { week: RunnerWeek; unit: Unit };
+type WeekDaysProps = { week: RunnerWeek; unit: Unit; meId: string };
 
-/** The seven days side by side on a wide screen (a list of days on a phone): plans above, runs below. */
-export function WeekDays({ week, unit }: WeekDaysProps) {
+/**
+ * The seven days, one row each: on a wide screen the day, its plans and its runs side by side (the runs carry the
+ * runner's own words, so they get the room); on a phone the same stacked.
+ */
+export function WeekDays({ week, unit, meId }: WeekDaysProps) {
   return (
-    <ol className="grid grid-cols-1 gap-2 lg:grid-cols-7">
+    <ol className="grid grid-cols-1 gap-2">
       {week.days.map((day) => {
         const isToday = day.date === week.today;
         const missed = day.date < week.today && day.runs.length === 0;
@@ -23,21 +25,27 @@ export function WeekDays({ week, unit }: WeekDaysProps) {
             key={day.date}
             aria-label={formatDay(day.date, true)}
             className={cn(
-              'flex min-w-0 flex-col gap-2 rounded-md border bg-white p-2 lg:min-h-36',
+              'grid min-w-0 grid-cols-1 gap-2 rounded-md border bg-white p-2 lg:grid-cols-[7rem_minmax(0,1fr)_minmax(0,2fr)] lg:gap-4',
               isToday ? 'border-ink ring-1 ring-ink' : 'border-line',
             )}
           >
-            <h3 className="flex items-baseline justify-between gap-1 text-sm">
+            <h3 className="flex items-baseline justify-between gap-1 text-sm lg:flex-col lg:justify-start">
               <span className={cn('font-semibold', !isToday && 'text-ink-muted')}>{formatDay(day.date)}</span>
+              {day.unread_notes > 0 && <UnreadDot label={`${day.unread_notes} new`} />}
               {isToday && <span className="text-xs font-bold tracking-wide uppercase">today</span>}
             </h3>
-            {day.plans.map((plan) => (
-              <PlanEntry key={plan.id} plan={plan} unit={unit} missed={missed} />
-            ))}
-            {day.runs.map((run) => (
-              <RunEntry key={run.id} run={run} unit={unit} />
-            ))}
-            {day.plans.length === 0 && day.runs.length === 0 && <p className="text-sm text-ink-muted">Rest: nothing planned.</p>}
+            <div className="flex min-w-0 flex-col gap-2">
+              {day.plans.map((plan) => (
+                <PlanEntry key={plan.id} plan={plan} unit={unit} missed={missed} />
+              ))}
+              {day.plans.length === 0 && <p className="text-sm text-ink-muted">Nothing planned.</p>}
+            </div>
+            <div className="flex min-w-0 flex-col gap-2">
+              {day.runs.map((run) => (
+                <WeekRunEntry key={run.id} run={run} unit={unit} meId={meId} runnerId={week.runner_id} />
+              ))}
+              {day.runs.length === 0 && day.date <= week.today && <p className="text-sm text-ink-muted">No run.</p>}
+            </div>
           </li>
         );
       })}
@@ -61,29 +69,5 @@ function PlanEntry({ plan, unit, missed }: { plan: WeekPlan; unit: Unit; missed:
       </p>
       {missed && <Verdict verdict="missed" className="text-sm" />}
     </article>
-  );
-}
-
-function RunEntry({ run, unit }: { run: WeekDayRun; unit: Unit }) {
-  const pace = formatPace(pacePerUnit(run.pace_s_per_km, unit));
-  return (
-    <div className="flex flex-col gap-0.5 rounded-sm bg-paper px-2 py-1">
-      <Link
-        to={paths.run.getHref(run.id)}
-        className="text-sm font-semibold text-teal tabular-nums underline-offset-2 hover:underline"
-      >
-        {formatDistance(run.distance_m, unit)} {unit}
-        <span className="font-normal text-ink-muted"> · {run.name}</span>
-      </Link>
-      <p className="text-xs text-ink-muted tabular-nums">
-        {formatDuration(run.moving_s)} moving{pace && ` · ${pace} /${unit}`}
-        {run.trimp !== null && ` · TRIMP ${Math.round(run.trimp)}`}
-      </p>
-      {run.session_verdict ? (
-        <Verdict verdict={run.session_verdict} className="text-xs" />
-      ) : (
-        <span className="text-xs text-ink-muted">not checked</span>
-      )}
-    </div>
   );
 }

@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { paths } from '../../../config/paths.ts';
-import type { RunnerWeek } from '../api/types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { flagWords } from '../utils/week-format.ts';
 
 /** Each flag in words with its reason and where the rule comes from; flags describe, the coach decides. */

@@ -2,7 +2,7 @@ import { lazy, Suspense } from 'react';
 import { formatDistance } from '../../../../shared/runs/display.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { LOAD_SPIKE_RATIO } from '../../../../shared/weeks/week-review.ts';
-import type { RunnerWeek } from '../api/types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { formatDay, formatDayMonth } from '../utils/week-format.ts';
 
 const LoadTrendChart = lazy(() => import('./load-trend-chart.tsx'));

@@ -6,8 +6,9 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { formatDate } from '../../../lib/format.ts';
+import { UnreadDot } from '../../notes/components/unread-dot.tsx';
 import { useAddWeekNote } from '../api/add-week-note.ts';
-import type { RunnerWeek } from '../api/types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 
 const TIME = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 
@@ -39,6 +40,8 @@ export function WeekNotes({ week, meId, otherSide }: { week: RunnerWeek; meId: s
                 <span className="font-semibold text-ink">{note.author.id === meId ? 'You' : note.author.name}</span>
                 {note.author.role === 'coach' && note.author.id !== meId && ' (coach)'} · {formatDate(note.created_at)},{' '}
                 {TIME.format(new Date(note.created_at))}
+                {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
+                {note.unread && <UnreadDot />}
               </p>
               <p className="mt-1 break-words whitespace-pre-wrap">{note.text}</p>
             </li>

@@ -5,9 +5,10 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { formatDate } from '../../../lib/format.ts';
+import { useMarkReadOnOpen } from '../../notes/components/mark-read-on-open.ts';
 import { runnerWeekCsvHref } from '../api/get-runner-week.ts';
 import { useSetWeekReviewed } from '../api/set-week-reviewed.ts';
-import type { RunnerWeek } from '../api/types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { formatWeekRange } from '../utils/week-format.ts';
 import { WeekDays } from './week-days.tsx';
 import { WeekFlags } from './week-flags.tsx';
@@ -31,6 +32,11 @@ type WeekReviewProps = {
 
 /** One runner's week: the days, totals, load, flags, notes, and how every number is made. */
 export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekReviewProps) {
+  // Opening the week opens its notes: they are marked read now and keep their "new" marker for this visit.
+  useMarkReadOnOpen([
+    ...week.notes.filter((n) => n.unread).map((n) => n.id),
+    ...week.days.flatMap((d) => d.runs.flatMap((r) => r.notes.filter((n) => n.unread).map((n) => n.id))),
+  ]);
   const isCurrent = week.today >= week.start && week.today <= week.end;
   return (
     <div className="flex flex-col gap-4">
@@ -49,7 +55,7 @@ export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekRev
           </div>
         </div>
         <Reviewers week={week} meId={meId} />
-        <WeekDays week={week} unit={unit} />
+        <WeekDays week={week} unit={unit} meId={meId} />
       </Card>
 
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
@@ -65,7 +71,7 @@ export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekRev
           <Card title="Load">
             <WeekLoad week={week} unit={unit} />
           </Card>
-          <Card title="Notes">
+          <Card title={week.unread_notes > 0 ? `Notes · ${week.unread_notes} new` : 'Notes'}>
             <WeekNotes week={week} meId={meId} otherSide={viewer === 'coach' ? week.runner.name : 'your coach'} />
           </Card>
         </div>

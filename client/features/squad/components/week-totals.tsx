@@ -5,7 +5,7 @@ import { formatDuration } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
-import type { RunnerWeek } from '../api/types.ts';
+import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { formatDay, formatDaysAgo, formatHoursMinutes } from '../utils/week-format.ts';
 
 function Figure({ label, children, note }: { label: string; children: ReactNode; note?: ReactNode }) {
@@ -49,17 +49,28 @@ export function WeekTotals({ week, unit, today }: { week: RunnerWeek; unit: Unit
           {formatDistance(totals.run_distance_m, unit, 1)} {unit}
         </Figure>
       )}
-      <Figure
-        label="Moving time"
-        note={totals.planned_duration_s > 0 && `Planned by time: ${formatHoursMinutes(totals.planned_duration_s)}.`}
-      >
+      {totals.planned_duration_s > 0 && (
+        <Figure
+          label="Time: moving / planned"
+          note="Sessions given by time: the moving time of their runs against the time planned."
+        >
+          {formatHoursMinutes(totals.moving_s_on_timed_plans)} <span className="font-normal text-ink-muted">/</span>{' '}
+          {formatHoursMinutes(totals.planned_duration_s)}
+        </Figure>
+      )}
+      <Figure label="Moving time" note={`All runs of the week.`}>
         {formatDuration(totals.moving_s) || '0:00'}{' '}
         <span className="text-sm font-normal text-ink-muted">
           in {runCount} {runCount === 1 ? 'run' : 'runs'}
         </span>
       </Figure>
+      <Figure label="Time at goal pace" note="Moving time in the goal-pace parts of the week’s plans (plan check).">
+        {totals.goal_pace_s > 0 ? formatHoursMinutes(totals.goal_pace_s) : '–'}
+      </Figure>
       <div className="flex flex-col gap-1 sm:col-span-2">
-        <dt className="text-xs font-semibold tracking-wide text-ink-muted uppercase">Sessions</dt>
+        <dt className="text-xs font-semibold tracking-wide text-ink-muted uppercase">
+          Sessions: {sessions.as_planned} of {totals.sessions_due} due so far as planned
+        </dt>
         <dd className="flex flex-wrap gap-x-4 gap-y-1 tabular-nums">
           <Verdict verdict="as planned">as planned: {sessions.as_planned}</Verdict>
           <Verdict verdict="partly">partly: {sessions.partly}</Verdict>

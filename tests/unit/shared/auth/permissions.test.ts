@@ -31,9 +31,9 @@ describe('canReadRunnerData', () => {
 
 describe('visibleSections', () => {
   it.each([
-    ['runner', ['log', 'plan', 'tools']],
-    ['coach', ['log', 'plan', 'squad', 'tools']],
-    ['admin', ['log', 'plan', 'tools', 'admin']],
+    ['runner', ['log', 'plan', 'week', 'tools']],
+    ['coach', ['log', 'plan', 'week', 'squad', 'tools']],
+    ['admin', ['log', 'plan', 'week', 'tools', 'admin']],
   ] as const)('%s sees %j', (role, sections) => {
     expect(visibleSections(role)).toEqual(sections);
   });

@@ -115,9 +115,30 @@ describe('summariseWeek: the finished week', () => {
       run_distance_m: 33_300,
       moving_s: 10_180,
       sessions: { as_planned: 2, partly: 1, missed: 2, unplanned: 1 }, // Sat and Sun missed
+      sessions_due: 5, // the week is over: every plan of the week was due
+      moving_s_on_timed_plans: 2700, // Thursday's run on "45 min easy" against its 2700 s
+      goal_pace_s: 0,
       trimp: 185.5,
       runs_without_trimp: 1,
     });
+  });
+
+  it('counts as due only the sessions dated up to today, and adds up time at goal pace', () => {
+    const midweek = summariseWeek(
+      input({ today: '2026-10-15', runs: RUNS.map((r) => (r.id === 'r-wed' ? { ...r, goal_pace_s: 1500 } : r)) }),
+    );
+    expect(midweek.totals.sessions_due).toBe(3); // Mon, Wed, Thu; Sat and Sun are still ahead
+    expect(midweek.totals.goal_pace_s).toBe(1500);
+  });
+
+  it('words the flags for the coach with the runner’s name', () => {
+    const coach = summariseWeek(
+      input({ previous_week_run_distance_m: 20_000, reader: { role: 'coach', runner_name: 'Ivy Calder' } }),
+    );
+    const messages = coach.flags.map((f) => f.message);
+    expect(messages[0]).toMatch(/^Ivy Calder ran 33\.3 km this week, 67 % more/);
+    expect(messages.join(' ')).not.toMatch(/\b(You|Your|your)\b/);
+    expect(messages.join(' ')).toContain('As the coach, you have the last word');
   });
 
   it('names the longest run and its share of the week', () => {
@@ -203,7 +224,7 @@ describe('summariseWeek: load-spike (Gabbett 2016, coupled ratio above 1.5)', ()
 
   it('explains itself as a description, not a prediction', () => {
     const flag = summariseWeek(input({ daily_loads_last_28_days: weeklyLoads([40, 40, 40, 80]) })).flags[0];
-    expect(flag?.message).toContain('1.60 times your average week over the last 4 weeks');
+    expect(flag?.message).toContain('1.60 times the average week over the last 4 weeks');
     expect(flag?.message).toContain('not as a prediction');
   });
 });
