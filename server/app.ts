@@ -10,6 +10,7 @@ import { createAuthRouter } from './features/auth/auth.routes.ts';
 import { createFuelRouter } from './features/fuel/fuel.routes.ts';
 import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createPlansRouter } from './features/plans/plans.routes.ts';
+import { createPrescribeRouter } from './features/plans/prescribe.routes.ts';
 import { createSquadsRouter } from './features/squads/squads.routes.ts';
 import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
@@ -67,6 +68,7 @@ export function createApp({
     createRunsRouter(store, config, mailer),
     createGoalsRouter(),
     createToolsRouter(),
+    createPrescribeRouter(),
     createPlansRouter(),
     createSquadsRouter(mailer, config),
     createOutboxRouter(config),

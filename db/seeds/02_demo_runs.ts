@@ -128,7 +128,14 @@ export async function seed(knex: Knex, store: FileStore, today = new Date()): Pr
   for (const [r, runner] of runners.entries()) {
     const speed = RUNNER_SPEEDS[runner.email.split('@')[0]!] ?? 3.3;
     const files: UploadedFile[] = [];
-    const plans: Array<{ runner_id: string; author_id: string | null; date: string; title: string; items: string }> = [];
+    const plans: Array<{
+      runner_id: string;
+      author_id: string | null;
+      updated_by: string | null;
+      date: string;
+      title: string;
+      items: string;
+    }> = [];
     // The goal: an invented autumn-style marathon ten weeks out, at the pace of the long runs' last half hour.
     const raceDay = new Date(mondayThisWeek + (10 * 7 + 6) * 86_400_000).toISOString().slice(0, 10);
     await knex('goal_races').insert({
@@ -138,7 +145,8 @@ export async function seed(knex: Knex, store: FileStore, today = new Date()): Pr
       distance_m: 42195,
       goal_time_s: Math.round(42195 / (speed * 1.05)),
     });
-    for (let d = 0; d < WEEKS * 7 + 7; d++) {
+    // Plans run through next week: the week the demo coach has just prescribed.
+    for (let d = 0; d < WEEKS * 7 + 14; d++) {
       const date = firstMonday + d * 86_400_000;
       const week = Math.floor(d / 7);
       const planned = sessionFor(d % 7, speed, week % 3);
@@ -149,11 +157,12 @@ export async function seed(knex: Knex, store: FileStore, today = new Date()): Pr
       plans.push({
         runner_id: runner.id,
         author_id: coach?.id ?? null,
+        updated_by: coach?.id ?? null,
         date: iso,
         title: TITLES[planned.label]!,
         items: JSON.stringify(parsed.items),
       });
-      if (date >= day) continue; // runs up to yesterday, plans for the rest of this week too
+      if (date >= day) continue; // runs up to yesterday, plans for the rest of this week and next week too
       // A little of real life: Tomás skips a rep and misses a long run; Priya cuts a goal-pace block short.
       if (r === 1 && planned.label === 'long run' && week === WEEKS - 2) continue;
       let session = r === 1 && planned.label === 'intervals' && week === WEEKS - 1 ? withSkippedRep(planned, speed) : planned;

@@ -23,6 +23,7 @@ export interface UserRow {
   time_zone: string;
   pace_tolerance: number;
   notify_on_import: boolean;
+  notify_on_plan_change: boolean;
   week_starts_on: number;
   sex: 'male' | 'female' | null;
   created_at: Date;
@@ -174,6 +175,58 @@ export interface SessionPlanRow {
   items: unknown;
   created_at: Date;
   updated_at: Date;
+  updated_by: string | null;
+  sequence: number;
+}
+
+export interface PlanChangeRow {
+  id: string;
+  plan_id: string;
+  runner_id: string;
+  actor_id: string | null;
+  actor_name: string;
+  kind: 'added' | 'changed' | 'moved' | 'deleted';
+  summary: string;
+  plan_date: string;
+  created_at: Date;
+  noticed_at: Date | null;
+}
+
+export interface LibrarySessionRow {
+  id: string;
+  owner_id: string;
+  name: string;
+  title: string;
+  notes: string;
+  items: unknown;
+  fuel_plan: unknown;
+  created_at: Date;
+  updated_at: Date;
+}
+
+export interface PlanBatchRow {
+  id: string;
+  actor_id: string;
+  kind: 'copy-week' | 'assign';
+  created_ids: unknown;
+  replaced: unknown;
+  created_at: Date;
+}
+
+export interface DayMarkRow {
+  runner_id: string;
+  date: string;
+  kind: 'rest' | 'ill' | 'injured' | 'cross-training';
+  minutes: number | null;
+  note: string;
+  author_id: string | null;
+  updated_at: Date;
+}
+
+export interface CalendarFeedRow {
+  user_id: string;
+  token_hash: string;
+  created_at: Date;
 }
 
 export interface RunPlanLinkRow {
@@ -354,6 +407,11 @@ declare module 'knex/types/tables.js' {
     race_results: RaceResultRow;
     session_plans: SessionPlanRow;
     run_plan_links: RunPlanLinkRow;
+    plan_changes: PlanChangeRow;
+    library_sessions: LibrarySessionRow;
+    plan_batches: PlanBatchRow;
+    day_marks: DayMarkRow;
+    calendar_feeds: CalendarFeedRow;
     plan_check_results: PlanCheckResultRow;
     dev_outbox: DevOutboxRow;
     invitations: InvitationRow;

@@ -220,6 +220,11 @@ export const PlanSchema = z.object({
   parts: z.array(PlanItemSchema),
   runner_id: z.string(),
   author_id: z.string().nullable(),
+  /** Who wrote the session (null when that account is gone), who changed it last, and when. */
+  author_name: z.string().nullable(),
+  updated_at: z.string(),
+  updated_by_name: z.string().nullable(),
+  created_at: z.string(),
 });
 export type Plan = z.infer<typeof PlanSchema>;
 

@@ -54,6 +54,7 @@ export const ProfileSchema = UserSchema.extend({
   time_zone: z.string(),
   pace_tolerance: z.number(),
   notify_on_import: z.boolean(),
+  notify_on_plan_change: z.boolean(),
   week_starts_on: z.number().int(),
   sex: z.enum(['male', 'female']).nullable(),
   created_at: z.string(),
@@ -89,6 +90,7 @@ export const UpdateProfileInputSchema = z
       .nullable(),
     pace_tolerance: PaceToleranceSchema,
     notify_on_import: z.boolean({ error: 'Choose yes or no.' }),
+    notify_on_plan_change: z.boolean({ error: 'Choose yes or no.' }),
     week_starts_on: z
       .number({ error: 'Choose the day your week starts on.' })
       .int()

@@ -7,6 +7,7 @@
 import { describeMarathonEffortRule, EASY_RULE } from '../race/training-ranges.ts';
 import { acuteChronicRatio, type AcuteChronic, type DailyLoad } from './load.ts';
 import { dayOfWeek, isIsoDate, weekDates } from './weeks.ts';
+import { crossTrainingSeconds, missedReasonOf, type WeekDayMark, type MissedReason } from './day-marks.ts';
 
 /** A long run is at least this long by planned time (common practice, not a published threshold). */
 export const LONG_RUN_MIN_DURATION_S = 90 * 60;
@@ -75,6 +76,8 @@ export interface WeekReviewInput {
    * messages name the runner ("Ivy ran …") and leave the decision to the coach reading them.
    */
   reader?: { role: 'runner' } | { role: 'coach'; runner_name: string };
+  /** Days marked rest, ill, injured or cross-training (at most one per date); none by default. */
+  day_marks?: WeekDayMark[];
 }
 
 export interface WeekFlag {
@@ -87,7 +90,9 @@ export interface WeekFlag {
 }
 
 export interface WeekReview {
-  days: Array<{ date: string; plans: WeekPlan[]; runs: WeekRun[] }>;
+  days: Array<{ date: string; plans: WeekPlan[]; runs: WeekRun[]; day_marks: WeekDayMark[] }>;
+  /** Plans before today with no run that day; `reason` is the day's mark ("missed — ill"), null for a plain miss. */
+  missed_plans: Array<{ plan_id: string; date: string; reason: MissedReason | null }>;
   totals: {
     /** Sum of the plans' planned distance; plans given only by time are left out (see `plans_without_distance`). */
     planned_distance_m: number;
@@ -97,7 +102,15 @@ export interface WeekReview {
     planned_duration_s: number;
     run_distance_m: number;
     moving_s: number;
-    sessions: { as_planned: number; partly: number; missed: number; unplanned: number };
+    /** Minutes of cross-training days, in seconds: time, not running distance. */
+    cross_training_s: number;
+    /** Running (moving) time plus cross-training. */
+    time_s: number;
+    /**
+     * `missed` counts plain misses (including sessions the runs missed by verdict); `missed_with_reason`
+     * counts plans missed on a day marked rest, ill, injured or cross-training.
+     */
+    sessions: { as_planned: number; partly: number; missed: number; missed_with_reason: number; unplanned: number };
     /** Plans dated up to `today` (the runner's local date): the sessions that could have been run by now. */
     sessions_due: number;
     /** Moving time of the runs on plans given only by time, to set against `planned_duration_s`. */
@@ -184,14 +197,18 @@ export function summariseWeek(input: WeekReviewInput): WeekReview {
   const runs = input.runs.filter((r) => inWeek.has(r.date));
   const runDates = new Set(runs.map((r) => r.date));
 
+  const marks = (input.day_marks ?? []).filter((m) => inWeek.has(m.date));
   const days = dates.map((date) => ({
     date,
     plans: plans.filter((p) => p.date === date),
     runs: runs.filter((r) => r.date === date),
+    day_marks: marks.filter((m) => m.date === date),
   }));
 
   const missedPlans = plans.filter((p) => p.date < input.today && !runDates.has(p.date));
-  const sessions = { as_planned: 0, partly: 0, missed: missedPlans.length, unplanned: 0 };
+  const missed_plans = missedPlans.map((p) => ({ plan_id: p.id, date: p.date, reason: missedReasonOf(p.date, marks) }));
+  const withReason = missed_plans.filter((m) => m.reason !== null).length;
+  const sessions = { as_planned: 0, partly: 0, missed: missedPlans.length - withReason, missed_with_reason: withReason, unplanned: 0 };
   for (const r of runs) {
     if (r.session_verdict === 'as planned') sessions.as_planned++;
     else if (r.session_verdict === 'partly') sessions.partly++;
@@ -207,6 +224,8 @@ export function summariseWeek(input: WeekReviewInput): WeekReview {
     planned_duration_s: sum(plans.map((p) => p.planned_duration_s ?? 0)),
     run_distance_m: runDistance,
     moving_s: sum(runs.map((r) => r.moving_s)),
+    cross_training_s: crossTrainingSeconds(marks),
+    time_s: sum(runs.map((r) => r.moving_s)) + crossTrainingSeconds(marks),
     sessions,
     sessions_due: plans.filter((p) => p.date <= input.today).length,
     moving_s_on_timed_plans: sum(runs.filter((r) => timedPlanOf(r, plans)).map((r) => r.moving_s)),
@@ -243,9 +262,11 @@ export function summariseWeek(input: WeekReviewInput): WeekReview {
       if (plan) flags.push(easyTooFastFlag(run, plan, easyFastest, unit, voice));
     }
   }
-  for (const plan of missedPlans) if (plan.is_long_run) flags.push(longRunMissedFlag(plan, unit, voice));
+  for (const plan of missedPlans) {
+    if (plan.is_long_run) flags.push(longRunMissedFlag(plan, unit, voice, missedReasonOf(plan.date, marks)));
+  }
 
-  return { days, totals, long_run, acute_chronic_ratio, flags };
+  return { days, missed_plans, totals, long_run, acute_chronic_ratio, flags };
 }
 
 /** The run's plan when it is given only by time (no distance part): its `plan_id`, else a plan of its date. */
@@ -327,12 +348,13 @@ function easyTooFastFlag(run: WeekRun, plan: WeekPlan, easyFastest: number, unit
   };
 }
 
-function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit, v: Voice): WeekFlag {
+function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit, v: Voice, reason: MissedReason | null): WeekFlag {
   const amount = plan.planned_distance_m !== null ? ` of ${formatDistance(plan.planned_distance_m, unit)}` : '';
+  const marked = reason ? ` The day is marked ${reason}.` : '';
   return {
     code: 'long-run-missed',
     message:
-      `The long run${amount} planned for ${formatDay(plan.date)} ("${plan.title}") has no run recorded that day. ` +
+      `The long run${amount} planned for ${formatDay(plan.date)} ("${plan.title}") has no run recorded that day.${marked} ` +
       `If it was moved or cut short, ${v
         .lastWord('how to fit it into the coming weeks')
         .replace(/\.$/, '')

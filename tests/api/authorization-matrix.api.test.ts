@@ -179,6 +179,39 @@ const CASES: Case[] = [
     destructive: true,
   },
   {
+    name: 'POST /api/plans/assign',
+    call: (w, a) => request(w.app).post('/api/plans/assign').set(a).send({ runner_ids: [w.ownerId], date: '2012-10-26', text: '5 mi easy' }),
+    expected: s(201, 404, 201, 404, 403, 401),
+    destructive: true,
+  },
+  {
+    name: 'POST /api/plans/copy-week for the runner',
+    call: (w, a) => request(w.app).post('/api/plans/copy-week').set(a).send({ runner_id: w.ownerId, from_start: '2012-10-22', to_start: '2012-10-29' }),
+    expected: s(201, 404, 201, 404, 403, 401),
+    destructive: true,
+  },
+  {
+    name: 'GET /api/plans/:id/changes',
+    call: (w, a) => request(w.app).get(`/api/plans/${w.planId}/changes`).set(a),
+    expected: s(200, 404, 200, 404, 200, 401),
+  },
+  {
+    name: 'PUT /api/days/:date for the runner',
+    call: (w, a) => request(w.app).put('/api/days/2012-10-24').set(a).send({ kind: 'ill', runner_id: w.ownerId }),
+    expected: s(200, 404, 200, 404, 403, 401),
+    destructive: true,
+  },
+  {
+    name: 'GET /api/days?runner_id=',
+    call: (w, a) => request(w.app).get(`/api/days?from=2012-10-22&to=2012-10-28&runner_id=${w.ownerId}`).set(a),
+    expected: s(200, 404, 200, 404, 200, 401),
+  },
+  {
+    name: 'GET /api/runners/:id',
+    call: (w, a) => request(w.app).get(`/api/runners/${w.ownerId}`).set(a),
+    expected: s(200, 404, 200, 404, 200, 401),
+  },
+  {
     name: 'GET /api/me/goal-race?runner_id=',
     call: (w, a) => request(w.app).get(`/api/me/goal-race?runner_id=${w.ownerId}`).set(a),
     expected: s(200, 404, 200, 404, 200, 401),

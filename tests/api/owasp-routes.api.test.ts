@@ -81,6 +81,8 @@ interface World {
     invitation: string;
     import: string;
     weekNote: string;
+    library: string;
+    batch: string;
   };
   inviteToken: string;
   resetToken: string;
@@ -175,6 +177,12 @@ async function buildWorld(): Promise<World> {
   const runId = run.body.imported[0].id as string;
   const plan = (await must('plan', as(owner).post('/api/plans').send({ date: '2012-10-24', text: '45 min easy' }), 201)).body.plan
     .id as string;
+  const library = (await must('library session', as(owner).post('/api/library').send({ name: 'Easy hour', text: '60 min easy' }), 201))
+    .body.session.id as string;
+  const batch = (
+    await must('assigned', as(owner).post('/api/plans/assign').send({ runner_ids: [owner.id], date: '2012-10-21', text: '3 mi easy' }), 201)
+  ).body.batch_id as string;
+  await must('day mark', as(owner).put('/api/days/2012-10-23').send({ kind: 'rest' }), 200);
   const fuelItem = (await must('fuel item', as(owner).post('/api/fuel-items').send(FUEL_ITEM), 201)).body.item.id as string;
   await must('plan fuel plan', as(owner).put(`/api/plans/${plan}/fuel-plan`).send(FUEL_PLAN), 200);
   await must('goal race', as(owner).put('/api/me/goal-race').send(GOAL_RACE), 200);
@@ -204,7 +212,7 @@ async function buildWorld(): Promise<World> {
 
   return {
     people,
-    ids: { run: runId, plan, fuelItem, raceResult, namedToken, squad, invitation, import: importId, weekNote },
+    ids: { run: runId, plan, fuelItem, raceResult, namedToken, squad, invitation, import: importId, weekNote, library, batch },
     inviteToken: linkTokenMailedTo(owner.email, 'inv'),
     resetToken: linkTokenMailedTo(people.spare.email, 'rst'),
     week: '2012-10-22',
@@ -352,6 +360,21 @@ const ROUTES: Record<string, Row> = {
   'PUT /api/plans/{id}/fuel-plan': { caller: 'owner', params: { id: planId }, body: () => FUEL_PLAN },
   'DELETE /api/plans/{id}/fuel-plan': { caller: 'owner', params: { id: planId } },
   'PUT /api/runners/{id}/pace-tolerance': { caller: 'owner', params: { id: ownerId }, body: () => ({ pace_tolerance: 0.03 }) },
+  'POST /api/plans/assign': { caller: 'owner', body: (w) => ({ runner_ids: [w.people.owner.id], date: '2012-10-26', text: '4 mi easy' }) },
+  'DELETE /api/plans/batches/{id}': { caller: 'owner', params: { id: id((w) => w.ids.batch) } },
+  'GET /api/plans/{id}/changes': { caller: 'owner', params: { id: planId } },
+  'GET /api/library': { caller: 'owner' },
+  'POST /api/library': { caller: 'owner', body: () => ({ name: `Hills ${randomUUID().slice(0, 8)}`, text: '8 x 1 min' }) },
+  'PATCH /api/library/{id}': { caller: 'owner', params: { id: id((w) => w.ids.library) }, body: () => ({ title: 'Easy hour' }) },
+  'DELETE /api/library/{id}': { caller: 'owner', params: { id: id((w) => w.ids.library) } },
+  'GET /api/days': { caller: 'owner', query: () => ({ from: '2012-10-22', to: '2012-10-28' }), runnerIdQuery: true },
+  'PUT /api/days/{date}': {
+    caller: 'owner',
+    params: { date: { kind: 'value', value: () => '2012-10-24' } },
+    body: () => ({ kind: 'cross-training', minutes: 40 }),
+  },
+  'DELETE /api/days/{date}': { caller: 'owner', params: { date: { kind: 'value', value: () => '2012-10-23' } }, runnerIdQuery: true },
+  'GET /api/runners/{id}': { caller: 'owner', params: { id: ownerId } },
 
   'GET /api/fuel-items': { caller: 'owner', runnerIdQuery: true },
   'POST /api/fuel-items': { caller: 'owner', body: () => FUEL_ITEM },

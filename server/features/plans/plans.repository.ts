@@ -6,6 +6,7 @@ export interface StoredPlan {
   id: string;
   runner_id: string;
   author_id: string | null;
+  author_name: string | null;
   date: string;
   title: string;
   notes: string;
@@ -13,14 +14,19 @@ export interface StoredPlan {
   parts: PlanItem[];
   created_at: string;
   updated_at: string;
+  updated_by_name: string | null;
 }
 
-export function toPlan(row: SessionPlanRow): StoredPlan {
+/** A plan row with the names of who wrote it and who changed it last (null when unknown or gone). */
+export type NamedPlanRow = SessionPlanRow & { author_name?: string | null; updated_by_name?: string | null };
+
+export function toPlan(row: NamedPlanRow): StoredPlan {
   const parts = row.items as PlanItem[];
   return {
     id: row.id,
     runner_id: row.runner_id,
     author_id: row.author_id,
+    author_name: row.author_name ?? null,
     date: row.date,
     title: row.title,
     notes: row.notes,
@@ -28,42 +34,56 @@ export function toPlan(row: SessionPlanRow): StoredPlan {
     parts,
     created_at: row.created_at.toISOString(),
     updated_at: row.updated_at.toISOString(),
+    updated_by_name: row.updated_by_name ?? null,
   };
+}
+
+/** Plans with their author's and last editor's names. */
+function namedPlans(trx: Db) {
+  return trx('session_plans')
+    .leftJoin('users as plan_author', 'plan_author.id', 'session_plans.author_id')
+    .leftJoin('users as plan_editor', 'plan_editor.id', 'session_plans.updated_by')
+    .select('session_plans.*', 'plan_author.name as author_name', 'plan_editor.name as updated_by_name');
 }
 
 export async function insertPlan(
   plan: { runnerId: string; authorId: string; date: string; title: string; notes: string; items: PlanItem[] },
   trx: Db = db,
-): Promise<SessionPlanRow> {
+): Promise<NamedPlanRow> {
   const [row] = await trx('session_plans')
     .insert({
       runner_id: plan.runnerId,
       author_id: plan.authorId,
+      updated_by: plan.authorId,
       date: plan.date,
       title: plan.title,
       notes: plan.notes,
       items: JSON.stringify(plan.items),
     })
-    .returning('*');
-  return row as SessionPlanRow;
+    .returning('id');
+  return (await findPlanById((row as { id: string }).id, trx))!;
 }
 
-export async function findPlanById(id: string, trx: Db = db): Promise<SessionPlanRow | undefined> {
-  return trx('session_plans').where({ id }).first();
+export async function findPlanById(id: string, trx: Db = db): Promise<NamedPlanRow | undefined> {
+  return namedPlans(trx).where('session_plans.id', id).first();
 }
 
 /** Plans in date order, then as written; id settles ties so every list agrees. */
-const PLAN_ORDER = [{ column: 'date' }, { column: 'created_at' }, { column: 'id' }];
+const PLAN_ORDER = [
+  { column: 'session_plans.date' },
+  { column: 'session_plans.created_at' },
+  { column: 'session_plans.id' },
+];
 
 export async function listPlans(
   runnerId: string,
   from: string | undefined,
   to: string | undefined,
   trx: Db = db,
-): Promise<SessionPlanRow[]> {
-  const query = trx('session_plans').where({ runner_id: runnerId });
-  if (from) query.andWhere('date', '>=', from);
-  if (to) query.andWhere('date', '<=', to);
+): Promise<NamedPlanRow[]> {
+  const query = namedPlans(trx).where('session_plans.runner_id', runnerId);
+  if (from) query.andWhere('session_plans.date', '>=', from);
+  if (to) query.andWhere('session_plans.date', '<=', to);
   return query.orderBy(PLAN_ORDER);
 }
 
@@ -73,27 +93,34 @@ export async function listPlansOf(
   from: string,
   to: string,
   trx: Db = db,
-): Promise<SessionPlanRow[]> {
+): Promise<NamedPlanRow[]> {
   if (runnerIds.length === 0) return [];
-  return trx('session_plans')
-    .whereIn('runner_id', runnerIds)
-    .andWhere('date', '>=', from)
-    .andWhere('date', '<=', to)
+  return namedPlans(trx)
+    .whereIn('session_plans.runner_id', runnerIds)
+    .andWhere('session_plans.date', '>=', from)
+    .andWhere('session_plans.date', '<=', to)
     .orderBy(PLAN_ORDER);
 }
 
+/** Changes a plan; `updatedBy` is recorded as its last editor and the calendar sequence goes up by one. */
 export async function updatePlan(
   id: string,
   changes: { date?: string | undefined; title?: string | undefined; notes?: string | undefined; items?: PlanItem[] | undefined },
+  updatedBy: string,
   trx: Db = db,
-): Promise<SessionPlanRow> {
+): Promise<NamedPlanRow> {
   const { items, ...given } = changes;
   const rest = Object.fromEntries(Object.entries(given).filter(([, v]) => v !== undefined));
-  const [row] = await trx('session_plans')
+  await trx('session_plans')
     .where({ id })
-    .update({ ...rest, ...(items ? { items: JSON.stringify(items) } : {}), updated_at: new Date() })
-    .returning('*');
-  return row as SessionPlanRow;
+    .update({
+      ...rest,
+      ...(items ? { items: JSON.stringify(items) } : {}),
+      updated_at: new Date(),
+      updated_by: updatedBy,
+      sequence: trx.raw('sequence + 1'),
+    });
+  return (await findPlanById(id, trx))!;
 }
 
 export async function deletePlan(id: string, trx: Db = db): Promise<void> {
@@ -116,10 +143,12 @@ export async function findPlansForRuns(
   trx: Db = db,
 ): Promise<SessionPlanRow[]> {
   if (ids.length === 0 && (runnerIds.length === 0 || dates.length === 0)) return [];
-  return trx('session_plans')
+  return namedPlans(trx)
     .where((q) => {
-      if (ids.length) q.whereIn('id', ids);
-      if (runnerIds.length && dates.length) q.orWhere((day) => day.whereIn('runner_id', runnerIds).whereIn('date', dates));
+      if (ids.length) q.whereIn('session_plans.id', ids);
+      if (runnerIds.length && dates.length) {
+        q.orWhere((day) => day.whereIn('session_plans.runner_id', runnerIds).whereIn('session_plans.date', dates));
+      }
     })
     .orderBy(PLAN_ORDER);
 }

@@ -14,7 +14,6 @@ import { planCheckToCsv } from '../../../shared/plans/plan-check-csv.ts';
 import { setPaceTolerance } from './plans.service.ts';
 import {
   changePlan,
-  copyWeek,
   createPlan,
   getPlan,
   linkRunToPlan,
@@ -29,11 +28,6 @@ const ListPlansQuerySchema = z.object({
   to: PlanDateSchema.optional(),
   runner_id: z.uuid({ error: 'Not a runner id.' }).optional(),
 });
-
-const CopyWeekInputSchema = z
-  .object({ from_start: PlanDateSchema, to_start: PlanDateSchema, runner_id: z.uuid({ error: 'Not a runner id.' }).optional() })
-  .strict()
-  .refine((w) => w.from_start !== w.to_start, { message: 'Choose a different week to copy to.', path: ['to_start'] });
 
 const LinkPlanInputSchema = z
   .object({ plan_id: z.union([z.uuid({ error: 'Not a plan id.' }), z.null(), z.literal('auto')]) })
@@ -84,22 +78,6 @@ export function createPlansRouter() {
     },
     async (_req, res) => {
       res.json({ plans: await listPlansFor(requireActor(res), res.locals.query as z.infer<typeof ListPlansQuerySchema>) });
-    },
-  );
-
-  api.route(
-    {
-      method: 'post',
-      path: '/plans/copy-week',
-      tag: 'plans',
-      summary: 'Copy the seven days from from_start onto the seven days from to_start',
-      access: 'own-data',
-      body: CopyWeekInputSchema,
-      response: z.object({ plans: z.array(PlanSchema) }),
-      status: 201,
-    },
-    async (req, res) => {
-      res.status(201).json({ plans: await copyWeek(requireActor(res), req.body) });
     },
   );
 

@@ -13,6 +13,7 @@ import type { CreatePlanInput, UpdatePlanInput } from '../../../shared/plans/sch
 import { formatShorthand, normaliseItems, parseShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import { db, type GoalRaceRow, type RunRow, type SessionPlanRow, type UserRow } from '../../lib/db.ts';
+import { recordPlanChanges } from './plan-changes.service.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
@@ -32,6 +33,7 @@ import {
   toPlan,
   updatePlan,
   upsertRunPlanLink,
+  type NamedPlanRow,
   type StoredPlan,
 } from './plans.repository.ts';
 
@@ -60,13 +62,20 @@ export async function createPlan(actor: Actor, input: CreatePlanInput): Promise<
   const runnerId = input.runner_id ?? actor.id;
   await assertCanPlanFor(actor, runnerId);
   const items = itemsOf(input)!;
-  const row = await insertPlan({
-    runnerId,
-    authorId: actor.id,
-    date: input.date,
-    title: input.title?.trim() || defaultTitle(items),
-    notes: input.notes ?? '',
-    items,
+  const row = await db.transaction(async (trx) => {
+    const created = await insertPlan(
+      {
+        runnerId,
+        authorId: actor.id,
+        date: input.date,
+        title: input.title?.trim() || defaultTitle(items),
+        notes: input.notes ?? '',
+        items,
+      },
+      trx,
+    );
+    await recordPlanChanges(actor, [{ kind: 'added', after: created }], trx);
+    return created;
   });
   return toPlan(row);
 }
@@ -80,7 +89,7 @@ export async function listPlansFor(
   return (await listPlans(runnerId, query.from, query.to)).map(toPlan);
 }
 
-async function readablePlan(actor: Actor, id: string): Promise<SessionPlanRow> {
+async function readablePlan(actor: Actor, id: string): Promise<NamedPlanRow> {
   const row = await findPlanById(id);
   if (!row) throw new NotFoundError('There is no plan with this id.');
   await assertCanReadRunner(actor, row.runner_id, 'There is no plan with this id.');
@@ -91,50 +100,31 @@ export async function getPlan(actor: Actor, id: string): Promise<StoredPlan> {
   return toPlan(await readablePlan(actor, id));
 }
 
+/** Changes a session (a new date moves it, keeping its id, fuel plan and run link) and records what changed. */
 export async function changePlan(actor: Actor, id: string, changes: UpdatePlanInput): Promise<StoredPlan> {
   const row = await readablePlan(actor, id);
   await assertCanPlanFor(actor, row.runner_id);
-  return toPlan(
-    await updatePlan(id, { date: changes.date, title: changes.title, notes: changes.notes, items: itemsOf(changes) }),
-  );
+  const items = itemsOf(changes);
+  const updated = await db.transaction(async (trx) => {
+    const after = await updatePlan(
+      id,
+      { date: changes.date, title: changes.title, notes: changes.notes, items },
+      actor.id,
+      trx,
+    );
+    await recordPlanChanges(actor, [{ kind: 'changed', before: row, after }], trx);
+    return after;
+  });
+  return toPlan(updated);
 }
 
 export async function removePlan(actor: Actor, id: string): Promise<void> {
   const row = await readablePlan(actor, id);
   await assertCanPlanFor(actor, row.runner_id);
-  await deletePlan(id);
-}
-
-function addDays(date: string, days: number): string {
-  return new Date(Date.parse(`${date}T00:00:00Z`) + days * 86_400_000).toISOString().slice(0, 10);
-}
-
-/** Copies the seven days from `fromStart` onto the seven days from `toStart`, same weekday for weekday. */
-export async function copyWeek(actor: Actor, input: { from_start: string; to_start: string; runner_id?: string | undefined }) {
-  const runnerId = input.runner_id ?? actor.id;
-  await assertCanPlanFor(actor, runnerId);
-  const shift = Math.round((Date.parse(input.to_start) - Date.parse(input.from_start)) / 86_400_000);
-  const source = await listPlans(runnerId, input.from_start, addDays(input.from_start, 6));
-  const copies = await db.transaction(async (trx) => {
-    const out: SessionPlanRow[] = [];
-    for (const plan of source) {
-      out.push(
-        await insertPlan(
-          {
-            runnerId,
-            authorId: actor.id,
-            date: addDays(plan.date, shift),
-            title: plan.title,
-            notes: plan.notes,
-            items: plan.items as PlanItem[],
-          },
-          trx,
-        ),
-      );
-    }
-    return out;
+  await db.transaction(async (trx) => {
+    await deletePlan(id, trx);
+    await recordPlanChanges(actor, [{ kind: 'deleted', before: row }], trx);
   });
-  return copies.map(toPlan);
 }
 
 export interface PlanCheckResponse extends Omit<PlanCheckResult, 'parts'> {

@@ -17,6 +17,7 @@ export function toProfile(row: UserRow): Profile {
     time_zone: row.time_zone,
     pace_tolerance: row.pace_tolerance,
     notify_on_import: row.notify_on_import,
+    notify_on_plan_change: row.notify_on_plan_change,
     week_starts_on: row.week_starts_on,
     sex: row.sex,
     created_at: row.created_at.toISOString(),

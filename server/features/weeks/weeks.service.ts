@@ -19,6 +19,7 @@ import { findReadNoteIds } from '../notes/notes.repository.ts';
 import { listRunNotesOf } from '../runs/run-notes.repository.ts';
 import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
 import { listPlansOf } from '../plans/plans.repository.ts';
+import { listDayMarksOf } from '../plans/prescribe.repository.ts';
 import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/plans.service.ts';
 import { toRunListItem } from '../runs/runs.repository.ts';
 import { assertCanReadRunner } from '../squads/runner-access.ts';
@@ -121,7 +122,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
   const ids = frames.map((f) => f.runner.id);
   const weekFrom = earliest(frames.map((f) => f.start));
   const weekTo = latest(frames.map((f) => f.end));
-  const [planRows, history, weekItems, goals, results, reviews, lastUploads] = await Promise.all([
+  const [planRows, history, weekItems, goals, results, reviews, lastUploads, dayMarks] = await Promise.all([
     listPlansOf(ids, weekFrom, weekTo),
     listRunLoadsOf(ids, earliest(frames.map((f) => f.historyFrom)), weekTo),
     listRunItemsOf(ids, weekFrom, weekTo),
@@ -132,7 +133,9 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
       frames.map((f) => f.start),
     ),
     lastUploadsOf(ids),
+    listDayMarksOf(ids, weekFrom, weekTo),
   ]);
+  const marksOf = groupBy(dayMarks, (m) => m.runner_id);
   const goalOf = new Map(goals.map((g) => [g.user_id, g]));
   const resultsOf = groupBy(results, (r) => r.user_id);
   const inputsOf = new Map(
@@ -208,6 +211,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
       today,
       unit: viewer.unit,
       reader: viewer.id === runner.id ? { role: 'runner' } : { role: 'coach', runner_name: runner.name },
+      day_marks: (marksOf.get(runner.id) ?? []).map((m) => ({ date: m.date, kind: m.kind, minutes: m.minutes, note: m.note })),
     });
 
     const trend = Array.from({ length: TREND_WEEKS }, (_, k) => {

@@ -1,14 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Plan } from '../../../../shared/plans/schemas.ts';
+import type { CopyWeekInput, PlanBatchResult } from '../../../../shared/plans/prescribe-schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
-/** Both are Mondays, `YYYY-MM-DD`: the seven days from `from_start` are copied onto those from `to_start`. */
-export type CopyWeekBody = { from_start: string; to_start: string };
-
-export async function copyWeek(body: CopyWeekBody): Promise<Plan[]> {
-  const { plans } = await api.post<{ plans: Plan[] }>('/plans/copy-week', body);
-  return plans;
+/**
+ * Copies the seven days from `from_start` onto those from `to_start`. Onto a week with sessions the
+ * server answers 409 (`week-has-sessions`) unless `mode` is "replace" or "add".
+ */
+export async function copyWeek(body: CopyWeekInput): Promise<PlanBatchResult> {
+  return api.post<PlanBatchResult>('/plans/copy-week', body);
 }
 
 export function useCopyWeek() {

@@ -3,7 +3,7 @@ import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
-export type CreatePlanBody = { date: string; title?: string; notes?: string; text: string };
+export type CreatePlanBody = { date: string; title?: string; notes?: string; text: string; runner_id?: string };
 
 export async function createPlan(body: CreatePlanBody): Promise<Plan> {
   const { plan } = await api.post<{ plan: Plan }>('/plans', body);

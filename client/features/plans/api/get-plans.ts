@@ -5,6 +5,7 @@ import { planKeys, type PlanListFilters } from './plan-keys.ts';
 
 export async function getPlans(filters: PlanListFilters): Promise<Plan[]> {
   const params = new URLSearchParams({ from: filters.from, to: filters.to });
+  if (filters.runner_id) params.set('runner_id', filters.runner_id);
   const { plans } = await api.get<{ plans: Plan[] }>(`/plans?${params}`);
   return plans;
 }

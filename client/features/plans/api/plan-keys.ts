@@ -1,7 +1,12 @@
-export type PlanListFilters = { from: string; to: string };
+/** `runner_id`: a squad runner's plan (coaches); without it, the signed-in person's own. */
+export type PlanListFilters = { from: string; to: string; runner_id?: string };
 
 export const planKeys = {
   all: ['plans'] as const,
   lists: () => [...planKeys.all, 'list'] as const,
   list: (filters: PlanListFilters) => [...planKeys.lists(), filters] as const,
+  changes: (planId: string) => [...planKeys.all, 'changes', planId] as const,
+  library: () => [...planKeys.all, 'library'] as const,
+  dayMarks: (filters: PlanListFilters) => [...planKeys.all, 'day-marks', filters] as const,
+  runner: (runnerId: string) => [...planKeys.all, 'runner', runnerId] as const,
 };

@@ -11,6 +11,8 @@ import { isApiError } from '../../../lib/api-client.ts';
 import { useCreatePlan } from '../api/create-plan.ts';
 import { useDeletePlan } from '../api/delete-plan.ts';
 import { useUpdatePlan } from '../api/update-plan.ts';
+import { useCreateLibrarySession } from '../api/library.ts';
+import { PlanChangesList } from './plan-changes-list.tsx';
 import { SessionBuilder } from './session-builder.tsx';
 import { ShorthandField } from './shorthand-field.tsx';
 
@@ -18,6 +20,8 @@ type SessionEditorProps = {
   /** The plan being changed, or a new session on `date`. */
   plan: Plan | null;
   date: string;
+  /** A squad runner's plan (coaches): new sessions are written for them. */
+  runnerId?: string;
   onClose: () => void;
   /** After a save, with the stored plan; after a delete, with null. */
   onDone: (plan: Plan | null, message: string) => void;
@@ -35,7 +39,7 @@ function initialDraft(text: string): DraftItem[] {
  * keystroke, and the form builder. A readable shorthand rebuilds the builder; a builder whose
  * fields can all be read rewrites the shorthand. The shorthand is what is sent.
  */
-export function SessionEditor({ plan, date: initialDate, onClose, onDone }: SessionEditorProps) {
+export function SessionEditor({ plan, date: initialDate, runnerId, onClose, onDone }: SessionEditorProps) {
   const counter = useRef(0);
   const nextId = () => `row-${++counter.current}`;
   const [date, setDate] = useState(plan?.date ?? initialDate);
@@ -83,7 +87,13 @@ export function SessionEditor({ plan, date: initialDate, onClose, onDone }: Sess
     if (plan) update.mutate({ id: plan.id, date, title: title.trim(), notes: notes.trim(), text }, { onSuccess: done });
     else {
       create.mutate(
-        { date, text, ...(title.trim() ? { title: title.trim() } : {}), ...(notes.trim() ? { notes: notes.trim() } : {}) },
+        {
+          date,
+          text,
+          ...(title.trim() ? { title: title.trim() } : {}),
+          ...(notes.trim() ? { notes: notes.trim() } : {}),
+          ...(runnerId ? { runner_id: runnerId } : {}),
+        },
         { onSuccess: done },
       );
     }
@@ -193,6 +203,47 @@ export function SessionEditor({ plan, date: initialDate, onClose, onDone }: Sess
             ))}
         </div>
       </form>
+      {plan && (
+        <div className="mt-4 flex flex-col gap-4 border-t border-line pt-4">
+          <SaveToLibrary planId={plan.id} defaultName={plan.title} />
+          <PlanChangesList planId={plan.id} />
+        </div>
+      )}
     </Card>
+  );
+}
+
+/** Keeps this session (parts and fuel plan) in the signed-in person's library under a name. */
+function SaveToLibrary({ planId, defaultName }: { planId: string; defaultName: string }) {
+  const [name, setName] = useState(defaultName);
+  const create = useCreateLibrarySession();
+  return (
+    <form
+      noValidate
+      aria-label="Save to library"
+      className="flex flex-wrap items-end gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        create.mutate({ name, plan_id: planId });
+      }}
+    >
+      <TextField
+        label="Library name"
+        value={name}
+        maxLength={80}
+        onChange={(e) => setName(e.target.value)}
+        hint="Keeps the parts and the fuel plan, to add on other days or for other runners."
+        className="w-72 max-w-full"
+      />
+      <Button type="submit" variant="secondary" disabled={create.isPending}>
+        Save to library
+      </Button>
+      {create.isSuccess && (
+        <p role="status" className="text-sm text-teal">
+          Saved to your library as “{create.data.name}”.
+        </p>
+      )}
+      {create.error && <FormAlert>{create.error.message}</FormAlert>}
+    </form>
   );
 }

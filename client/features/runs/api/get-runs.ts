@@ -14,6 +14,7 @@ export async function getRuns(filters: RunListFilters): Promise<RunPage> {
   if (filters.to) params.set('to', filters.to);
   if (filters.sort) params.set('sort', filters.sort);
   if (filters.order) params.set('order', filters.order);
+  if (filters.runner_id) params.set('runner_id', filters.runner_id);
   return api.get<RunPage>(`/runs?${params}`);
 }
 

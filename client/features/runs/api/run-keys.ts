@@ -8,6 +8,8 @@ export type RunListFilters = {
   to?: string;
   sort?: RunListSort;
   order?: RunListOrder;
+  /** A squad runner's runs (coaches). */
+  runner_id?: string;
 };
 
 export const runKeys = {
