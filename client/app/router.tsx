@@ -60,6 +60,7 @@ export function createAppRouter(queryClient: QueryClient) {
                 { path: paths.run.path, lazy: page(() => import('./routes/app/run.tsx')) },
                 { path: paths.plan.path, lazy: page(() => import('./routes/app/plan.tsx')) },
                 { path: paths.squad.path, lazy: page(() => import('./routes/app/squad.tsx')) },
+                { path: paths.runnerPlan.path, lazy: page(() => import('./routes/app/plan.tsx')) },
                 { path: paths.weekReview.path, lazy: page(() => import('./routes/app/week-review.tsx')) },
                 { path: paths.myWeek.path, lazy: page(() => import('./routes/app/my-week.tsx')) },
                 { path: paths.tools.path, lazy: page(() => import('./routes/app/tools.tsx')) },

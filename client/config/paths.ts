@@ -60,6 +60,18 @@ export const paths = {
       return query ? `/squad?${query}` : '/squad';
     },
   },
+  /** A squad runner's plan, opened by their coach: the same views as `plan`. */
+  runnerPlan: {
+    path: '/squad/:runnerId/plan',
+    getHref: (runnerId: string, search?: { view?: 'week' | 'month'; week?: string; month?: string }) => {
+      const params = new URLSearchParams();
+      if (search?.view === 'month') params.set('view', 'month');
+      if (search?.month) params.set('month', search.month);
+      if (search?.week) params.set('week', search.week);
+      const query = params.toString();
+      return `/squad/${encodeURIComponent(runnerId)}/plan${query ? `?${query}` : ''}`;
+    },
+  },
   weekReview: {
     path: '/squad/:runnerId/week/:date',
     getHref: (runnerId: string, date: string) => `/squad/${encodeURIComponent(runnerId)}/week/${encodeURIComponent(date)}`,

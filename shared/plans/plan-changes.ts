@@ -42,7 +42,9 @@ export function describePlanChange(before: PlanFields, after: PlanFields): { kin
 
 /** "Added for Sat 12 Dec: 10 mi easy." / "Deleted from Sat 12 Dec: 10 mi easy." */
 export function describePlanAddedOrDeleted(kind: 'added' | 'deleted', plan: PlanFields): string {
-  return kind === 'added' ? `Added for ${formatPlanDay(plan.date)}: ${plan.text}.` : `Deleted from ${formatPlanDay(plan.date)}: ${plan.text}.`;
+  return kind === 'added'
+    ? `Added for ${formatPlanDay(plan.date)}: ${plan.text}.`
+    : `Deleted from ${formatPlanDay(plan.date)}: ${plan.text}.`;
 }
 
 /**
@@ -50,7 +52,8 @@ export function describePlanAddedOrDeleted(kind: 'added' | 'deleted', plan: Plan
  * the weekday within the last 6 days ("Tue"), else the date ("3 Nov"). The clock is passed in.
  */
 export function formatChangedWhen(at: Date, now: Date, timeZone: string): string {
-  const day = (d: Date) => new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);
+  const day = (d: Date) =>
+    new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);
   const atDay = day(at);
   const nowDay = day(now);
   const diff = Math.round((Date.parse(`${nowDay}T00:00:00Z`) - Date.parse(`${atDay}T00:00:00Z`)) / 86_400_000);

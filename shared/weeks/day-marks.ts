@@ -34,7 +34,8 @@ export function missedReasonOf(date: string, marks: readonly WeekDayMark[]): Mis
 export function crossTrainingSeconds(marks: readonly WeekDayMark[]): number {
   let seconds = 0;
   for (const m of marks) {
-    if (m.kind === 'cross-training' && m.minutes !== null && Number.isFinite(m.minutes) && m.minutes > 0) seconds += m.minutes * 60;
+    if (m.kind === 'cross-training' && m.minutes !== null && Number.isFinite(m.minutes) && m.minutes > 0)
+      seconds += m.minutes * 60;
   }
   return seconds;
 }

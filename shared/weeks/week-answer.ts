@@ -76,6 +76,14 @@ export const WeekDayRunSchema = RunListItemSchema.extend({
   notes: z.array(WeekNoteSchema),
 });
 
+/** A day marked rest, ill, injured or cross-training (minutes for cross-training only). */
+export const WeekDayMarkSchema = z.object({
+  date: z.string(),
+  kind: z.enum(['rest', 'ill', 'injured', 'cross-training']),
+  minutes: z.number().nullable(),
+  note: z.string(),
+});
+
 export const WeekFlagSchema = z.object({
   code: z.enum(['volume-jump', 'load-spike', 'easy-too-fast', 'long-run-missed']),
   message: z.string(),
@@ -90,7 +98,18 @@ export const WeekTotalsSchema = z.object({
   planned_duration_s: z.number(),
   run_distance_m: z.number(),
   moving_s: z.number(),
-  sessions: z.object({ as_planned: z.number(), partly: z.number(), missed: z.number(), unplanned: z.number() }),
+  /** Cross-training minutes of the marked days, in seconds: time, not running distance. */
+  cross_training_s: z.number(),
+  /** Running time plus cross-training. */
+  time_s: z.number(),
+  sessions: z.object({
+    as_planned: z.number(),
+    partly: z.number(),
+    missed: z.number(),
+    /** Missed on a day marked rest, ill, injured or cross-training ("missed — ill"), not in `missed`. */
+    missed_with_reason: z.number(),
+    unplanned: z.number(),
+  }),
   sessions_due: z.number(),
   moving_s_on_timed_plans: z.number(),
   goal_pace_s: z.number(),
@@ -112,6 +131,15 @@ export const RunnerWeekSchema = z.object({
       runs: z.array(WeekDayRunSchema),
       /** Unread notes on this day's runs (for the dot on the day). */
       unread_notes: z.number(),
+      day_marks: z.array(WeekDayMarkSchema),
+    }),
+  ),
+  /** Plans before today with no run that day, with the day's mark as the reason (null: a plain miss). */
+  missed_plans: z.array(
+    z.object({
+      plan_id: z.string(),
+      date: z.string(),
+      reason: z.enum(['rest', 'ill', 'injured', 'cross-training']).nullable(),
     }),
   ),
   totals: WeekTotalsSchema,

@@ -208,7 +208,13 @@ export function summariseWeek(input: WeekReviewInput): WeekReview {
   const missedPlans = plans.filter((p) => p.date < input.today && !runDates.has(p.date));
   const missed_plans = missedPlans.map((p) => ({ plan_id: p.id, date: p.date, reason: missedReasonOf(p.date, marks) }));
   const withReason = missed_plans.filter((m) => m.reason !== null).length;
-  const sessions = { as_planned: 0, partly: 0, missed: missedPlans.length - withReason, missed_with_reason: withReason, unplanned: 0 };
+  const sessions = {
+    as_planned: 0,
+    partly: 0,
+    missed: missedPlans.length - withReason,
+    missed_with_reason: withReason,
+    unplanned: 0,
+  };
   for (const r of runs) {
     if (r.session_verdict === 'as planned') sessions.as_planned++;
     else if (r.session_verdict === 'partly') sessions.partly++;

@@ -180,13 +180,21 @@ const CASES: Case[] = [
   },
   {
     name: 'POST /api/plans/assign',
-    call: (w, a) => request(w.app).post('/api/plans/assign').set(a).send({ runner_ids: [w.ownerId], date: '2012-10-26', text: '5 mi easy' }),
+    call: (w, a) =>
+      request(w.app)
+        .post('/api/plans/assign')
+        .set(a)
+        .send({ runner_ids: [w.ownerId], date: '2012-10-26', text: '5 mi easy' }),
     expected: s(201, 404, 201, 404, 403, 401),
     destructive: true,
   },
   {
     name: 'POST /api/plans/copy-week for the runner',
-    call: (w, a) => request(w.app).post('/api/plans/copy-week').set(a).send({ runner_id: w.ownerId, from_start: '2012-10-22', to_start: '2012-10-29' }),
+    call: (w, a) =>
+      request(w.app)
+        .post('/api/plans/copy-week')
+        .set(a)
+        .send({ runner_id: w.ownerId, from_start: '2012-10-22', to_start: '2012-10-29' }),
     expected: s(201, 404, 201, 404, 403, 401),
     destructive: true,
   },

@@ -41,7 +41,8 @@ async function squadWorld(app: App) {
   ];
   const stranger = await person(app, 'runner', 'Far Runner');
   const squad = (await request(app).post('/api/squads').set(coach.auth).send({ name: 'Harbor Line' })).body.squad.id as string;
-  const otherSquad = (await request(app).post('/api/squads').set(otherCoach.auth).send({ name: 'Ridge' })).body.squad.id as string;
+  const otherSquad = (await request(app).post('/api/squads').set(otherCoach.auth).send({ name: 'Ridge' })).body.squad
+    .id as string;
   await db('squad_members').insert(runners.map((r) => ({ squad_id: squad, runner_id: r.id })));
   await db('squad_members').insert({ squad_id: otherSquad, runner_id: stranger.id });
   return { coach, otherCoach, admin, runners, stranger, squad, ivy: runners[0]! };
@@ -70,7 +71,9 @@ describe('A coach writes a squad runner’s plan', () => {
 
     const changes = await request(app).get(`/api/plans/${id}/changes`).set(ivy.auth);
     expect(changes.status).toBe(200);
-    expect(changes.body.changes.map((c: { kind: string; actor_name: string; summary: string }) => [c.kind, c.actor_name, c.summary])).toEqual([
+    expect(
+      changes.body.changes.map((c: { kind: string; actor_name: string; summary: string }) => [c.kind, c.actor_name, c.summary]),
+    ).toEqual([
       ['moved', 'Dana Coach', 'Moved from Sat 12 Dec to Sun 13 Dec.'],
       ['changed', 'Ivy Runner', 'Changed session "10 mi easy" → "11 mi easy".'],
       ['added', 'Dana Coach', 'Added for Sat 12 Dec: 10 mi easy.'],
@@ -80,8 +83,9 @@ describe('A coach writes a squad runner’s plan', () => {
   it('moving a session keeps its fuel plan and the run linked to it', async () => {
     const app = freshApp();
     const { coach, ivy } = await squadWorld(app);
-    const plan = (await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-11-24', text: '5 km easy' }))
-      .body.plan.id as string;
+    const plan = (
+      await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-11-24', text: '5 km easy' })
+    ).body.plan.id as string;
     expect((await request(app).put(`/api/plans/${plan}/fuel-plan`).set(coach.auth).send(FUEL_PLAN)).status).toBe(200);
     const { points } = generateLakeRun({
       start_t: Date.parse('2026-11-24T06:00:00Z'),
@@ -89,7 +93,10 @@ describe('A coach writes a squad runner’s plan', () => {
       seed: 3,
       sample_s: 5,
     });
-    const upload = await request(app).post('/api/runs').set(ivy.auth).attach('files', Buffer.from(writeGpx('Easy', [points])), 'easy.gpx');
+    const upload = await request(app)
+      .post('/api/runs')
+      .set(ivy.auth)
+      .attach('files', Buffer.from(writeGpx('Easy', [points])), 'easy.gpx');
     const runId = upload.body.imported[0].id as string;
     expect((await request(app).put(`/api/runs/${runId}/plan`).set(ivy.auth).send({ plan_id: plan })).status).toBe(204);
 
@@ -103,17 +110,23 @@ describe('A coach writes a squad runner’s plan', () => {
   it('loses access the moment the runner leaves the squad: 404 to write, read and assign, nothing changed', async () => {
     const app = freshApp();
     const { coach, ivy, squad } = await squadWorld(app);
-    const plan = (await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-12-12', text: '5 mi easy' }))
-      .body.plan.id as string;
+    const plan = (
+      await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-12-12', text: '5 mi easy' })
+    ).body.plan.id as string;
     expect((await request(app).delete(`/api/squads/${squad}/members/${ivy.id}`).set(coach.auth)).status).toBe(204);
 
     expect((await request(app).patch(`/api/plans/${plan}`).set(coach.auth).send({ date: '2026-12-13' })).status).toBe(404);
     expect((await request(app).delete(`/api/plans/${plan}`).set(coach.auth)).status).toBe(404);
     expect((await request(app).get(`/api/plans?runner_id=${ivy.id}`).set(coach.auth)).status).toBe(404);
     expect((await request(app).get(`/api/runners/${ivy.id}`).set(coach.auth)).status).toBe(404);
-    const assign = await request(app).post('/api/plans/assign').set(coach.auth).send({ runner_ids: [ivy.id], date: '2026-12-14', text: '5 mi easy' });
+    const assign = await request(app)
+      .post('/api/plans/assign')
+      .set(coach.auth)
+      .send({ runner_ids: [ivy.id], date: '2026-12-14', text: '5 mi easy' });
     expect(assign.status).toBe(404);
-    expect((await request(app).put('/api/days/2026-12-14').set(coach.auth).send({ kind: 'rest', runner_id: ivy.id })).status).toBe(404);
+    expect(
+      (await request(app).put('/api/days/2026-12-14').set(coach.auth).send({ kind: 'rest', runner_id: ivy.id })).status,
+    ).toBe(404);
     const stored = await db('session_plans').where({ runner_id: ivy.id });
     expect(stored.map((p) => p.date)).toEqual(['2026-12-12']);
   });
@@ -123,7 +136,9 @@ describe('GET /api/runners/:id', () => {
   it('names the runner and their tolerance for the runner and their coach; others get 404, an admin reads', async () => {
     const app = freshApp();
     const { coach, otherCoach, admin, ivy, stranger } = await squadWorld(app);
-    expect((await request(app).put(`/api/runners/${ivy.id}/pace-tolerance`).set(coach.auth).send({ pace_tolerance: 0.03 })).status).toBe(200);
+    expect(
+      (await request(app).put(`/api/runners/${ivy.id}/pace-tolerance`).set(coach.auth).send({ pace_tolerance: 0.03 })).status,
+    ).toBe(200);
     const res = await request(app).get(`/api/runners/${ivy.id}`).set(coach.auth);
     expect(res.status).toBe(200);
     expect(res.body.runner).toMatchObject({ id: ivy.id, name: 'Ivy Runner', pace_tolerance: 0.03 });
@@ -160,15 +175,21 @@ describe('POST /api/plans/copy-week', () => {
     const app = freshApp();
     const { ivy } = await squadWorld(app);
     await request(app).post('/api/plans').set(ivy.auth).send({ date: '2026-12-01', text: '6 mi easy' });
-    const old = (await request(app).post('/api/plans').set(ivy.auth).send({ date: '2026-12-09', text: '3 mi easy' })).body.plan.id;
+    const old = (await request(app).post('/api/plans').set(ivy.auth).send({ date: '2026-12-09', text: '3 mi easy' })).body.plan
+      .id;
     await request(app).put(`/api/plans/${old}/fuel-plan`).set(ivy.auth).send(FUEL_PLAN);
     const body = { from_start: '2026-11-30', to_start: '2026-12-07' };
 
-    const replaced = await request(app).post('/api/plans/copy-week').set(ivy.auth).send({ ...body, mode: 'replace' });
+    const replaced = await request(app)
+      .post('/api/plans/copy-week')
+      .set(ivy.auth)
+      .send({ ...body, mode: 'replace' });
     expect(replaced.status).toBe(201);
     expect(replaced.body.replaced).toBe(1);
     const week = async () =>
-      (await request(app).get('/api/plans?from=2026-12-07&to=2026-12-13').set(ivy.auth)).body.plans.map((p: { text: string }) => p.text);
+      (await request(app).get('/api/plans?from=2026-12-07&to=2026-12-13').set(ivy.auth)).body.plans.map(
+        (p: { text: string }) => p.text,
+      );
     expect(await week()).toEqual(['6 mi easy']);
 
     expect((await request(app).delete(`/api/plans/batches/${replaced.body.batch_id}`).set(ivy.auth)).status).toBe(204);
@@ -176,7 +197,10 @@ describe('POST /api/plans/copy-week', () => {
     expect((await request(app).get(`/api/plans/${old}/fuel-plan`).set(ivy.auth)).body.fuel_plan).not.toBeNull();
     expect((await request(app).delete(`/api/plans/batches/${replaced.body.batch_id}`).set(ivy.auth)).status).toBe(404);
 
-    const added = await request(app).post('/api/plans/copy-week').set(ivy.auth).send({ ...body, mode: 'add' });
+    const added = await request(app)
+      .post('/api/plans/copy-week')
+      .set(ivy.auth)
+      .send({ ...body, mode: 'add' });
     expect(added.status).toBe(201);
     expect((await week()).sort()).toEqual(['3 mi easy', '6 mi easy']);
   });
@@ -184,7 +208,10 @@ describe('POST /api/plans/copy-week', () => {
   it('answers 400 with a sentence when the source week is empty or the mode is unknown, and writes nothing', async () => {
     const app = freshApp();
     const { ivy } = await squadWorld(app);
-    const empty = await request(app).post('/api/plans/copy-week').set(ivy.auth).send({ from_start: '2026-11-30', to_start: '2026-12-07' });
+    const empty = await request(app)
+      .post('/api/plans/copy-week')
+      .set(ivy.auth)
+      .send({ from_start: '2026-11-30', to_start: '2026-12-07' });
     expect(empty.status).toBe(400);
     expect(empty.body.error).toBe('That week has no sessions to copy.');
     await request(app).post('/api/plans').set(ivy.auth).send({ date: '2026-12-01', text: '6 mi easy' });
@@ -201,15 +228,26 @@ describe('The session library', () => {
   it('keeps a session with its parts and fuel plan, renames it, rewrites it and deletes it', async () => {
     const app = freshApp();
     const { coach, ivy, otherCoach } = await squadWorld(app);
-    const plan = (await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-12-12', text: '2 mi easy, 6 x 800 m @ 3:50-3:55/km w/ 400 m jog' }))
-      .body.plan.id as string;
+    const plan = (
+      await request(app)
+        .post('/api/plans')
+        .set(coach.auth)
+        .send({ runner_id: ivy.id, date: '2026-12-12', text: '2 mi easy, 6 x 800 m @ 3:50-3:55/km w/ 400 m jog' })
+    ).body.plan.id as string;
     expect((await request(app).put(`/api/plans/${plan}/fuel-plan`).set(coach.auth).send(FUEL_PLAN)).status).toBe(200);
     const saved = await request(app).post('/api/library').set(coach.auth).send({ name: 'Track 800s', plan_id: plan });
     expect(saved.status).toBe(201);
-    expect(saved.body.session).toMatchObject({ name: 'Track 800s', text: '2 mi easy, 6 x 800 m @ 3:50-3:55/km w/ 400 m jog', has_fuel_plan: true });
+    expect(saved.body.session).toMatchObject({
+      name: 'Track 800s',
+      text: '2 mi easy, 6 x 800 m @ 3:50-3:55/km w/ 400 m jog',
+      has_fuel_plan: true,
+    });
     const id = saved.body.session.id as string;
 
-    const renamed = await request(app).patch(`/api/library/${id}`).set(coach.auth).send({ name: 'Track 6 × 800', text: '6 x 800 m @ 5K w/ 400 m jog' });
+    const renamed = await request(app)
+      .patch(`/api/library/${id}`)
+      .set(coach.auth)
+      .send({ name: 'Track 6 × 800', text: '6 x 800 m @ 5K w/ 400 m jog' });
     expect(renamed.status).toBe(200);
     expect(renamed.body.session).toMatchObject({ name: 'Track 6 × 800', text: '6 x 800 m @ 5K w/ 400 m jog' });
     expect((await request(app).get('/api/library').set(coach.auth)).body.sessions).toHaveLength(1);
@@ -248,9 +286,16 @@ describe('POST /api/plans/assign', () => {
   it('applies a library session to three runners on one date: one plan each, with the fuel plan, race paces left to each runner', async () => {
     const app = freshApp();
     const { coach, runners } = await squadWorld(app);
-    const lib = (await request(app).post('/api/library').set(coach.auth).send({ name: 'Goal-pace long run', title: 'Long run', text: '10 mi easy, 8 mi @ goal' }))
-      .body.session.id as string;
-    const res = await request(app).post('/api/plans/assign').set(coach.auth).send({ runner_ids: runners.map((r) => r.id), date: '2026-12-12', library_id: lib });
+    const lib = (
+      await request(app)
+        .post('/api/library')
+        .set(coach.auth)
+        .send({ name: 'Goal-pace long run', title: 'Long run', text: '10 mi easy, 8 mi @ goal' })
+    ).body.session.id as string;
+    const res = await request(app)
+      .post('/api/plans/assign')
+      .set(coach.auth)
+      .send({ runner_ids: runners.map((r) => r.id), date: '2026-12-12', library_id: lib });
     expect(res.status).toBe(201);
     expect(res.body.plans).toHaveLength(3);
     expect(res.body.plans.map((p: { runner_id: string }) => p.runner_id).sort()).toEqual(runners.map((r) => r.id).sort());
@@ -265,10 +310,15 @@ describe('POST /api/plans/assign', () => {
   it('copies the library session’s fuel plan onto each new session', async () => {
     const app = freshApp();
     const { coach, runners, ivy } = await squadWorld(app);
-    const plan = (await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-12-05', text: '16 mi easy' })).body.plan.id;
+    const plan = (
+      await request(app).post('/api/plans').set(coach.auth).send({ runner_id: ivy.id, date: '2026-12-05', text: '16 mi easy' })
+    ).body.plan.id;
     await request(app).put(`/api/plans/${plan}/fuel-plan`).set(coach.auth).send(FUEL_PLAN);
     const lib = (await request(app).post('/api/library').set(coach.auth).send({ name: 'Long', plan_id: plan })).body.session.id;
-    const res = await request(app).post('/api/plans/assign').set(coach.auth).send({ runner_ids: [runners[1]!.id, runners[2]!.id], date: '2026-12-12', library_id: lib });
+    const res = await request(app)
+      .post('/api/plans/assign')
+      .set(coach.auth)
+      .send({ runner_ids: [runners[1]!.id, runners[2]!.id], date: '2026-12-12', library_id: lib });
     for (const p of res.body.plans) {
       const fuel = await request(app).get(`/api/plans/${p.id}/fuel-plan`).set(coach.auth);
       expect(fuel.body.fuel_plan.body_mass_kg).toBe(62);
@@ -294,7 +344,10 @@ describe('POST /api/plans/assign', () => {
   ])('refuses %s with 400 and a sentence', async (_label, ids, sentence) => {
     const app = freshApp();
     const { coach, ivy } = await squadWorld(app);
-    const res = await request(app).post('/api/plans/assign').set(coach.auth).send({ runner_ids: ids(ivy.id), date: '2026-12-12', text: '5 mi easy' });
+    const res = await request(app)
+      .post('/api/plans/assign')
+      .set(coach.auth)
+      .send({ runner_ids: ids(ivy.id), date: '2026-12-12', text: '5 mi easy' });
     expect(res.status).toBe(400);
     expect(JSON.stringify(res.body)).toContain(sentence);
     expect(await planCount()).toBe(0);
@@ -303,8 +356,13 @@ describe('POST /api/plans/assign', () => {
   it('bad date, both text and library, another person’s library session: 400/400/404, nothing created', async () => {
     const app = freshApp();
     const { coach, otherCoach, ivy } = await squadWorld(app);
-    const lib = (await request(app).post('/api/library').set(otherCoach.auth).send({ name: 'Theirs', text: '5 mi easy' })).body.session.id;
-    const send = (body: object) => request(app).post('/api/plans/assign').set(coach.auth).send({ runner_ids: [ivy.id], ...body });
+    const lib = (await request(app).post('/api/library').set(otherCoach.auth).send({ name: 'Theirs', text: '5 mi easy' })).body
+      .session.id;
+    const send = (body: object) =>
+      request(app)
+        .post('/api/plans/assign')
+        .set(coach.auth)
+        .send({ runner_ids: [ivy.id], ...body });
     expect((await send({ date: '2026-02-30', text: '5 mi easy' })).status).toBe(400);
     expect((await send({ date: '3026-01-01', text: '5 mi easy' })).status).toBe(400);
     expect((await send({ date: '2026-12-12', text: '5 mi easy', library_id: lib })).status).toBe(400);
@@ -316,10 +374,38 @@ describe('POST /api/plans/assign', () => {
     const app = freshApp();
     const { admin, otherCoach, ivy, runners } = await squadWorld(app);
     const body = (ids: string[]) => ({ runner_ids: ids, date: '2026-12-12', text: '5 mi easy' });
-    expect((await request(app).post('/api/plans/assign').set(ivy.auth).send(body([ivy.id]))).status).toBe(201);
-    expect((await request(app).post('/api/plans/assign').set(ivy.auth).send(body([runners[1]!.id]))).status).toBe(404);
-    expect((await request(app).post('/api/plans/assign').set(admin.auth).send(body([ivy.id]))).status).toBe(403);
-    expect((await request(app).post('/api/plans/assign').set(otherCoach.auth).send(body([ivy.id]))).status).toBe(404);
+    expect(
+      (
+        await request(app)
+          .post('/api/plans/assign')
+          .set(ivy.auth)
+          .send(body([ivy.id]))
+      ).status,
+    ).toBe(201);
+    expect(
+      (
+        await request(app)
+          .post('/api/plans/assign')
+          .set(ivy.auth)
+          .send(body([runners[1]!.id]))
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await request(app)
+          .post('/api/plans/assign')
+          .set(admin.auth)
+          .send(body([ivy.id]))
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await request(app)
+          .post('/api/plans/assign')
+          .set(otherCoach.auth)
+          .send(body([ivy.id]))
+      ).status,
+    ).toBe(404);
     expect(await planCount()).toBe(1);
   });
 });
@@ -328,7 +414,10 @@ describe('DELETE /api/plans/batches/:id', () => {
   it('only the batch’s author can undo it; a made-up id is 404', async () => {
     const app = freshApp();
     const { coach, ivy } = await squadWorld(app);
-    const res = await request(app).post('/api/plans/assign').set(coach.auth).send({ runner_ids: [ivy.id], date: '2026-12-12', text: '5 mi easy' });
+    const res = await request(app)
+      .post('/api/plans/assign')
+      .set(coach.auth)
+      .send({ runner_ids: [ivy.id], date: '2026-12-12', text: '5 mi easy' });
     expect((await request(app).delete(`/api/plans/batches/${res.body.batch_id}`).set(ivy.auth)).status).toBe(404);
     expect((await request(app).delete(`/api/plans/batches/${crypto.randomUUID()}`).set(coach.auth)).status).toBe(404);
     expect(await planCount()).toBe(1);
@@ -339,10 +428,16 @@ describe('Day marks: PUT/DELETE /api/days/:date, GET /api/days', () => {
   it('the runner or their coach marks a day; the week answer lists it under the day', async () => {
     const app = freshApp();
     const { coach, ivy } = await squadWorld(app);
-    const ill = await request(app).put('/api/days/2026-12-08').set(coach.auth).send({ kind: 'ill', note: 'Head cold', runner_id: ivy.id });
+    const ill = await request(app)
+      .put('/api/days/2026-12-08')
+      .set(coach.auth)
+      .send({ kind: 'ill', note: 'Head cold', runner_id: ivy.id });
     expect(ill.status).toBe(200);
     expect(ill.body.day_mark).toMatchObject({ date: '2026-12-08', kind: 'ill', minutes: null, note: 'Head cold' });
-    const cross = await request(app).put('/api/days/2026-12-09').set(ivy.auth).send({ kind: 'cross-training', minutes: 45, note: 'Bike' });
+    const cross = await request(app)
+      .put('/api/days/2026-12-09')
+      .set(ivy.auth)
+      .send({ kind: 'cross-training', minutes: 45, note: 'Bike' });
     expect(cross.status).toBe(200);
     const list = await request(app).get(`/api/days?from=2026-12-07&to=2026-12-13&runner_id=${ivy.id}`).set(coach.auth);
     expect(list.body.day_marks.map((m: { kind: string }) => m.kind)).toEqual(['ill', 'cross-training']);
@@ -371,8 +466,14 @@ describe('Day marks: PUT/DELETE /api/days/:date, GET /api/days', () => {
   it('another coach gets 404, an admin 403', async () => {
     const app = freshApp();
     const { otherCoach, admin, ivy } = await squadWorld(app);
-    expect((await request(app).put('/api/days/2026-12-08').set(otherCoach.auth).send({ kind: 'rest', runner_id: ivy.id })).status).toBe(404);
-    expect((await request(app).put('/api/days/2026-12-08').set(admin.auth).send({ kind: 'rest', runner_id: ivy.id })).status).toBe(403);
-    expect((await request(app).get(`/api/days?from=2026-12-07&to=2026-12-13&runner_id=${ivy.id}`).set(otherCoach.auth)).status).toBe(404);
+    expect(
+      (await request(app).put('/api/days/2026-12-08').set(otherCoach.auth).send({ kind: 'rest', runner_id: ivy.id })).status,
+    ).toBe(404);
+    expect(
+      (await request(app).put('/api/days/2026-12-08').set(admin.auth).send({ kind: 'rest', runner_id: ivy.id })).status,
+    ).toBe(403);
+    expect(
+      (await request(app).get(`/api/days?from=2026-12-07&to=2026-12-13&runner_id=${ivy.id}`).set(otherCoach.auth)).status,
+    ).toBe(404);
   });
 });

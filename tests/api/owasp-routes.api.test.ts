@@ -177,10 +177,17 @@ async function buildWorld(): Promise<World> {
   const runId = run.body.imported[0].id as string;
   const plan = (await must('plan', as(owner).post('/api/plans').send({ date: '2012-10-24', text: '45 min easy' }), 201)).body.plan
     .id as string;
-  const library = (await must('library session', as(owner).post('/api/library').send({ name: 'Easy hour', text: '60 min easy' }), 201))
-    .body.session.id as string;
+  const library = (
+    await must('library session', as(owner).post('/api/library').send({ name: 'Easy hour', text: '60 min easy' }), 201)
+  ).body.session.id as string;
   const batch = (
-    await must('assigned', as(owner).post('/api/plans/assign').send({ runner_ids: [owner.id], date: '2012-10-21', text: '3 mi easy' }), 201)
+    await must(
+      'assigned',
+      as(owner)
+        .post('/api/plans/assign')
+        .send({ runner_ids: [owner.id], date: '2012-10-21', text: '3 mi easy' }),
+      201,
+    )
   ).body.batch_id as string;
   await must('day mark', as(owner).put('/api/days/2012-10-23').send({ kind: 'rest' }), 200);
   const fuelItem = (await must('fuel item', as(owner).post('/api/fuel-items').send(FUEL_ITEM), 201)).body.item.id as string;
@@ -360,7 +367,10 @@ const ROUTES: Record<string, Row> = {
   'PUT /api/plans/{id}/fuel-plan': { caller: 'owner', params: { id: planId }, body: () => FUEL_PLAN },
   'DELETE /api/plans/{id}/fuel-plan': { caller: 'owner', params: { id: planId } },
   'PUT /api/runners/{id}/pace-tolerance': { caller: 'owner', params: { id: ownerId }, body: () => ({ pace_tolerance: 0.03 }) },
-  'POST /api/plans/assign': { caller: 'owner', body: (w) => ({ runner_ids: [w.people.owner.id], date: '2012-10-26', text: '4 mi easy' }) },
+  'POST /api/plans/assign': {
+    caller: 'owner',
+    body: (w) => ({ runner_ids: [w.people.owner.id], date: '2012-10-26', text: '4 mi easy' }),
+  },
   'DELETE /api/plans/batches/{id}': { caller: 'owner', params: { id: id((w) => w.ids.batch) } },
   'GET /api/plans/{id}/changes': { caller: 'owner', params: { id: planId } },
   'GET /api/library': { caller: 'owner' },
@@ -373,7 +383,11 @@ const ROUTES: Record<string, Row> = {
     params: { date: { kind: 'value', value: () => '2012-10-24' } },
     body: () => ({ kind: 'cross-training', minutes: 40 }),
   },
-  'DELETE /api/days/{date}': { caller: 'owner', params: { date: { kind: 'value', value: () => '2012-10-23' } }, runnerIdQuery: true },
+  'DELETE /api/days/{date}': {
+    caller: 'owner',
+    params: { date: { kind: 'value', value: () => '2012-10-23' } },
+    runnerIdQuery: true,
+  },
   'GET /api/runners/{id}': { caller: 'owner', params: { id: ownerId } },
 
   'GET /api/fuel-items': { caller: 'owner', runnerIdQuery: true },

@@ -42,7 +42,8 @@ async function browserToday(page: Page): Promise<string> {
 describe('Plan page', () => {
   it('writes a session in shorthand, edits it in the builder, saves it and sees it in the week', async () => {
     const page = await planPage(1280);
-    const errors = watchErrors(page);
+    // The copy onto a week with sessions is answered 409 first (the page then asks); the browser logs that answer.
+    const errors = watchErrors(page, [/status of 409/]);
     // The demo runner's goal race, ten weeks out (db/seeds/02_demo_runs.ts).
     await expect.poll(() => page.getByText('Lakeside Marathon').count()).toBe(1);
     await expect.poll(() => page.getByText(/\d+ days to go/).count()).toBe(1);
@@ -101,6 +102,10 @@ describe('Plan page', () => {
     await expect.poll(() => page.getByText(/(as planned|partly)$/).count()).toBeGreaterThan(0);
     await screenshot(page, 'plan-week-before');
     await page.getByRole('button', { name: 'Copy this week to next week' }).click();
+    // This week already has the demo coach's sessions: the page asks before copying onto them.
+    const ask = page.getByRole('alertdialog', { name: 'The next week has sessions' });
+    await expect.poll(() => ask.getByText(/already has \d+ sessions?/).count()).toBe(1);
+    await ask.getByRole('button', { name: 'Replace them' }).click();
     await expect
       .poll(() =>
         page

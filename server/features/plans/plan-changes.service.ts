@@ -25,7 +25,13 @@ export async function recordPlanChanges(actor: Actor, entries: readonly PlanChan
   const name = (await findUserById(actor.id, trx))?.name ?? 'Someone';
   const rows = entries.flatMap((entry) => {
     const plan = entry.kind === 'deleted' ? entry.before : entry.after;
-    const base = { plan_id: plan.id, runner_id: plan.runner_id, actor_id: actor.id, actor_name: name, noticed: actor.id === plan.runner_id };
+    const base = {
+      plan_id: plan.id,
+      runner_id: plan.runner_id,
+      actor_id: actor.id,
+      actor_name: name,
+      noticed: actor.id === plan.runner_id,
+    };
     if (entry.kind === 'changed') {
       const change = describePlanChange(fieldsOf(entry.before), fieldsOf(entry.after));
       return change ? [{ ...base, ...change, plan_date: entry.after.date }] : [];

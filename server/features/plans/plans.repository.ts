@@ -69,11 +69,7 @@ export async function findPlanById(id: string, trx: Db = db): Promise<NamedPlanR
 }
 
 /** Plans in date order, then as written; id settles ties so every list agrees. */
-const PLAN_ORDER = [
-  { column: 'session_plans.date' },
-  { column: 'session_plans.created_at' },
-  { column: 'session_plans.id' },
-];
+const PLAN_ORDER = [{ column: 'session_plans.date' }, { column: 'session_plans.created_at' }, { column: 'session_plans.id' }];
 
 export async function listPlans(
   runnerId: string,
@@ -88,12 +84,7 @@ export async function listPlans(
 }
 
 /** Several runners' plans between two dates (inclusive), in the order `listPlans` gives one runner's. */
-export async function listPlansOf(
-  runnerIds: readonly string[],
-  from: string,
-  to: string,
-  trx: Db = db,
-): Promise<NamedPlanRow[]> {
+export async function listPlansOf(runnerIds: readonly string[], from: string, to: string, trx: Db = db): Promise<NamedPlanRow[]> {
   if (runnerIds.length === 0) return [];
   return namedPlans(trx)
     .whereIn('session_plans.runner_id', runnerIds)

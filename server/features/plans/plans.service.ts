@@ -106,12 +106,7 @@ export async function changePlan(actor: Actor, id: string, changes: UpdatePlanIn
   await assertCanPlanFor(actor, row.runner_id);
   const items = itemsOf(changes);
   const updated = await db.transaction(async (trx) => {
-    const after = await updatePlan(
-      id,
-      { date: changes.date, title: changes.title, notes: changes.notes, items },
-      actor.id,
-      trx,
-    );
+    const after = await updatePlan(id, { date: changes.date, title: changes.title, notes: changes.notes, items }, actor.id, trx);
     await recordPlanChanges(actor, [{ kind: 'changed', before: row, after }], trx);
     return after;
   });

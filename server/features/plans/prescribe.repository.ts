@@ -40,7 +40,10 @@ export async function insertPlanChanges(
 }
 
 export async function listPlanChanges(planId: string, trx: Db = db): Promise<PlanChangeRow[]> {
-  return trx('plan_changes').where({ plan_id: planId }).orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id' }]).limit(50);
+  return trx('plan_changes')
+    .where({ plan_id: planId })
+    .orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id' }])
+    .limit(50);
 }
 
 /** Coaches' changes nobody has been told about yet, oldest first. */
@@ -122,7 +125,10 @@ export async function deleteLibrarySession(ownerId: string, id: string, trx: Db 
 // ---------------------------------------------------------------------------------------------
 
 /** The columns of a fuel plan that make it up, without who owns it: copied as they are. */
-export type FuelPlanCopy = Omit<FuelPlanRow, 'id' | 'runner_id' | 'author_id' | 'plan_id' | 'goal_race_user_id' | 'created_at' | 'updated_at'>;
+export type FuelPlanCopy = Omit<
+  FuelPlanRow,
+  'id' | 'runner_id' | 'author_id' | 'plan_id' | 'goal_race_user_id' | 'created_at' | 'updated_at'
+>;
 
 export async function findFuelPlanCopy(planId: string, trx: Db = db): Promise<FuelPlanCopy | null> {
   const row = await trx('fuel_plans').where({ plan_id: planId }).first();
@@ -194,7 +200,13 @@ export async function restorePlan(replaced: ReplacedPlan, trx: Db = db): Promise
     updated_at: new Date(row.updated_at),
   });
   if (replaced.fuel_plan) {
-    await insertFuelPlanCopy(row.id, row.runner_id, replaced.fuel_author_id ?? row.author_id ?? row.runner_id, replaced.fuel_plan, trx);
+    await insertFuelPlanCopy(
+      row.id,
+      row.runner_id,
+      replaced.fuel_author_id ?? row.author_id ?? row.runner_id,
+      replaced.fuel_plan,
+      trx,
+    );
   }
 }
 
@@ -232,7 +244,12 @@ export async function deleteDayMark(runnerId: string, date: string, trx: Db = db
   return (await trx('day_marks').where({ runner_id: runnerId, date }).delete()) > 0;
 }
 
-export async function listDayMarksOf(runnerIds: readonly string[], from: string, to: string, trx: Db = db): Promise<DayMarkRow[]> {
+export async function listDayMarksOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = db,
+): Promise<DayMarkRow[]> {
   if (runnerIds.length === 0) return [];
   return trx('day_marks').whereIn('runner_id', runnerIds).andWhere('date', '>=', from).andWhere('date', '<=', to).orderBy('date');
 }

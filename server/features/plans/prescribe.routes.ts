@@ -156,7 +156,14 @@ export function createPrescribeRouter() {
   );
 
   api.route(
-    { method: 'delete', path: '/library/:id', tag: 'library', summary: 'Delete a library session', access: 'own-data', status: 204 },
+    {
+      method: 'delete',
+      path: '/library/:id',
+      tag: 'library',
+      summary: 'Delete a library session',
+      access: 'own-data',
+      status: 204,
+    },
     async (req, res) => {
       await removeLibrarySession(requireActor(res), parseIdParam(req.params.id));
       res.status(204).end();

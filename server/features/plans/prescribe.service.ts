@@ -192,7 +192,10 @@ export async function assignSession(actor: Actor, input: AssignInput) {
       created.map((after) => ({ kind: 'added' as const, after })),
       trx,
     );
-    const batchId = await insertBatch({ actor_id: actor.id, kind: 'assign', created_ids: created.map((p) => p.id), replaced: [] }, trx);
+    const batchId = await insertBatch(
+      { actor_id: actor.id, kind: 'assign', created_ids: created.map((p) => p.id), replaced: [] },
+      trx,
+    );
     return { plans: created.map(toPlan), batch_id: batchId };
   });
 }

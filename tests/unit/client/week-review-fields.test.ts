@@ -93,14 +93,18 @@ const week = RunnerWeekSchema.parse({
     plans: date === plan.date ? [plan] : [],
     runs: date === run.date ? [run] : [],
     unread_notes: date === run.date ? 1 : 0,
+    day_marks: date === '2026-11-26' ? [{ date, kind: 'cross-training', minutes: 45, note: 'Pool running' }] : [],
   })),
+  missed_plans: [],
   totals: {
     planned_distance_m: 29_000,
     plans_without_distance: 0,
     planned_duration_s: 1800,
     run_distance_m: 29_000,
     moving_s: 9120,
-    sessions: { as_planned: 0, partly: 1, missed: 0, unplanned: 0 },
+    cross_training_s: 2700,
+    time_s: 11_820,
+    sessions: { as_planned: 0, partly: 1, missed: 0, missed_with_reason: 0, unplanned: 0 },
     sessions_due: 1,
     moving_s_on_timed_plans: 0,
     goal_pace_s: 2400,
@@ -215,6 +219,12 @@ describe('the week review shows every field the server sends', () => {
     const shown = PLAN_FIELDS[path];
     expect(shown, `${path} is sent by the server but neither rendered nor explained in PLAN_FIELDS`).toBeDefined();
     if (typeof shown === 'string') expect(html).toContain(shown);
+  });
+
+  it('shows a marked day: its kind, minutes and note', () => {
+    expect(html).toContain('Cross-training');
+    expect(html).toContain('45 min');
+    expect(html).toContain('Pool running');
   });
 
   it('marks the day that has an unread note', () => {

@@ -1,6 +1,6 @@
-import { useQueries, useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
+import { useQueries, useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import type { SessionVerdict } from '../../../../shared/plans/plan-check.ts';
 import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { addDays, mondayOf, parseIsoDate } from '../../../../shared/plans/weeks.ts';
@@ -22,6 +22,17 @@ import { PlanMonth } from '../../../features/plans/components/plan-month.tsx';
 import { PlanWeek, formatDay } from '../../../features/plans/components/plan-week.tsx';
 import { SessionEditor } from '../../../features/plans/components/session-editor.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { useMe } from '../../../features/auth/api/get-me.ts';
+import { isApiError } from '../../../lib/api-client.ts';
+import { useDayMarks } from '../../../features/plans/api/day-marks.ts';
+import { runnerSummaryQueryOptions, useRunnerSummary } from '../../../features/plans/api/runner-summary.ts';
+import { useUndoBatch } from '../../../features/plans/api/undo-batch.ts';
+import { useUpdatePlan } from '../../../features/plans/api/update-plan.ts';
+import { DayMarkForm } from '../../../features/plans/components/day-mark-form.tsx';
+import { LibraryCard } from '../../../features/plans/components/library-card.tsx';
+import { ToleranceControl } from '../../../features/plans/components/tolerance-control.tsx';
+import { squadsQueryOptions } from '../../../features/squad/api/get-squads.ts';
+import { requireAccess } from '../../guards.ts';
 import { MAX_RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
 
 /** Today on this device as `YYYY-MM-DD`. */
@@ -43,16 +54,32 @@ function readView(search: URLSearchParams, today: string): PlanView {
   return { view: 'week', monday, from: monday, to: addDays(monday, 6) };
 }
 
-const runFilters = ({ from, to }: { from: string; to: string }) => ({ page: 1, per_page: MAX_RUNS_PER_PAGE, from, to });
+const runFilters = ({ from, to }: { from: string; to: string }, runnerId: string | undefined) => ({
+  page: 1,
+  per_page: MAX_RUNS_PER_PAGE,
+  from,
+  to,
+  ...(runnerId ? { runner_id: runnerId } : {}),
+});
 
+const planFilters = ({ from, to }: { from: string; to: string }, runnerId: string | undefined) => ({
+  from,
+  to,
+  ...(runnerId ? { runner_id: runnerId } : {}),
+});
+
+/** `/plan` is the signed-in person's own plan; `/squad/:runnerId/plan` a squad runner's, opened by their coach. */
 export const createLoader =
   (queryClient: QueryClient) =>
-  async ({ request }: LoaderFunctionArgs) => {
+  async ({ request, params }: LoaderFunctionArgs) => {
+    const runnerId = params.runnerId;
+    if (runnerId) await requireAccess(queryClient, request, 'squads:manage');
     const range = readView(new URL(request.url).searchParams, deviceToday());
     await Promise.all([
-      queryClient.ensureQueryData(goalRaceQueryOptions()),
-      queryClient.ensureQueryData(plansQueryOptions({ from: range.from, to: range.to })),
-      queryClient.ensureQueryData(runsQueryOptions(runFilters(range))),
+      queryClient.ensureQueryData(goalRaceQueryOptions(runnerId)),
+      queryClient.ensureQueryData(plansQueryOptions(planFilters(range, runnerId))),
+      queryClient.ensureQueryData(runsQueryOptions(runFilters(range, runnerId))),
+      runnerId ? queryClient.ensureQueryData(runnerSummaryQueryOptions(runnerId)) : null,
     ]);
     return null;
   };
@@ -66,14 +93,38 @@ function weekTitle(monday: string): string {
 
 type EditorState = { plan: Plan | null; date: string; key: number };
 
+type Status = { text: string; link?: { to: string; label: string }; range: string; undo?: () => void };
+
 export default function PlanRoute() {
+  const { runnerId } = useParams();
+  return runnerId ? <RunnerPlan runnerId={runnerId} /> : <PlanPage runner={null} />;
+}
+
+function RunnerPlan({ runnerId }: { runnerId: string }) {
+  const runner = useRunnerSummary(runnerId);
+  return <PlanPage key={runnerId} runner={runner} />;
+}
+
+function PlanPage({ runner }: { runner: { id: string; name: string; pace_tolerance: number } | null }) {
+  const runnerId = runner?.id;
   const [search] = useSearchParams();
   const today = deviceToday();
   const range = readView(search, today);
   const profile = useProfile();
-  const goalRace = useSuspenseQuery(goalRaceQueryOptions()).data;
-  const plans = usePlans({ from: range.from, to: range.to });
-  const { runs } = useRuns(runFilters(range));
+  const me = useMe();
+  const isCoach = me?.role === 'coach';
+  const squads = useQuery({ ...squadsQueryOptions(), enabled: isCoach });
+  const squadRunners = [
+    ...new Map((squads.data ?? []).flatMap((sq) => sq.members).map((m) => [m.id, { id: m.id, name: m.name }])).values(),
+  ];
+  const goalRace = useSuspenseQuery(goalRaceQueryOptions(runnerId)).data;
+  const plans = usePlans(planFilters(range, runnerId));
+  const dayMarks = useDayMarks(planFilters(range, runnerId)).data ?? [];
+  const { runs } = useRuns(runFilters(range, runnerId));
+  const planHref = (search?: { view?: 'week' | 'month'; week?: string; month?: string }) =>
+    runnerId ? paths.runnerPlan.getHref(runnerId, search) : paths.plan.getHref(search);
+  const timeZone = profile.time_zone;
+  const now = new Date();
   const queryClient = useQueryClient();
   // One plan check per run, in the week view only (a month would be dozens of requests). Not
   // suspended: the week shows at once and the verdicts follow.
@@ -91,8 +142,47 @@ export default function PlanRoute() {
   // Plan checks (and the run page's list of plans to link) follow the plans: refresh them after a write.
   const refreshChecks = () => queryClient.invalidateQueries({ queryKey: planCheckKeys.all });
   const copyWeek = useCopyWeek();
+  const undoBatch = useUndoBatch();
+  const move = useUpdatePlan();
   const [editor, setEditor] = useState<EditorState | null>(null);
-  const [status, setStatus] = useState<{ text: string; link?: { to: string; label: string }; range: string } | null>(null);
+  const [status, setStatus] = useState<Status | null>(null);
+  const [copyAsk, setCopyAsk] = useState<string | null>(null);
+  const [markDate, setMarkDate] = useState<string | null>(null);
+
+  /** Shows what a batch did, with an undo that lasts while the page is open. */
+  const batchStatus = (text: string, batchId: string, link?: Status['link']): Status => ({
+    range: range.from,
+    text,
+    link,
+    undo: () =>
+      undoBatch.mutate(batchId, {
+        onSuccess: () => {
+          void refreshChecks();
+          setStatus({ range: range.from, text: 'Undone: the sessions are as they were.' });
+        },
+      }),
+  });
+
+  function moveSession(plan: Plan, date: string) {
+    const from = plan.date;
+    move.mutate(
+      { id: plan.id, date },
+      {
+        onSuccess: () => {
+          void refreshChecks();
+          setStatus({
+            range: range.from,
+            text: `Moved ${plan.title || 'the session'} from ${formatDay(from)} to ${formatDay(date)}.`,
+            undo: () =>
+              move.mutate(
+                { id: plan.id, date: from },
+                { onSuccess: () => setStatus({ range: range.from, text: 'Moved back.' }) },
+              ),
+          });
+        },
+      },
+    );
+  }
 
   const open = (plan: Plan | null, date: string) => {
     setStatus(null);
@@ -106,21 +196,19 @@ export default function PlanRoute() {
     setStatus({
       range: range.from,
       text: message,
-      link: outside
-        ? { to: paths.plan.getHref({ week: mondayOf(plan.date) }), label: `Show ${formatDay(plan.date)}` }
-        : undefined,
+      link: outside ? { to: planHref({ week: mondayOf(plan.date) }), label: `Show ${formatDay(plan.date)}` } : undefined,
     });
   }
 
   const title = range.view === 'week' ? weekTitle(range.monday) : MONTH_TITLE.format(new Date(`${range.from}T00:00:00Z`));
   const previous =
     range.view === 'week'
-      ? paths.plan.getHref({ week: addDays(range.monday, -7) })
-      : paths.plan.getHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, -1)) });
+      ? planHref({ week: addDays(range.monday, -7) })
+      : planHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, -1)) });
   const next =
     range.view === 'week'
-      ? paths.plan.getHref({ week: addDays(range.monday, 7) })
-      : paths.plan.getHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, 1)) });
+      ? planHref({ week: addDays(range.monday, 7) })
+      : planHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, 1)) });
   const nav = 'inline-flex size-9 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
   const tab = (active: boolean) =>
     cn(
@@ -128,19 +216,31 @@ export default function PlanRoute() {
       active ? 'bg-teal text-white' : 'bg-card text-teal hover:bg-teal-wash',
     );
 
-  function copyToNextWeek() {
+  function copyToNextWeek(mode?: 'replace' | 'add') {
     if (range.view !== 'week') return;
     const to = addDays(range.monday, 7);
+    setCopyAsk(null);
     copyWeek.mutate(
-      { from_start: range.monday, to_start: to },
+      { from_start: range.monday, to_start: to, ...(runnerId ? { runner_id: runnerId } : {}), ...(mode ? { mode } : {}) },
       {
-        onSuccess: (copied) => {
+        onSuccess: (result) => {
           void refreshChecks();
-          setStatus({
-            range: range.from,
-            text: `Copied ${copied.length} ${copied.length === 1 ? 'session' : 'sessions'} to the week of ${formatLocalDate(to)}.`,
-            link: { to: paths.plan.getHref({ week: to }), label: 'Show next week' },
-          });
+          const n = result.plans.length;
+          const replaced =
+            result.replaced > 0 ? `, replacing ${result.replaced} ${result.replaced === 1 ? 'session' : 'sessions'}` : '';
+          setStatus(
+            batchStatus(
+              `Copied ${n} ${n === 1 ? 'session' : 'sessions'} to the week of ${formatLocalDate(to)}${replaced}.`,
+              result.batch_id,
+              {
+                to: planHref({ week: to }),
+                label: 'Show next week',
+              },
+            ),
+          );
+        },
+        onError: (err) => {
+          if (isApiError(err) && err.code === 'week-has-sessions') setCopyAsk(err.message);
         },
       },
     );
@@ -148,19 +248,32 @@ export default function PlanRoute() {
 
   return (
     <>
-      <PageHeader title="Plan">
-        Your goal race and the session plans that lead to it, with what you ran beside them.{' '}
-        <Link
-          to={paths.myWeek.getHref(range.view === 'week' ? range.monday : undefined)}
-          className="font-semibold text-teal underline-offset-2 hover:underline"
-        >
-          My week: totals, load, flags and notes
-        </Link>
-      </PageHeader>
+      {runner ? (
+        <PageHeader title={`${runner.name}’s plan`}>
+          You are writing for {runner.name.split(' ')[0]}
+          {goalRace ? ` · their goal race: ${goalRace.name}` : ' · no goal race set yet'}.{' '}
+          <Link
+            to={paths.weekReview.getHref(runner.id, range.view === 'week' ? range.monday : range.from)}
+            className="font-semibold text-teal underline-offset-2 hover:underline"
+          >
+            Week review
+          </Link>
+        </PageHeader>
+      ) : (
+        <PageHeader title="Plan">
+          Your goal race and the session plans that lead to it, with what you ran beside them.{' '}
+          <Link
+            to={paths.myWeek.getHref(range.view === 'week' ? range.monday : undefined)}
+            className="font-semibold text-teal underline-offset-2 hover:underline"
+          >
+            My week: totals, load, flags and notes
+          </Link>
+        </PageHeader>
+      )}
       <div className="flex flex-col gap-4">
         <Card title="Goal race">
           <GoalRaceLine goalRace={goalRace} unit={profile.unit} today={today} />
-          {goalRace && (
+          {goalRace && !runner && (
             <Link
               to={paths.goalFuel.getHref()}
               className="mt-1 inline-block text-sm font-semibold text-teal underline-offset-2 hover:underline"
@@ -170,8 +283,33 @@ export default function PlanRoute() {
           )}
         </Card>
 
+        {runner && (
+          <Card title="Plan check">
+            <ToleranceControl runnerId={runner.id} runnerName={runner.name} tolerance={runner.pace_tolerance} />
+          </Card>
+        )}
+
         {editor && (
-          <SessionEditor key={editor.key} plan={editor.plan} date={editor.date} onClose={() => setEditor(null)} onDone={onDone} />
+          <SessionEditor
+            key={editor.key}
+            plan={editor.plan}
+            date={editor.date}
+            runnerId={runnerId}
+            onClose={() => setEditor(null)}
+            onDone={onDone}
+          />
+        )}
+        {markDate && (
+          <DayMarkForm
+            key={markDate}
+            date={markDate}
+            mark={dayMarks.find((m) => m.date === markDate) ?? null}
+            runnerId={runnerId}
+            onClose={(message) => {
+              setMarkDate(null);
+              if (message) setStatus({ range: range.from, text: message });
+            }}
+          />
         )}
         {editor?.plan && (
           <Link
@@ -182,6 +320,20 @@ export default function PlanRoute() {
           </Link>
         )}
 
+        {copyAsk && (
+          <div role="alertdialog" aria-label="The next week has sessions" className="rounded-md border border-tartan bg-card p-4">
+            <p className="mb-3 text-sm">{copyAsk}</p>
+            <div className="flex flex-wrap gap-2">
+              <Button onClick={() => copyToNextWeek('replace')}>Replace them</Button>
+              <Button variant="secondary" onClick={() => copyToNextWeek('add')}>
+                Add beside them
+              </Button>
+              <Button variant="quiet" onClick={() => setCopyAsk(null)}>
+                Cancel
+              </Button>
+            </div>
+          </div>
+        )}
         {status?.range === range.from && (
           <FormAlert tone="success">
             {status.text}{' '}
@@ -190,22 +342,38 @@ export default function PlanRoute() {
                 {status.link.label}
               </Link>
             )}
+            {status.undo && (
+              <>
+                {' '}
+                <Button
+                  variant="quiet"
+                  className="min-h-0 px-0 py-0 font-semibold underline"
+                  onClick={status.undo}
+                  disabled={undoBatch.isPending}
+                >
+                  Undo
+                </Button>
+              </>
+            )}
           </FormAlert>
         )}
-        {copyWeek.error && <FormAlert>{copyWeek.error.message}</FormAlert>}
+        {copyWeek.error && !(isApiError(copyWeek.error) && copyWeek.error.code === 'week-has-sessions') && (
+          <FormAlert>{copyWeek.error.message}</FormAlert>
+        )}
+        {(move.error ?? undoBatch.error) && <FormAlert>{(move.error ?? undoBatch.error)!.message}</FormAlert>}
 
         <Card>
           <div className="mb-3 flex flex-wrap items-center gap-2">
             <nav aria-label="Calendar view" className="flex overflow-hidden rounded-md border border-line">
               <Link
-                to={paths.plan.getHref({ week: range.view === 'week' ? range.monday : mondayOf(range.from) })}
+                to={planHref({ week: range.view === 'week' ? range.monday : mondayOf(range.from) })}
                 aria-current={range.view === 'week' ? 'page' : undefined}
                 className={tab(range.view === 'week')}
               >
                 Week
               </Link>
               <Link
-                to={paths.plan.getHref({ view: 'month', month: range.from.slice(0, 7) })}
+                to={planHref({ view: 'month', month: range.from.slice(0, 7) })}
                 aria-current={range.view === 'month' ? 'page' : undefined}
                 className={cn(tab(range.view === 'month'), 'border-l border-line')}
               >
@@ -225,7 +393,7 @@ export default function PlanRoute() {
             </div>
             {(range.view === 'week' ? today < range.from || today > range.to : range.from.slice(0, 7) !== today.slice(0, 7)) && (
               <Link
-                to={range.view === 'week' ? paths.plan.getHref() : paths.plan.getHref({ view: 'month' })}
+                to={range.view === 'week' ? planHref() : planHref({ view: 'month' })}
                 className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
               >
                 {range.view === 'week' ? 'This week' : 'This month'}
@@ -235,7 +403,7 @@ export default function PlanRoute() {
               {range.view === 'week' && (
                 <Button
                   variant="secondary"
-                  onClick={copyToNextWeek}
+                  onClick={() => copyToNextWeek()}
                   disabled={plans.length === 0 || copyWeek.isPending}
                   title={plans.length === 0 ? 'This week has no sessions to copy.' : undefined}
                 >
@@ -259,11 +427,46 @@ export default function PlanRoute() {
               checks={checks}
               onEdit={(plan) => open(plan, plan.date)}
               onNew={(date) => open(null, date)}
+              onMove={moveSession}
+              onMarkDay={(date) => {
+                setStatus(null);
+                setMarkDate(date);
+              }}
+              dayMarks={dayMarks}
+              now={now}
+              timeZone={timeZone}
+              movingId={move.isPending ? (move.variables?.id ?? null) : null}
             />
           ) : (
-            <PlanMonth month={range.month} plans={plans} runs={runs} unit={profile.unit} today={today} title={title} />
+            <PlanMonth
+              month={range.month}
+              plans={plans}
+              runs={runs}
+              unit={profile.unit}
+              today={today}
+              title={title}
+              weekHref={(monday) => planHref({ week: monday })}
+            />
           )}
         </Card>
+
+        <LibraryCard
+          forRunner={runner ?? { id: me?.id ?? '', name: me?.name ?? 'You' }}
+          squadRunners={isCoach ? squadRunners : []}
+          defaultDate={range.view === 'week' && (today < range.from || today > range.to) ? range.from : today}
+          onApplied={(message, batchId, date) => {
+            void refreshChecks();
+            setStatus(
+              batchStatus(
+                message,
+                batchId,
+                date < range.from || date > range.to
+                  ? { to: planHref({ week: mondayOf(date) }), label: `Show ${formatDay(date)}` }
+                  : undefined,
+              ),
+            );
+          }}
+        />
       </div>
     </>
   );

@@ -8,12 +8,17 @@ import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import { runnerWeekQueryOptions, useRunnerWeek } from '../../../features/squad/api/get-runner-week.ts';
 import { WeekReview } from '../../../features/squad/components/week-review.tsx';
 import { requireAccess } from '../../guards.ts';
+import { runnerSummaryQueryOptions, useRunnerSummary } from '../../../features/plans/api/runner-summary.ts';
+import { ToleranceControl } from '../../../features/plans/components/tolerance-control.tsx';
 
 export const createLoader =
   (queryClient: QueryClient) =>
   async ({ request, params }: LoaderFunctionArgs) => {
     await requireAccess(queryClient, request, 'squads:manage');
-    await queryClient.ensureQueryData(runnerWeekQueryOptions(params.runnerId ?? '', parseIsoDate(params.date ?? null)));
+    await Promise.all([
+      queryClient.ensureQueryData(runnerWeekQueryOptions(params.runnerId ?? '', parseIsoDate(params.date ?? null))),
+      queryClient.ensureQueryData(runnerSummaryQueryOptions(params.runnerId ?? '')),
+    ]);
     return null;
   };
 
@@ -24,6 +29,7 @@ export default function WeekReviewRoute() {
   const week = useRunnerWeek(runnerId, parseIsoDate(params.date ?? null));
   const me = useMe();
   const profile = useProfile();
+  const runner = useRunnerSummary(runnerId);
   return (
     <>
       <PageHeader title={week.runner.name}>
@@ -36,12 +42,23 @@ export default function WeekReviewRoute() {
         viewer="coach"
         weekHref={(date) => paths.weekReview.getHref(runnerId, date ?? week.today)}
         lead={
-          <Link
-            to={paths.squad.getHref({ week: week.start })}
-            className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
-          >
-            ← All runners
-          </Link>
+          <div className="flex flex-col gap-3">
+            <div className="flex flex-wrap gap-4">
+              <Link
+                to={paths.squad.getHref({ week: week.start })}
+                className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+              >
+                ← All runners
+              </Link>
+              <Link
+                to={paths.runnerPlan.getHref(runnerId, { week: week.start })}
+                className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+              >
+                Open {week.runner.name}’s plan
+              </Link>
+            </div>
+            <ToleranceControl runnerId={runnerId} runnerName={runner.name} tolerance={runner.pace_tolerance} />
+          </div>
         }
       />
     </>

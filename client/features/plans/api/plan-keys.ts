@@ -5,7 +5,8 @@ export const planKeys = {
   all: ['plans'] as const,
   lists: () => [...planKeys.all, 'list'] as const,
   list: (filters: PlanListFilters) => [...planKeys.lists(), filters] as const,
-  changes: (planId: string) => [...planKeys.all, 'changes', planId] as const,
+  /** Outside `all`, so deleting a session does not refetch its (gone) record of changes. */
+  changes: (planId: string) => ['plan-changes', planId] as const,
   library: () => [...planKeys.all, 'library'] as const,
   dayMarks: (filters: PlanListFilters) => [...planKeys.all, 'day-marks', filters] as const,
   runner: (runnerId: string) => [...planKeys.all, 'runner', runnerId] as const,

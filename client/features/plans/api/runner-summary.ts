@@ -22,5 +22,8 @@ export async function setPaceTolerance({ runnerId, pace_tolerance }: { runnerId:
 
 export function useSetPaceTolerance() {
   const queryClient = useQueryClient();
-  return useMutation({ mutationFn: setPaceTolerance, onSuccess: () => queryClient.invalidateQueries({ queryKey: planKeys.all }) });
+  return useMutation({
+    mutationFn: setPaceTolerance,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: planKeys.all }),
+  });
 }

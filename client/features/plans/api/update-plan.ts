@@ -14,6 +14,10 @@ export function useUpdatePlan() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: updatePlan,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: planKeys.all }),
+    onSuccess: (plan) =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: planKeys.all }),
+        queryClient.invalidateQueries({ queryKey: planKeys.changes(plan.id) }),
+      ]),
   });
 }

@@ -44,7 +44,14 @@ export function DayMarkForm({ date, mark, runnerId, onClose }: DayMarkFormProps)
   }
 
   return (
-    <Card title={heading} actions={<Button variant="quiet" onClick={() => onClose()}>Close</Button>}>
+    <Card
+      title={heading}
+      actions={
+        <Button variant="quiet" onClick={() => onClose()}>
+          Close
+        </Button>
+      }
+    >
       <form onSubmit={onSubmit} noValidate aria-label={heading} className="flex flex-col gap-3">
         <div className="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,1fr)_8rem]">
           <SelectField label="This day is" value={kind} onChange={(e) => setKind(e.target.value as DayMarkKind)}>
@@ -66,7 +73,13 @@ export function DayMarkForm({ date, mark, runnerId, onClose }: DayMarkFormProps)
             />
           )}
         </div>
-        <TextField label="Note (optional)" value={note} maxLength={500} onChange={(e) => setNote(e.target.value)} placeholder="Bike, easy spin" />
+        <TextField
+          label="Note (optional)"
+          value={note}
+          maxLength={500}
+          onChange={(e) => setNote(e.target.value)}
+          placeholder="Bike, easy spin"
+        />
         {(put.error ?? remove.error) && <FormAlert>{(put.error ?? remove.error)!.message}</FormAlert>}
         <div className="flex flex-wrap gap-2">
           <Button type="submit" disabled={put.isPending}>
@@ -77,7 +90,10 @@ export function DayMarkForm({ date, mark, runnerId, onClose }: DayMarkFormProps)
               variant="danger"
               disabled={remove.isPending}
               onClick={() =>
-                remove.mutate({ date, ...(runnerId ? { runner_id: runnerId } : {}) }, { onSuccess: () => onClose('Mark removed.') })
+                remove.mutate(
+                  { date, ...(runnerId ? { runner_id: runnerId } : {}) },
+                  { onSuccess: () => onClose('Mark removed.') },
+                )
               }
             >
               Remove mark

@@ -61,7 +61,11 @@ export function LibraryCard({ forRunner, squadRunners, defaultDate, onApplied }:
                 >
                   Apply to…
                 </Button>
-                <Button variant="quiet" onClick={() => setEditing(editing === s.id ? null : s.id)} aria-label={`Rename ${s.name}`}>
+                <Button
+                  variant="quiet"
+                  onClick={() => setEditing(editing === s.id ? null : s.id)}
+                  aria-label={`Rename ${s.name}`}
+                >
                   Rename
                 </Button>
                 <Button
@@ -150,8 +154,20 @@ function ApplyForm({ session, forRunner, squadRunners, defaultDate, onApplied }:
   }
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={`Apply ${session.name}`} className="flex flex-col gap-3 rounded-md bg-paper p-3">
-      <TextField label="Date" type="date" required value={date} onChange={(e) => setDate(e.target.value)} className="w-48 max-w-full" />
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label={`Apply ${session.name}`}
+      className="flex flex-col gap-3 rounded-md bg-paper p-3"
+    >
+      <TextField
+        label="Date"
+        type="date"
+        required
+        value={date}
+        onChange={(e) => setDate(e.target.value)}
+        className="w-48 max-w-full"
+      />
       {everyone.length > 1 && (
         <fieldset className="flex flex-col gap-1">
           <legend className="text-sm font-semibold">Runners</legend>

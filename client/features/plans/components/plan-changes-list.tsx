@@ -1,6 +1,12 @@
 import { usePlanChanges } from '../api/get-plan-changes.ts';
 
-const WHEN = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+const WHEN = new Intl.DateTimeFormat('en-GB', {
+  weekday: 'short',
+  day: 'numeric',
+  month: 'short',
+  hour: '2-digit',
+  minute: '2-digit',
+});
 
 /** The record of changes of one session: who, when, what (newest first). */
 export function PlanChangesList({ planId }: { planId: string }) {
@@ -13,8 +19,8 @@ export function PlanChangesList({ planId }: { planId: string }) {
       <ol className="flex flex-col gap-1 text-sm">
         {changes.data.map((c) => (
           <li key={c.id} className="break-words">
-            <span className="text-ink-muted tabular-nums">{WHEN.format(new Date(c.created_at))}</span> · <span className="font-semibold">{c.actor_name}</span>:{' '}
-            {c.summary}
+            <span className="text-ink-muted tabular-nums">{WHEN.format(new Date(c.created_at))}</span> ·{' '}
+            <span className="font-semibold">{c.actor_name}</span>: {c.summary}
           </li>
         ))}
       </ol>

@@ -16,13 +16,15 @@ type PlanMonthProps = {
   unit: Unit;
   today: string;
   title: string;
+  /** The link of a week (its Monday); the signed-in person's Plan by default. */
+  weekHref?: (monday: string) => string;
 };
 
 /**
  * A month, Monday first: each day's session titles and run distances (no plan checks here, to keep
  * the requests few; the week view has them). A day number opens its week.
  */
-export function PlanMonth({ month, plans, runs, unit, today, title }: PlanMonthProps) {
+export function PlanMonth({ month, plans, runs, unit, today, title, weekHref }: PlanMonthProps) {
   const plansByDate = new Map<string, Plan[]>();
   for (const p of plans) plansByDate.set(p.date, [...(plansByDate.get(p.date) ?? []), p]);
   const runsByDate = new Map<string, RunListItem[]>();
@@ -62,6 +64,7 @@ export function PlanMonth({ month, plans, runs, unit, today, title }: PlanMonthP
                       runs={runsByDate.get(date) ?? []}
                       unit={unit}
                       today={today}
+                      weekHref={weekHref ?? ((monday) => paths.plan.getHref({ week: monday }))}
                     />
                   )}
                 </td>
@@ -80,19 +83,21 @@ function MonthDay({
   runs,
   unit,
   today,
+  weekHref,
 }: {
   date: string;
   plans: Plan[];
   runs: RunListItem[];
   unit: Unit;
   today: string;
+  weekHref: (monday: string) => string;
 }) {
   const isToday = date === today;
   const missed = date < today && runs.length === 0 && plans.length > 0;
   return (
     <div className={cn('flex h-full flex-col gap-0.5 rounded-sm px-1 py-0.5', isToday && 'ring-1 ring-ink')}>
       <Link
-        to={paths.plan.getHref({ week: mondayOf(date) })}
+        to={weekHref(mondayOf(date))}
         className={cn('text-xs underline-offset-2 hover:underline', isToday ? 'font-bold text-ink' : 'text-ink-muted')}
         aria-label={`${formatLocalDate(date)}${isToday ? ' (today)' : ''}: open its week`}
       >

@@ -126,7 +126,22 @@ const MARK_WORDS: Record<DayMark['kind'], string> = {
   'cross-training': 'Cross-training',
 };
 
-function Day({ date, plans, runs, unit, today, checks, onEdit, onNew, onMove, onMarkDay, mark, now, timeZone, movingId }: DayProps) {
+function Day({
+  date,
+  plans,
+  runs,
+  unit,
+  today,
+  checks,
+  onEdit,
+  onNew,
+  onMove,
+  onMarkDay,
+  mark,
+  now,
+  timeZone,
+  movingId,
+}: DayProps) {
   const isToday = date === today;
   const missed = date < today && runs.length === 0;
   const label = formatDay(date);
@@ -200,7 +215,7 @@ function Day({ date, plans, runs, unit, today, checks, onEdit, onNew, onMove, on
         );
       })}
       {plans.length === 0 && runs.length === 0 && !mark && <p className="text-sm text-ink-muted">Nothing planned.</p>}
-      <div className="mt-auto flex flex-wrap gap-x-3">
+      <div className="mt-auto flex flex-wrap gap-x-3 whitespace-nowrap">
         <Button
           variant="quiet"
           className="min-h-7 px-0 py-0 text-xs"
@@ -253,11 +268,17 @@ function SessionCard({ plan, label, missed, onEdit, onMove, now, timeZone, movin
       {plan.notes && <p className="text-xs break-words text-ink-muted italic">{plan.notes}</p>}
       <p className="text-xs text-ink-muted">{planByline(plan, now, timeZone)}</p>
       <div className="flex flex-wrap items-center justify-between gap-1">
-        {missed !== undefined ? <Verdict verdict="missed" className="text-sm">{missedLabel(missed)}</Verdict> : <span />}
-        <span className="flex gap-3">
+        {missed !== undefined ? (
+          <Verdict verdict="missed" className="text-sm">
+            {missedLabel(missed)}
+          </Verdict>
+        ) : (
+          <span />
+        )}
+        <span className="flex flex-wrap gap-x-3">
           <Button
             variant="quiet"
-            className="min-h-7 px-0 py-0 text-xs"
+            className="min-h-7 px-0 py-0 text-xs whitespace-nowrap"
             aria-expanded={choosing}
             onClick={() => setChoosing((c) => !c)}
             aria-label={`Move ${plan.title || 'session'} on ${label} to another day`}
@@ -275,7 +296,11 @@ function SessionCard({ plan, label, missed, onEdit, onMove, now, timeZone, movin
         </span>
       </div>
       {choosing && (
-        <div role="group" aria-label={`Move ${plan.title || 'session'} to`} className="grid grid-cols-2 gap-1.5 pt-1 lg:grid-cols-1">
+        <div
+          role="group"
+          aria-label={`Move ${plan.title || 'session'} to`}
+          className="grid grid-cols-2 gap-1.5 pt-1 lg:grid-cols-1"
+        >
           {weekDates(monday).map((day) => (
             <Button
               key={day}

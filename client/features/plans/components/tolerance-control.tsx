@@ -5,7 +5,15 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { useSetPaceTolerance } from '../api/runner-summary.ts';
 
 /** The runner's plan-check tolerance in per cent (±0.5–10 %), set by the runner or their coach. */
-export function ToleranceControl({ runnerId, runnerName, tolerance }: { runnerId: string; runnerName: string; tolerance: number }) {
+export function ToleranceControl({
+  runnerId,
+  runnerName,
+  tolerance,
+}: {
+  runnerId: string;
+  runnerName: string;
+  tolerance: number;
+}) {
   const [percent, setPercent] = useState(String(Math.round(tolerance * 1000) / 10));
   const mutation = useSetPaceTolerance();
   function onSubmit(event: FormEvent<HTMLFormElement>) {

@@ -36,13 +36,22 @@ const COLUMNS = helper.columns([
     cell: (info) => {
       const { runner, start } = info.row.original.source;
       return (
-        <Link
-          to={paths.weekReview.getHref(runner.id, start)}
-          className="font-semibold text-teal underline-offset-2 hover:underline"
-          aria-label={`${runner.name}: week review`}
-        >
-          {runner.name}
-        </Link>
+        <span className="flex flex-col items-start">
+          <Link
+            to={paths.weekReview.getHref(runner.id, start)}
+            className="font-semibold text-teal underline-offset-2 hover:underline"
+            aria-label={`${runner.name}: week review`}
+          >
+            {runner.name}
+          </Link>
+          <Link
+            to={paths.runnerPlan.getHref(runner.id, { week: start })}
+            className="text-xs text-teal underline-offset-2 hover:underline"
+            aria-label={`${runner.name}: plan`}
+          >
+            Plan
+          </Link>
+        </span>
       );
     },
   }),

@@ -1,5 +1,6 @@
 import { formatDistance } from '../../../../shared/runs/display.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
+import { missedLabel, type MissedReason, type WeekDayMark } from '../../../../shared/weeks/day-marks.ts';
 import type { WeekPlan } from '../../../../shared/weeks/week-review.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { cn } from '../../../lib/cn.ts';
@@ -35,10 +36,13 @@ export function WeekDays({ week, unit, meId }: WeekDaysProps) {
               {isToday && <span className="text-xs font-bold tracking-wide uppercase">today</span>}
             </h3>
             <div className="flex min-w-0 flex-col gap-2">
-              {day.plans.map((plan) => (
-                <PlanEntry key={plan.id} plan={plan} unit={unit} missed={missed} />
+              {day.day_marks.map((mark) => (
+                <DayMarkEntry key={mark.date} mark={mark} />
               ))}
-              {day.plans.length === 0 && <p className="text-sm text-ink-muted">Nothing planned.</p>}
+              {day.plans.map((plan) => (
+                <PlanEntry key={plan.id} plan={plan} unit={unit} missed={missed ? (day.day_marks[0]?.kind ?? null) : undefined} />
+              ))}
+              {day.plans.length === 0 && day.day_marks.length === 0 && <p className="text-sm text-ink-muted">Nothing planned.</p>}
             </div>
             <div className="flex min-w-0 flex-col gap-2">
               {day.runs.map((run) => (
@@ -53,7 +57,25 @@ export function WeekDays({ week, unit, meId }: WeekDaysProps) {
   );
 }
 
-function PlanEntry({ plan, unit, missed }: { plan: WeekPlan; unit: Unit; missed: boolean }) {
+const MARK_WORDS: Record<WeekDayMark['kind'], string> = {
+  rest: 'Rest day',
+  ill: 'Ill',
+  injured: 'Injured',
+  'cross-training': 'Cross-training',
+};
+
+function DayMarkEntry({ mark }: { mark: WeekDayMark }) {
+  return (
+    <p className="rounded-sm border border-line bg-paper px-2 py-1 text-xs">
+      <span className="font-semibold">{MARK_WORDS[mark.kind]}</span>
+      {mark.minutes !== null && <span className="tabular-nums"> · {mark.minutes} min</span>}
+      {mark.note && <span className="text-ink-muted"> · {mark.note}</span>}
+    </p>
+  );
+}
+
+/** `missed`: undefined when not missed, else the day's mark kind ("missed — ill") or null for a plain miss. */
+function PlanEntry({ plan, unit, missed }: { plan: WeekPlan; unit: Unit; missed: MissedReason | null | undefined }) {
   const amounts = [
     plan.planned_distance_m !== null && `${formatDistance(plan.planned_distance_m, unit, 1)} ${unit}`,
     plan.planned_duration_s !== null && formatHoursMinutes(plan.planned_duration_s),
@@ -67,7 +89,11 @@ function PlanEntry({ plan, unit, missed }: { plan: WeekPlan; unit: Unit; missed:
         {plan.is_long_run && ' · long run'}
         {plan.easy_only && ' · easy'}
       </p>
-      {missed && <Verdict verdict="missed" className="text-sm" />}
+      {missed !== undefined && (
+        <Verdict verdict="missed" className="text-sm">
+          {missedLabel(missed)}
+        </Verdict>
+      )}
     </article>
   );
 }

@@ -58,7 +58,14 @@ export function WeekTotals({ week, unit, today }: { week: RunnerWeek; unit: Unit
           {formatHoursMinutes(totals.planned_duration_s)}
         </Figure>
       )}
-      <Figure label="Moving time" note={`All runs of the week.`}>
+      <Figure
+        label="Moving time"
+        note={
+          totals.cross_training_s > 0
+            ? `All runs of the week, plus ${formatHoursMinutes(totals.cross_training_s)} of cross-training: ${formatDuration(totals.time_s)} in all (time, not running distance).`
+            : 'All runs of the week.'
+        }
+      >
         {formatDuration(totals.moving_s) || '0:00'}{' '}
         <span className="text-sm font-normal text-ink-muted">
           in {runCount} {runCount === 1 ? 'run' : 'runs'}
@@ -75,6 +82,9 @@ export function WeekTotals({ week, unit, today }: { week: RunnerWeek; unit: Unit
           <Verdict verdict="as planned">as planned: {sessions.as_planned}</Verdict>
           <Verdict verdict="partly">partly: {sessions.partly}</Verdict>
           <Verdict verdict="missed">missed: {sessions.missed}</Verdict>
+          {sessions.missed_with_reason > 0 && (
+            <Verdict verdict="missed">missed on a marked day (rest, ill, injured): {sessions.missed_with_reason}</Verdict>
+          )}
           <Verdict verdict="unplanned">unplanned: {sessions.unplanned}</Verdict>
         </dd>
       </div>

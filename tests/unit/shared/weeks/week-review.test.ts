@@ -114,7 +114,9 @@ describe('summariseWeek: the finished week', () => {
       planned_duration_s: 2700,
       run_distance_m: 33_300,
       moving_s: 10_180,
-      sessions: { as_planned: 2, partly: 1, missed: 2, unplanned: 1 }, // Sat and Sun missed
+      cross_training_s: 0,
+      time_s: 10_180,
+      sessions: { as_planned: 2, partly: 1, missed: 2, missed_with_reason: 0, unplanned: 1 }, // Sat and Sun missed
       sessions_due: 5, // the week is over: every plan of the week was due
       moving_s_on_timed_plans: 2700, // Thursday's run on "45 min easy" against its 2700 s
       goal_pace_s: 0,
