@@ -159,7 +159,14 @@ describe('ParsePlanInputSchema and PlanSchema', () => {
       parts: [{ type: 'repeat', count: 6, parts: [REP, JOG] }],
       runner_id: 'r1',
       author_id: null,
+      author_name: null,
+      updated_at: '2026-10-01T08:00:00.000Z',
+      updated_by_name: 'Dana Whitlock',
+      created_at: '2026-10-01T07:00:00.000Z',
     };
     expect(PlanSchema.parse(plan)).toStrictEqual(plan);
+    // Every plan answer says who wrote it and who changed it last (api-contract.md, "Coach prescribes").
+    const { updated_by_name: _, ...withoutEditor } = plan;
+    expect(PlanSchema.safeParse(withoutEditor).success).toBe(false);
   });
 });
