@@ -81,7 +81,10 @@ describe('Squad', () => {
     await receipt.getByRole('button', { name: 'Dismiss' }).click();
 
     // The runner with the most distance: their week review.
-    const top = table.getByRole('row').nth(1).getByRole('link', { name: /: week review$/ });
+    const top = table
+      .getByRole('row')
+      .nth(1)
+      .getByRole('link', { name: /: week review$/ });
     const name = ((await top.textContent()) ?? '').trim();
     const runner = runners.find((r) => r.name === name)!;
     expect(runner).toBeDefined();
