@@ -20,6 +20,8 @@ const NOUNS: Readonly<Record<PartKind, readonly [string, string]>> = {
   strides: ['stride', 'strides'],
 };
 const PART_NOUNS = ['part', 'parts'] as const;
+/** Kinds a plan repeats; named by their count within the kind, as the table does ("rep 4 of 6"). */
+const REPEATED_KINDS: readonly PartKind[] = ['rep', 'recovery jog', 'strides'];
 
 /** The opening words per session verdict. */
 export const SESSION_HEADLINES: Readonly<Record<SessionVerdict, string>> = {
@@ -87,27 +89,38 @@ export function describeSession(parts: readonly DescribedPart[], verdict: Sessio
     }
   } else {
     const nouns = kindsInOrder.length === 1 ? NOUNS[kindsInOrder[0]!] : PART_NOUNS;
-    const clause = countClause(nouns, parts.length, parts.filter((p) => p.verdict === 'on pace').length);
+    const clause = countClause(
+      nouns,
+      parts.length,
+      parts.filter((p) => p.verdict === 'on pace' || p.verdict === 'by feel').length,
+    );
     if (clause) clauses.push(clause);
   }
 
-  // Off-plan parts grouped by kind and verdict, quality kinds first, each numbered within its kind.
+  // Off-plan parts grouped by kind and verdict, quality kinds first. Repeated kinds (reps, recovery
+  // jogs, strides) are numbered within their kind, as the table labels them ("rep 4 of 6"); any other
+  // part by its row number in the table ("part 3").
   const groups = new Map<string, { kind: PartKind; verdict: string; numbers: number[] }>();
   const seen = new Map<PartKind, number>();
-  for (const part of parts) {
-    const number = (seen.get(part.kind) ?? 0) + 1;
-    seen.set(part.kind, number);
-    if (part.verdict === 'on pace') continue;
+  parts.forEach((part, row) => {
+    const number = REPEATED_KINDS.includes(part.kind) ? (seen.get(part.kind) ?? 0) + 1 : row + 1;
+    seen.set(part.kind, (seen.get(part.kind) ?? 0) + 1);
+    if (part.verdict === 'on pace' || part.verdict === 'by feel') return;
     const key = `${part.kind}|${part.verdict}`;
     const group = groups.get(key) ?? { kind: part.kind, verdict: part.verdict, numbers: [] };
     group.numbers.push(number);
     groups.set(key, group);
-  }
+  });
   const ordered = [...groups.values()].sort((a, b) => Number(!KEY_KINDS.includes(a.kind)) - Number(!KEY_KINDS.includes(b.kind)));
   for (const group of ordered.slice(0, MAX_NAMED_GROUPS)) {
     const [one, many] = NOUNS[group.kind];
+    const byRow = !REPEATED_KINDS.includes(group.kind);
     const name =
-      kindTotals.get(group.kind) === 1 ? one : `${group.numbers.length === 1 ? one : many} ${joinNumbers(group.numbers)}`;
+      kindTotals.get(group.kind) === 1
+        ? one
+        : byRow
+          ? `${group.numbers.length === 1 ? 'part' : 'parts'} ${joinNumbers(group.numbers)} (${group.kind})`
+          : `${group.numbers.length === 1 ? one : many} ${joinNumbers(group.numbers)}`;
     clauses.push(`${name} ${group.verdict}`);
   }
   const rest = ordered.slice(MAX_NAMED_GROUPS).reduce((n, g) => n + g.numbers.length, 0);

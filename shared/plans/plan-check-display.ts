@@ -39,8 +39,9 @@ export function formatPaceRange(fastSPerKm: number | undefined, slowSPerKm: numb
  */
 export function formatDifference(differenceSPerKm: number | null, unit: Unit): string {
   if (differenceSPerKm === null || !Number.isFinite(differenceSPerKm)) return '–';
-  if (differenceSPerKm === 0) return '0';
   const seconds = Math.round(Math.abs(pacePerUnit(differenceSPerKm, unit)!));
+  // Under half a second either way reads as no difference, never "−0 s".
+  if (seconds === 0) return '0';
   return `${differenceSPerKm > 0 ? '+' : '−'}${seconds} s`;
 }
 
@@ -58,4 +59,15 @@ export function dateWindow(date: string, days: number): { from: string; to: stri
   const base = Date.parse(`${date}T00:00:00Z`);
   const shift = (n: number) => new Date(base + n * 86_400_000).toISOString().slice(0, 10);
   return { from: shift(-days), to: shift(days) };
+}
+
+/**
+ * Stops inside a part, shown apart from its pace: "2 stops, 2:00", "1 stop, 0:45", '' for none.
+ * Seconds are clock time standing still (rounded to whole seconds).
+ */
+export function formatStops(stops: { count: number; seconds: number } | undefined): string {
+  if (!stops || stops.count === 0) return '';
+  const total = Math.round(stops.seconds);
+  const time = `${Math.floor(total / 60)}:${String(total % 60).padStart(2, '0')}`;
+  return `${stops.count} ${stops.count === 1 ? 'stop' : 'stops'}, ${time}`;
 }

@@ -21,6 +21,11 @@ export interface CheckSeries {
   d: ArrayLike<number>;
   /** Heart rate per point, NaN where unknown; null without a heart-rate sensor. */
   hr: ArrayLike<number> | null;
+  /**
+   * 1 where interval i (point i − 1 to i) is moving time, as stored at import; absent for old
+   * callers, when every interval counts as moving.
+   */
+  moving?: ArrayLike<number> | null;
 }
 
 export interface CheckLap {
@@ -29,7 +34,7 @@ export interface CheckLap {
   distance_m: number | null;
 }
 
-export type PartVerdict = 'on pace' | 'quick' | 'slow' | 'cut short' | 'extended' | 'missed';
+export type PartVerdict = 'on pace' | 'quick' | 'slow' | 'cut short' | 'extended' | 'missed' | 'by feel';
 export type SessionVerdict = 'as planned' | 'partly' | 'missed' | 'unplanned';
 
 export interface PartCheck {
@@ -45,7 +50,12 @@ export interface PartCheck {
   };
   actual: {
     distance_m: number;
+    /** Clock time of the part, s. */
     duration_s: number;
+    /** Moving time of the part (stops left out), s; the pace uses it. */
+    moving_s: number;
+    /** Stops inside the part: how many and their total clock time, s. */
+    stops: { count: number; seconds: number };
     pace_s_per_km: number | null;
     avg_hr: number | null;
     start_t: number;
@@ -82,6 +92,13 @@ export const CONTRAST_WINDOW_M = 60;
 /** A rep run this much slower than its slowest target, and near the recovery pace, was skipped. */
 export const SKIPPED_REP_SLOWER = 0.12;
 export const SKIPPED_REP_NEAR_RECOVERY = 0.1;
+/** Standing still for at least this long (s) counts as a stop in a part. */
+export const MIN_STOP_S = 10;
+/**
+ * A cut moves to a pace change only when the change is at least this share of the speed around it:
+ * on an even run there is no change to find, and noise must not move the cut (our margin).
+ */
+export const MIN_PACE_CHANGE = 0.04;
 
 /** Linear interpolation of `ys` at `x` over increasing `xs`, from index `from` on; returns [value, index]. */
 function interpolate(xs: ArrayLike<number>, ys: ArrayLike<number>, x: number, from = 0): [number, number] {
@@ -119,9 +136,59 @@ function distanceAtTime(series: CheckSeries, timeMs: number): number {
   return interpolate(series.t, series.d, timeMs)[0];
 }
 
-/** Speed (m/s) over the stretch between two times; 0 when it has no duration. */
+/** Moving seconds between two times (ms); clock seconds when the series has no moving flags. */
+function movingSecondsBetween(series: CheckSeries, fromT: number, toT: number): number {
+  const { t, moving } = series;
+  if (!moving) return Math.max(0, (toT - fromT) / 1000);
+  let total = 0;
+  let lo = 1;
+  let hi = t.length - 1;
+  // First interval that ends after fromT.
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (t[mid]! <= fromT) lo = mid + 1;
+    else hi = mid;
+  }
+  for (let i = lo; i < t.length && t[i - 1]! < toT; i++) {
+    if (!moving[i]) continue;
+    total += Math.max(0, Math.min(t[i]!, toT) - Math.max(t[i - 1]!, fromT));
+  }
+  return total / 1000;
+}
+
+/** Stops (runs of stopped intervals of at least `MIN_STOP_S`) inside a stretch: count and clock seconds. */
+function stopsBetween(series: CheckSeries, fromT: number, toT: number): { count: number; seconds: number } {
+  const { t, moving } = series;
+  if (!moving) return { count: 0, seconds: 0 };
+  let count = 0;
+  let seconds = 0;
+  let runStart = Number.NaN;
+  const close = (end: number) => {
+    const length = (end - runStart) / 1000;
+    if (length >= MIN_STOP_S) {
+      count++;
+      seconds += length;
+    }
+    runStart = Number.NaN;
+  };
+  for (let i = 1; i < t.length; i++) {
+    const a = Math.max(t[i - 1]!, fromT);
+    const b = Math.min(t[i]!, toT);
+    if (b <= a) {
+      if (t[i - 1]! >= toT) break;
+      continue;
+    }
+    if (!moving[i]) {
+      if (Number.isNaN(runStart)) runStart = a;
+    } else if (!Number.isNaN(runStart)) close(a);
+  }
+  if (!Number.isNaN(runStart)) close(Math.min(toT, t[t.length - 1]!));
+  return { count, seconds };
+}
+
+/** Speed (m/s) over the stretch between two times, on moving time (a stop is no change of pace); 0 without any. */
 function speedBetween(series: CheckSeries, fromT: number, toT: number): number {
-  const dt = (toT - fromT) / 1000;
+  const dt = movingSecondsBetween(series, fromT, toT);
   return dt > 0 ? (distanceAtTime(series, toT) - distanceAtTime(series, fromT)) / dt : 0;
 }
 
@@ -196,6 +263,7 @@ function refineBoundary(
   if (toT <= fromT) return candidateT;
   let best = candidateT;
   let bestScore = -Infinity;
+  let bestRaw = 0;
   const { t } = series;
   for (let i = 0; i < t.length; i++) {
     const ti = t[i]!;
@@ -209,10 +277,12 @@ function refineBoundary(
     const penalty = Math.abs(ti - candidateT) / 1e7;
     if (score - penalty > bestScore) {
       bestScore = score - penalty;
+      bestRaw = score;
       best = ti;
     }
   }
-  return best;
+  const around = speedBetween(series, fromT, toT);
+  return bestRaw >= MIN_PACE_CHANGE * around ? best : candidateT;
 }
 
 function lapsFit(parts: readonly CheckedPart[], laps: readonly CheckLap[]): boolean {
@@ -263,8 +333,12 @@ export function judgePart(
   actual: PartCheck['actual'],
   tolerance: number,
 ): { verdict: PartVerdict; difference: number | null } {
+  // A timed part is complete when its clock time or its moving time is (stops inside it are shown
+  // apart and never make it short); a distance part by its distance.
   const amountRatio =
-    part.amount.type === 'distance' ? actual.distance_m / part.amount.distance_m : actual.duration_s / part.amount.duration_s;
+    part.amount.type === 'distance'
+      ? actual.distance_m / part.amount.distance_m
+      : Math.max(actual.duration_s, actual.moving_s) / part.amount.duration_s;
   let difference: number | null = null;
   if (part.resolved.type === 'pace' && actual.pace_s_per_km !== null) {
     const fast = part.resolved.fast_s_per_km * (1 - tolerance);
@@ -289,13 +363,15 @@ export function judgePart(
     if (actual.avg_hr > part.resolved.high_bpm * (1 + tolerance)) return { verdict: 'quick', difference };
     if (actual.avg_hr < part.resolved.low_bpm * (1 - tolerance)) return { verdict: 'slow', difference };
   }
+  // An effort-only part has no pace to be on: it was run, by feel (its heart rate is shown beside it).
+  if (part.resolved.type === 'effort') return { verdict: 'by feel', difference };
   return { verdict: 'on pace', difference };
 }
 
 /** The session verdict from its parts: all on pace → as planned; nothing on pace and most missed or cut → missed; else partly. */
 export function sessionVerdict(parts: readonly PartCheck[]): SessionVerdict {
   if (parts.length === 0) return 'unplanned';
-  const onPace = parts.filter((p) => p.verdict === 'on pace').length;
+  const onPace = parts.filter((p) => p.verdict === 'on pace' || p.verdict === 'by feel').length;
   if (onPace === parts.length) return 'as planned';
   const lost = parts.filter((p) => p.verdict === 'missed' || p.verdict === 'cut short').length;
   if (onPace === 0 && lost * 2 >= parts.length) return 'missed';
@@ -338,10 +414,14 @@ export function checkRunAgainstPlan(
     const end = bounds[i + 1]!;
     const distance = distanceAtTime(series, end) - distanceAtTime(series, start);
     const duration = (end - start) / 1000;
+    const movingS = movingSecondsBetween(series, start, end);
     const actual = {
       distance_m: distance,
       duration_s: duration,
-      pace_s_per_km: distance > 1 ? duration / (distance / 1000) : null,
+      moving_s: movingS,
+      stops: stopsBetween(series, start, end),
+      // Pace from moving time, as splits are (api-contract.md "Splits").
+      pace_s_per_km: distance > 1 && movingS > 0 ? movingS / (distance / 1000) : null,
       avg_hr: averageHeartRate(series, start, end),
       start_t: start,
       end_t: end,

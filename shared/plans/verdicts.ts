@@ -24,7 +24,7 @@ export const VERDICT_COLOURS = {
   muted: '#545b69',
 } as const;
 
-/** Per part: on pace ● teal, quick ▲ indigo, slow ▼ ochre, cut short / extended ◐ slate, missed ○ slate outline. */
+/** Per part: on pace ● teal, quick ▲ indigo, slow ▼ ochre, cut short / extended ◐ slate, missed ○ slate outline, by feel ◇ slate. */
 export const PART_VERDICT_LOOKS: Readonly<Record<PartVerdict, VerdictLook>> = {
   'on pace': { glyph: '●', word: 'on pace', colour: VERDICT_COLOURS.teal, outline: false },
   quick: { glyph: '▲', word: 'quick', colour: VERDICT_COLOURS.indigo, outline: false },
@@ -32,6 +32,8 @@ export const PART_VERDICT_LOOKS: Readonly<Record<PartVerdict, VerdictLook>> = {
   'cut short': { glyph: '◐', word: 'cut short', colour: VERDICT_COLOURS.slate, outline: false },
   extended: { glyph: '◐', word: 'extended', colour: VERDICT_COLOURS.slate, outline: false },
   missed: { glyph: '○', word: 'missed', colour: VERDICT_COLOURS.slate, outline: true },
+  // An effort-only part: run as the runner felt it; no pace to be on (issue #14).
+  'by feel': { glyph: '◇', word: 'by feel', colour: VERDICT_COLOURS.slate, outline: false },
 };
 
 /** Per session: as planned ● teal, partly ◐ slate, missed ○ slate outline, unplanned a plain dash. */

@@ -10,6 +10,11 @@ export const SPLIT_UNIT_M: Readonly<Record<SplitUnit, number>> = { mi: METRES_PE
  * partial split: it would show a meaningless pace.
  */
 export const MIN_PARTIAL_SPLIT_M = 1;
+/**
+ * A last, partial split shorter than this (metres) shows its distance and time but no pace or
+ * flat-equivalent pace: over a few metres a pace says nothing (a 10 m stretch gave "2:42").
+ */
+export const MIN_PACED_SPLIT_M = 100;
 
 /**
  * Time (ms) at which the cumulative distance first reaches `distanceM`, interpolated linearly
@@ -35,7 +40,7 @@ export function timeAtDistance(series: TrackSeries, distanceM: number, fromIndex
  * cumulative distance, at a time interpolated linearly between the points around it. Each split
  * reports its elapsed (clock) and moving time, pace from moving time (s per unit), heart rate,
  * cadence, elevation gain/loss and flat-equivalent pace. The last split is partial and carries
- * its real distance; a remainder under 1 m is left out. A run with no distance has no splits.
+ * its real distance; a remainder under 1 m is left out, and one under 100 m has no pace. A run with no distance has no splits.
  */
 export function computeSplits(series: TrackSeries, unit: SplitUnit): Split[] {
   const { t, d } = series;
@@ -62,6 +67,7 @@ export function computeSplits(series: TrackSeries, unit: SplitUnit): Split[] {
     windowHint = stats.next_index;
     const distance = isFull ? unitM : total - fullSplits * unitM;
     const units = distance / unitM;
+    const paced = distance >= MIN_PACED_SPLIT_M;
     splits.push({
       index: k,
       unit,
@@ -70,9 +76,9 @@ export function computeSplits(series: TrackSeries, unit: SplitUnit): Split[] {
       end_t: endT,
       elapsed_s: stats.elapsed_s,
       moving_s: stats.moving_s,
-      pace_s: stats.moving_s > 0 ? stats.moving_s / units : null,
+      pace_s: stats.moving_s > 0 && paced ? stats.moving_s / units : null,
       flat_pace_s:
-        stats.moving_s > 0 && stats.flat_distance_m !== null && stats.flat_distance_m > 0
+        paced && stats.moving_s > 0 && stats.flat_distance_m !== null && stats.flat_distance_m > 0
           ? stats.moving_s / (stats.flat_distance_m / unitM)
           : null,
       avg_hr: stats.avg_hr,

@@ -431,7 +431,7 @@ export async function loadRunSeriesAndLaps(run: Pick<RunRow, 'id'>) {
   const columns = decodeColumns(row.columns, row.point_count, row.data);
   const { laps } = await findRunParts(run.id);
   return {
-    series: { t: columns.t!, d: columns.d!, hr: columns.hr ?? null },
+    series: { t: columns.t!, d: columns.d!, hr: columns.hr ?? null, moving: columns.moving ?? null },
     laps: laps.map((l) => ({ start_t: l.start_at.getTime(), total_time_s: l.total_time_s, distance_m: l.distance_m })),
   };
 }

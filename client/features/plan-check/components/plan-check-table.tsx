@@ -7,6 +7,7 @@ import {
   formatDifference,
   formatPaceRange,
   formatPlannedDistance,
+  formatStops,
 } from '../../../../shared/plans/plan-check-display.ts';
 import type { PlanItem, DistanceUnit } from '../../../../shared/plans/types.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
@@ -71,8 +72,14 @@ function createColumns(unit: Unit) {
       cell: ({ row: { original: r } }) => dash(formatDuration(r.actual.duration_s)),
     }),
     helper.display({
+      id: 'stops',
+      header: 'Stops',
+      ...number,
+      cell: ({ row: { original: r } }) => dash(formatStops(r.actual.stops)),
+    }),
+    helper.display({
       id: 'pace',
-      header: `Pace /${unit}`,
+      header: `Moving pace /${unit}`,
       ...number,
       cell: ({ row: { original: r } }) => (
         <span className="font-semibold">{dash(formatPace(pacePerUnit(r.actual.pace_s_per_km, unit)))}</span>

@@ -72,6 +72,26 @@ describe('describeSession', () => {
       'partly',
       'Partly as planned: 1 of 2 parts on pace, cool-down slow.',
     ],
+    [
+      'two easy parts around a goal-pace block: the off-plan one is named by its row in the table',
+      [
+        { kind: 'easy', verdict: 'by feel' },
+        { kind: 'goal pace', verdict: ON },
+        { kind: 'easy', verdict: 'cut short' },
+      ],
+      'partly',
+      'Partly as planned: the goal-pace part on pace, part 3 (easy) cut short.',
+    ],
+    [
+      'parts run by feel are not off plan',
+      [
+        { kind: 'easy', verdict: 'by feel' },
+        { kind: 'goal pace', verdict: ON },
+        { kind: 'easy', verdict: 'by feel' },
+      ],
+      'as planned',
+      'As planned: the goal-pace part on pace.',
+    ],
     ['no parts', [], 'unplanned', 'No session plan on this day.'],
     ['unplanned wins over parts', [{ kind: 'easy', verdict: ON }], 'unplanned', 'No session plan on this day.'],
   ])('%s', (_name, parts, verdict, sentence) => {

@@ -4,6 +4,7 @@ import {
   formatActualDistance,
   formatDifference,
   formatPaceRange,
+  formatStops,
   formatPlannedDistance,
   formatTolerance,
 } from '../../../../shared/plans/plan-check-display.ts';
@@ -45,6 +46,8 @@ describe('formatPaceRange', () => {
 describe('formatDifference', () => {
   it.each<[number | null, 'mi' | 'km', string]>([
     [0, 'km', '0'],
+    [-0.3, 'km', '0'], // rounds to nothing: no "−0 s"
+    [0.2, 'mi', '0'],
     [12.2, 'km', '+12 s'],
     [-8, 'km', '−8 s'],
     [10, 'mi', '+16 s'],
@@ -74,5 +77,16 @@ describe('dateWindow', () => {
     ['2026-12-30', 3, '2026-12-27', '2027-01-02'],
   ])('%s ± %d days → %s … %s', (date, days, from, to) => {
     expect(dateWindow(date, days)).toEqual({ from, to });
+  });
+});
+
+describe('formatStops', () => {
+  it.each<[{ count: number; seconds: number } | undefined, string]>([
+    [undefined, ''],
+    [{ count: 0, seconds: 0 }, ''],
+    [{ count: 1, seconds: 45.2 }, '1 stop, 0:45'],
+    [{ count: 2, seconds: 120 }, '2 stops, 2:00'],
+  ])('%j → "%s"', (stops, text) => {
+    expect(formatStops(stops)).toBe(text);
   });
 });

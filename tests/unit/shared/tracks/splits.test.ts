@@ -212,3 +212,32 @@ describe('geodesic distance and stops', () => {
     expect(summary.segments).toBe(2);
   });
 });
+
+describe('a tiny last split', () => {
+  it('under 100 m shows its distance and time but no pace or flat-equivalent pace', () => {
+    // 1000 m in 300 s, then 10 m in 3 s (device distances).
+    const splits = computeSplits(
+      deviceSeries([
+        [0, 0],
+        [300, 1000],
+        [303, 1010],
+      ]),
+      'km',
+    );
+    expect(splits).toHaveLength(2);
+    expect(splits[1]).toMatchObject({ distance_m: 10, elapsed_s: 3, pace_s: null, flat_pace_s: null });
+    expect(splits[0]!.pace_s).toBeCloseTo(300, 6);
+  });
+
+  it('of 100 m or more keeps its pace', () => {
+    const splits = computeSplits(
+      deviceSeries([
+        [0, 0],
+        [300, 1000],
+        [330, 1100],
+      ]),
+      'km',
+    );
+    expect(splits[1]!.pace_s).toBeCloseTo(300, 6);
+  });
+});
