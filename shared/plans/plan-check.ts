@@ -52,10 +52,10 @@ export interface PartCheck {
     distance_m: number;
     /** Clock time of the part, s. */
     duration_s: number;
-    /** Moving time of the part (stops left out), s; the pace uses it. */
-    moving_s: number;
-    /** Stops inside the part: how many and their total clock time, s. */
-    stops: { count: number; seconds: number };
+    /** Moving time of the part (stops left out), s; the pace uses it. Absent in results stored before issue #14. */
+    moving_s?: number;
+    /** Stops inside the part: how many and their total clock time, s. Absent as above. */
+    stops?: { count: number; seconds: number };
     pace_s_per_km: number | null;
     avg_hr: number | null;
     start_t: number;
@@ -338,7 +338,7 @@ export function judgePart(
   const amountRatio =
     part.amount.type === 'distance'
       ? actual.distance_m / part.amount.distance_m
-      : Math.max(actual.duration_s, actual.moving_s) / part.amount.duration_s;
+      : Math.max(actual.duration_s, actual.moving_s ?? 0) / part.amount.duration_s;
   let difference: number | null = null;
   if (part.resolved.type === 'pace' && actual.pace_s_per_km !== null) {
     const fast = part.resolved.fast_s_per_km * (1 - tolerance);

@@ -109,7 +109,8 @@ export function verdictReason(
 ): string | null {
   if (check.session_verdict === 'as planned' || check.session_verdict === 'unplanned') return null;
   const names = labels(check.parts);
-  const off = check.parts.filter((p) => p.verdict !== 'on pace');
+  // 'by feel' is how an effort-only part is run as written, not a miss.
+  const off = check.parts.filter((p) => p.verdict !== 'on pace' && p.verdict !== 'by feel');
   const main = off.filter((p) => p.kind !== 'recovery jog');
   const chosen = (main.length > 0 ? main : off).slice().sort((a, b) => severity(b) - severity(a) || a.index - b.index);
   if (chosen.length === 0) return null;
