@@ -94,19 +94,33 @@ export interface DigestGroups<T> {
   on_plan: T[];
   flagged: T[];
   no_upload: T[];
+  no_plan: T[];
+}
+
+/** What the digest reads of an overview row to place it. */
+export interface DigestRowFacts {
+  run_distance_m: number;
+  flags: ReadonlyArray<unknown>;
+  /** Sessions planned in the week (any amount, by distance or by time). */
+  sessions_planned: number;
+  /** Runs with a check-in of soreness 4 or 5 this week. */
+  high_soreness?: number;
+  /** Sessions other than easy running planned before today and not run (or run and judged missed). */
+  missed_key_sessions?: number;
 }
 
 /**
- * Sorts overview rows into the digest's headings: no run this week → "no upload"; any flag → "flagged";
- * otherwise "on plan". A runner appears under one heading only.
+ * Sorts overview rows into the digest's headings, each runner under one only, checked in this order: no run
+ * this week → "no upload"; anything to look at (a flag, a check-in with high soreness, a missed key session)
+ * → "flagged"; nothing planned this week → "no plan" (running without a plan is not "on plan"); otherwise
+ * "on plan".
  */
-export function groupForDigest<T extends { run_distance_m: number; flags: ReadonlyArray<unknown> }>(
-  rows: readonly T[],
-): DigestGroups<T> {
-  const groups: DigestGroups<T> = { on_plan: [], flagged: [], no_upload: [] };
+export function groupForDigest<T extends DigestRowFacts>(rows: readonly T[]): DigestGroups<T> {
+  const groups: DigestGroups<T> = { on_plan: [], flagged: [], no_upload: [], no_plan: [] };
   for (const row of rows) {
     if (row.run_distance_m <= 0) groups.no_upload.push(row);
-    else if (row.flags.length > 0) groups.flagged.push(row);
+    else if (row.flags.length > 0 || (row.high_soreness ?? 0) > 0 || (row.missed_key_sessions ?? 0) > 0) groups.flagged.push(row);
+    else if (row.sessions_planned === 0) groups.no_plan.push(row);
     else groups.on_plan.push(row);
   }
   return groups;

@@ -195,27 +195,40 @@ describe('GET /api/runners/:id/week', () => {
 });
 
 describe('squad overview and weekly digest', () => {
-  it('one row per runner; the digest e-mail lists each runner under the right heading', async () => {
+  it('one row per runner; the digest e-mail lists each runner under the heading that is true, in the coach’s miles', async () => {
     const app = freshApp();
     const coach = await person(app, 'coach', 'Cass Coach');
+    await db('users').where({ id: coach.user.id }).update({ unit: 'mi' });
     const steady = await person(app, 'runner', 'Sage Steady');
     const jumper = await person(app, 'runner', 'Jun Jumper');
     const absent = await person(app, 'runner', 'Ada Absent');
+    const unplanned = await person(app, 'runner', 'Nia Noplan');
     const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'Lakeside Harriers' }).returning('id');
-    await db('squad_members').insert([steady, jumper, absent].map((p) => ({ squad_id: squad!.id, runner_id: p.user.id })));
+    await db('squad_members').insert(
+      [steady, jumper, absent, unplanned].map((p) => ({ squad_id: squad!.id, runner_id: p.user.id })),
+    );
+    for (const date of ['2026-11-24', '2026-11-25']) {
+      expect((await request(app).post('/api/plans').set(steady.auth).send({ date, text: '45 min easy' })).status).toBe(201);
+    }
     await upload(app, steady.auth, '2026-11-17', 8);
+    await upload(app, steady.auth, '2026-11-18', 8);
     await upload(app, steady.auth, '2026-11-24', 8);
+    await upload(app, steady.auth, '2026-11-25', 8);
     await upload(app, jumper.auth, '2026-11-17', 5);
     await upload(app, jumper.auth, '2026-11-24', 9);
+    await upload(app, unplanned.auth, '2026-11-24', 24.3);
 
     const overview = await request(app).get(`/api/squads/${squad!.id}/overview?week=2026-11-23`).set(coach.auth);
     expect(overview.status).toBe(200);
     expect(overview.body.rows.map((r: { runner: { name: string } }) => r.runner.name)).toEqual([
       'Ada Absent',
       'Jun Jumper',
+      'Nia Noplan',
       'Sage Steady',
     ]);
     expect(overview.body.rows[1].volume_12_weeks).toHaveLength(12);
+    // Time-based plans keep their time: 2 × 45 min, not "0.0 planned".
+    expect(overview.body.rows[3]).toMatchObject({ planned_distance_m: 0, planned_duration_s: 5400, sessions_due: 2 });
 
     const digest = await request(app).post(`/api/squads/${squad!.id}/digest`).set(coach.auth).send({ week: '2026-11-23' });
     expect(digest.status).toBe(200);
@@ -223,10 +236,19 @@ describe('squad overview and weekly digest', () => {
     expect(mail.to).toBe(coach.user.email);
     expect(mail.subject).toBe('Lakeside Harriers: week of 2026-11-23');
     const section = (heading: string) => mail.text.split(`${heading} (`)[1]!.split('\n\n')[0]!;
-    expect(section('On plan')).toMatch(/Sage Steady/);
-    expect(section('With flags to look at')).toMatch(/Jun Jumper: .*10 %/);
+    // Miles from the overview's metres (1 mi = 1609.344 m, the international mile).
+    const mi = (name: string) =>
+      (overview.body.rows.find((r: { runner: { name: string } }) => r.runner.name === name).run_distance_m / 1609.344).toFixed(1);
+    expect(section('On plan')).toContain(`Sage Steady: ${mi('Sage Steady')} mi (`);
+    expect(section('On plan')).toMatch(/h moving\) of 1:30 h planned, \d of 2 sessions due so far as planned/);
+    // About 9 km against about 5 km the week before; the flag names the runner for the coach.
+    expect(section('To look at')).toContain(`Jun Jumper: ${mi('Jun Jumper')} mi run, nothing planned`);
+    expect(section('To look at')).toContain(`Jun Jumper ran ${mi('Jun Jumper')} mi this week`);
+    expect(section('To look at')).not.toMatch(/\bYou ran\b|Your coach/);
     expect(section('No run uploaded this week')).toMatch(/Ada Absent/);
-    expect(section('On plan')).not.toMatch(/Jun|Ada/);
+    expect(section('Running without a plan this week')).toContain(`Nia Noplan: ${mi('Nia Noplan')} mi run, nothing planned`);
+    expect(section('On plan')).not.toMatch(/Jun|Ada|Nia/);
+    expect(mail.text).not.toMatch(/\d km\b/);
     expect(mail.html).toMatch(/<h2[^>]*>No run uploaded this week \(1\)<\/h2>/);
   });
 });

@@ -74,7 +74,7 @@ describe('Squad', () => {
     await page.getByRole('button', { name: 'Send weekly digest' }).click();
     const receipt = page.getByRole('status').filter({ hasText: /^Weekly digest for the week of/ });
     await expect.poll(() => receipt.count(), WAIT).toBe(1);
-    for (const heading of ['On plan', 'With flags to look at', 'No run uploaded this week']) {
+    for (const heading of ['To look at', 'No run uploaded this week', 'Running without a plan this week', 'On plan']) {
       expect(await receipt.getByText(new RegExp(`^${heading} \\(\\d+\\)$`)).count()).toBe(1);
     }
     await screenshot(page, 'squad-digest');

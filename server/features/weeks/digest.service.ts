@@ -1,5 +1,6 @@
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { groupForDigest } from '../../../shared/weeks/csv.ts';
+import type { Unit } from '../../../shared/users/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
@@ -7,15 +8,42 @@ import { findSquadById } from '../squads/squads.repository.ts';
 import { findUserById } from '../users/users.repository.ts';
 import { buildSquadOverview, type OverviewRow } from './weeks.service.ts';
 
-const HEADINGS = { on_plan: 'On plan', flagged: 'With flags to look at', no_upload: 'No run uploaded this week' } as const;
+const HEADINGS = {
+  flagged: 'To look at',
+  no_upload: 'No run uploaded this week',
+  no_plan: 'Running without a plan this week',
+  on_plan: 'On plan',
+} as const;
 
-function km(m: number): string {
-  return `${(m / 1000).toFixed(1)} km`;
+/** '24.3 km', '15.1 mi' (the international mile, 1609.344 m). */
+function distance(m: number, unit: Unit): string {
+  return `${(m / (unit === 'mi' ? 1609.344 : 1000)).toFixed(1)} ${unit}`;
 }
 
-function line(row: OverviewRow): string {
+function hoursMinutes(seconds: number): string {
+  const minutes = Math.round(seconds / 60);
+  return `${Math.floor(minutes / 60)}:${String(minutes % 60).padStart(2, '0')} h`;
+}
+
+/** One runner's line, in the coach's unit, with what to look at; the flags are already worded for the coach. */
+function line(row: OverviewRow, unit: Unit): string {
+  const planned = [
+    row.planned_distance_m > 0 && distance(row.planned_distance_m, unit),
+    row.planned_duration_s > 0 && hoursMinutes(row.planned_duration_s),
+  ].filter(Boolean);
+  const volume =
+    row.sessions_planned === 0
+      ? `${distance(row.run_distance_m, unit)} run, nothing planned`
+      : `${distance(row.run_distance_m, unit)} (${hoursMinutes(row.moving_s)} moving) of ${planned.join(' + ') || 'no amount'} planned, ` +
+        `${row.sessions_as_planned} of ${row.sessions_due} sessions due so far as planned`;
+  const extras = [
+    row.missed_key_sessions > 0 &&
+      `${row.missed_key_sessions} key ${row.missed_key_sessions === 1 ? 'session' : 'sessions'} missed`,
+    row.high_soreness > 0 && `soreness 4–5 after ${row.high_soreness} ${row.high_soreness === 1 ? 'run' : 'runs'}`,
+    row.unread_notes > 0 && `${row.unread_notes} unread ${row.unread_notes === 1 ? 'note' : 'notes'}`,
+  ].filter(Boolean);
   const flags = row.flags.length ? ` — ${row.flags.map((f) => f.message).join(' ')}` : '';
-  return `${row.runner.name}: ${km(row.run_distance_m)} of ${km(row.planned_distance_m)} planned, ${row.sessions_as_planned} of ${row.sessions_planned} sessions as planned${flags}`;
+  return `${row.runner.name}: ${volume}${extras.length ? `; ${extras.join('; ')}` : ''}${flags}`;
 }
 
 /** Builds and sends the weekly digest of one squad to its coach. Returns the headings with the runners under them. */
@@ -44,7 +72,7 @@ export async function sendSquadDigest(
     '',
     ...sections.flatMap((s) => [
       `${s.heading} (${s.rows.length})`,
-      ...(s.rows.length ? s.rows.map((r) => `- ${line(r)}`) : ['- nobody']),
+      ...(s.rows.length ? s.rows.map((r) => `- ${line(r, coach.unit)}`) : ['- nobody']),
       '',
     ]),
     closing,
@@ -54,7 +82,7 @@ export async function sendSquadDigest(
   const html = `<!doctype html><html><body style="background:#f6f4ef;color:#1d2330;font-family:'Source Sans 3',Arial,sans-serif;padding:24px"><div style="max-width:620px;margin:auto;background:#fffdf9;border:1px solid #ddd7ca;padding:24px"><p style="font-weight:700;margin:0 0 8px">Pacewright</p><h1 style="font-size:20px;margin:0 0 16px">${escapeHtml(squad.name)} — week of ${escapeHtml(weekOf)}</h1>${sections
     .map(
       (s) =>
-        `<h2 style="font-size:16px;margin:16px 0 6px">${escapeHtml(s.heading)} (${s.rows.length})</h2><ul style="margin:0;padding-left:20px">${s.rows.length ? s.rows.map((r) => `<li>${escapeHtml(line(r))}</li>`).join('') : '<li>nobody</li>'}</ul>`,
+        `<h2 style="font-size:16px;margin:16px 0 6px">${escapeHtml(s.heading)} (${s.rows.length})</h2><ul style="margin:0;padding-left:20px">${s.rows.length ? s.rows.map((r) => `<li>${escapeHtml(line(r, coach.unit))}</li>`).join('') : '<li>nobody</li>'}</ul>`,
     )
     .join(
       '',

@@ -157,8 +157,8 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
     checkRuns(weekRuns, inputsOf),
     forReview ? listWeekNotes(frames[0]!.runner.id, frames[0]!.start) : [],
     forReview ? findFuelTakenOf(weekRunIds) : [],
-    forReview ? findRunCheckinsOf(weekRunIds) : [],
-    forReview ? listRunNotesOf(weekRunIds) : [],
+    findRunCheckinsOf(weekRunIds),
+    listRunNotesOf(weekRunIds),
   ]);
   const fuelOf = new Map(fuelTaken.map((f) => [f.run_id, f]));
   const checkinOf = new Map(checkins.map((c) => [c.run_id, c]));
@@ -230,7 +230,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
     const afterRun = (runId: string) => {
       const check = checks.get(runId)!;
       const fuel = forReview ? fuelOf.get(runId) : undefined;
-      const checkin = forReview ? checkinOf.get(runId) : undefined;
+      const checkin = checkinOf.get(runId);
       return {
         verdict_reason: verdictReason(check.result, viewer.unit),
         reps_line: repsLine(check.result.parts, viewer.unit),
@@ -356,10 +356,33 @@ export interface OverviewRow {
   moving_s: number;
   sessions_planned: number;
   sessions_as_planned: number;
+  /** Plans dated up to the runner's today: the denominator of "sessions as planned". */
+  sessions_due: number;
+  /** Time-based parts of the week's plans, seconds (plans given by time have no distance). */
+  planned_duration_s: number;
   flags: Array<{ code: string; message: string }>;
   last_upload: string | null;
   reviewed: boolean;
   volume_12_weeks: number[];
+  /** Notes on the week's runs the coach has not opened. */
+  unread_notes: number;
+  /** Runs this week with a check-in of soreness 4 or 5. */
+  high_soreness: number;
+  /** Sessions other than easy running planned before today and not run, or run and judged missed. */
+  missed_key_sessions: number;
+}
+
+/** Soreness from this value up (on the 1–5 scale) is "high": the coach hears of it (common practice, our choice). */
+export const HIGH_SORENESS = 4;
+
+function missedKeySessions(week: RunnerWeek): number {
+  let missed = 0;
+  for (const day of week.days) {
+    const key = day.plans.filter((p) => !p.easy_only);
+    if (day.date < week.today && day.runs.length === 0) missed += key.length;
+    missed += day.runs.filter((r) => r.session_verdict === 'missed' && key.some((p) => p.id === r.plan_id)).length;
+  }
+  return missed;
 }
 
 /** One row per squad runner for the week containing `week` (each runner's own week start). */
@@ -386,6 +409,11 @@ export async function buildSquadOverview(actor: Actor, squadId: string, week: st
       moving_s: w.totals.moving_s,
       sessions_planned: w.days.reduce((n, d) => n + d.plans.length, 0),
       sessions_as_planned: s.as_planned,
+      sessions_due: w.totals.sessions_due,
+      planned_duration_s: w.totals.planned_duration_s,
+      unread_notes: w.unread_notes,
+      high_soreness: w.days.reduce((n, d) => n + d.runs.filter((r) => (r.checkin?.soreness ?? 0) >= HIGH_SORENESS).length, 0),
+      missed_key_sessions: missedKeySessions(w),
       flags: w.flags.map((f) => ({ code: f.code, message: f.message })),
       last_upload: w.last_upload,
       reviewed: w.reviewed_by.some((r) => r.coach_id === squad.coach_id),

@@ -13,6 +13,11 @@ export interface OverviewRow {
   moving_s: number;
   sessions_planned: number;
   sessions_as_planned: number;
+  sessions_due: number;
+  planned_duration_s: number;
+  unread_notes: number;
+  high_soreness: number;
+  missed_key_sessions: number;
   flags: Array<{ code: string; message: string }>;
   last_upload: string | null;
   reviewed: boolean;

@@ -6,7 +6,7 @@ import { DataTable } from '../../../components/ui/data-table.tsx';
 import { paths } from '../../../config/paths.ts';
 import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
 import type { OverviewRow } from '../api/types.ts';
-import { flagWords, formatDaysAgo } from '../utils/week-format.ts';
+import { flagWords, formatDaysAgo, formatHoursMinutes } from '../utils/week-format.ts';
 import { VolumeSparkline } from './volume-sparkline.tsx';
 
 type Row = {
@@ -59,10 +59,13 @@ const COLUMNS = helper.columns([
     header: 'Planned',
     ...number,
     cell: (info) => {
-      const { planned_distance_m: planned, sessions_planned: sessions } = info.row.original.source;
-      if (planned > 0) return distance(planned, info.row.original.unit);
-      // Plans given only by time have no distance (a time is not turned into a distance without a pace).
-      return <span className="text-ink-muted">{sessions > 0 ? 'by time' : 'nothing'}</span>;
+      const { planned_distance_m: planned, planned_duration_s: time, sessions_planned: sessions } = info.row.original.source;
+      // Plans given by time keep their time (a time is not turned into a distance without a pace).
+      const parts = [planned > 0 && distance(planned, info.row.original.unit), time > 0 && formatHoursMinutes(time)].filter(
+        Boolean,
+      );
+      if (parts.length > 0) return <span>{parts.join(' + ')}</span>;
+      return <span className="text-ink-muted">{sessions > 0 ? 'no amount' : 'nothing'}</span>;
     },
   }),
   helper.accessor('run', {
@@ -74,9 +77,12 @@ const COLUMNS = helper.columns([
     header: 'Sessions as planned',
     ...number,
     cell: (info) => {
-      const { sessions_as_planned: done, sessions_planned: planned } = info.row.original.source;
-      return planned === 0 ? (
+      // Counted over the sessions due by the runner's today, not the days still ahead.
+      const { sessions_as_planned: done, sessions_due: planned, sessions_planned: all } = info.row.original.source;
+      return all === 0 ? (
         <span className="text-ink-muted">none planned</span>
+      ) : planned === 0 ? (
+        <span className="text-ink-muted">none due yet</span>
       ) : (
         <span aria-label={`${done} of ${planned}`}>
           {done}/{planned}
@@ -137,7 +143,7 @@ export function SquadOverviewTable({ rows, unit, today, caption }: SquadOverview
     runner: source.runner.name,
     planned: source.planned_distance_m,
     run: source.run_distance_m,
-    as_planned: source.sessions_planned > 0 ? source.sessions_as_planned / source.sessions_planned : undefined,
+    as_planned: source.sessions_due > 0 ? source.sessions_as_planned / source.sessions_due : undefined,
     flag_count: source.flags.length,
     last_upload: source.last_upload ? Date.parse(source.last_upload) : undefined,
     reviewed: source.reviewed ? 1 : 0,

@@ -46,4 +46,13 @@ describe('overviewToCsv and groupForDigest', () => {
       ['C'],
     ]);
   });
+  it('keeps a runner with no plan out of "on plan", and counts soreness and missed key sessions as something to look at', () => {
+    const noPlan = { ...row('D', 24300, []), sessions_planned: 0, planned_distance_m: 0 };
+    const sore = { ...row('E', 30000, []), high_soreness: 1 };
+    const missedKey = { ...row('F', 30000, []), missed_key_sessions: 1 };
+    const groups = groupForDigest([noPlan, sore, missedKey, row('G', 30000, [])]);
+    expect(groups.no_plan.map((r) => r.runner.name)).toEqual(['D']);
+    expect(groups.flagged.map((r) => r.runner.name)).toEqual(['E', 'F']);
+    expect(groups.on_plan.map((r) => r.runner.name)).toEqual(['G']);
+  });
 });
