@@ -44,7 +44,8 @@ async function upload(app: App, auth: Record<string, string>, date: string, km: 
   expect(res.status).toBe(201);
 }
 
-describe('GET /api/runners/:id/week', () => {
+// Each test imports several generated runs; on a loaded machine that takes longer than the default 5 s.
+describe('GET /api/runners/:id/week', { timeout: 30_000 }, () => {
   it('sets plans and runs side by side with totals, the long run, missed sessions and a volume-jump flag', async () => {
     const app = freshApp();
     const runner = await person(app, 'runner', 'Wren Walker');
@@ -194,7 +195,7 @@ describe('GET /api/runners/:id/week', () => {
   });
 });
 
-describe('squad overview and weekly digest', () => {
+describe('squad overview and weekly digest', { timeout: 30_000 }, () => {
   it('one row per runner; the digest e-mail lists each runner under the heading that is true, in the coach’s miles', async () => {
     const app = freshApp();
     const coach = await person(app, 'coach', 'Cass Coach');
