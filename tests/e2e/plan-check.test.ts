@@ -81,7 +81,7 @@ async function partRows(table: Locator): Promise<Array<{ part: string; verdict: 
     if ((await row.getByRole('rowheader').count()) === 0) continue; // column headers and note lines
     const cells = (await row.getByRole('cell').allTextContents()).map((t) => t.trim());
     // part, planned, distance run, time, pace, target, difference, ♥, verdict ("● on pace": glyph then word)
-    out.push({ part: cells[0]!, verdict: cells.at(-1)!.replace(/^[●▲▼◐○–]\s*/, '') });
+    out.push({ part: cells[0]!, verdict: cells.at(-1)!.replace(/^[●▲▼◐○◇–]\s*/, '') });
   }
   return out;
 }
@@ -107,7 +107,8 @@ describe('plan check on the run page', () => {
     const reps = rows.filter((r) => r.part.startsWith('rep '));
     expect(reps.map((r) => r.part)).toEqual(['rep 1 of 6', 'rep 2 of 6', 'rep 3 of 6', 'rep 4 of 6', 'rep 5 of 6', 'rep 6 of 6']);
     expect(reps.map((r) => r.verdict)).toEqual(['on pace', 'on pace', 'on pace', 'missed', 'on pace', 'on pace']);
-    expect(rows[0]).toEqual({ part: 'warm-up', verdict: 'on pace' });
+    // The warm-up has no pace target: it is run by feel (issue #14).
+    expect(rows[0]).toEqual({ part: 'warm-up', verdict: 'by feel' });
     // The skipped rep says why, on the line under it.
     expect(await table.textContent()).toMatch(/Part 8: run at recovery pace: rep skipped\./);
 
