@@ -6,7 +6,8 @@ let destination: DestinationStream = pino.destination(1);
 export const logger = pino(
   {
     level: process.env.LOG_LEVEL ?? (process.env.NODE_ENV === 'test' ? 'silent' : 'info'),
-    redact: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'],
+    // The CSRF token is a per-browser secret like the cookie it doubles (issue 13 #15).
+    redact: ['req.headers.cookie', 'req.headers.authorization', 'req.headers["x-csrf-token"]', 'res.headers["set-cookie"]'],
   },
   { write: (line: string) => destination.write(line) },
 );

@@ -1,4 +1,4 @@
-import { mkdir, opendir, readFile, rm, stat, writeFile } from 'node:fs/promises';
+import { mkdir, opendir, readFile, rm, rmdir, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { StoredFileInfo } from '../../shared/runs/orphan-files.ts';
 
@@ -43,14 +43,25 @@ export function createFsStore(dataDir: string): FileStore {
   return {
     async put(key, data) {
       const file = resolve(key);
-      await mkdir(path.dirname(file), { recursive: true });
-      await writeFile(file, data);
+      // A folder emptied by `delete` may vanish between mkdir and write: make it again once.
+      for (let attempt = 0; ; attempt++) {
+        await mkdir(path.dirname(file), { recursive: true });
+        try {
+          return await writeFile(file, data);
+        } catch (err) {
+          if ((err as NodeJS.ErrnoException).code !== 'ENOENT' || attempt > 0) throw err;
+        }
+      }
     },
     async get(key) {
       return readFile(resolve(key));
     },
     async delete(key) {
-      await rm(resolve(key), { force: true });
+      const file = resolve(key);
+      await rm(file, { force: true });
+      // The user's folder goes with its last file (issue 13 #15): no empty DATA_DIR/files/<uid>/ is left behind.
+      const folder = path.dirname(file);
+      if (folder !== root) await rmdir(folder).catch(() => undefined);
     },
     async *list() {
       for await (const file of walkFiles(root)) {

@@ -341,6 +341,19 @@ describe('GET /api/me/export', () => {
   }, 30_000);
 });
 
+/** pg-boss rows (jobs and archived jobs) whose data names one of `importIds`. */
+async function queueRowsNaming(importIds: string[]): Promise<number> {
+  let n = 0;
+  for (const table of ['pgboss.job', 'pgboss.archive']) {
+    const { rows } = await db.raw<{ rows: Array<{ n: string }> }>(
+      `select count(*) as n from ${table} where data->>'importId' = any(?::text[])`,
+      [importIds],
+    );
+    n += Number(rows[0]!.n);
+  }
+  return n;
+}
+
 describe('DELETE /api/me', () => {
   /** Every uuid column of every table in the schema, with how many rows hold `id` there. */
   async function columnsHolding(id: string): Promise<string[]> {
@@ -428,12 +441,17 @@ describe('DELETE /api/me', () => {
       ]),
     );
     expect(storedFilesOf(user.id)).toHaveLength(2);
+    const importIds = (await db('imports').where({ user_id: user.id }).select('id')).map((r) => r.id as string);
+    expect(await queueRowsNaming(importIds)).toBeGreaterThan(0);
 
     const res = await request(app).delete('/api/me').set(auth).send({ password });
     expect(res.status).toBe(204);
 
     expect(await columnsHolding(user.id)).toEqual([]);
     expect(storedFilesOf(user.id)).toEqual([]);
+    // Issue 13 #15: no empty DATA_DIR/files/<uid>/ folder, no pg-boss row naming the user's imports.
+    expect(existsSync(path.join(dataDir, 'files', user.id))).toBe(false);
+    expect(await queueRowsNaming(importIds)).toBe(0);
     expect(archivesWaiting()).toEqual([]);
     expect(await count('invitations', { email: user.email })).toBe(0);
     expect(await count('dev_outbox', { to: user.email })).toBe(0);

@@ -5,7 +5,7 @@ import { isDatabaseUnavailable } from '../../lib/database-errors.ts';
 import { isDatabaseUp } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { listUnfinishedImportIds } from './imports.repository.ts';
+import { IMPORT_QUEUE, listUnfinishedImportIds } from './imports.repository.ts';
 import { processImport, type ImportWorkDeps } from './imports.service.ts';
 
 /**
@@ -13,7 +13,7 @@ import { processImport, type ImportWorkDeps } from './imports.service.ts';
  * `pgboss`), one job per import. Jobs only say "work on import X"; what is done lives in our
  * tables, so any number of jobs for one import are safe and a restart simply queues the unfinished.
  */
-const QUEUE = 'history-import';
+const QUEUE = IMPORT_QUEUE;
 /** Imports worked on at the same time by one process. */
 const IMPORTS_AT_ONCE = 2;
 /** Files of one import imported at the same time (parsing is CPU-bound; two overlap the database writes). */

@@ -171,3 +171,22 @@ export async function findImportStatuses(ids: readonly string[], trx: Db = db): 
   const rows = await trx('imports').whereIn('id', ids).select('id', 'status');
   return new Map(rows.map((r) => [r.id, r.status]));
 }
+
+/** The pg-boss queue of bulk imports (its jobs carry `{ importId }`). */
+export const IMPORT_QUEUE = 'history-import';
+
+/**
+ * Deletes every pg-boss row (waiting, active, finished or archived) whose job names one of `importIds`, so nothing
+ * of a deleted account outlives it in the queue's tables (issue 13 #15). The queue's schema exists only once a
+ * worker or a send has started pg-boss; without it there is nothing to delete.
+ */
+export async function deleteImportJobs(importIds: readonly string[], trx: Db = db): Promise<void> {
+  if (importIds.length === 0) return;
+  const { rows } = await trx.raw<{ rows: Array<{ job: string | null; archive: string | null }> }>(
+    "select to_regclass('pgboss.job')::text as job, to_regclass('pgboss.archive')::text as archive",
+  );
+  for (const table of [rows[0]?.job, rows[0]?.archive]) {
+    if (!table) continue;
+    await trx.raw(`delete from ${table} where name = ? and data->>'importId' = any(?::text[])`, [IMPORT_QUEUE, [...importIds]]);
+  }
+}

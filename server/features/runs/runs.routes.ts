@@ -169,7 +169,8 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
     },
     async (req, res) => {
       const file = await originalFileOf(requireActor(res), parseIdParam(req.params.id), store);
-      res.type('application/octet-stream').attachment(file.name).send(file.data);
+      // attachment() would set the type from the name's extension; the type comes from the bytes instead.
+      res.attachment(file.name).set('Content-Type', file.contentType).set('X-Content-Type-Options', 'nosniff').send(file.data);
     },
   );
 

@@ -8,6 +8,7 @@ import { seriesPositions } from '../../../shared/tracks/series.ts';
 import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
+import { originalContentType } from '../../../shared/runs/original-download.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
 import { db, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
@@ -375,7 +376,8 @@ export async function originalFileOf(actor: Actor, runId: string, store: FileSto
   const run = await getReadableRun(actor, runId);
   const file = await findSourceFileById(run.source_file_id);
   if (!file) throw new NotFoundError('The original file of this run is missing.');
-  return { name: file.original_name, data: await store.get(file.storage_key) };
+  const data = await store.get(file.storage_key);
+  return { name: file.original_name, data, contentType: originalContentType(file.format, data.subarray(0, 2)) };
 }
 
 /** The series for charts and the route outline, thinned to at most `maxPoints` points. */
