@@ -11,6 +11,7 @@ import { createFuelRouter } from './features/fuel/fuel.routes.ts';
 import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createPlansRouter } from './features/plans/plans.routes.ts';
 import { createPrescribeRouter } from './features/plans/prescribe.routes.ts';
+import { createCalendarRouter } from './features/calendar/calendar.routes.ts';
 import { createSquadsRouter } from './features/squads/squads.routes.ts';
 import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
@@ -69,6 +70,7 @@ export function createApp({
     createGoalsRouter(),
     createToolsRouter(),
     createPrescribeRouter(),
+    createCalendarRouter(config),
     createPlansRouter(),
     createSquadsRouter(mailer, config),
     createOutboxRouter(config),

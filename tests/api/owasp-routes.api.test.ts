@@ -86,6 +86,8 @@ interface World {
   };
   inviteToken: string;
   resetToken: string;
+  /** The owner's calendar feed path value (`cal_….ics`). */
+  calendarToken: string;
   week: string;
   newPassword: string;
 }
@@ -190,6 +192,7 @@ async function buildWorld(): Promise<World> {
     )
   ).body.batch_id as string;
   await must('day mark', as(owner).put('/api/days/2012-10-23').send({ kind: 'rest' }), 200);
+  const calendarUrl = (await must('calendar feed', as(owner).post('/api/me/calendar'), 201)).body.url as string;
   const fuelItem = (await must('fuel item', as(owner).post('/api/fuel-items').send(FUEL_ITEM), 201)).body.item.id as string;
   await must('plan fuel plan', as(owner).put(`/api/plans/${plan}/fuel-plan`).send(FUEL_PLAN), 200);
   await must('goal race', as(owner).put('/api/me/goal-race').send(GOAL_RACE), 200);
@@ -221,6 +224,7 @@ async function buildWorld(): Promise<World> {
     people,
     ids: { run: runId, plan, fuelItem, raceResult, namedToken, squad, invitation, import: importId, weekNote, library, batch },
     inviteToken: linkTokenMailedTo(owner.email, 'inv'),
+    calendarToken: calendarUrl.split('/').at(-1)!,
     resetToken: linkTokenMailedTo(people.spare.email, 'rst'),
     week: '2012-10-22',
     newPassword: newPassword('new'),
@@ -389,6 +393,13 @@ const ROUTES: Record<string, Row> = {
     runnerIdQuery: true,
   },
   'GET /api/runners/{id}': { caller: 'owner', params: { id: ownerId } },
+  // The coach's feed is made and turned off, so the owner's address stays valid for its own row.
+  'POST /api/me/calendar': { caller: 'coach', takes: 'nothing', issuesToken: true },
+  'DELETE /api/me/calendar': { caller: 'coach' },
+  'GET /api/calendar/{token}': {
+    caller: 'anyone',
+    params: { token: { kind: 'secret', value: (w) => w.calendarToken, madeUp: 404 } },
+  },
 
   'GET /api/fuel-items': { caller: 'owner', runnerIdQuery: true },
   'POST /api/fuel-items': { caller: 'owner', body: () => FUEL_ITEM },
@@ -597,12 +608,14 @@ const SECRET_PATTERNS: Array<[string, RegExp]> = [
   ['a bearer token', /pw_[A-Za-z0-9_-]{43}/],
   ['a password-reset link token', /rst_[A-Za-z0-9_-]{43}/],
   ['an invitation link token', /inv_[A-Za-z0-9_-]{43}/],
+  ['a calendar feed address', /cal_[A-Za-z0-9_-]{43}/],
 ];
 
 /** What secret `text` reveals, if any (a just-issued bearer token may be allowed). */
 function secretsIn(text: string, allowBearerToken = false): string[] {
   const found = SECRET_PATTERNS.filter(
-    ([what, pattern]) => !(allowBearerToken && what === 'a bearer token') && pattern.test(text),
+    ([what, pattern]) =>
+      !(allowBearerToken && (what === 'a bearer token' || what === 'a calendar feed address')) && pattern.test(text),
   ).map(([what]) => what);
   for (const password of passwords) if (text.includes(password)) found.push(`the password "${password}"`);
   return found;
@@ -950,7 +963,7 @@ describe('OWASP basics on every route', () => {
           const madeUp = `${param.value(w).slice(0, 4)}${randomBytes(32).toString('base64url')}`;
           check(`${label} made up`, { params: { [name]: madeUp } }, param.madeUp);
         }
-        const expected = param.kind === 'id' ? [400, 404] : param.kind === 'secret' ? [param.madeUp, 404] : [400];
+        const expected = param.kind === 'id' ? [400, 404] : param.kind === 'secret' ? [param.madeUp, 400, 404] : [400];
         for (const garbage of GARBAGE) check(`${label} = ${garbage.slice(0, 40)}`, { params: { [name]: garbage } }, expected);
       }
       if (c.row.runnerIdQuery) {
