@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import tzLookup from '@photostructure/tz-lookup';
+import { runFileName } from '../../../shared/runs/file-names.ts';
 import { analyseTrack, type RunAnalysis } from '../../../shared/tracks/analyse.ts';
 import { localDateTime } from '../../../shared/runs/local-time.ts';
 import { estimateRunEnergy } from '../../../shared/tracks/energy.ts';
@@ -338,7 +339,7 @@ export async function describeRun(actor: Actor, runId: string) {
 export async function splitsCsvOf(actor: Actor, runId: string, unit: SplitUnit): Promise<{ csv: string; filename: string }> {
   const run = await getReadableRun(actor, runId);
   const splits = (await findSplits(run.id, unit)).map(toSplit);
-  return { csv: splitsToCsv(splits, unit), filename: `splits-${run.local_date}-${unit}.csv` };
+  return { csv: splitsToCsv(splits, unit), filename: runFileName(run.local_date, run.name, `splits-${unit}`, 'csv') };
 }
 
 export async function listRuns(actor: Actor, query: ListRunsQuery) {
