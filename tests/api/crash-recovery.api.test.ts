@@ -251,8 +251,11 @@ describe('the web server killed (SIGKILL) during uploads', () => {
     expect(kept.status).toBe(201);
     const keptRunId = ((await kept.json()) as { imported: Array<{ id: string }> }).imported[0]!.id;
 
+    // Both tokens first: creating a token locks the user's row (the per-user token cap), which the
+    // blocked import's transaction also holds until the kill.
+    const secondAuthorization = await bearerFor(first.url, user.email, password);
     const blocked = await startBlockedImport(first, authorization, morningRun);
-    const halfSent = await startHalfSentUpload(first, await bearerFor(first.url, user.email, password), user.id, longRun);
+    const halfSent = await startHalfSentUpload(first, secondAuthorization, user.id, longRun);
     await killChild(first.child);
     await releaseLockAfterKill(blocked.pid);
     expect(await blocked.outcome).toBe('connection lost');
