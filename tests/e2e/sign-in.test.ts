@@ -50,7 +50,7 @@ describe('signing in', () => {
     const runner = person('runner');
     await signIn(page, runner.email, runner.password);
     await page.waitForURL(/\/plan$/);
-    expect(await navLinks(page)).toEqual(['Log', 'Plan', 'Tools']);
+    expect(await navLinks(page)).toEqual(['Log', 'Plan', 'My week', 'Tools']);
     await expect.poll(() => page.getByRole('button', { name: new RegExp(runner.name) }).count()).toBe(1);
     await screenshot(page, 'app-shell-runner');
     expect(errors).toEqual([]);
@@ -72,7 +72,7 @@ describe('signing in', () => {
     const coach = person('coach');
     await signIn(page, coach.email, coach.password);
     await page.waitForURL(/\/log$/);
-    expect(await navLinks(page)).toEqual(['Log', 'Plan', 'Squad', 'Tools']);
+    expect(await navLinks(page)).toEqual(['Log', 'Plan', 'My week', 'Squad', 'Tools']);
     await screenshot(page, 'app-shell-coach');
 
     await browser.context.clearCookies();
