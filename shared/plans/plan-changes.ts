@@ -74,7 +74,8 @@ export function planByline(
   timeZone: string,
 ): string {
   const author = `written by ${plan.author_name ?? 'a former account'}`;
-  const edited = Date.parse(plan.updated_at) - Date.parse(plan.created_at) > 1000;
+  // Any later save is an edit: a session moved half a second after it was written has still changed.
+  const edited = Date.parse(plan.updated_at) > Date.parse(plan.created_at);
   if (!edited) return author;
   const when = formatChangedWhen(new Date(plan.updated_at), now, timeZone);
   const by = plan.updated_by_name && plan.updated_by_name !== plan.author_name ? ` by ${plan.updated_by_name}` : '';

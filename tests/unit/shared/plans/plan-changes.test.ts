@@ -59,6 +59,7 @@ describe('planByline', () => {
   const written = { author_name: 'Dana Whitlock', updated_by_name: 'Dana Whitlock', created_at: '2026-12-08T12:00:00Z' };
   it('names the author; "changed" only after an edit; the editor only when not the author', () => {
     expect(planByline({ ...written, updated_at: '2026-12-08T12:00:00Z' }, now, 'UTC')).toBe('written by Dana Whitlock');
+    expect(planByline({ ...written, updated_at: '2026-12-08T12:00:00.400Z' }, now, 'UTC')).toMatch(/ · changed /);
     expect(planByline({ ...written, updated_at: '2026-12-08T13:00:00Z' }, now, 'UTC')).toBe(
       'written by Dana Whitlock · changed Tue',
     );
