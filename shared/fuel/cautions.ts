@@ -1,6 +1,6 @@
 /**
  * The standard caution texts shown wherever fluid, sodium, carbohydrate, caffeine or cold-water numbers appear
- * (product.md, "Safety"). Each names its source (references.md §7 and §9) and ends with who has the last word.
+ * (product.md, "Safety"). Each names its source (REFERENCES.md §7 and §9) and ends with who has the last word.
  */
 
 export const CAUTION_TOPICS = ['fluid', 'sodium', 'carbohydrate', 'caffeine', 'cold water'] as const;
@@ -17,7 +17,7 @@ export interface Caution {
 /** Said with every caution (product.md, "Safety"). */
 export const LAST_WORD = 'A physician, a registered dietitian or a qualified coach has the last word for you as an individual.';
 
-/** Machado et al. 2016 pooled trials: 10–15 °C for 10–15 min gave the best results (references.md §9, confirmed). */
+/** Machado et al. 2016 pooled trials: 10–15 °C for 10–15 min gave the best results (REFERENCES.md §9, confirmed). */
 export const COLD_WATER_STUDIED = { temp_c: { low: 10, high: 15 }, minutes: { low: 10, high: 15 } } as const;
 
 export const CAUTIONS: Readonly<Record<CautionTopic, Caution>> = {

@@ -6,9 +6,9 @@ import type { Evidence } from './targets.ts';
  * All three come from the 2016 joint position of the American College of Sports Medicine, the Academy of Nutrition
  * and Dietetics and Dietitians of Canada (Thomas, Erdman & Burke 2016, Med Sci Sports Exerc 48(3): 543–568;
  * the statement's existence is confirmed, volume and pages are from memory). Which figures the project's reference
- * sheet (references.md §7) carries:
- * - carbohydrate loading 10–12 g/kg per 24 h for 36–48 h before events over 90 min: in references.md (exact wording from memory);
- * - pre-run meal 1–4 g/kg 1–4 h before, and refuelling 1.0–1.2 g/kg/h for the first 4 h: NOT in references.md —
+ * sheet (REFERENCES.md §7) carries:
+ * - carbohydrate loading 10–12 g/kg per 24 h for 36–48 h before events over 90 min: in REFERENCES.md (exact wording from memory);
+ * - pre-run meal 1–4 g/kg 1–4 h before, and refuelling 1.0–1.2 g/kg/h for the first 4 h: NOT in REFERENCES.md —
  *   from memory, unconfirmed; check the original table before relying on them.
  */
 
@@ -91,12 +91,12 @@ export function afterRunRefuel(bodyMassKg: number): AfterRunRefuel {
   };
 }
 
-/** Events longer than this call for carbohydrate loading (joint position 2016, via references.md §7). */
+/** Events longer than this call for carbohydrate loading (joint position 2016, via REFERENCES.md §7). */
 export const LOADING_MIN_EVENT_S = 90 * 60;
 
 /**
  * Carbohydrate loading: 10–12 g/kg per 24 h for 36–48 h before events over 90 min (joint position 2016; in
- * references.md, table wording from memory). 70 kg → 700–840 g/day; 1050 g (36 h at 10) to 1680 g (48 h at 12).
+ * REFERENCES.md, table wording from memory). 70 kg → 700–840 g/day; 1050 g (36 h at 10) to 1680 g (48 h at 12).
  * `applies` is false for an expected duration of 90 min or less.
  */
 export function carbohydrateLoading(bodyMassKg: number, eventDurationS: number): CarbohydrateLoading {

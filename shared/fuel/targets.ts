@@ -3,7 +3,7 @@
  * estimate, the 2 % body-mass threshold, and the unit conversions the fuel planner needs.
  *
  * Every published number names its source beside it. The sources and how sure we are of each figure are
- * those of the project's reference sheet (../shared/references.md §7): "confirmed" means the sheet saw the
+ * those of the project's reference sheet (REFERENCES.md §7): "confirmed" means the sheet saw the
  * figure in a search excerpt, "secondary" that only a restatement was seen, "from memory" that the figure was
  * not seen at all and must be checked against the original before anyone relies on it.
  */
@@ -30,13 +30,13 @@ export interface FuelTargets {
 
 // ─── Units ──────────────────────────────────────────────────────────────────────────────────
 
-/** Sodium molar mass, g/mol (IUPAC standard atomic weight 22.989 769 28; references.md §7). */
+/** Sodium molar mass, g/mol (IUPAC standard atomic weight 22.989 769 28; REFERENCES.md §7). */
 export const NA_G_PER_MOL = 22.98976928;
-/** Chlorine standard atomic weight 35.453 g/mol (references.md reference-scripts/fueling.py); NaCl = Na + Cl. */
+/** Chlorine standard atomic weight 35.453 g/mol (IUPAC; REFERENCES.md §7); NaCl = Na + Cl. */
 export const NACL_G_PER_MOL = NA_G_PER_MOL + 35.453;
-/** US fluid ounce, mL, exact: 1/128 of the 231 in³ US gallon (NIST Handbook 44, Appendix C; references.md §1). */
+/** US fluid ounce, mL, exact: 1/128 of the 231 in³ US gallon (NIST Handbook 44, Appendix C; REFERENCES.md §1). */
 export const ML_PER_US_FL_OZ = 29.5735295625;
-/** Avoirdupois pound, kg, exact (1959 international yard and pound agreement; references.md §1). */
+/** Avoirdupois pound, kg, exact (1959 international yard and pound agreement; REFERENCES.md §1). */
 export const KG_PER_LB = 0.45359237;
 
 function assertFinite(value: number, name: string, { min = -Infinity, positive = false } = {}): void {
@@ -126,7 +126,7 @@ export interface SweatRate {
 /**
  * Sweat rate from body mass before and after a run (the mass-balance method the ACSM position stand
  * describes; Sawka et al. 2007, confirmed): (pre − post + drunk − urine) / hours, assuming 1 kg = 1 L.
- * Worked (references.md §7): 70 → 68.9 kg, 0.5 L drunk, 1.5 h → 1.0667 L/h; body-mass change −1.571 %.
+ * Worked (REFERENCES.md §7): 70 → 68.9 kg, 0.5 L drunk, 1.5 h → 1.0667 L/h; body-mass change −1.571 %.
  */
 export function sweatRate(test: SweatTest): SweatRate {
   assertFinite(test.pre_kg, 'Body mass before', { positive: true });
@@ -252,7 +252,7 @@ export function carbohydrateBand(bands: readonly CarbohydrateBand[], durationS: 
  * - 75 min–2.5 h: 30–60 g/h (joint position 2016, from memory; Jeukendrup's figure, from memory, says up to 30 g/h for 1–2 h);
  * - over 2.5 h: 60–90 g/h: the upper figure is Jeukendrup's (confirmed), only from multiple transportable carbohydrates;
  *   the lower is his "about 60 g/h", the oxidation limit of a single carbohydrate (abstract, confirmed).
- * Worked (references.md §7): a 3:30:00 marathon at 60–90 g/h is 210–315 g.
+ * Worked (REFERENCES.md §7): a 3:30:00 marathon at 60–90 g/h is 210–315 g.
  */
 export function proposeCarbohydrateTarget(durationS: number): FuelTarget {
   const joint = carbohydrateBand(JOINT_POSITION_2016_BANDS, durationS);

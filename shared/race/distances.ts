@@ -1,6 +1,6 @@
 import { HALF_MARATHON_M, MARATHON_M, METRES_PER_MILE } from '../units.ts';
 
-/** International mile, exact since 1959: 1760 yd × 0.9144 m; marathon 42.195 km, half 21.0975 km (references.md §1). */
+/** International mile, exact since 1959: 1760 yd × 0.9144 m; marathon 42.195 km, half 21.0975 km (REFERENCES.md §1). */
 export const MILE_M = METRES_PER_MILE;
 export { HALF_MARATHON_M, MARATHON_M };
 

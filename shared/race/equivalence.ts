@@ -1,14 +1,14 @@
 import { EQUIVALENT_DISTANCES_M } from './distances.ts';
 
 /**
- * Race equivalence by two published methods (references.md §3):
+ * Race equivalence by two published methods (REFERENCES.md §3):
  * - Riegel (1981), American Scientist 69(3): the power law T₂ = T₁ · (D₂/D₁)^b, b = 1.06 as usually quoted.
  * - Daniels & Gilbert (1979), "Oxygen Power": the oxygen cost of running at a speed and the fraction of
  *   VO₂max a runner can sustain for a duration. Their ratio for one performance is the Daniels & Gilbert
  *   index (an effective VO₂max, ml·kg⁻¹·min⁻¹); an equivalent performance has the same index.
  */
 
-/** Riegel's exponent as usually quoted (references.md §3.1). */
+/** Riegel's exponent as usually quoted (REFERENCES.md §3.1). */
 export const RIEGEL_EXPONENT = 1.06;
 
 /**
@@ -27,7 +27,7 @@ export function riegelTime(t1S: number, d1M: number, d2M: number, exponent: numb
 
 /**
  * Daniels & Gilbert (1979) oxygen cost of running at `vMPerMin` metres per minute, in ml O₂ per kg per minute:
- * VO₂(v) = −4.60 + 0.182258·v + 0.000104·v² (references.md §3.2). Example: VO₂(200) = 36.0116.
+ * VO₂(v) = −4.60 + 0.182258·v + 0.000104·v² (REFERENCES.md §3.2). Example: VO₂(200) = 36.0116.
  * Negative below about 25 m/min, where the fit describes no running.
  */
 export function oxygenCost(vMPerMin: number): number {
@@ -49,12 +49,12 @@ export function speedForOxygenCost(vo2: number): number {
 
 /**
  * Daniels & Gilbert (1979) fraction of VO₂max sustainable for `tMin` minutes (dimensionless):
- * F(t) = 0.8 + 0.1894393·e^(−0.012778·t) + 0.2989558·e^(−0.1932605·t) (references.md §3.2).
+ * F(t) = 0.8 + 0.1894393·e^(−0.012778·t) + 0.2989558·e^(−0.1932605·t) (REFERENCES.md §3.2).
  * Above 1 for t < 11.03 min. Example: F(10) = 1.009995, F(60) = 0.888007.
  */
 export function sustainableFraction(tMin: number): number {
   // Each term is coefficient × exp(rate × t). A transcription seen in public code writes
-  // pow(0.1894393, …) instead, which gives wrong values (references.md §3.2, pitfall).
+  // pow(0.1894393, …) instead, which gives wrong values (REFERENCES.md §3.2, pitfall).
   return 0.8 + 0.1894393 * Math.exp(-0.012778 * tMin) + 0.2989558 * Math.exp(-0.1932605 * tMin);
 }
 
@@ -72,7 +72,7 @@ export function performanceIndex(dM: number, tS: number): number {
 /**
  * The time in seconds, at `dM` metres, of a performance with Daniels & Gilbert index `index`: the root t of
  * VO₂(d/t) − X·F(t) = 0, found by bisection. The bracket starts at t ∈ [0.5, 2000] min as in
- * references.md §3.2 and widens when the root lies outside it (very long or very slow races).
+ * REFERENCES.md §3.2 and widens when the root lies outside it (very long or very slow races).
  * Example: equivalentTime(50, 42195) = 11 439.74 s. Throws a RangeError when the index is not positive.
  */
 export function equivalentTime(index: number, dM: number): number {

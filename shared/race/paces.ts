@@ -2,7 +2,7 @@ import { MILE_M } from './distances.ts';
 
 export type PaceUnit = 'mi' | 'km';
 
-/** Metres in one `unit`: 1609.344 for the international mile (references.md §1), 1000 for the km. */
+/** Metres in one `unit`: 1609.344 for the international mile (REFERENCES.md §1), 1000 for the km. */
 export function unitLengthM(unit: PaceUnit): number {
   return unit === 'mi' ? MILE_M : 1000;
 }
@@ -15,7 +15,7 @@ export interface Pace {
 
 /**
  * The even pace that covers `distanceM` metres in `goalS` seconds, per km and per mile (1609.344 m).
- * Example: marathon in 3:00:00 → 255.9545 s/km, 411.9188 s/mi (references.md §1).
+ * Example: marathon in 3:00:00 → 255.9545 s/km, 411.9188 s/mi (REFERENCES.md §1).
  */
 export function paceFromGoal(distanceM: number, goalS: number): Pace {
   return { s_per_km: goalS / (distanceM / 1000), s_per_mi: goalS / (distanceM / MILE_M) };

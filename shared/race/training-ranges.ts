@@ -121,7 +121,7 @@ export function describeMarathonEffortRule(rule: Pick<MarathonEffortRangeRule, '
 export const RACE_EQUIVALENTS_SOURCE = 'Riegel (1981) and Daniels & Gilbert (1979) race equivalents';
 export const OWN_CHOICE_SOURCE = 'our own choice';
 
-/** A pace in seconds per km, also per mile (1609.344 m, references.md §1). */
+/** A pace in seconds per km, also per mile (1609.344 m, REFERENCES.md §1). */
 export function paceFromSecondsPerKm(sPerKm: number): Pace {
   return { s_per_km: sPerKm, s_per_mi: (sPerKm * MILE_M) / 1000 };
 }

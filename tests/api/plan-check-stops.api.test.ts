@@ -16,7 +16,7 @@ function freshApp() {
   return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
 }
 
-// 8:23 per mile = 503 s/mi = 312.55 s/km (1609.344 m to the mile, references.md §1).
+// 8:23 per mile = 503 s/mi = 312.55 s/km (1609.344 m to the mile, REFERENCES.md §1).
 const PACE_S_PER_KM = 503 / 1.609344;
 const SPEED = 1000 / PACE_S_PER_KM;
 

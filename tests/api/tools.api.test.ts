@@ -28,8 +28,8 @@ describe('GET /api/tools/equivalents', () => {
     expect(rows.map((r) => r.distance_m)).toEqual([1500, 1609.344, 3000, 5000, 10000, 15000, 21097.5, 42195]);
     const marathon = rows.find((r) => r.distance_m === MARATHON_M)!;
     expect(Object.keys(marathon).sort()).toEqual(['daniels_gilbert_s', 'distance_m', 'riegel_s']);
-    expect(marathon.riegel_s).toBeCloseTo(10633.151, 3); // references.md §3.1
-    expect(marathon.daniels_gilbert_s).toBeCloseTo(10644.4, 1); // references.md §3.2
+    expect(marathon.riegel_s).toBeCloseTo(10633.151, 3); // REFERENCES.md §3.1
+    expect(marathon.daniels_gilbert_s).toBeCloseTo(10644.4, 1); // REFERENCES.md §3.2
   });
 
   it('answers a session-cookie user too (a read needs no CSRF header)', async () => {
@@ -84,8 +84,8 @@ describe('GET /api/tools/paces', () => {
     const res = await request(app).get('/api/tools/paces').query({ distance_m: MARATHON_M, time_s: 10800 }).set(auth);
 
     expect(res.status).toBe(200);
-    expect(res.body.pace.s_per_mi).toBeCloseTo(411.9188, 4); // references.md §1
-    expect(res.body.pace.s_per_km).toBeCloseTo(255.9545, 4); // references.md §1
+    expect(res.body.pace.s_per_mi).toBeCloseTo(411.9188, 4); // REFERENCES.md §1
+    expect(res.body.pace.s_per_km).toBeCloseTo(255.9545, 4); // REFERENCES.md §1
     const table = res.body.split_table;
     expect(table.unit).toBe('mi');
     expect(table.negative_split_s).toBe(0);
@@ -104,7 +104,7 @@ describe('GET /api/tools/paces', () => {
       '5k-effort',
       'mile-effort',
     ]);
-    // The result's own distance: marathon effort is the goal pace itself, 255.9545 s/km by both models (references.md §1).
+    // The result's own distance: marathon effort is the goal pace itself, 255.9545 s/km by both models (REFERENCES.md §1).
     const marathon = ranges.find((r) => r.kind === 'marathon-effort') as unknown as {
       shorthand: string;
       riegel: { s_per_km: number };
@@ -134,7 +134,7 @@ describe('GET /api/tools/paces', () => {
     expect(res.status).toBe(200);
     const old = res.body.training_paces as { notice: string; index: number; ranges: Array<{ kind: string; fast: unknown }> };
     expect(old.notice).toMatch(/^Deprecated/);
-    expect(old.index).toBeCloseTo(54.4535, 4); // references.md §3.2
+    expect(old.index).toBeCloseTo(54.4535, 4); // REFERENCES.md §3.2
     expect(old.ranges).toHaveLength(5);
     const today = res.body.training_ranges.ranges as Array<{ kind: string; fast: unknown }>;
     expect(old.ranges[0]).toMatchObject({ kind: 'easy', fast: today.find((r) => r.kind === 'easy')!.fast });

@@ -38,7 +38,7 @@ describe('Tools page', () => {
     await resultForm.getByLabel('Your time').fill('1:25:00');
     await resultForm.getByRole('button', { name: 'Show equivalents' }).click();
     const marathonRow = page.getByRole('row', { name: /^Marathon/ });
-    await expect.poll(() => marathonRow.first().textContent()).toMatch(/2:57:13.*2:57:24/); // references.md §3.1, §3.2
+    await expect.poll(() => marathonRow.first().textContent()).toMatch(/2:57:13.*2:57:24/); // REFERENCES.md §3.1, §3.2
     // Training ranges are named by race effort, plus easy and steady; each says where it comes from
     // (product.md: every computed number explains itself).
     const ranges = page.getByRole('region', { name: 'Training pace ranges' });
@@ -57,7 +57,7 @@ describe('Tools page', () => {
     await paceForm.getByLabel('Distance').selectOption('marathon');
     await paceForm.getByLabel('Goal time').fill('3:00:00');
     await paceForm.getByRole('button', { name: 'Show paces' }).click();
-    // references.md §1: a 3:00:00 marathon is 411.9188 s/mi (6:52) and 255.9545 s/km (4:16).
+    // REFERENCES.md §1: a 3:00:00 marathon is 411.9188 s/mi (6:52) and 255.9545 s/km (4:16).
     await expect.poll(() => paceForm.getByText('6:52 /mi').count()).toBeGreaterThan(0);
     await expect.poll(() => paceForm.getByText('4:16 /km').count()).toBeGreaterThan(0);
     await screenshot(page, 'tools-desktop');
@@ -104,7 +104,7 @@ describe('Tools page', () => {
     await resultForm.getByLabel('Your time').fill('40:00');
     await resultForm.getByRole('button', { name: 'Show equivalents' }).click();
     const ranges = page.getByRole('region', { name: 'Training pace ranges' });
-    // A 10K in 40:00 is 6:26 /mi by both models at its own distance (references.md §1: 4:00/km = 386.2426 s/mi).
+    // A 10K in 40:00 is 6:26 /mi by both models at its own distance (REFERENCES.md §1: 4:00/km = 386.2426 s/mi).
     await expect.poll(() => ranges.getByRole('row', { name: /^10K effort/ }).textContent()).toMatch(/in a plan: @ 10K.*6:26/);
     const toolsWords = await ranges
       .getByRole('rowheader')

@@ -18,7 +18,7 @@ describe('cautions', () => {
     );
   });
 
-  it('caffeine proposes no dose (references.md has no published range)', () => {
+  it('caffeine proposes no dose (REFERENCES.md has no published range)', () => {
     expect(CAUTIONS.caffeine.text).toMatch(/does not propose a dose/);
     expect(CAUTIONS.caffeine.text).not.toMatch(/mg\/kg/);
   });

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { afterRunRefuel, carbohydrateLoading, mealPlan, preRunMeal } from '../../../../shared/fuel/meals.ts';
 
 describe('meals (Thomas, Erdman & Burke 2016 joint position)', () => {
-  it('carbohydrate loading, 70 kg: 10–12 g/kg/d → 700–840 g/d; over 36–48 h → 1050–1680 g (references.md §7)', () => {
+  it('carbohydrate loading, 70 kg: 10–12 g/kg/d → 700–840 g/d; over 36–48 h → 1050–1680 g (REFERENCES.md §7)', () => {
     const l = carbohydrateLoading(70, 3.5 * 3600);
     expect(l.grams_per_day).toEqual({ low_g: 700, high_g: 840 });
     expect(l.grams_total).toEqual({ low_g: 1050, high_g: 1680 });

@@ -239,7 +239,7 @@ describe('buildSchedule', () => {
     expect(s.intakes.map((i) => i.refill)).toEqual([false, false, false, true, false, false, true]);
   });
 
-  it('a 6 % drink: 500 mL carries 30 g (references.md §7)', () => {
+  it('a 6 % drink: 500 mL carries 30 g (REFERENCES.md §7)', () => {
     const s = schedule({
       bottles: [{ id: 'B', volume_ml: 500, contents: [{ item_id: 'powder', servings: 1 }] }],
       intakes: [{ bottle: 'B', ml: 500, when: { type: 'at_times', at_s: [3000] } }],

@@ -49,7 +49,7 @@ describe('carbohydrate targets (Jeukendrup 2014; Thomas, Erdman & Burke 2016 joi
     expect(proposeCarbohydrateTarget(1.5 * H).note).toContain('up to 30 g/h (figure band from memory)');
   });
 
-  it('3:30:00 marathon: 60 g/h → 210 g, 90 g/h → 315 g (references.md §7, fueling.py)', () => {
+  it('3:30:00 marathon: 60 g/h → 210 g, 90 g/h → 315 g (REFERENCES.md §7, fueling.py)', () => {
     const t = proposeCarbohydrateTarget(MARATHON_330);
     expect(t.low * 3.5).toBe(210);
     expect(t.high! * 3.5).toBe(315);
@@ -85,7 +85,7 @@ describe('fluid (Sawka et al. 2007, ACSM; Hew-Butler et al. 2015)', () => {
     expect(t.note).toMatch(/never so much that you gain weight/);
   });
 
-  it('3:30:00 marathon: 1.40–2.80 L = 47.3–94.7 US fl oz (references.md §7)', () => {
+  it('3:30:00 marathon: 1.40–2.80 L = 47.3–94.7 US fl oz (REFERENCES.md §7)', () => {
     const t = proposeFluidTarget(MARATHON_330);
     expect((t.low * 3.5) / 1000).toBeCloseTo(1.4, 10);
     expect((t.high! * 3.5) / 1000).toBeCloseTo(2.8, 10);
@@ -104,7 +104,7 @@ describe('fluid (Sawka et al. 2007, ACSM; Hew-Butler et al. 2015)', () => {
 });
 
 describe('sweat rate and the 2 % threshold (Sawka et al. 2007)', () => {
-  it('70 → 68.9 kg, 0.5 L drunk, 1.5 h → 1.0667 L/h, −1.571 % (references.md §7, verified)', () => {
+  it('70 → 68.9 kg, 0.5 L drunk, 1.5 h → 1.0667 L/h, −1.571 % (REFERENCES.md §7, verified)', () => {
     const r = sweatRate({ pre_kg: 70, post_kg: 68.9, drank_l: 0.5, duration_s: 1.5 * H });
     expect(r.l_per_h).toBeCloseTo(1.0667, 4);
     expect(r.body_mass_change_pct).toBeCloseTo(-1.571, 3);
@@ -130,7 +130,7 @@ describe('sweat rate and the 2 % threshold (Sawka et al. 2007)', () => {
     [55, 1.1, 2.425],
     [70, 1.4, 3.086],
     [85, 1.7, 3.748],
-  ])('2 %% of %d kg = %d kg (%d lb) (references.md §7)', (mass, kg, lb) => {
+  ])('2 %% of %d kg = %d kg (%d lb) (REFERENCES.md §7)', (mass, kg, lb) => {
     const s = bodyMassShare(mass);
     expect(s.kg).toBeCloseTo(kg, 10);
     expect(s.lb).toBeCloseTo(lb, 3);
@@ -143,7 +143,7 @@ describe('sweat rate and the 2 % threshold (Sawka et al. 2007)', () => {
 
 describe('sodium (ACSM 2007 citing the IOM; DGE 2020)', () => {
   it.each([
-    // references.md §7 table: mmol/L, mg/L Na, g/L NaCl
+    // REFERENCES.md §7 table: mmol/L, mg/L Na, g/L NaCl
     [20, 459.8, 1.1689],
     [30, 689.69, 1.7533],
     [35, 804.64, 2.0455],

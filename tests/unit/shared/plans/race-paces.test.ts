@@ -10,7 +10,7 @@ describe('racePacesFor', () => {
     expect(paces.MP).toBe(paces.goal);
   });
 
-  it('carries the goal to other distances with Daniels & Gilbert: a 3:00:00 marathon is index 53.5283 (references.md §3.2)', () => {
+  it('carries the goal to other distances with Daniels & Gilbert: a 3:00:00 marathon is index 53.5283 (REFERENCES.md §3.2)', () => {
     const paces = racePacesFor(MARATHON_GOAL, [], '2026-12-01');
     // Faster per km over shorter races, and in order.
     expect(paces['5K']!).toBeLessThan(paces['10K']!);

@@ -5,7 +5,7 @@ import type { DistanceUnit, PacePer } from '../../../../shared/plans/types.ts';
 describe('paceFromWritten (seconds as written → seconds per km; 1 mi = 1609.344 m exactly)', () => {
   it.each<[number, PacePer, number | null, number]>([
     [425, 'mi', null, 264.0827567], // 7:05/mi: 425 × 1000 / 1609.344
-    [482.8032, 'mi', null, 300], // 5:00/km in s/mi (references.md §1)
+    [482.8032, 'mi', null, 300], // 5:00/km in s/mi (REFERENCES.md §1)
     [300, 'km', null, 300],
     [175, 'rep', 800, 218.75], // 2:55 for 800 m: 175 / 0.8
     [180, 'rep', 800, 225],

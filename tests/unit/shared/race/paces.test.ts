@@ -5,10 +5,10 @@ import { paceFromGoal, splitTable } from '../../../../shared/race/paces.ts';
 describe('paceFromGoal (international mile 1609.344 m)', () => {
   it.each<[string, number, number, number, number]>([
     // name, distance m, goal s, s/km, s/mi
-    ['3:00:00 marathon', MARATHON_M, 10800, 255.9545, 411.9188], // references.md §1 derived checks
-    ['50:00 10K = 5:00/km', 10000, 3000, 300, 482.8032], // references.md §1 (pace 5:00/km = 482.8032 s/mi)
-    ['40:00 10K = 4:00/km', 10000, 2400, 240, 386.2426], // references.md §1 (pace 4:00/km)
-    ['7:00 mile', MILE_M, 420, 260.9759, 420], // references.md §1 (pace 7:00/mi = 260.9759 s/km)
+    ['3:00:00 marathon', MARATHON_M, 10800, 255.9545, 411.9188], // REFERENCES.md §1 derived checks
+    ['50:00 10K = 5:00/km', 10000, 3000, 300, 482.8032], // REFERENCES.md §1 (pace 5:00/km = 482.8032 s/mi)
+    ['40:00 10K = 4:00/km', 10000, 2400, 240, 386.2426], // REFERENCES.md §1 (pace 4:00/km)
+    ['7:00 mile', MILE_M, 420, 260.9759, 420], // REFERENCES.md §1 (pace 7:00/mi = 260.9759 s/km)
   ])('%s', (_name, d, t, perKm, perMi) => {
     const pace = paceFromGoal(d, t);
     expect(pace.s_per_km).toBeCloseTo(perKm, 4);
@@ -17,28 +17,28 @@ describe('paceFromGoal (international mile 1609.344 m)', () => {
 });
 
 describe('splitTable, even pacing', () => {
-  it('marathon per mile: 26 full miles then the last 0.218757 mi, finishing on the goal (references.md §1 split bookkeeping)', () => {
+  it('marathon per mile: 26 full miles then the last 0.218757 mi, finishing on the goal (REFERENCES.md §1 split bookkeeping)', () => {
     const table = splitTable(MARATHON_M, 10800, { unit: 'mi' });
     expect(table.splits).toHaveLength(27);
     expect(table.splits[0]!.distance_m).toBeCloseTo(MILE_M, 9);
-    expect(table.splits[0]!.cumulative_s).toBeCloseTo(411.9188, 4); // references.md §1: 3:00:00 marathon = 411.9188 s/mi
+    expect(table.splits[0]!.cumulative_s).toBeCloseTo(411.9188, 4); // REFERENCES.md §1: 3:00:00 marathon = 411.9188 s/mi
     expect(table.splits[25]!.distance_m).toBeCloseTo(26 * MILE_M, 6);
     const last = table.splits.at(-1)!;
     expect(last.n).toBe(27);
     expect(last.distance_m).toBe(MARATHON_M);
-    expect(last.split_distance_m).toBeCloseTo(352.056, 3); // references.md §1: 26 mi + 352.056 m
+    expect(last.split_distance_m).toBeCloseTo(352.056, 3); // REFERENCES.md §1: 26 mi + 352.056 m
     expect(last.cumulative_s).toBeCloseTo(10800, 9);
     for (const split of table.splits) expect(split.pace_s_per_unit).toBeCloseTo(411.9188, 3);
   });
 
-  it('marathon per km: 42 full km then 195 m (references.md §1 split bookkeeping)', () => {
+  it('marathon per km: 42 full km then 195 m (REFERENCES.md §1 split bookkeeping)', () => {
     const table = splitTable(MARATHON_M, 10800, { unit: 'km' });
     expect(table.splits).toHaveLength(43);
     expect(table.splits.at(-1)!.split_distance_m).toBeCloseTo(195, 6);
-    expect(table.splits[9]!.cumulative_s).toBeCloseTo(2559.545, 2); // 10 × 255.9545 s/km, references.md §1
+    expect(table.splits[9]!.cumulative_s).toBeCloseTo(2559.545, 2); // 10 × 255.9545 s/km, REFERENCES.md §1
   });
 
-  it('half per mile: 13 full miles then 176.028 m (references.md §1 split bookkeeping)', () => {
+  it('half per mile: 13 full miles then 176.028 m (REFERENCES.md §1 split bookkeeping)', () => {
     const table = splitTable(HALF_MARATHON_M, 5100, { unit: 'mi' });
     expect(table.splits).toHaveLength(14);
     expect(table.splits.at(-1)!.split_distance_m).toBeCloseTo(176.028, 3);
@@ -72,7 +72,7 @@ describe('splitTable, even pacing', () => {
     expect(splitTable(3000, 600, { unit: 'km' }).checkpoints.map((c) => c.distance_m)).toEqual([3000]);
   });
 
-  it('5 km checkpoints of a 3:00:00 marathon are 1279.77 s apart (5 × 255.9545 s/km, references.md §1)', () => {
+  it('5 km checkpoints of a 3:00:00 marathon are 1279.77 s apart (5 × 255.9545 s/km, REFERENCES.md §1)', () => {
     const { checkpoints } = splitTable(MARATHON_M, 10800, { unit: 'mi' });
     expect(checkpoints[0]!.cumulative_s).toBeCloseTo(1279.7725, 3);
     expect(checkpoints[1]!.segment_s).toBeCloseTo(1279.7725, 3);

@@ -63,7 +63,7 @@ describe('trainingRanges: kinds and order', () => {
     const { ranges } = trainingRanges(d, t);
     for (const r of ranges) {
       expect(r.fast.s_per_km).toBeLessThanOrEqual(r.slow.s_per_km);
-      // references.md §1: 1 mile = 1.609344 km, so s/mi = s/km × 1.609344.
+      // REFERENCES.md §1: 1 mile = 1.609344 km, so s/mi = s/km × 1.609344.
       expect(r.fast.s_per_mi).toBeCloseTo(r.fast.s_per_km * 1.609344, 9);
       expect(r.slow.s_per_mi).toBeCloseTo(r.slow.s_per_km * 1.609344, 9);
     }
@@ -94,20 +94,20 @@ describe('race-effort ranges against the race equivalents table', () => {
 
   it('half 1:25:00 → marathon effort spans Riegel 10 633.151 s and Daniels & Gilbert 10 644.4 s over 42.195 km', () => {
     const marathon = effortRanges(trainingRanges(HALF_MARATHON_M, 5100).ranges).find((r) => r.kind === 'marathon-effort')!;
-    expect(marathon.riegel.s_per_km * 42.195).toBeCloseTo(10_633.151, 3); // references.md §3.1
-    expect(marathon.daniels_gilbert.s_per_km * 42.195).toBeCloseTo(10_644.4, 1); // references.md §3.2
+    expect(marathon.riegel.s_per_km * 42.195).toBeCloseTo(10_633.151, 3); // REFERENCES.md §3.1
+    expect(marathon.daniels_gilbert.s_per_km * 42.195).toBeCloseTo(10_644.4, 1); // REFERENCES.md §3.2
     expect(marathon.fast).toEqual(marathon.riegel);
     expect(marathon.slow).toEqual(marathon.daniels_gilbert);
   });
 
-  it('5K 20:00 → 10K effort by Riegel is 2501.918 s; mile 6:00 → 5K effort by Riegel is 1197.189 s (references.md §3.1)', () => {
+  it('5K 20:00 → 10K effort by Riegel is 2501.918 s; mile 6:00 → 5K effort by Riegel is 1197.189 s (REFERENCES.md §3.1)', () => {
     const tenK = effortRanges(trainingRanges(5000, 1200).ranges).find((r) => r.kind === '10k-effort')!;
     expect(tenK.riegel.s_per_km * 10).toBeCloseTo(2501.918, 3);
     const fiveK = effortRanges(trainingRanges(MILE_M, 360).ranges).find((r) => r.kind === '5k-effort')!;
     expect(fiveK.riegel.s_per_km * 5).toBeCloseTo(1197.189, 3);
   });
 
-  it('a marathon of 11 439.74 s (index 50) gives the Daniels & Gilbert 5K 1196.02, 10K 2479.60, half 5491.20 s (references.md §3.2)', () => {
+  it('a marathon of 11 439.74 s (index 50) gives the Daniels & Gilbert 5K 1196.02, 10K 2479.60, half 5491.20 s (REFERENCES.md §3.2)', () => {
     expect(performanceIndex(MARATHON_M, 11_439.74)).toBeCloseTo(50, 4);
     const efforts = effortRanges(trainingRanges(MARATHON_M, 11_439.74).ranges);
     const secondsAt = (kind: string) => {
@@ -119,7 +119,7 @@ describe('race-effort ranges against the race equivalents table', () => {
     expect(secondsAt('half-marathon-effort')).toBeCloseTo(5491.2, 1);
   });
 
-  it('at the result’s own distance both models give the result: one pace, 10K in 40:00 = 240 s/km (references.md §1)', () => {
+  it('at the result’s own distance both models give the result: one pace, 10K in 40:00 = 240 s/km (REFERENCES.md §1)', () => {
     const tenK = effortRanges(trainingRanges(10_000, 2400).ranges).find((r) => r.kind === '10k-effort')!;
     expect(tenK.fast.s_per_km).toBe(240);
     expect(tenK.slow.s_per_km).toBe(240);
@@ -167,7 +167,7 @@ describe('easy and steady: set from marathon effort (our own choice)', () => {
     expect(STEADY_RULE.slower_high).toBe(EASY_RULE.slower_low);
   });
 
-  it('marathon in 3:00:00: marathon effort 255.9545 s/km (references.md §1) gives easy 286.669–332.741 and steady 266.193–286.669 s/km', () => {
+  it('marathon in 3:00:00: marathon effort 255.9545 s/km (REFERENCES.md §1) gives easy 286.669–332.741 and steady 266.193–286.669 s/km', () => {
     const { ranges } = trainingRanges(MARATHON_M, 10_800);
     const easy = relativeRange(ranges, 'easy');
     const steady = relativeRange(ranges, 'steady');
@@ -206,14 +206,14 @@ describe('deprecated training_paces (kept one release)', () => {
     const old = deprecatedTrainingPaces(HALF_MARATHON_M, 5100);
     const { ranges } = trainingRanges(HALF_MARATHON_M, 5100);
     expect(old.ranges.map((r) => r.kind)).toEqual([...DEPRECATED_TRAINING_PACE_KINDS]);
-    expect(old.index).toBeCloseTo(54.4535, 4); // references.md §3.2: half 1:25:00 → 54.4535
+    expect(old.index).toBeCloseTo(54.4535, 4); // REFERENCES.md §3.2: half 1:25:00 → 54.4535
     expect(old.notice).toMatch(/read training_ranges/);
     for (const entry of old.ranges) {
       const today = ranges.find((r) => r.kind === DEPRECATED_KIND_MAPPING[entry.kind])!;
       expect(entry.fast).toEqual(today.fast);
       expect(entry.slow).toEqual(today.slow);
       expect(entry.label).toBe(today.label);
-      // The shares are what each end costs by VO₂(v) (references.md §3.2), not bands.
+      // The shares are what each end costs by VO₂(v) (REFERENCES.md §3.2), not bands.
       expect(entry.vo2max_fraction_high * old.index).toBeCloseTo(oxygenCost(60_000 / today.fast.s_per_km), 9);
       expect(entry.vo2max_fraction_low * old.index).toBeCloseTo(oxygenCost(60_000 / today.slow.s_per_km), 9);
     }

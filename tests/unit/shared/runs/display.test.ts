@@ -19,7 +19,7 @@ const CLEAN = {
 
 describe('formatDistance', () => {
   it.each<[number | null, 'mi' | 'km', number | undefined, string]>([
-    [1609.344, 'mi', undefined, '1.00'], // international mile (references.md)
+    [1609.344, 'mi', undefined, '1.00'], // international mile (REFERENCES.md)
     [42195, 'km', 3, '42.195'],
     [42195, 'mi', undefined, '26.22'],
     [0, 'km', undefined, '0.00'],

@@ -12,7 +12,7 @@ import { createGaussMarkov, createPrng } from '../../../../shared/tracks/synthet
 const f64 = (values: number[]): Float64Array => Float64Array.from(values);
 const seconds = (n: number): Float64Array => Float64Array.from({ length: n }, (_, i) => i * 1000);
 
-describe('Minetti et al. (2002) cost of running (J Appl Physiol 93:1039; values from references.md §5, slope.py)', () => {
+describe('Minetti et al. (2002) cost of running (J Appl Physiol 93:1039; values from REFERENCES.md §5, slope.py)', () => {
   it.each([
     [-0.2, 1.800032],
     [-0.1, 2.151706],

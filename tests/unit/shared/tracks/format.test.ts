@@ -4,7 +4,7 @@ import { formatDuration, formatPace, paceKmToMile, paceMileToKm } from '../../..
 describe('formatPace', () => {
   it.each<[number | null, string]>([
     [300, '5:00'],
-    [482.8032, '8:03'], // 5:00/km in s/mi (references.md §1 derived checks)
+    [482.8032, '8:03'], // 5:00/km in s/mi (REFERENCES.md §1 derived checks)
     [59.6, '1:00'],
     [0, '0:00'],
     [3600, '1:00:00'],
@@ -29,7 +29,7 @@ describe('formatDuration', () => {
 });
 
 describe('pace conversion (international mile 1609.344 m)', () => {
-  it('turns 5:00/km into 482.8032 s/mi and 7:00/mi into 260.9759 s/km (references.md §1)', () => {
+  it('turns 5:00/km into 482.8032 s/mi and 7:00/mi into 260.9759 s/km (REFERENCES.md §1)', () => {
     expect(paceKmToMile(300)).toBeCloseTo(482.8032, 6);
     expect(paceMileToKm(420)).toBeCloseTo(260.9759, 4);
   });

@@ -20,7 +20,7 @@ describe('unit definitions', () => {
     expect(METRES_PER_KM).toBe(1000);
   });
 
-  it('has the marathon at 26.2187574565 mi (IAAF Rule 240: 42.195 km; references.md §1)', () => {
+  it('has the marathon at 26.2187574565 mi (IAAF Rule 240: 42.195 km; REFERENCES.md §1)', () => {
     expect(42195 / METRES_PER_MILE).toBeCloseTo(26.2187574565, 9);
   });
 });
@@ -45,7 +45,7 @@ describe('geodesicDistance', () => {
     expect(r.azi2).toBeCloseTo(111.59367, 5);
   });
 
-  // references.md §2.4 (a) and (b): GeographicLib 2.0 values on WGS-84. Haversine would be off by
+  // REFERENCES.md §2.4 (a) and (b): GeographicLib 2.0 values on WGS-84. Haversine would be off by
   // 0.06–0.56 %, so a 0.1 mm tolerance catches a spherical shortcut.
   it.each([
     [0, 0, 0.000639486, 0.000635205, 100.0],
@@ -59,11 +59,11 @@ describe('geodesicDistance', () => {
     [45, 0, 45, 0.01, 788.4684],
     [45, 0, 45.01, 0.01, 1362.5724],
     [70, 0, 70, 0.1, 3818.6537],
-  ])('(%f, %f) → (%f, %f) is %f m on WGS-84 (references.md §2.4, GeographicLib 2.0)', (lat1, lon1, lat2, lon2, expected) => {
+  ])('(%f, %f) → (%f, %f) is %f m on WGS-84 (REFERENCES.md §2.4, GeographicLib 2.0)', (lat1, lon1, lat2, lon2, expected) => {
     expect(geodesicDistance(lat1, lon1, lat2, lon2)).toBeCloseTo(expected, 3);
   });
 
-  it('gives a degree of longitude at the equator as 111 319.491 m (references.md §2.4 d)', () => {
+  it('gives a degree of longitude at the equator as 111 319.491 m (REFERENCES.md §2.4 d)', () => {
     expect(geodesicDistance(0, 0, 0, 1)).toBeCloseTo(111319.491, 2);
   });
 
@@ -78,11 +78,11 @@ describe('geodesicDistance', () => {
 });
 
 describe('geodesicDirect', () => {
-  it('goes 1609.344 m due north of (45°, 0°) to latitude 45.014481384068° (references.md §2.4)', () => {
+  it('goes 1609.344 m due north of (45°, 0°) to latitude 45.014481384068° (REFERENCES.md §2.4)', () => {
     expect(geodesicDirect(45, 0, 0, 1609.344).lat).toBeCloseTo(45.014481384068, 10);
   });
 
-  it('returns to the Vincenty example end point within 1 mm (references.md §2.2 direct check)', () => {
+  it('returns to the Vincenty example end point within 1 mm (REFERENCES.md §2.2 direct check)', () => {
     const end = geodesicDirect(dms(-37, 57, 3.7203), dms(144, 25, 29.5244), dms(306, 52, 5.37), 54972.271);
     expect(geodesicDistance(end.lat, end.lon, dms(-37, 39, 10.1561), dms(143, 55, 35.3839))).toBeLessThan(0.001);
   });

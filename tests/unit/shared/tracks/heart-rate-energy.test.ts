@@ -3,7 +3,7 @@ import { acsmRunningVo2, estimateRunEnergy } from '../../../../shared/tracks/ene
 import { heartRateZones, karvonenHeartRate, timeInZones } from '../../../../shared/tracks/heart-rate.ts';
 
 describe('karvonenHeartRate', () => {
-  // ../shared/references.md §6, worked values (heart_rate.py): rest 60, max 190.
+  // REFERENCES.md §6, worked values (heart_rate.py): rest 60, max 190.
   it.each([
     [0.5, 125],
     [0.6, 138],
@@ -14,7 +14,7 @@ describe('karvonenHeartRate', () => {
   ])('%s of the reserve (rest 60, max 190) is %s bpm', (fraction, bpm) => {
     expect(karvonenHeartRate(60, 190, fraction)).toBeCloseTo(bpm, 6);
   });
-  it('70 % with rest 50 and max 180 is 141 bpm (references.md §6)', () => {
+  it('70 % with rest 50 and max 180 is 141 bpm (REFERENCES.md §6)', () => {
     expect(karvonenHeartRate(50, 180, 0.7)).toBeCloseTo(141, 6);
   });
 });
@@ -53,7 +53,7 @@ describe('timeInZones', () => {
 });
 
 describe('ACSM running equation', () => {
-  // references.md §4 worked example (energy.py): 70 kg, 33.8 km in 160 min, level.
+  // REFERENCES.md §4 worked example (energy.py): 70 kg, 33.8 km in 160 min, level.
   it('gives 45.75 ml/kg/min at 211.25 m/min', () => {
     expect(acsmRunningVo2(211.25)).toBeCloseTo(45.75, 10);
   });

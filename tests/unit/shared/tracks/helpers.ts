@@ -14,7 +14,7 @@ export function deviceSeries(rows: readonly (readonly number[])[]): TrackSeries 
   return buildSeries(cleanTrack([points]));
 }
 
-/** The references.md §2.5 track: 61 points at 45.000…45.060° N on 0° E, one every 30 s. */
+/** The REFERENCES.md §2.5 track: 61 points at 45.000…45.060° N on 0° E, one every 30 s. */
 export function meridianPoints(): TrackPoint[] {
   return Array.from({ length: 61 }, (_, i) => ({ t: T0 + i * 30_000, lat: 45 + i * 0.001, lon: 0 }));
 }

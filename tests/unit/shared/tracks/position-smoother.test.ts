@@ -28,7 +28,7 @@ function straight(n: number, speed: number, sigma: number, seed = 1) {
 }
 
 describe('localDistance', () => {
-  // references.md §2.4(a): 100 m at azimuth 45° from (lat0, 0°) on WGS-84, GeographicLib 2.0.
+  // REFERENCES.md §2.4(a): 100 m at azimuth 45° from (lat0, 0°) on WGS-84, GeographicLib 2.0.
   it.each([
     [0, 0.000639486, 0.000635205],
     [45, 45.000636274, 0.000896821],

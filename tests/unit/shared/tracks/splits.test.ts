@@ -5,7 +5,7 @@ import { buildSeries } from '../../../../shared/tracks/series.ts';
 import { computeSplits, timeAtDistance } from '../../../../shared/tracks/splits.ts';
 import { deviceSeries, meridianPoints, T0 } from './helpers.ts';
 
-describe('splits of the references.md §2.5 meridian track (splits.py, GeographicLib; verified by computation)', () => {
+describe('splits of the REFERENCES.md §2.5 meridian track (splits.py, GeographicLib; verified by computation)', () => {
   const analysis = analyseTrack(cleanTrack([meridianPoints()]));
 
   it('totals 6667.941821 m of WGS-84 geodesic distance', () => {

@@ -15,7 +15,7 @@ function daily(count: number, load: number, end = END): DailyLoad[] {
   return Array.from({ length: count }, (_, i) => ({ date: addDays(end, i - count + 1), load }));
 }
 
-describe('acuteChronicRatio: references.md §8 worked table (coupled column)', () => {
+describe('acuteChronicRatio: REFERENCES.md §8 worked table (coupled column)', () => {
   it.each<[number[], number, string]>([
     [[40, 40, 40, 40, 40], 1.0, 'steady'],
     [[40, 40, 40, 40, 50], 1.1765, 'uncoupled would be 1.2500'],

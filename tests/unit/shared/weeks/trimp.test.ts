@@ -22,12 +22,12 @@ function series(blocks: Array<[minutes: number, hr: number]>, stepS = 60): { t: 
 }
 
 describe('coefficients', () => {
-  it('are Banister’s: men a = 0.64, b = 1.92; women a = 0.86, b = 1.67 (references.md §6)', () => {
+  it('are Banister’s: men a = 0.64, b = 1.92; women a = 0.86, b = 1.67 (REFERENCES.md §6)', () => {
     expect(TRIMP_COEFFICIENTS).toEqual({ male: { a: 0.64, b: 1.92 }, female: { a: 0.86, b: 1.67 } });
   });
 });
 
-describe('trimpWeight (references.md §6, weighting factor at x = 0.5 / 0.75 / 1.0)', () => {
+describe('trimpWeight (REFERENCES.md §6, weighting factor at x = 0.5 / 0.75 / 1.0)', () => {
   it.each<[number, Sex, number]>([
     [0.5, 'male', 1.671486],
     [0.75, 'male', 2.701245],
@@ -44,7 +44,7 @@ describe('trimpWeight (references.md §6, weighting factor at x = 0.5 / 0.75 / 1
 
 describe('heartRateReserveFraction', () => {
   it.each<[number, number, number, number | null, string]>([
-    [150, 60, 190, 0.692308, 'references.md §6: 150 with rest 60, max 190 is 69.2308 % HRR'],
+    [150, 60, 190, 0.692308, 'REFERENCES.md §6: 150 with rest 60, max 190 is 69.2308 % HRR'],
     [60, 60, 190, 0, 'at resting → 0'],
     [45, 60, 190, 0, 'below resting → 0'],
     [190, 60, 190, 1, 'at max → 1'],
@@ -64,13 +64,13 @@ describe('heartRateReserveFraction', () => {
 
 describe('trimpOfSession', () => {
   it.each<[number, number, number, number, Sex, number, string]>([
-    [60, 150, 60, 190, 'male', 100.4403, 'references.md §6: man, 60 min @150, rest 60, max 190'],
-    [60, 150, 60, 190, 'female', 113.5168, 'references.md §6: woman, same session'],
-    [45, 150, 60, 190, 'male', 75.3302, 'references.md §6 cross-check (third party 75.36)'],
-    [60, 155, 55, 190, 'male', 117.9399, 'references.md §6 cross-check (third party ≈118)'],
-    [60, 140, 50, 200, 'male', 72.9104, 'references.md §6 cross-check (third party ≈72)'],
-    [60, 185, 50, 200, 'male', 194.5515, 'references.md §6 cross-check (third party ≈194)'],
-    [60, 145, 60, 190, 'male', 88.1076, 'references.md §6: mean-HR value of the 30 @120 + 30 @170 session'],
+    [60, 150, 60, 190, 'male', 100.4403, 'REFERENCES.md §6: man, 60 min @150, rest 60, max 190'],
+    [60, 150, 60, 190, 'female', 113.5168, 'REFERENCES.md §6: woman, same session'],
+    [45, 150, 60, 190, 'male', 75.3302, 'REFERENCES.md §6 cross-check (third party 75.36)'],
+    [60, 155, 55, 190, 'male', 117.9399, 'REFERENCES.md §6 cross-check (third party ≈118)'],
+    [60, 140, 50, 200, 'male', 72.9104, 'REFERENCES.md §6 cross-check (third party ≈72)'],
+    [60, 185, 50, 200, 'male', 194.5515, 'REFERENCES.md §6 cross-check (third party ≈194)'],
+    [60, 145, 60, 190, 'male', 88.1076, 'REFERENCES.md §6: mean-HR value of the 30 @120 + 30 @170 session'],
     [30, 170, 50, 190, 'female', 92.5411, 'heart_rate.py extra case'],
     [120, 140, 50, 185, 'male', 184.148, 'heart_rate.py extra case'],
     [0, 150, 60, 190, 'male', 0, 'zero minutes'],
@@ -105,7 +105,7 @@ describe('trimpOfSession', () => {
 });
 
 describe('trimpOfSeries', () => {
-  it('sums interval by interval: 30 min @120 + 30 min @170 → 103.9692, not the 88.1076 of the mean HR (references.md §6)', () => {
+  it('sums interval by interval: 30 min @120 + 30 min @170 → 103.9692, not the 88.1076 of the mean HR (REFERENCES.md §6)', () => {
     const { t, hr } = series([
       [30, 120],
       [30, 170],
@@ -117,9 +117,9 @@ describe('trimpOfSeries', () => {
   });
 
   it.each<[string, Array<[number, number]>, number, Sex, number, number]>([
-    ['constant 150 for 60 min, 1 s samples = session value (references.md §6, man)', [[60, 150]], 1, 'male', 100.4403, 60],
-    ['constant 150 for 60 min, woman (references.md §6)', [[60, 150]], 5, 'female', 113.5168, 60],
-    ['45 min @150 (references.md §6 cross-check)', [[45, 150]], 60, 'male', 75.3302, 45],
+    ['constant 150 for 60 min, 1 s samples = session value (REFERENCES.md §6, man)', [[60, 150]], 1, 'male', 100.4403, 60],
+    ['constant 150 for 60 min, woman (REFERENCES.md §6)', [[60, 150]], 5, 'female', 113.5168, 60],
+    ['45 min @150 (REFERENCES.md §6 cross-check)', [[45, 150]], 60, 'male', 75.3302, 45],
     ['at resting all through → 0', [[30, 60]], 60, 'male', 0, 30],
     ['above max is clamped to x = 1', [[10, 200]], 60, 'male', 10 * 4.365413, 10],
   ])('%s', (_label, blocks, stepS, sex, expected, minutes) => {

@@ -187,11 +187,11 @@ describe('summariseWeek: today inside the week', () => {
   });
 });
 
-describe('summariseWeek: volume-jump ("10 % rule", common practice; references.md §8)', () => {
+describe('summariseWeek: volume-jump ("10 % rule", common practice; REFERENCES.md §8)', () => {
   it.each<[string, number, number | null, boolean]>([
     ['exactly 10 % (30 → 33 km) is not a jump', 33_000, 30_000, false],
     ['one metre over 10 % is', 33_001, 30_000, true],
-    ['references.md §8 compounding: 36.3 → 39.93 km is exactly 10 %', 39_930, 36_300, false],
+    ['REFERENCES.md §8 compounding: 36.3 → 39.93 km is exactly 10 %', 39_930, 36_300, false],
     ['a smaller week', 20_000, 30_000, false],
     ['no previous week', 40_000, null, false],
     ['previous week of 0', 40_000, 0, false],
@@ -210,8 +210,8 @@ describe('summariseWeek: volume-jump ("10 % rule", common practice; references.m
 
 describe('summariseWeek: load-spike (Gabbett 2016, coupled ratio above 1.5)', () => {
   it.each<[string, number[], boolean]>([
-    ['references.md §8: 40, 40, 40, 40, 60 → 1.3333 coupled (1.50 uncoupled) is not a spike', [40, 40, 40, 40, 60], false],
-    ['references.md §8: 40, 40, 40, 40, 80 → 1.6 is', [40, 40, 40, 40, 80], true],
+    ['REFERENCES.md §8: 40, 40, 40, 40, 60 → 1.3333 coupled (1.50 uncoupled) is not a spike', [40, 40, 40, 40, 60], false],
+    ['REFERENCES.md §8: 40, 40, 40, 40, 80 → 1.6 is', [40, 40, 40, 40, 80], true],
     ['exactly 1.5 (50, 50, 50, 90), from fractional daily loads, is not', [50, 50, 50, 90], false],
     ['just above 1.5 (50, 50, 50, 91) is', [50, 50, 50, 91], true],
     ['not enough history (3 weeks) gives no flag', [10, 10, 80], false],
