@@ -3,6 +3,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ConfigError, loadConfig, type AppConfig } from './config.ts';
 import { logger } from './lib/logger.ts';
+import { afterAnswerSettled } from './lib/after-answer.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -65,6 +66,8 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
+      // Mail still being sent for answers already given (sign-up, reset requests).
+      await afterAnswerSettled();
       await sweeper.stop();
       await stopImportWorker();
       await catcher?.close();

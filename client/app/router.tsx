@@ -41,6 +41,7 @@ export function createAppRouter(queryClient: QueryClient) {
           children: [
             { path: paths.invite.path, lazy: page(() => import('./routes/public/invite.tsx')) },
             { path: paths.resetPassword.path, lazy: page(() => import('./routes/public/reset-password.tsx')) },
+            { path: paths.signUpConfirm.path, lazy: page(() => import('./routes/public/sign-up-confirm.tsx')) },
           ],
         },
         { path: paths.devOutbox.path, lazy: page(() => import('./routes/dev/outbox.tsx')) },

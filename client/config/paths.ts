@@ -18,6 +18,10 @@ export const paths = {
       return query ? `/sign-up?${query}` : '/sign-up';
     },
   },
+  signUpConfirm: {
+    path: '/sign-up/confirm/:token',
+    getHref: (token: string) => `/sign-up/confirm/${encodeURIComponent(token)}`,
+  },
   forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
   resetPassword: { path: '/reset-password/:token', getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}` },
   invite: { path: '/invite/:token', getHref: (token: string) => `/invite/${encodeURIComponent(token)}` },

@@ -281,6 +281,20 @@ export interface SessionRow {
   expires_at: Date;
 }
 
+export interface SignUpRequestRow {
+  id: string;
+  email: string;
+  /** Null for a notice to the owner of an address that already has an account. */
+  token_hash: string | null;
+  name: string | null;
+  role: 'runner' | 'coach' | null;
+  password_hash: string | null;
+  next_path: string | null;
+  created_at: Date;
+  expires_at: Date;
+  used_at: Date | null;
+}
+
 export interface CredentialFailureRow {
   id: string;
   key: string;
@@ -418,6 +432,7 @@ declare module 'knex/types/tables.js' {
     password_resets: PasswordResetRow;
     sessions: SessionRow;
     credential_failures: CredentialFailureRow;
+    sign_up_requests: SignUpRequestRow;
     week_notes: WeekNoteRow;
     week_reviews: WeekReviewRow;
     note_reads: NoteReadRow;

@@ -15,12 +15,20 @@ export const NewPasswordSchema = z
   // bcrypt only reads the first 72 bytes; longer would silently be ignored.
   .refine((p) => new TextEncoder().encode(p).length <= 72, 'Keep the password under 72 bytes.');
 
+/** Where to go once signed up: a page of this app (a path), never another site. */
+export const NextPathSchema = z
+  .string()
+  .max(300, 'That page address is too long.')
+  .regex(/^\/(?![/\\])\S*$/, 'That is not a page of this app.');
+
 export const RegisterInputSchema = z
   .object({
     email: EmailSchema,
     password: NewPasswordSchema,
     name: NameSchema,
     role: z.enum(SIGN_UP_ROLES, { error: 'Choose whether you sign up as a runner or a coach.' }),
+    /** The page the sign-up started from (an invitation), opened again when the e-mailed link is used. */
+    next: NextPathSchema.optional(),
   })
   .strict();
 export type RegisterInput = z.infer<typeof RegisterInputSchema>;
@@ -34,6 +42,15 @@ export const LoginInputSchema = z
 export type LoginInput = z.infer<typeof LoginInputSchema>;
 
 export const UserResponseSchema = z.object({ user: UserSchema });
+
+/** The e-mailed sign-up link was used: the account exists and this browser is signed in. */
+export const SignUpConfirmedSchema = z.object({ user: UserSchema, next: z.string().nullable() });
+export type SignUpConfirmed = z.infer<typeof SignUpConfirmedSchema>;
+
+/** The same sentence for every sign-up, whether or not the address already has an account (issue 13 #7). */
+export const SIGN_UP_SENT_MESSAGE =
+  'Check your e-mail: we sent a link to finish creating your account. It works for 24 hours. No e-mail after a few minutes? Look in the spam folder, or sign up again.';
+export const RESET_SENT_MESSAGE = 'If that address has an account, a link to choose a new password is on its way.';
 
 export const CreateTokenInputSchema = LoginInputSchema;
 export const TokenResponseSchema = z.object({ token: z.string(), expires_at: z.string(), id: z.string() });

@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
+import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
 import { db } from '../../server/lib/db.ts';
 import { CSRF_HEADER, MAX_API_TOKENS_PER_USER, SESSION_COOKIE } from '../../shared/auth/schemas.ts';
 import { createUser } from '../support/factories.ts';
@@ -54,7 +55,8 @@ describe('ending sessions (issue 13 #3)', () => {
     recordedMail.length = 0;
     expect((await request(app).post('/api/auth/password-reset').send({ email: user.email })).status).toBe(202);
     expect((await request(app).post('/api/auth/password-reset').send({ email: user.email })).status).toBe(202);
-    await expect.poll(() => resetTokensMailedTo(user.email).length).toBe(2);
+    await afterAnswerSettled();
+    expect(resetTokensMailedTo(user.email)).toHaveLength(2);
     const [older, newer] = resetTokensMailedTo(user.email) as [string, string];
 
     expect(

@@ -5,43 +5,68 @@ import { loadConfig } from '../../server/config.ts';
 import { db } from '../../server/lib/db.ts';
 import { CSRF_HEADER, SESSION_COOKIE } from '../../shared/auth/schemas.ts';
 import { createUser } from '../support/factories.ts';
-import { browserAgent, signedInAgent, testApp, testConfig } from '../support/test-app.ts';
+import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
+import { signUpThroughMail, signUpTokenMailedTo } from '../support/sign-up.ts';
+import { signedInAgent, testApp, testConfig } from '../support/test-app.ts';
 
 const sessionCookieOf = (res: request.Response) =>
   ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
 
 describe('POST /api/auth/register', () => {
-  it('when the input is valid, responds 201 with the user, sets an httpOnly SameSite=Lax session cookie and stores a bcrypt hash', async () => {
+  it('when the input is valid, answers 202 and e-mails a link; the link makes the account, sets an httpOnly SameSite=Lax session cookie and stores a bcrypt hash', async () => {
     // The production default cost, not the cheap test cost.
     const app = testApp({ bcryptCost: loadConfig({}).bcryptCost });
-    const { agent, csrf } = await browserAgent(app);
-    const res = await agent
-      .post('/api/auth/register')
-      .set(CSRF_HEADER, csrf)
-      .send({ email: 'New.Runner@Example.test', password: 'a long enough secret', name: 'New Runner', role: 'runner' });
-    expect(res.status).toBe(201);
-    expect(res.body.user).toMatchObject({ email: 'new.runner@example.test', name: 'New Runner', role: 'runner' });
-    expect(res.body.user.id).toMatch(/^[0-9a-f-]{36}$/);
-    const cookie = sessionCookieOf(res)!;
+    const { browser, answer } = await signUpThroughMail(app, {
+      email: 'New.Runner@Example.test',
+      password: 'a long enough secret',
+      name: 'New Runner',
+      role: 'runner',
+    });
+    expect(answer.status).toBe(201);
+    expect(answer.body.user).toMatchObject({ email: 'new.runner@example.test', name: 'New Runner', role: 'runner' });
+    expect(answer.body.user.id).toMatch(/^[0-9a-f-]{36}$/);
+    expect(answer.body.next).toBeNull();
+    const cookie = sessionCookieOf(answer)!;
     expect(cookie).toMatch(/HttpOnly/i);
     expect(cookie).toMatch(/SameSite=Lax/i);
     expect(cookie).toMatch(/Max-Age=\d+/);
     const row = await db('users').where({ email: 'new.runner@example.test' }).first();
     // bcrypt hash with a cost factor of at least 10 (the issue's minimum)
     expect(row!.password_hash).toMatch(/^\$2[aby]\$(1\d|[2-9]\d)\$/);
-    const me = await agent.get('/api/auth/me');
+    const me = await browser.agent.get('/api/auth/me');
     expect(me.status).toBe(200);
     expect(me.body.user.email).toBe('new.runner@example.test');
   });
 
-  it('when the e-mail is already taken (in any letter case), responds 409 and creates nothing', async () => {
-    await createUser({ email: 'taken@example.test' });
-    const res = await request(testApp())
+  it('the sign-up answer itself makes no account and sets no cookie; the link works once', async () => {
+    const app = testApp();
+    const asked = await request(app)
       .post('/api/auth/register')
-      .send({ email: 'TAKEN@example.test', password: 'a long enough secret', name: 'Second', role: 'runner' });
-    expect(res.status).toBe(409);
-    expect(res.body.error).toMatch(/already exists/);
-    expect(await db('users').count({ n: '*' }).first()).toEqual({ n: '1' });
+      .send({ email: 'once@example.test', password: 'a long enough secret', name: 'Once', role: 'coach', next: '/invite/x' });
+    expect(asked.status).toBe(202);
+    expect(sessionCookieOf(asked)).toBeUndefined();
+    await afterAnswerSettled();
+    expect(await db('users').where({ email: 'once@example.test' }).first()).toBeUndefined();
+    const token = signUpTokenMailedTo('once@example.test')!;
+    const first = await request(app).post(`/api/auth/register/${token}`);
+    expect(first.status).toBe(201);
+    expect(first.body.user.role).toBe('coach');
+    expect(first.body.next).toBe('/invite/x');
+    const again = await request(app).post(`/api/auth/register/${token}`);
+    expect(again.status).toBe(410);
+    expect(again.body.error).toMatch(/already been used/);
+    const forged = await request(app).post(`/api/auth/register/sgn_${'A'.repeat(43)}`);
+    expect(forged.status).toBe(400);
+  });
+
+  it('refuses a next page on another site (400), so the link can never send anyone away', async () => {
+    for (const next of ['//evil.example/x', 'https://evil.example', '/\\evil.example']) {
+      const res = await request(testApp())
+        .post('/api/auth/register')
+        .send({ email: 'x@example.test', password: 'a long enough secret', name: 'X', role: 'runner', next });
+      expect(res.status).toBe(400);
+      expect(res.body.details).toEqual([expect.objectContaining({ field: 'next' })]);
+    }
   });
 
   it('when the role is admin or unknown, responds 400 with a field error', async () => {

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { db } from '../../server/lib/db.ts';
 import { CSRF_HEADER } from '../../shared/auth/schemas.ts';
 import { createUser } from '../support/factories.ts';
+import { signUpThroughMail } from '../support/sign-up.ts';
 import { signedInAgent, testApp } from '../support/test-app.ts';
 
 // Strings that break naive SQL building; Knex binds parameters, so they must be stored verbatim.
@@ -45,9 +46,12 @@ describe('hostile and malformed input', () => {
 
   it.each(SQL_METACHARACTERS)('SQL metacharacters in every text field are stored and read back verbatim: %s', async (nasty) => {
     const app = testApp();
-    const register = await request(app)
-      .post('/api/auth/register')
-      .send({ email: 'meta@example.test', password: `${nasty} padding`, name: nasty, role: 'runner' });
+    const { answer: register } = await signUpThroughMail(app, {
+      email: 'meta@example.test',
+      password: `${nasty} padding`,
+      name: nasty,
+      role: 'runner',
+    });
     expect(register.status).toBe(201);
     expect(register.body.user.name).toBe(nasty.trim());
     const login = await request(app)

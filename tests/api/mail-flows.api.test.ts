@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
+import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
 import { db } from '../../server/lib/db.ts';
 import type { MailCatcher } from '../../server/features/mail/mail-catcher.ts';
 import type { Mailer } from '../../server/lib/mailer.ts';
@@ -26,6 +27,7 @@ describe('password reset', () => {
     const oldToken = (await request(app).post('/api/auth/token').send({ email: user.email, password })).body.token;
     const asked = await request(app).post('/api/auth/password-reset').send({ email: 'Forgetful@example.test' });
     expect(asked.status).toBe(202);
+    await afterAnswerSettled();
     const [mail] = await outbox(app);
     expect(mail!.to).toBe('forgetful@example.test');
     const token = resetTokenFrom(mail!.text);
@@ -48,6 +50,7 @@ describe('password reset', () => {
     const app = appWithMail();
     const res = await request(app).post('/api/auth/password-reset').send({ email: 'nobody@example.test' });
     expect(res.status).toBe(202);
+    await afterAnswerSettled();
     expect(await outbox(app)).toEqual([]);
   });
 
@@ -60,6 +63,7 @@ describe('password reset', () => {
     expect(forged.status).toBe(400);
     expect(forged.body.error).toMatch(/not valid/);
     await request(app).post('/api/auth/password-reset').send({ email: user.email });
+    await afterAnswerSettled();
     const token = resetTokenFrom((await outbox(app))[0]!.text);
     await db('password_resets').update({ expires_at: new Date(Date.now() - 1000) });
     const expired = await request(app).post(`/api/auth/password-reset/${token}`).send({ password: 'a brand new secret' });

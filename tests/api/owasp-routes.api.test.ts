@@ -11,6 +11,7 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from
 import yauzl from 'yauzl';
 import { createApp } from '../../server/app.ts';
 import { startImportWorker, stopImportWorker } from '../../server/features/history/import-queue.ts';
+import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
 import { db } from '../../server/lib/db.ts';
 import { captureLogLines } from '../../server/lib/logger.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
@@ -88,6 +89,7 @@ interface World {
   resetToken: string;
   /** The owner's calendar feed path value (`cal_….ics`). */
   calendarToken: string;
+  signUpToken: string;
   week: string;
   newPassword: string;
 }
@@ -118,7 +120,7 @@ function historyZip(): Buffer {
 }
 
 /** The link token in the last e-mail to `to` (invitation and reset links are only ever mailed). */
-function linkTokenMailedTo(to: string, prefix: 'inv' | 'rst'): string {
+function linkTokenMailedTo(to: string, prefix: 'inv' | 'rst' | 'sgn'): string {
   const mail = recordedMail.filter((m) => m.to === to).at(-1);
   const token = mail?.text.match(new RegExp(`(${prefix}_[A-Za-z0-9_-]{43})`))?.[1];
   if (!token) throw new Error(`no ${prefix} link was mailed to ${to}`);
@@ -216,6 +218,16 @@ async function buildWorld(): Promise<World> {
   ).body.invitation.id as string;
   await must('invitation to accept', as(coach).post(`/api/squads/${secondSquad}/invitations`).send({ email: owner.email }), 201);
   await must('reset request', request(app).post('/api/auth/password-reset').send({ email: people.spare.email }), 202);
+  const signUpAddress = `joining-${randomUUID().slice(0, 8)}@example.test`;
+  await must(
+    'sign-up',
+    request(app)
+      .post('/api/auth/register')
+      .send({ email: signUpAddress, password: newPassword('joining'), name: 'Joining Runner', role: 'runner' }),
+    202,
+  );
+  // Reset and sign-up mail goes out after the answer (issue 13 #7).
+  await afterAnswerSettled();
   const imported = await must('import', as(owner).post('/api/imports').attach('file', historyZip(), 'history.zip'), 202);
   const importId = imported.body.import.id as string;
   await waitForImport(owner.browser, importId);
@@ -226,6 +238,7 @@ async function buildWorld(): Promise<World> {
     inviteToken: linkTokenMailedTo(owner.email, 'inv'),
     calendarToken: calendarUrl.split('/').at(-1)!,
     resetToken: linkTokenMailedTo(people.spare.email, 'rst'),
+    signUpToken: linkTokenMailedTo(signUpAddress, 'sgn'),
     week: '2012-10-22',
     newPassword: newPassword('new'),
   };
@@ -286,6 +299,11 @@ const ROUTES: Record<string, Row> = {
   'POST /api/auth/register': {
     caller: 'anyone',
     body: (w) => ({ email: `new-${randomUUID()}@example.test`, password: w.newPassword, name: 'New Runner', role: 'runner' }),
+  },
+  'POST /api/auth/register/{token}': {
+    caller: 'anyone',
+    params: { token: { kind: 'secret', value: (w) => w.signUpToken, madeUp: 400 } },
+    takes: 'nothing',
   },
   'POST /api/auth/login': { caller: 'anyone', body: (w) => ({ email: w.people.owner.email, password: w.people.owner.password }) },
   'POST /api/auth/logout': { caller: 'anyone', takes: 'nothing' },
@@ -609,6 +627,7 @@ const SECRET_PATTERNS: Array<[string, RegExp]> = [
   ['a password-reset link token', /rst_[A-Za-z0-9_-]{43}/],
   ['an invitation link token', /inv_[A-Za-z0-9_-]{43}/],
   ['a calendar feed address', /cal_[A-Za-z0-9_-]{43}/],
+  ['a sign-up link token', /sgn_[A-Za-z0-9_-]{43}/],
 ];
 
 /** What secret `text` reveals, if any (a just-issued bearer token may be allowed). */

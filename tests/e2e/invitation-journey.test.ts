@@ -3,6 +3,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
 import type { RunningServer } from '../../server/index.ts';
+import { SIGN_UP_SENT_MESSAGE } from '../../shared/auth/schemas.ts';
 import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
 
 const RUN_FILE = path.resolve('fixtures/gps-samples/run-hr-4s.gpx');
@@ -53,6 +54,12 @@ async function newestMessageTo(page: Page, to: string, subject: RegExp): Promise
     })
     .toBe(true);
   return found!;
+}
+
+/** The path of the sign-up link in the newest sign-up e-mail to `to`. */
+async function signUpLinkTo(page: Page, to: string): Promise<string> {
+  const mail = await newestMessageTo(page, to, /Finish creating your Pacewright account/);
+  return new URL(/https?:\/\/\S+\/sign-up\/confirm\/\S+/.exec(mail.text)![0]).pathname;
 }
 
 const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
@@ -112,6 +119,12 @@ describe('joining a squad by invitation', () => {
     await page.getByLabel('Name').fill('Wren Halloway');
     await page.getByLabel('Password').fill(password);
     await page.getByRole('button', { name: 'Create account' }).click();
+
+    // The same answer for every address (issue 13 #7): the account is made from the e-mailed link.
+    await expect.poll(() => page.getByRole('status').allTextContents()).toContain(SIGN_UP_SENT_MESSAGE);
+    await screenshot(page, 'sign-up-check-email');
+    await page.goto(`${server.url}${await signUpLinkTo(page, address)}`);
+    await page.getByRole('button', { name: 'Create my account' }).click();
 
     // Back on the invitation, now signed in: one explicit click joins the squad.
     await page.waitForURL((url) => url.pathname === invitePath);
@@ -182,6 +195,9 @@ describe('choosing a new password', () => {
     await page.getByLabel('E-mail').fill(address);
     await page.getByLabel('Password').fill('first password here');
     await page.getByRole('button', { name: 'Create account' }).click();
+    await expect.poll(() => page.getByRole('status').allTextContents()).toContain(SIGN_UP_SENT_MESSAGE);
+    await page.goto(`${server.url}${await signUpLinkTo(page, address)}`);
+    await page.getByRole('button', { name: 'Create my account' }).click();
     await page.waitForURL(/\/log$/);
     await browser.context.clearCookies();
 

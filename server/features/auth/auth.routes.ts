@@ -9,7 +9,12 @@ import {
   PasswordResetInputSchema,
   PasswordResetRequestSchema,
   RegisterInputSchema,
+  RESET_SENT_MESSAGE,
+  SIGN_UP_SENT_MESSAGE,
+  SignUpConfirmedSchema,
+  MessageResponseSchema,
   TokenResponseSchema,
+  type RegisterInput,
   UserResponseSchema,
 } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
@@ -19,7 +24,9 @@ import { AppError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import { issueApiToken, listTokensOf, revokeToken } from '../tokens/tokens.service.ts';
 import { toUser } from '../users/users.repository.ts';
-import { changePassword, checkCredentials, registerUser } from './auth.service.ts';
+import { changePassword, checkCredentials } from './auth.service.ts';
+import { confirmSignUp, requestSignUp } from './sign-up.service.ts';
+import { afterAnswer } from '../../lib/after-answer.ts';
 import { deleteSession } from './sessions.repository.ts';
 import { clearSessionCookie, endSessionsOf, startSession } from './sessions.service.ts';
 import { requestPasswordReset, resetPassword } from './password-reset.service.ts';
@@ -48,17 +55,36 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       method: 'post',
       path: '/auth/register',
       tag: 'auth',
-      summary: 'Create an account (runner or coach) and sign in',
+      summary:
+        'Sign up (runner or coach): 202 with the same sentence for every address; a new address is e-mailed the link that makes the account, an existing one a notice',
       access: 'public',
       body: RegisterInputSchema,
-      response: UserResponseSchema,
+      response: MessageResponseSchema,
+      status: 202,
+      before: [addressLimiter],
+    },
+    async (req, res) => {
+      // The same answer, at once, for a new address and one that has an account (issue 13 #7).
+      afterAnswer(res, 'sign-up', () => requestSignUp(req.body as RegisterInput, mailer, config));
+      res.status(202).json({ message: SIGN_UP_SENT_MESSAGE });
+    },
+  );
+
+  api.route(
+    {
+      method: 'post',
+      path: '/auth/register/:token',
+      tag: 'auth',
+      summary: 'Finish signing up with the e-mailed link: makes the account and signs in; 400 forged, 410 used or expired',
+      access: 'public',
+      response: SignUpConfirmedSchema,
       status: 201,
       before: [addressLimiter],
     },
     async (req, res) => {
-      const user = await registerUser(req.body, config);
-      await startSession(res, user.id, config);
-      res.status(201).json({ user: toUser(user) });
+      const { row, answer } = await confirmSignUp(typeof req.params.token === 'string' ? req.params.token : '');
+      await startSession(res, row.id, config);
+      res.status(201).json(answer);
     },
   );
 
@@ -215,12 +241,15 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
         'E-mail a single-use link (valid one hour) to choose a new password; 202 whether or not the address has an account',
       access: 'public',
       body: PasswordResetRequestSchema,
+      response: MessageResponseSchema,
       status: 202,
       before: [addressLimiter],
     },
     async (req, res) => {
-      await requestPasswordReset(req.body.email, mailer, config);
-      res.status(202).json({ message: 'If that address has an account, a link to choose a new password is on its way.' });
+      // Answered first, looked up and sent afterwards: the same answer at the same speed for every address.
+      const email = (req.body as { email: string }).email;
+      afterAnswer(res, 'password reset request', () => requestPasswordReset(email, mailer, config));
+      res.status(202).json({ message: RESET_SENT_MESSAGE });
     },
   );
 

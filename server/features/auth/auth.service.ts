@@ -2,8 +2,8 @@ import bcrypt from 'bcryptjs';
 import type { AppConfig } from '../../config.ts';
 import { db, type UserRow } from '../../lib/db.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
-import { findUserByEmail, insertUser } from '../users/users.repository.ts';
-import type { LoginInput, RegisterInput } from '../../../shared/auth/schemas.ts';
+import { findUserByEmail } from '../users/users.repository.ts';
+import type { LoginInput } from '../../../shared/auth/schemas.ts';
 import { limitPasswordCheck } from './credential-limiter.ts';
 import { endSessionsOf } from './sessions.service.ts';
 
@@ -23,11 +23,6 @@ function dummyHash(cost: number): Promise<string> {
 
 export async function hashPassword(password: string, config: AppConfig): Promise<string> {
   return bcrypt.hash(password, config.bcryptCost);
-}
-
-export async function registerUser(input: RegisterInput, config: AppConfig): Promise<UserRow> {
-  const passwordHash = await hashPassword(input.password, config);
-  return insertUser({ email: input.email, passwordHash, name: input.name, role: input.role });
 }
 
 /** A hash made at another cost than the configured one is made again now that the password is known. */

@@ -2,6 +2,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { AppConfig } from '../../config.ts';
 import { db } from '../../lib/db.ts';
 import { AppError } from '../../lib/errors.ts';
+import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { findUserByEmail } from '../users/users.repository.ts';
 import { hashPassword } from './auth.service.ts';
@@ -9,21 +10,33 @@ import { endSessionsOf } from './sessions.service.ts';
 
 /** Reset links work once, for an hour. */
 export const RESET_LINK_MINUTES = 60;
+/** Reset e-mails one address can be sent per hour; more requests are answered the same and send nothing. */
+export const RESET_MAILS_PER_ADDRESS_PER_HOUR = 3;
 
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
 
 /**
- * Sends a reset link when the address belongs to an account. The answer is the same either way,
- * so the form does not reveal who has an account.
+ * Sends a reset link when the address belongs to an account. It runs after the request has been
+ * answered (the same answer, at the same speed, either way), so the form does not reveal who has
+ * an account; at most RESET_MAILS_PER_ADDRESS_PER_HOUR links per address and hour.
  */
 export async function requestPasswordReset(email: string, mailer: Mailer, config: AppConfig, now = new Date()): Promise<void> {
   const user = await findUserByEmail(email);
   if (!user) return;
+  const [{ recent }] = (await db('password_resets')
+    .where({ user_id: user.id })
+    .andWhere('created_at', '>', new Date(now.getTime() - 3_600_000))
+    .count({ recent: '*' })) as [{ recent: string | number }];
+  if (Number(recent) >= RESET_MAILS_PER_ADDRESS_PER_HOUR) {
+    logger.info({ user: user.id }, 'reset e-mail not sent: the hourly limit for this address is reached');
+    return;
+  }
   const token = 'rst_' + randomBytes(32).toString('base64url');
   const link = `${config.publicUrl}/reset-password/${token}`;
   await db('password_resets').insert({
     user_id: user.id,
     token_hash: hashToken(token),
+    created_at: now,
     expires_at: new Date(now.getTime() + RESET_LINK_MINUTES * 60_000),
   });
   const lines = [

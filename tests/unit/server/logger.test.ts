@@ -8,6 +8,7 @@ describe('loggableUrl', () => {
     [`/api/invitations/inv_${TOKEN}`, '/api/invitations/inv_[Redacted]'],
     [`/api/invitations/inv_${TOKEN}/accept`, '/api/invitations/inv_[Redacted]/accept'],
     [`/api/auth/password-reset/rst_${TOKEN}?x=1`, '/api/auth/password-reset/rst_[Redacted]?x=1'],
+    [`/sign-up/confirm/sgn_${TOKEN}`, '/sign-up/confirm/sgn_[Redacted]'],
     ['/api/runs/7d4c2f9e-1f0a-4c7e-9a51-0d3b6f2e8a11', '/api/runs/7d4c2f9e-1f0a-4c7e-9a51-0d3b6f2e8a11'],
     ['/api/plans?from=2026-01-01', '/api/plans?from=2026-01-01'],
     ['', ''],

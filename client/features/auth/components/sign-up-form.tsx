@@ -1,10 +1,10 @@
 import { useId } from 'react';
-import { Link, useNavigate, useSearchParams } from 'react-router-dom';
-import { PASSWORD_MIN_LENGTH, RegisterInputSchema } from '../../../../shared/auth/schemas.ts';
+import { Link, useSearchParams } from 'react-router-dom';
+import { NextPathSchema, PASSWORD_MIN_LENGTH, RegisterInputSchema } from '../../../../shared/auth/schemas.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { paths, resolveNext } from '../../../config/paths.ts';
+import { paths } from '../../../config/paths.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { useSignUp } from '../api/sign-up.ts';
 
@@ -16,7 +16,6 @@ const ROLE_CHOICES = [
 export function SignUpForm() {
   const [searchParams] = useSearchParams();
   const next = searchParams.get('next');
-  const navigate = useNavigate();
   const mutation = useSignUp();
   const { onSubmit, fieldErrors, formError } = useSchemaForm({
     schema: RegisterInputSchema,
@@ -26,11 +25,28 @@ export function SignUpForm() {
       email: readText(data, 'email'),
       password: readText(data, 'password'),
       role: readText(data, 'role'),
+      // Opened again from the e-mailed link (an invitation the sign-up started from).
+      next: next && NextPathSchema.safeParse(next).success ? next : undefined,
     }),
-    onSuccess: () => navigate(resolveNext(next), { replace: true }),
   });
   const id = useId();
   const roleErrorId = `${id}-role-error`;
+
+  // The same answer whether or not the address has an account (issue 13 #7): the e-mail says which.
+  if (mutation.isSuccess)
+    return (
+      <div className="flex flex-col gap-2 rounded-md border-l-4 border-teal bg-teal-wash p-3">
+        <p role="status" className="font-semibold">
+          {mutation.data.message}
+        </p>
+        <p className="text-sm">
+          Wrong address?{' '}
+          <button type="button" className="font-semibold text-teal underline" onClick={() => mutation.reset()}>
+            Sign up again
+          </button>
+        </p>
+      </div>
+    );
 
   return (
     <form noValidate onSubmit={onSubmit} className="flex flex-col gap-4">

@@ -1,0 +1,176 @@
+import bcrypt from 'bcryptjs';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../server/app.ts';
+import type { MailCatcher } from '../../server/features/mail/mail-catcher.ts';
+import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
+import { db } from '../../server/lib/db.ts';
+import type { Mailer } from '../../server/lib/mailer.ts';
+import { RESET_SENT_MESSAGE, SIGN_UP_SENT_MESSAGE } from '../../shared/auth/schemas.ts';
+import { createUser } from '../support/factories.ts';
+import { startTestMail } from '../support/mail.ts';
+import { testConfig } from '../support/test-app.ts';
+
+/**
+ * Issue 13 #7 and the e-mail limits of #5: nothing tells a stranger whether an address has an
+ * account. The old code answered a reset for a known address after sending the mail (~112 ms
+ * against ~3 ms), answered a taken address's sign-up 409, and compared a cost-10 hash for a known
+ * address against a cost-12 dummy for an unknown one. Mail goes through real SMTP to the catcher.
+ */
+
+let catcher: MailCatcher;
+let mailer: Mailer;
+beforeAll(async () => ({ catcher, mailer } = await startTestMail()));
+afterAll(async () => catcher.close());
+
+const appWithMail = (overrides: Parameters<typeof testConfig>[0] = {}) =>
+  createApp({ config: testConfig({ publicUrl: 'http://pacewright.test', ...overrides }), mailer });
+type App = ReturnType<typeof appWithMail>;
+
+async function outbox(app: App) {
+  await afterAnswerSettled();
+  return (await request(app).get('/api/dev/outbox')).body.messages as Array<{ to: string; subject: string; text: string }>;
+}
+
+const median = (values: number[]) => {
+  const sorted = [...values].sort((a, b) => a - b);
+  return sorted[Math.floor(sorted.length / 2)]!;
+};
+
+/** Milliseconds a request takes to answer, measured `rounds` times for each of two callers in turn (medians). */
+async function medianTimes(rounds: number, a: () => request.Test, b: () => request.Test): Promise<[number, number]> {
+  const times: [number[], number[]] = [[], []];
+  for (let i = 0; i < rounds; i++) {
+    for (const [index, send] of [a, b].entries()) {
+      const started = performance.now();
+      const res = await send();
+      times[index]!.push(performance.now() - started);
+      expect(res.status).toBeLessThan(500);
+      // Each measurement starts quiet: the previous request's after-answer work is done.
+      await afterAnswerSettled();
+    }
+  }
+  return [median(times[0]), median(times[1])];
+}
+
+describe('password-reset request (issue 13 #7)', () => {
+  it('answers a known and an unknown address with the same sentence within 15 ms of each other (medians of 9); the mail still goes out', async () => {
+    const app = appWithMail({ authRateLimit: { windowMs: 60_000, max: 1000 } });
+    const { user } = await createUser({ email: 'known@example.test' });
+    const [known, unknown] = await medianTimes(
+      9,
+      () => request(app).post('/api/auth/password-reset').send({ email: user.email }),
+      () => request(app).post('/api/auth/password-reset').send({ email: 'unknown@example.test' }),
+    );
+    // A real SMTP round trip inside the answer (the old code) costs far more than this bound.
+    expect(Math.abs(known - unknown)).toBeLessThan(15);
+    const both = await Promise.all([
+      request(app).post('/api/auth/password-reset').send({ email: user.email }),
+      request(app).post('/api/auth/password-reset').send({ email: 'unknown@example.test' }),
+    ]);
+    expect(both.map((r) => [r.status, r.body.message])).toEqual([
+      [202, RESET_SENT_MESSAGE],
+      [202, RESET_SENT_MESSAGE],
+    ]);
+    const mails = await outbox(app);
+    expect(mails.filter((m) => m.to === 'unknown@example.test')).toEqual([]);
+    // Ten requests for the known address, three links: the hourly limit per address (#5).
+    expect(mails.filter((m) => m.to === user.email)).toHaveLength(3);
+  });
+
+  it('answers before the mail is handed to SMTP: with the mail server held, the answer still comes, and the mail follows on release', async () => {
+    let release!: () => void;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    const heldMailer: Mailer = {
+      async send(mail) {
+        await held;
+        await mailer.send(mail);
+      },
+    };
+    const app = createApp({ config: testConfig({ publicUrl: 'http://pacewright.test' }), mailer: heldMailer });
+    const { user } = await createUser({ email: 'held@example.test' });
+    const res = await request(app).post('/api/auth/password-reset').send({ email: user.email });
+    expect(res.status).toBe(202);
+    expect((await request(app).get('/api/dev/outbox')).body.messages).toEqual([]);
+    release();
+    expect((await outbox(app)).map((m) => m.to)).toEqual(['held@example.test']);
+  });
+});
+
+describe('sign-up (issue 13 #7)', () => {
+  it('answers a taken and a free address the same (202, same body, no cookie); the owner is told by e-mail, the newcomer gets the link', async () => {
+    const app = appWithMail();
+    await createUser({ email: 'taken@example.test', name: 'First Owner' });
+    const input = { password: 'a long enough secret', name: 'Someone', role: 'runner' };
+    const taken = await request(app)
+      .post('/api/auth/register')
+      .send({ ...input, email: 'TAKEN@example.test' });
+    const free = await request(app)
+      .post('/api/auth/register')
+      .send({ ...input, email: 'free@example.test' });
+    for (const res of [taken, free]) {
+      expect(res.status).toBe(202);
+      expect(res.body).toEqual({ message: SIGN_UP_SENT_MESSAGE });
+      expect(([] as string[]).concat(res.headers['set-cookie'] ?? []).some((c) => c.startsWith('pw_session='))).toBe(false);
+    }
+    const mails = await outbox(app);
+    const toOwner = mails.filter((m) => m.to === 'taken@example.test');
+    expect(toOwner.map((m) => m.subject)).toEqual(['Someone tried to sign up with your address on Pacewright']);
+    expect(toOwner[0]!.text).not.toMatch(/sign-up\/confirm/);
+    const toNewcomer = mails.filter((m) => m.to === 'free@example.test');
+    expect(toNewcomer.map((m) => m.subject)).toEqual(['Finish creating your Pacewright account']);
+    expect(toNewcomer[0]!.text).toMatch(/http:\/\/pacewright\.test\/sign-up\/confirm\/sgn_[A-Za-z0-9_-]{43}/);
+    expect(await db('users').count({ n: '*' }).first()).toEqual({ n: '1' });
+  });
+
+  it('answers a taken and a free address within 15 ms of each other (medians of 9)', async () => {
+    const app = appWithMail({ bcryptCost: 10, authRateLimit: { windowMs: 60_000, max: 1000 } });
+    await createUser({ email: 'taken@example.test' });
+    const input = { password: 'a long enough secret', name: 'Someone', role: 'runner' };
+    const [taken, free] = await medianTimes(
+      9,
+      () =>
+        request(app)
+          .post('/api/auth/register')
+          .send({ ...input, email: 'taken@example.test' }),
+      () =>
+        request(app)
+          .post('/api/auth/register')
+          .send({ ...input, email: 'free@example.test' }),
+    );
+    expect(Math.abs(taken - free)).toBeLessThan(15);
+    // Nine tries each, three e-mails each: the hourly limit per address (#5).
+    const mails = await outbox(app);
+    expect(mails.filter((m) => m.to === 'taken@example.test')).toHaveLength(3);
+    expect(mails.filter((m) => m.to === 'free@example.test')).toHaveLength(3);
+  });
+});
+
+describe('sign-in (issue 13 #7)', () => {
+  it('a hash made at an older cost is made again at the configured cost on a successful sign-in', async () => {
+    const app = appWithMail({ bcryptCost: 6 });
+    const { user, password } = await createUser();
+    expect(bcrypt.getRounds(user.password_hash)).toBe(4);
+    expect((await request(app).post('/api/auth/login').send({ email: user.email, password })).status).toBe(200);
+    const row = await db('users').where({ id: user.id }).first();
+    expect(bcrypt.getRounds(row!.password_hash)).toBe(6);
+    expect(await bcrypt.compare(password, row!.password_hash)).toBe(true);
+  });
+
+  it('after that, a wrong password for a known address and any password for an unknown one take the same bcrypt work (medians of 9 within 40%)', async () => {
+    const app = appWithMail({
+      bcryptCost: 9,
+      authRateLimit: { windowMs: 60_000, max: 1000 },
+      credentialFailuresPerAccount: 1000,
+    });
+    const { user, password } = await createUser();
+    expect((await request(app).post('/api/auth/login').send({ email: user.email, password })).status).toBe(200);
+    const [known, unknown] = await medianTimes(
+      9,
+      () => request(app).post('/api/auth/login').send({ email: user.email, password: 'not the password' }),
+      () => request(app).post('/api/auth/login').send({ email: 'nobody@example.test', password: 'not the password' }),
+    );
+    // Cost 4 against cost 9 (the old code) is 32 times the work; equal work stays well inside 40 %.
+    expect(Math.abs(known - unknown)).toBeLessThan(0.4 * Math.max(known, unknown));
+  });
+});
