@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { EmailSchema } from '../auth/schemas.ts';
+import { looksLikeLink, NO_LINKS_IN_SQUAD_NAME } from './link-check.ts';
 
 export const CreateSquadInputSchema = z
   .object({
@@ -7,7 +8,8 @@ export const CreateSquadInputSchema = z
       .string({ error: 'Name the squad.' })
       .trim()
       .min(1, 'Name the squad.')
-      .max(80, 'Keep the squad name under 80 characters.'),
+      .max(80, 'Keep the squad name under 80 characters.')
+      .refine((name) => !looksLikeLink(name), NO_LINKS_IN_SQUAD_NAME),
   })
   .strict();
 

@@ -2,6 +2,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { INVITATION_GONE } from '../../../shared/squads/invitation-status.ts';
 import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schemas.ts';
+import { looksLikeLink, NO_LINKS_IN_SQUAD_NAME } from '../../../shared/squads/link-check.ts';
 import type { AppConfig } from '../../config.ts';
 import { db, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
@@ -74,6 +75,31 @@ async function ownSquad(actor: Actor, squadId: string) {
   return squad;
 }
 
+/** Invitations one coach may send in 24 hours (issue 13 #5); a squad of 30 invited in a day is already a big club night. */
+export const INVITATIONS_PER_COACH_PER_DAY = 30;
+/** Invitations one address may receive in 24 hours, from any coach. */
+export const INVITATIONS_PER_ADDRESS_PER_DAY = 3;
+
+async function checkInvitationLimits(coachId: string, email: string, now: Date): Promise<void> {
+  const since = new Date(now.getTime() - 86_400_000);
+  const [byCoach, toAddress] = await Promise.all([
+    db('invitations').where({ invited_by: coachId }).andWhere('created_at', '>', since).count({ n: '*' }).first(),
+    db('invitations').whereRaw('lower(email) = lower(?)', [email]).andWhere('created_at', '>', since).count({ n: '*' }).first(),
+  ]);
+  if (Number(byCoach?.n ?? 0) >= INVITATIONS_PER_COACH_PER_DAY)
+    throw new AppError(
+      429,
+      'too-many-invitations',
+      `You have sent ${INVITATIONS_PER_COACH_PER_DAY} invitations in the last 24 hours, the most a coach can send in a day. Please send the rest tomorrow.`,
+    );
+  if (Number(toAddress?.n ?? 0) >= INVITATIONS_PER_ADDRESS_PER_DAY)
+    throw new AppError(
+      429,
+      'address-invited-enough',
+      `${email} has been invited ${INVITATIONS_PER_ADDRESS_PER_DAY} times in the last 24 hours. Please wait a day before inviting it again; the earlier invitation still works.`,
+    );
+}
+
 /** Sends a signed-in coach's invitation: a random 256-bit token, stored hashed, valid 14 days, usable once. */
 export async function inviteRunner(
   actor: Actor,
@@ -85,6 +111,16 @@ export async function inviteRunner(
 ) {
   const squad = await ownSquad(actor, squadId);
   const coach = await findUserById(actor.id);
+  // The coach's name and the squad's go into a stranger's inbox: no links in either (issue 13 #5).
+  if (looksLikeLink(squad.name))
+    throw new AppError(400, 'link-in-squad-name', `${NO_LINKS_IN_SQUAD_NAME} Rename the squad before inviting.`);
+  if (coach && looksLikeLink(coach.name))
+    throw new AppError(
+      400,
+      'link-in-coach-name',
+      'Your display name looks like a web or e-mail address, and it goes into invitation e-mails. Change it on your profile page, then invite.',
+    );
+  await checkInvitationLimits(actor.id, email, now);
   const token = 'inv_' + randomBytes(32).toString('base64url');
   const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
   const link = `${config.publicUrl}/invite/${token}`;
@@ -124,12 +160,18 @@ export async function previewInvitation(token: string, now = new Date()) {
   };
 }
 
-export async function acceptInvitation(actor: Actor, token: string, now = new Date()) {
+export async function acceptInvitation(actor: Actor & { email: string }, token: string, now = new Date()) {
   const row = await invitationByToken(token);
   const status = invitationStatus(row, now);
   if (status !== 'open') throw new AppError(410, `invitation-${status}`, INVITATION_GONE[status]);
   if (actor.role !== 'runner')
     throw new ForbiddenError('Invitations are for runners. Sign in with your runner account to accept it.');
+  // Bound to the invited address (issue 13 #11): whoever else holds the link cannot join with it.
+  if (actor.email.toLowerCase() !== row.email.toLowerCase())
+    throw new ForbiddenError(
+      `This invitation was sent to ${row.email}, and you are signed in as ${actor.email}. Sign in with the invited address, or ask your coach to invite ${actor.email} instead.`,
+      'invitation-other-address',
+    );
   const squad = (await findSquadById(row.squad_id))!;
   await db.transaction(async (trx) => {
     const claimed = await claimInvitation(row.id, actor.id, now, trx);
