@@ -11,9 +11,9 @@ import * as m20261201000800 from './20261201000800_imports.ts';
 import * as m20261201000900 from './20261201000900_load_indexes.ts';
 import * as m20261202001000 from './20261202001000_plan_check_results.ts';
 import * as m20261205003000 from './20261205003000_sessions_and_credential_limits.ts';
-import * as m20261205003100 from './20261205003100_sign_up_requests.ts';
 import * as m20261205005000 from './20261205005000_coach_prescribes.ts';
 import * as m20261205006000 from './20261205006000_conversation.ts';
+import * as m20261205102000 from './20261205102000_pending_signups.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -34,9 +34,9 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261201000900_load_indexes': m20261201000900,
   '20261202001000_plan_check_results': m20261202001000,
   '20261205003000_sessions_and_credential_limits': m20261205003000,
-  '20261205003100_sign_up_requests': m20261205003100,
   '20261205005000_coach_prescribes': m20261205005000,
   '20261205006000_conversation': m20261205006000,
+  '20261205102000_pending_signups': m20261205102000,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

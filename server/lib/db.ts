@@ -281,18 +281,25 @@ export interface SessionRow {
   expires_at: Date;
 }
 
-export interface SignUpRequestRow {
+/** A sign-up waiting for its e-mailed link (issue 13 #7); `id` is the user id already answered. */
+export interface PendingSignupRow {
   id: string;
+  token_hash: string;
   email: string;
-  /** Null for a notice to the owner of an address that already has an account. */
-  token_hash: string | null;
-  name: string | null;
-  role: 'runner' | 'coach' | null;
-  password_hash: string | null;
+  name: string;
+  role: 'runner' | 'coach';
+  password_hash: string;
   next_path: string | null;
   created_at: Date;
   expires_at: Date;
   used_at: Date | null;
+}
+
+/** A "someone tried to sign up with your address" notice, kept only to count e-mails per address. */
+export interface SignUpNoticeRow {
+  id: string;
+  email: string;
+  created_at: Date;
 }
 
 export interface CredentialFailureRow {
@@ -432,7 +439,8 @@ declare module 'knex/types/tables.js' {
     password_resets: PasswordResetRow;
     sessions: SessionRow;
     credential_failures: CredentialFailureRow;
-    sign_up_requests: SignUpRequestRow;
+    pending_signups: PendingSignupRow;
+    sign_up_notices: SignUpNoticeRow;
     week_notes: WeekNoteRow;
     week_reviews: WeekReviewRow;
     note_reads: NoteReadRow;

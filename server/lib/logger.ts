@@ -14,7 +14,7 @@ export const logger = pino(
 
 /** Invitation, password-reset and sign-up links carry their secret in the path: logs keep only its kind. */
 export function loggableUrl(url: string): string {
-  return url.replace(/(inv|rst|cal|sgn)_[A-Za-z0-9_-]+/g, '$1_[Redacted]');
+  return url.replace(/\b(inv|rst|cal|sgn)_[A-Za-z0-9_-]+/g, '$1_[Redacted]');
 }
 
 /**

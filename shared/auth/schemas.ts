@@ -29,6 +29,11 @@ export const RegisterInputSchema = z
     role: z.enum(SIGN_UP_ROLES, { error: 'Choose whether you sign up as a runner or a coach.' }),
     /** The page the sign-up started from (an invitation), opened again when the e-mailed link is used. */
     next: NextPathSchema.optional(),
+    /**
+     * The invitation link's token when the sign-up starts from one. Its e-mail already proved the
+     * invited address, so a sign-up to that very address is finished at once (no second e-mail).
+     */
+    invitation: z.string().max(100, 'That invitation link is too long.').optional(),
   })
   .strict();
 export type RegisterInput = z.infer<typeof RegisterInputSchema>;
@@ -42,6 +47,19 @@ export const LoginInputSchema = z
 export type LoginInput = z.infer<typeof LoginInputSchema>;
 
 export const UserResponseSchema = z.object({ user: UserSchema });
+
+/**
+ * `POST /api/auth/register` (201). `confirmation: 'sent'` — the account is made when the e-mailed
+ * link is used (`user.id` becomes its id), no cookie is set, and the body is the same for a taken
+ * address (issue 13 #7). `'not-needed'` — a sign-up through an invitation to the invited address:
+ * the account exists and this browser is signed in, as api-contract.md describes.
+ */
+export const SignUpAnswerSchema = z.object({
+  user: UserSchema,
+  confirmation: z.enum(['sent', 'not-needed']),
+  message: z.string().optional(),
+});
+export type SignUpAnswer = z.infer<typeof SignUpAnswerSchema>;
 
 /** The e-mailed sign-up link was used: the account exists and this browser is signed in. */
 export const SignUpConfirmedSchema = z.object({ user: UserSchema, next: z.string().nullable() });

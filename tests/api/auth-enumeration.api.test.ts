@@ -98,9 +98,9 @@ describe('password-reset request (issue 13 #7)', () => {
 });
 
 describe('sign-up (issue 13 #7)', () => {
-  it('answers a taken and a free address the same (202, same body, no cookie); the owner is told by e-mail, the newcomer gets the link', async () => {
+  it('answers a taken and a free address the same (201, same body but for a fresh id, no cookie); the owner is told by e-mail, the newcomer gets the link', async () => {
     const app = appWithMail();
-    await createUser({ email: 'taken@example.test', name: 'First Owner' });
+    const { user: owner } = await createUser({ email: 'taken@example.test', name: 'First Owner' });
     const input = { password: 'a long enough secret', name: 'Someone', role: 'runner' };
     const taken = await request(app)
       .post('/api/auth/register')
@@ -108,19 +108,32 @@ describe('sign-up (issue 13 #7)', () => {
     const free = await request(app)
       .post('/api/auth/register')
       .send({ ...input, email: 'free@example.test' });
-    for (const res of [taken, free]) {
-      expect(res.status).toBe(202);
-      expect(res.body).toEqual({ message: SIGN_UP_SENT_MESSAGE });
+    for (const [res, email] of [
+      [taken, 'taken@example.test'],
+      [free, 'free@example.test'],
+    ] as const) {
+      expect(res.status).toBe(201);
+      expect(res.body).toEqual({
+        user: { id: expect.stringMatching(/^[0-9a-f-]{36}$/), email, name: 'Someone', role: 'runner' },
+        confirmation: 'sent',
+        message: SIGN_UP_SENT_MESSAGE,
+      });
+      expect(Object.keys(res.headers).sort()).toEqual(Object.keys(free.headers).sort());
       expect(([] as string[]).concat(res.headers['set-cookie'] ?? []).some((c) => c.startsWith('pw_session='))).toBe(false);
     }
+    // The taken address is answered a fresh id, never its owner's.
+    expect(taken.body.user.id).not.toBe(owner.id);
+    expect(taken.body.user.id).not.toBe(free.body.user.id);
     const mails = await outbox(app);
     const toOwner = mails.filter((m) => m.to === 'taken@example.test');
     expect(toOwner.map((m) => m.subject)).toEqual(['Someone tried to sign up with your address on Pacewright']);
+    expect(toOwner[0]!.text).toMatch(/if it was you: sign in with your password, or choose a new one/i);
     expect(toOwner[0]!.text).not.toMatch(/sign-up\/confirm/);
     const toNewcomer = mails.filter((m) => m.to === 'free@example.test');
     expect(toNewcomer.map((m) => m.subject)).toEqual(['Finish creating your Pacewright account']);
     expect(toNewcomer[0]!.text).toMatch(/http:\/\/pacewright\.test\/sign-up\/confirm\/sgn_[A-Za-z0-9_-]{43}/);
     expect(await db('users').count({ n: '*' }).first()).toEqual({ n: '1' });
+    expect(await db('pending_signups').pluck('id')).toEqual([free.body.user.id]);
   });
 
   it('answers a taken and a free address within 15 ms of each other (medians of 9)', async () => {

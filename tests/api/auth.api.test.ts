@@ -3,34 +3,47 @@ import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { loadConfig } from '../../server/config.ts';
 import { db } from '../../server/lib/db.ts';
-import { CSRF_HEADER, SESSION_COOKIE } from '../../shared/auth/schemas.ts';
+import { CSRF_HEADER, SESSION_COOKIE, SIGN_UP_SENT_MESSAGE } from '../../shared/auth/schemas.ts';
 import { createUser } from '../support/factories.ts';
 import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
 import { signUpThroughMail, signUpTokenMailedTo } from '../support/sign-up.ts';
-import { signedInAgent, testApp, testConfig } from '../support/test-app.ts';
+import { browserAgent, recordedMail, signedInAgent, testApp, testConfig } from '../support/test-app.ts';
 
 const sessionCookieOf = (res: request.Response) =>
   ([] as string[]).concat(res.headers['set-cookie'] ?? []).find((c) => c.startsWith(`${SESSION_COOKIE}=`));
 
 describe('POST /api/auth/register', () => {
-  it('when the input is valid, answers 202 and e-mails a link; the link makes the account, sets an httpOnly SameSite=Lax session cookie and stores a bcrypt hash', async () => {
+  it('when the input is valid, answers 201 with the user and confirmation "sent" but no cookie; the e-mailed link makes that very user, sets an httpOnly SameSite=Lax session cookie and stores a bcrypt hash', async () => {
     // The production default cost, not the cheap test cost.
     const app = testApp({ bcryptCost: loadConfig({}).bcryptCost });
-    const { browser, answer } = await signUpThroughMail(app, {
+    const { browser, asked, answer } = await signUpThroughMail(app, {
       email: 'New.Runner@Example.test',
       password: 'a long enough secret',
       name: 'New Runner',
       role: 'runner',
     });
+    expect(asked.status).toBe(201);
+    expect(asked.body).toEqual({
+      user: {
+        id: expect.stringMatching(/^[0-9a-f-]{36}$/),
+        email: 'new.runner@example.test',
+        name: 'New Runner',
+        role: 'runner',
+      },
+      confirmation: 'sent',
+      message: SIGN_UP_SENT_MESSAGE,
+    });
+    expect(sessionCookieOf(asked)).toBeUndefined();
     expect(answer.status).toBe(201);
-    expect(answer.body.user).toMatchObject({ email: 'new.runner@example.test', name: 'New Runner', role: 'runner' });
-    expect(answer.body.user.id).toMatch(/^[0-9a-f-]{36}$/);
+    // The id answered at sign-up is the account's id.
+    expect(answer.body.user).toEqual({ ...asked.body.user });
     expect(answer.body.next).toBeNull();
     const cookie = sessionCookieOf(answer)!;
     expect(cookie).toMatch(/HttpOnly/i);
     expect(cookie).toMatch(/SameSite=Lax/i);
     expect(cookie).toMatch(/Max-Age=\d+/);
     const row = await db('users').where({ email: 'new.runner@example.test' }).first();
+    expect(row!.id).toBe(asked.body.user.id);
     // bcrypt hash with a cost factor of at least 10 (the issue's minimum)
     expect(row!.password_hash).toMatch(/^\$2[aby]\$(1\d|[2-9]\d)\$/);
     const me = await browser.agent.get('/api/auth/me');
@@ -43,20 +56,64 @@ describe('POST /api/auth/register', () => {
     const asked = await request(app)
       .post('/api/auth/register')
       .send({ email: 'once@example.test', password: 'a long enough secret', name: 'Once', role: 'coach', next: '/invite/x' });
-    expect(asked.status).toBe(202);
+    expect(asked.status).toBe(201);
     expect(sessionCookieOf(asked)).toBeUndefined();
     await afterAnswerSettled();
     expect(await db('users').where({ email: 'once@example.test' }).first()).toBeUndefined();
+    expect(await db('pending_signups').where({ id: asked.body.user.id }).first()).toMatchObject({
+      email: 'once@example.test',
+      role: 'coach',
+    });
     const token = signUpTokenMailedTo('once@example.test')!;
     const first = await request(app).post(`/api/auth/register/${token}`);
     expect(first.status).toBe(201);
-    expect(first.body.user.role).toBe('coach');
+    expect(first.body.user).toEqual(asked.body.user);
     expect(first.body.next).toBe('/invite/x');
     const again = await request(app).post(`/api/auth/register/${token}`);
     expect(again.status).toBe(410);
     expect(again.body.error).toMatch(/already been used/);
     const forged = await request(app).post(`/api/auth/register/sgn_${'A'.repeat(43)}`);
     expect(forged.status).toBe(400);
+  });
+
+  it('through an invitation to the invited address, signs up at once: 201, confirmation "not-needed", the session cookie (api-contract.md); to another address, the e-mailed-link way', async () => {
+    const app = testApp();
+    const { user: coach, password: coachPassword } = await createUser({ role: 'coach', name: 'Squad Coach' });
+    const asCoach = await signedInAgent(app, coach.email, coachPassword);
+    const squad = await asCoach.agent.post('/api/squads').set(CSRF_HEADER, asCoach.csrf).send({ name: 'Morning Group' });
+    expect(squad.status).toBe(201);
+    recordedMail.length = 0;
+    const invited = await asCoach.agent
+      .post(`/api/squads/${squad.body.squad.id}/invitations`)
+      .set(CSRF_HEADER, asCoach.csrf)
+      .send({ email: 'invited@example.test' });
+    expect(invited.status).toBe(201);
+    const invitation = recordedMail.at(-1)!.text.match(/(inv_[A-Za-z0-9_-]{43})/)![1]!;
+    const input = { password: 'a long enough secret', name: 'Invited Runner', role: 'runner', invitation };
+
+    const elsewhere = await request(app)
+      .post('/api/auth/register')
+      .send({ ...input, email: 'someone-else@example.test' });
+    expect(elsewhere.status).toBe(201);
+    expect(elsewhere.body.confirmation).toBe('sent');
+    expect(sessionCookieOf(elsewhere)).toBeUndefined();
+
+    const { agent, csrf } = await browserAgent(app);
+    const direct = await agent
+      .post('/api/auth/register')
+      .set(CSRF_HEADER, csrf)
+      .send({ ...input, email: 'Invited@example.test' });
+    expect(direct.status).toBe(201);
+    expect(direct.body).toEqual({
+      user: { id: expect.any(String), email: 'invited@example.test', name: 'Invited Runner', role: 'runner' },
+      confirmation: 'not-needed',
+    });
+    expect(sessionCookieOf(direct)).toBeDefined();
+    expect((await agent.get('/api/auth/me')).body.user.id).toBe(direct.body.user.id);
+    await afterAnswerSettled();
+    expect(await db('users').whereIn('email', ['invited@example.test', 'someone-else@example.test']).pluck('email')).toEqual([
+      'invited@example.test',
+    ]);
   });
 
   it('refuses a next page on another site (400), so the link can never send anyone away', async () => {

@@ -224,7 +224,7 @@ async function buildWorld(): Promise<World> {
     request(app)
       .post('/api/auth/register')
       .send({ email: signUpAddress, password: newPassword('joining'), name: 'Joining Runner', role: 'runner' }),
-    202,
+    201,
   );
   // Reset and sign-up mail goes out after the answer (issue 13 #7).
   await afterAnswerSettled();

@@ -11,19 +11,21 @@ export function signUpTokenMailedTo(to: string): string | undefined {
 }
 
 /**
- * Signs up as a person would: the form (202, same for everyone), then the e-mailed link, which makes
- * the account and signs this browser in. Returns the browser and the link's answer.
+ * Signs up as a person would: the form (201, confirmation "sent", no cookie — the same for every
+ * address), then the e-mailed link, which makes the account with the answered id and signs this
+ * browser in. Returns the browser, the form's answer and the link's answer.
  */
 export async function signUpThroughMail(
   app: Express,
   input: RegisterInput,
-): Promise<{ browser: BrowserAgent; answer: request.Response }> {
+): Promise<{ browser: BrowserAgent; asked: request.Response; answer: request.Response }> {
   const asked = await request(app).post('/api/auth/register').send(input);
-  if (asked.status !== 202) throw new Error(`sign-up failed: ${asked.status} ${JSON.stringify(asked.body)}`);
+  if (asked.status !== 201 || asked.body.confirmation !== 'sent')
+    throw new Error(`sign-up failed: ${asked.status} ${JSON.stringify(asked.body)}`);
   await afterAnswerSettled();
   const token = signUpTokenMailedTo(input.email.trim().toLowerCase());
   if (!token) throw new Error(`no sign-up link was mailed to ${input.email}`);
   const browser = await browserAgent(app);
   const answer = await browser.agent.post(`/api/auth/register/${token}`).set(CSRF_HEADER, browser.csrf);
-  return { browser, answer };
+  return { browser, asked, answer };
 }

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { rateLimit } from 'express-rate-limit';
 import { z } from 'zod';
 import {
@@ -11,7 +12,9 @@ import {
   RegisterInputSchema,
   RESET_SENT_MESSAGE,
   SIGN_UP_SENT_MESSAGE,
+  SignUpAnswerSchema,
   SignUpConfirmedSchema,
+  type SignUpAnswer,
   MessageResponseSchema,
   TokenResponseSchema,
   type RegisterInput,
@@ -25,7 +28,7 @@ import { parseIdParam } from '../../lib/ids.ts';
 import { issueApiToken, listTokensOf, revokeToken } from '../tokens/tokens.service.ts';
 import { toUser } from '../users/users.repository.ts';
 import { changePassword, checkCredentials } from './auth.service.ts';
-import { confirmSignUp, requestSignUp } from './sign-up.service.ts';
+import { confirmSignUp, requestSignUp, signUpByInvitation } from './sign-up.service.ts';
 import { afterAnswer } from '../../lib/after-answer.ts';
 import { deleteSession } from './sessions.repository.ts';
 import { clearSessionCookie, endSessionsOf, startSession } from './sessions.service.ts';
@@ -56,17 +59,31 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       path: '/auth/register',
       tag: 'auth',
       summary:
-        'Sign up (runner or coach): 202 with the same sentence for every address; a new address is e-mailed the link that makes the account, an existing one a notice',
+        'Sign up (runner or coach): 201 with the user and confirmation "sent" — the same answer for a new and a taken address, no cookie; ' +
+        'the account is made from the e-mailed link. Through an invitation to the invited address: 201, confirmation "not-needed" and the session cookie',
       access: 'public',
       body: RegisterInputSchema,
-      response: MessageResponseSchema,
-      status: 202,
+      response: SignUpAnswerSchema,
+      status: 201,
       before: [addressLimiter],
     },
     async (req, res) => {
-      // The same answer, at once, for a new address and one that has an account (issue 13 #7).
-      afterAnswer(res, 'sign-up', () => requestSignUp(req.body as RegisterInput, mailer, config));
-      res.status(202).json({ message: SIGN_UP_SENT_MESSAGE });
+      const input = req.body as RegisterInput;
+      const invited = await signUpByInvitation(input, config);
+      if (invited) {
+        await startSession(res, invited.id, config);
+        res.status(201).json({ user: toUser(invited), confirmation: 'not-needed' } satisfies SignUpAnswer);
+        return;
+      }
+      // The same answer, at once, for a new address and one that has an account (issue 13 #7): a
+      // fresh id either way; it becomes the account's id when a new address's link is used.
+      const id = randomUUID();
+      afterAnswer(res, 'sign-up', () => requestSignUp(id, input, mailer, config));
+      res.status(201).json({
+        user: { id, email: input.email, name: input.name, role: input.role },
+        confirmation: 'sent',
+        message: SIGN_UP_SENT_MESSAGE,
+      } satisfies SignUpAnswer);
     },
   );
 

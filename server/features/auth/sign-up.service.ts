@@ -1,10 +1,11 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { RegisterInput, SignUpConfirmed } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
-import { db } from '../../lib/db.ts';
+import { db, type UserRow } from '../../lib/db.ts';
 import { AppError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
+import { invitationVouchesFor } from '../squads/squads.service.ts';
 import { findUserByEmail, insertUser, toUser } from '../users/users.repository.ts';
 import { hashPassword } from './auth.service.ts';
 
@@ -17,28 +18,58 @@ const hashToken = (token: string) => createHash('sha256').update(token).digest('
 const HOUR_MS = 3_600_000;
 
 /**
- * Runs after the sign-up has been answered (the same sentence for every address): an address with
- * an account gets a notice instead of a second account, a new address gets the link that makes
- * the account. At most SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR e-mails per address per hour, so the
- * form cannot be used to flood someone's inbox.
+ * A sign-up through an invitation link, to the invited address, of an address with no account: the
+ * invitation e-mail already proved the address, so the account is made now. Undefined otherwise
+ * (the sign-up then goes the e-mailed-link way like any other).
  */
-export async function requestSignUp(input: RegisterInput, mailer: Mailer, config: AppConfig, now = new Date()): Promise<void> {
-  // Old rows are only kept for counting; a day is plenty.
-  await db('sign_up_requests')
-    .where('created_at', '<', new Date(now.getTime() - SIGN_UP_LINK_HOURS * 2 * HOUR_MS))
-    .delete();
-  const [{ recent }] = (await db('sign_up_requests')
-    .where({ email: input.email })
-    .andWhere('created_at', '>', new Date(now.getTime() - HOUR_MS))
-    .count({ recent: '*' })) as [{ recent: string | number }];
-  if (Number(recent) >= SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR) {
+export async function signUpByInvitation(
+  input: RegisterInput,
+  config: AppConfig,
+  now = new Date(),
+): Promise<UserRow | undefined> {
+  if (!input.invitation || !(await invitationVouchesFor(input.invitation, input.email, now))) return undefined;
+  if (await findUserByEmail(input.email)) return undefined;
+  const passwordHash = await hashPassword(input.password, config);
+  try {
+    return await insertUser({ email: input.email, passwordHash, name: input.name, role: input.role });
+  } catch (err) {
+    // Made a moment ago by a second request: the e-mailed-link way tells the owner instead.
+    if (err instanceof AppError && err.status === 409) return undefined;
+    throw err;
+  }
+}
+
+/**
+ * Runs after the sign-up has been answered with `id` (the same answer for every address): an
+ * address with an account gets a notice instead of a second account, a new address gets the link
+ * that makes the account with that id. At most SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR e-mails per
+ * address per hour, so the form cannot be used to flood someone's inbox.
+ */
+export async function requestSignUp(
+  id: string,
+  input: RegisterInput,
+  mailer: Mailer,
+  config: AppConfig,
+  now = new Date(),
+): Promise<void> {
+  // Old rows are only kept for counting; two days is plenty.
+  const stale = new Date(now.getTime() - SIGN_UP_LINK_HOURS * 2 * HOUR_MS);
+  await db('pending_signups').where('created_at', '<', stale).delete();
+  await db('sign_up_notices').where('created_at', '<', stale).delete();
+  const since = new Date(now.getTime() - HOUR_MS);
+  const counts = await Promise.all(
+    (['pending_signups', 'sign_up_notices'] as const).map((table) =>
+      db(table).where({ email: input.email }).andWhere('created_at', '>', since).count({ n: '*' }).first(),
+    ),
+  );
+  if (counts.reduce((sum, c) => sum + Number(c?.n ?? 0), 0) >= SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR) {
     logger.info('sign-up e-mail not sent: the hourly limit for this address is reached');
     return;
   }
 
   const owner = await findUserByEmail(input.email);
   if (owner) {
-    await db('sign_up_requests').insert({ email: input.email, expires_at: now });
+    await db('sign_up_notices').insert({ email: input.email, created_at: now });
     const lines = [
       `Someone tried to create a Pacewright account with ${owner.email}, which already has one. No second account was made and nothing changed.`,
       'If it was you: sign in with your password, or choose a new one with “Forgot your password?” on the sign-in page. If it was not you, there is nothing to do.',
@@ -54,13 +85,15 @@ export async function requestSignUp(input: RegisterInput, mailer: Mailer, config
   }
 
   const token = 'sgn_' + randomBytes(32).toString('base64url');
-  await db('sign_up_requests').insert({
-    email: input.email,
+  await db('pending_signups').insert({
+    id,
     token_hash: hashToken(token),
+    email: input.email,
     name: input.name,
     role: input.role,
     password_hash: await hashPassword(input.password, config),
     next_path: input.next ?? null,
+    created_at: now,
     expires_at: new Date(now.getTime() + SIGN_UP_LINK_HOURS * HOUR_MS),
   });
   const link = `${config.publicUrl}/sign-up/confirm/${token}`;
@@ -76,38 +109,29 @@ export async function requestSignUp(input: RegisterInput, mailer: Mailer, config
   });
 }
 
-/** Makes the account of a genuine, unused, unexpired sign-up link. */
+const LINK_USED = 'This link has already been used, so your account exists. Sign in with your e-mail and password.';
+
+/** Makes the account of a genuine, unused, unexpired sign-up link, with the id the sign-up was answered with. */
 export async function confirmSignUp(token: string, now = new Date()) {
   const row = /^sgn_[A-Za-z0-9_-]{43}$/.test(token)
-    ? await db('sign_up_requests')
+    ? await db('pending_signups')
         .where({ token_hash: hashToken(token) })
         .first()
     : undefined;
-  if (!row?.password_hash || !row.name || !row.role)
+  if (!row)
     throw new AppError(
       400,
       'invalid-sign-up-link',
       'This sign-up link is not valid. Check that you copied the whole link, or sign up again.',
     );
-  if (row.used_at)
-    throw new AppError(
-      410,
-      'sign-up-link-used',
-      'This link has already been used, so your account exists. Sign in with your e-mail and password.',
-    );
+  if (row.used_at) throw new AppError(410, 'sign-up-link-used', LINK_USED);
   if (row.expires_at <= now)
     throw new AppError(410, 'sign-up-link-expired', 'This sign-up link has expired. Please sign up again.');
-  const { password_hash: passwordHash, name, role } = row;
   const user = await db.transaction(async (trx) => {
-    const claimed = await trx('sign_up_requests').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
-    if (!claimed)
-      throw new AppError(
-        410,
-        'sign-up-link-used',
-        'This link has already been used, so your account exists. Sign in with your e-mail and password.',
-      );
+    const claimed = await trx('pending_signups').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
+    if (!claimed) throw new AppError(410, 'sign-up-link-used', LINK_USED);
     // 409 with a sentence when the address got an account meanwhile (two links used one after the other).
-    return insertUser({ email: row.email, passwordHash, name, role }, trx);
+    return insertUser({ id: row.id, email: row.email, passwordHash: row.password_hash, name: row.name, role: row.role }, trx);
   });
   const answer: SignUpConfirmed = { user: toUser(user), next: row.next_path };
   return { row: user, answer };

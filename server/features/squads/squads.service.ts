@@ -147,6 +147,16 @@ async function invitationByToken(token: string) {
   return row;
 }
 
+/**
+ * True when `token` is an open invitation to `email`: whoever holds it read the invitation e-mail,
+ * which proves the address, so a sign-up to that address needs no second e-mail (issue 13 #7).
+ */
+export async function invitationVouchesFor(token: string, email: string, now = new Date()): Promise<boolean> {
+  if (!/^inv_[A-Za-z0-9_-]{43}$/.test(token)) return false;
+  const row = await findInvitationByTokenHash(hashToken(token));
+  return !!row && invitationStatus(row, now) === 'open' && row.email.toLowerCase() === email.toLowerCase();
+}
+
 /** What the invite page shows before signing in or up. */
 export async function previewInvitation(token: string, now = new Date()) {
   const row = await invitationByToken(token);

@@ -42,6 +42,8 @@ export async function findUserByEmail(email: string, trx: Db = db): Promise<User
 }
 
 export interface NewUser {
+  /** Set when the id was already answered (a sign-up confirmed by its e-mailed link); otherwise PostgreSQL makes one. */
+  id?: string;
   email: string;
   passwordHash: string;
   name: string;
@@ -53,6 +55,7 @@ export async function insertUser(user: NewUser, trx: Db = db): Promise<UserRow> 
   try {
     const [row] = await trx('users')
       .insert({
+        ...(user.id ? { id: user.id } : {}),
         email: user.email,
         password_hash: user.passwordHash,
         name: user.name,

@@ -79,11 +79,16 @@ export default function InviteRoute() {
             <LinkButton to={paths.signIn.getHref(back)}>I already have an account</LinkButton>
           </div>
         </div>
+      ) : me.role === 'runner' && me.email.toLowerCase() !== data.email.toLowerCase() ? (
+        // An invitation is bound to the address it was sent to (issue 13 #11).
+        <FormAlert>
+          This invitation was sent to {data.email}, and you are signed in as {me.email}. Sign out and sign in with the invited
+          address, or ask your coach to invite {me.email} instead.
+        </FormAlert>
       ) : me.role === 'runner' ? (
         <div className="flex flex-col gap-3">
           <p>
             You are signed in as <span className="font-semibold">{me.name}</span> ({me.email}).
-            {me.email !== data.email && ' The invitation went to another address; accepting adds this account to the squad.'}
           </p>
           <AcceptInvitation token={token} onAccepted={() => navigate(paths.log.getHref(), { replace: true })} />
         </div>

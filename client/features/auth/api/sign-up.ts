@@ -1,15 +1,26 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MessageResponse, RegisterInput, SignUpConfirmed } from '../../../../shared/auth/schemas.ts';
+import type { RegisterInput, SignUpAnswer, SignUpConfirmed } from '../../../../shared/auth/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { authKeys } from './auth-keys.ts';
 
-/** Always 202 with the same sentence: the account is made from the e-mailed link (confirmSignUp). */
-export function signUp(input: RegisterInput): Promise<MessageResponse> {
+/**
+ * 201 either way. `confirmation: 'sent'`: nobody is signed in yet, the account is made from the
+ * e-mailed link (confirmSignUp). `'not-needed'` (an invitation to this very address): signed in.
+ */
+export function signUp(input: RegisterInput): Promise<SignUpAnswer> {
   return api.post('/auth/register', input);
 }
 
 export function useSignUp() {
-  return useMutation({ mutationFn: signUp });
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: signUp,
+    onSuccess: ({ user, confirmation }) => {
+      if (confirmation !== 'not-needed') return;
+      queryClient.clear();
+      queryClient.setQueryData(authKeys.me(), user);
+    },
+  });
 }
 
 export function confirmSignUp(token: string): Promise<SignUpConfirmed> {

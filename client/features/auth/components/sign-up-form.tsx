@@ -1,10 +1,15 @@
 import { useId } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
-import { NextPathSchema, PASSWORD_MIN_LENGTH, RegisterInputSchema } from '../../../../shared/auth/schemas.ts';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
+import {
+  NextPathSchema,
+  PASSWORD_MIN_LENGTH,
+  RegisterInputSchema,
+  SIGN_UP_SENT_MESSAGE,
+} from '../../../../shared/auth/schemas.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { paths } from '../../../config/paths.ts';
+import { paths, resolveNext } from '../../../config/paths.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { useSignUp } from '../api/sign-up.ts';
 
@@ -13,9 +18,16 @@ const ROLE_CHOICES = [
   { value: 'coach', label: 'Coach', description: 'I also guide a squad of runners and write their plans.' },
 ] as const;
 
+/** The invitation token when the sign-up started from an invitation page (`?next=/invite/inv_…`). */
+function invitationTokenIn(next: string | null): string | undefined {
+  const token = next?.match(/^\/invite\/([^/?#]+)$/)?.[1];
+  return token ? decodeURIComponent(token) : undefined;
+}
+
 export function SignUpForm() {
   const [searchParams] = useSearchParams();
   const next = searchParams.get('next');
+  const navigate = useNavigate();
   const mutation = useSignUp();
   const { onSubmit, fieldErrors, formError } = useSchemaForm({
     schema: RegisterInputSchema,
@@ -27,17 +39,22 @@ export function SignUpForm() {
       role: readText(data, 'role'),
       // Opened again from the e-mailed link (an invitation the sign-up started from).
       next: next && NextPathSchema.safeParse(next).success ? next : undefined,
+      // An invitation to this very address already proved it: the account is made at once.
+      invitation: invitationTokenIn(next),
     }),
+    onSuccess: ({ confirmation }) => {
+      if (confirmation === 'not-needed') navigate(resolveNext(next), { replace: true });
+    },
   });
   const id = useId();
   const roleErrorId = `${id}-role-error`;
 
   // The same answer whether or not the address has an account (issue 13 #7): the e-mail says which.
-  if (mutation.isSuccess)
+  if (mutation.isSuccess && mutation.data.confirmation === 'sent')
     return (
       <div className="flex flex-col gap-2 rounded-md border-l-4 border-teal bg-teal-wash p-3">
         <p role="status" className="font-semibold">
-          {mutation.data.message}
+          {mutation.data.message ?? SIGN_UP_SENT_MESSAGE}
         </p>
         <p className="text-sm">
           Wrong address?{' '}
