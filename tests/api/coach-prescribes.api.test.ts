@@ -319,6 +319,7 @@ describe('POST /api/plans/assign', () => {
       .post('/api/plans/assign')
       .set(coach.auth)
       .send({ runner_ids: [runners[1]!.id, runners[2]!.id], date: '2026-12-12', library_id: lib });
+    expect(res.body.plans).toHaveLength(2);
     for (const p of res.body.plans) {
       const fuel = await request(app).get(`/api/plans/${p.id}/fuel-plan`).set(coach.auth);
       expect(fuel.body.fuel_plan.body_mass_kg).toBe(62);

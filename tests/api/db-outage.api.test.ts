@@ -204,6 +204,8 @@ describe('PostgreSQL stopped and restarted under the running server', () => {
     expect(before.status).toBe(201);
     const runBefore = before.body.imported[0].id as string;
 
+    const QUEUE_ERROR = 'the import queue reported an error';
+    const queueErrorsBefore = server!.logMessages().filter((m) => m === QUEUE_ERROR).length;
     cluster.stop();
 
     const health = async () => {
@@ -225,8 +227,12 @@ describe('PostgreSQL stopped and restarted under the running server', () => {
     );
     expect((await request(url).get('/api/health')).status).toBe(503);
 
-    // Give pg-boss's timers and workers time to hit the missing database too (they poll every 2 s).
-    await new Promise((resolve) => setTimeout(resolve, 2_500));
+    // The import worker (pg-boss) polls every 2 s: wait until it has met the missing database too and said so.
+    await pollUntil(
+      async () => server!.logMessages().filter((m) => m === QUEUE_ERROR).length,
+      (errors) => errors > queueErrorsBefore,
+      'the import worker meets the missing database',
+    );
     expect(isRunning(child)).toBe(true);
 
     cluster.start();

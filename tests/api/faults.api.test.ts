@@ -79,6 +79,7 @@ async function expectEveryRunWhole(dataDir: string) {
     .leftJoin('run_tracks as t', 't.run_id', 'r.id')
     .join('source_files as f', 'f.id', 'r.source_file_id')
     .select('r.id', 'r.distance_m', 't.point_count', 'f.storage_key', 'f.sha256');
+  expect(runs.length).toBeGreaterThan(0);
   for (const run of runs) {
     expect(run.point_count, `run ${run.id} has no track`).toBeGreaterThan(0);
     for (const unit of ['km', 'mi'] as const) {

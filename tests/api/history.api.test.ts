@@ -6,6 +6,7 @@ import yauzl from 'yauzl';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { startImportWorker, stopImportWorker } from '../../server/features/history/import-queue.ts';
+import { IMPORT_QUEUE } from '../../server/features/history/imports.repository.ts';
 import { db } from '../../server/lib/db.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
@@ -156,7 +157,11 @@ describe('POST /api/imports', () => {
     expect(paused.status).toBe('running');
     expect(paused.done).toBeLessThan(200);
     expect(await count('runs', { user_id: user.id })).toBe(paused.imported);
-    await new Promise((r) => setTimeout(r, 700));
+    // Nothing can move the import any more: no file of it is in a worker's hand and no queue job for it is active
+    // (the stop waited for both), so the progress read again is the one read at the stop.
+    expect(await count('import_files', { import_id: id, status: 'working' })).toBe(0);
+    const activeJobs = await db('pgboss.job').where({ name: IMPORT_QUEUE, state: 'active' }).count({ n: '*' }).first();
+    expect(Number(activeJobs!.n)).toBe(0);
     expect((await progressOf(auth, id)).done).toBe(paused.done);
 
     await startImportWorker(store, workerOptions);

@@ -83,25 +83,37 @@ describe('file storage adapters', () => {
     const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-fs-'));
     const store = createFsStore(dataDir);
     expect(await listAll(store)).toEqual([]); // nothing stored yet: no files folder at all
+    // The write time must fall between the clock read before and after the write (file systems keep whole
+    // seconds at worst, hence the second either side), however long the write took on a busy machine.
+    const beforeWrite = Date.now() - 1000;
     await store.put('user-1/abc', Buffer.from('a'));
     await store.put('user-2/def', Buffer.from('b'));
-    const anHourAgo = new Date(Date.now() - 3600_000);
+    const afterWrite = Date.now() + 1000;
+    const anHourAgo = new Date(beforeWrite - 3600_000);
     utimesSync(path.join(dataDir, 'files/user-1/abc'), anHourAgo, anHourAgo);
     const listed = await listAll(store);
     expect(listed.map((f) => f.key).sort()).toEqual(['user-1/abc', 'user-2/def']);
     expect(Math.abs(listed.find((f) => f.key === 'user-1/abc')!.modifiedAt.getTime() - anHourAgo.getTime())).toBeLessThan(1000);
-    expect(Date.now() - listed.find((f) => f.key === 'user-2/def')!.modifiedAt.getTime()).toBeLessThan(60_000);
+    const written = listed.find((f) => f.key === 'user-2/def')!.modifiedAt.getTime();
+    expect(written).toBeGreaterThanOrEqual(beforeWrite);
+    expect(written).toBeLessThanOrEqual(afterWrite);
   });
 
   it('S3-compatible storage lists the keys inside its prefix only, with their times (against s3rver)', async () => {
     const store = await createS3Store({ ...s3Options(endpoint), prefix: 'listed/' });
     const neighbour = await createS3Store({ ...s3Options(endpoint), prefix: 'elsewhere/' });
     const keys = ['u1/a', 'u1/b', 'u2/c'];
+    // S3 keeps whole seconds: each time must fall between the clock read before and after the writes, ± 1 s.
+    const beforeWrite = Date.now() - 1000;
     for (const key of keys) await store.put(key, Buffer.from(key));
+    const afterWrite = Date.now() + 1000;
     await neighbour.put('u1/a', Buffer.from('not ours'));
     const listed = await listAll(store);
     expect(listed.map((f) => f.key).sort()).toEqual(keys);
-    for (const file of listed) expect(Math.abs(Date.now() - file.modifiedAt.getTime())).toBeLessThan(5 * 60_000);
+    for (const file of listed) {
+      expect(file.modifiedAt.getTime()).toBeGreaterThanOrEqual(beforeWrite);
+      expect(file.modifiedAt.getTime()).toBeLessThanOrEqual(afterWrite);
+    }
     await store.delete('u1/b');
     expect((await listAll(store)).map((f) => f.key).sort()).toEqual(['u1/a', 'u2/c']);
   });

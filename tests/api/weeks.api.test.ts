@@ -2,7 +2,7 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, onTestFinished, vi } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { db } from '../../server/lib/db.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
@@ -47,6 +47,9 @@ async function upload(app: App, auth: Record<string, string>, date: string, km: 
 // Each test imports several generated runs; on a loaded machine that takes longer than the default 5 s.
 describe('GET /api/runners/:id/week', { timeout: 30_000 }, () => {
   it('sets plans and runs side by side with totals, the long run, missed sessions and a volume-jump flag', async () => {
+    // "Missed" means planned before today: fix today at Tue 1 Dec 2026, after the week, whatever the real date.
+    vi.useFakeTimers({ toFake: ['Date'], now: new Date('2026-12-01T12:00:00Z'), shouldAdvanceTime: true });
+    onTestFinished(() => void vi.useRealTimers());
     const app = freshApp();
     const runner = await person(app, 'runner', 'Wren Walker');
     // Previous week (Mon 16 Nov 2026): 10 km. This week (Mon 23 Nov): 5 + 7 = 12 km, up 20 %.

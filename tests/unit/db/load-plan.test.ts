@@ -92,6 +92,7 @@ describe('loadSessionFor', () => {
   });
 
   it('writes every plan in shorthand that parses', () => {
+    expect(sessions.length).toBeGreaterThan(0);
     for (const s of sessions) expect(parseShorthand(s.plan), s.plan).toMatchObject({ ok: true });
   });
 

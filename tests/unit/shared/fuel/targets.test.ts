@@ -209,6 +209,7 @@ describe('volumes (NIST Handbook 44: 1 US fl oz = 29.5735295625 mL exactly)', ()
 describe('proposeTargets', () => {
   it('gives carbohydrate, fluid and sodium, each with low, high, unit, source and note', () => {
     const t = proposeTargets({ duration_s: MARATHON_330 });
+    expect(Object.keys(t).sort()).toEqual(['carbohydrate', 'fluid', 'sodium']);
     for (const target of Object.values(t)) {
       expect(target).toEqual(
         expect.objectContaining({

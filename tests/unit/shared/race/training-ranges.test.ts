@@ -61,6 +61,7 @@ describe('trainingRanges: kinds and order', () => {
 
   it.each(RESULTS)('for a %s, every range is slow ≥ fast and the fast ends get quicker down the list', (_n, d, t) => {
     const { ranges } = trainingRanges(d, t);
+    expect(ranges.length).toBeGreaterThan(0);
     for (const r of ranges) {
       expect(r.fast.s_per_km).toBeLessThanOrEqual(r.slow.s_per_km);
       // REFERENCES.md §1: 1 mile = 1.609344 km, so s/mi = s/km × 1.609344.
