@@ -21,8 +21,9 @@ const COLUMNS = [
  * written by the app's one CSV writer (RFC 4180, CRLF, formula starts defused).
  */
 export function planCheckToCsv(parts: readonly PartCheck[]): string {
-  const rows = parts.map((p) => [
-    p.index + 1,
+  // Numbered by row, as the table and the summary count them (a recovery the plan did not write has no row).
+  const rows = parts.map((p, row) => [
+    row + 1,
     p.kind,
     csvNumber(p.planned.distance_m, 1),
     csvNumber(p.planned.duration_s, 0),

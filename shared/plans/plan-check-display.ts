@@ -1,6 +1,7 @@
 import { pacePerUnit } from '../runs/display.ts';
-import { formatPace } from '../tracks/format.ts';
+import { formatDuration, formatPace } from '../tracks/format.ts';
 import type { Unit } from '../users/schemas.ts';
+import type { RepBlock } from './rep-blocks.ts';
 import type { DistanceUnit } from './types.ts';
 import { metresPerUnit } from './units.ts';
 
@@ -70,4 +71,34 @@ export function formatStops(stops: { count: number; seconds: number } | undefine
   const total = Math.round(stops.seconds);
   const time = `${Math.floor(total / 60)}:${String(total % 60).padStart(2, '0')}`;
   return `${stops.count} ${stops.count === 1 ? 'stop' : 'stops'}, ${time}`;
+}
+
+/** A signed change of pace in whole seconds per `unit`: "−4 s" quicker, "+3 s" slower, "0". */
+function formatChange(differenceSPerKm: number, unit: Unit): string {
+  // Halves round away from zero either way (−2.5 → −3, as +2.5 → +3).
+  const seconds = Math.round(Math.abs(pacePerUnit(differenceSPerKm, unit)!));
+  if (seconds === 0) return '0';
+  return `${differenceSPerKm > 0 ? '+' : '−'}${seconds} s`;
+}
+
+/**
+ * A repeat block on one line, paces per `unit` (moving time):
+ * "6 × 800 m: 5 of 6 on pace · 2:58 2:57 2:59 3:04 2:56 – /km · average 2:58 · fastest 2:56, slowest 3:04 · first to last −2 s".
+ * A rep not run shows "–"; the average, fastest and slowest are of the reps run.
+ */
+export function formatRepBlock(block: RepBlock, unit: Unit): string {
+  const amount =
+    'distance_m' in block.amount
+      ? formatPlannedDistance(block.amount.distance_m, block.amount.unit)
+      : formatDuration(block.amount.duration_s);
+  const head = `${block.reps} × ${amount}: ${block.on_pace} of ${block.reps} on pace`;
+  if (block.run === 0) return `${head} · none run`;
+  const pace = (s: number | null) => formatPace(pacePerUnit(s, unit)) || '–';
+  const pieces = [head, `${block.paces_s_per_km.map(pace).join(' ')} /${unit}`];
+  if (block.average_s_per_km !== null) pieces.push(`average ${pace(block.average_s_per_km)}`);
+  if (block.run >= 2) {
+    pieces.push(`fastest ${pace(block.fastest_s_per_km)}, slowest ${pace(block.slowest_s_per_km)}`);
+    pieces.push(`first to last ${formatChange(block.first_to_last_s_per_km!, unit)}`);
+  }
+  return pieces.join(' · ');
 }

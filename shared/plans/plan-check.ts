@@ -332,13 +332,15 @@ export function judgePart(
   part: CheckedPart,
   actual: PartCheck['actual'],
   tolerance: number,
+  slack?: ExpandedPart['amount'],
 ): { verdict: PartVerdict; difference: number | null } {
   // A timed part is complete when its clock time or its moving time is (stops inside it are shown
   // apart and never make it short); a distance part by its distance.
-  const amountRatio =
-    part.amount.type === 'distance'
-      ? actual.distance_m / part.amount.distance_m
-      : Math.max(actual.duration_s, actual.moving_s ?? 0) / part.amount.duration_s;
+  const run = part.amount.type === 'distance' ? actual.distance_m : Math.max(actual.duration_s, actual.moving_s ?? 0);
+  const plannedAmount = part.amount.type === 'distance' ? part.amount.distance_m : part.amount.duration_s;
+  // `slack`: a recovery the plan did not write just before this part (see isClosingRecovery) may be in it.
+  const extra = slack && slack.type === part.amount.type ? (slack.type === 'distance' ? slack.distance_m : slack.duration_s) : 0;
+  const amountRatio = run > plannedAmount * EXTENDED_ABOVE ? run / (plannedAmount + extra) : run / plannedAmount;
   let difference: number | null = null;
   if (part.resolved.type === 'pace' && actual.pace_s_per_km !== null) {
     const fast = part.resolved.fast_s_per_km * (1 - tolerance);
@@ -383,13 +385,20 @@ export function sessionVerdict(parts: readonly PartCheck[]): SessionVerdict {
  * the target pace allowed either side (0.02 = ±2 %). The series needs at least two points.
  */
 export function checkRunAgainstPlan(
-  parts: readonly CheckedPart[],
+  plannedParts: readonly CheckedPart[],
   series: CheckSeries,
   laps: readonly CheckLap[],
   tolerance = DEFAULT_TOLERANCE,
 ): PlanCheckResult {
+  if (plannedParts.length === 0) return { method: 'planned amounts', parts: [], session_verdict: 'unplanned' };
+  // A recovery closing a repeat's last round was not written ("6 x 800 m w/ 400 m jog" has five):
+  // it gets no row. One that ends the plan stays for the alignment only, so the last rep ends at its
+  // planned amount and the running after it is not judged.
+  const unwritten = new Set(plannedParts.filter((_, i) => isClosingRecovery(plannedParts, i)));
+  const withoutUnwritten = plannedParts.filter((part, i) => !unwritten.has(part) || i === plannedParts.length - 1);
+  // Device laps may mark the unwritten recovery too (a watch runs the unrolled list): then they align with all of it.
+  const parts = lapsFit(plannedParts, laps) ? plannedParts : withoutUnwritten;
   const n = series.t.length;
-  if (parts.length === 0) return { method: 'planned amounts', parts: [], session_verdict: 'unplanned' };
   const runStart = series.t[0]!;
   const runEnd = series.t[n - 1]!;
   const useLaps = lapsFit(parts, laps);
@@ -437,7 +446,9 @@ export function checkRunAgainstPlan(
         note: 'the run ended before this part',
       };
     }
-    const { verdict, difference } = judgePart(part, actual, tolerance);
+    const before = plannedParts[plannedParts.indexOf(part) - 1];
+    const slack = before && unwritten.has(before) ? before.amount : undefined;
+    const { verdict, difference } = judgePart(part, actual, tolerance, slack);
     return {
       index: part.index,
       kind: part.kind,
@@ -450,10 +461,25 @@ export function checkRunAgainstPlan(
   });
 
   markSkippedReps(parts, checks);
-  // A recovery after the last rep that ends the session is optional (api-contract.md): drop it when not run.
-  const last = checks.at(-1)!;
-  const kept = parts.at(-1)!.kind === 'recovery jog' && last.actual.duration_s <= 0 ? checks.slice(0, -1) : checks;
+  const written = checks.filter((_, i) => !unwritten.has(parts[i]!));
+  // A written recovery after the last rep that ends the session is optional (api-contract.md): dropped when not run.
+  const last = written.at(-1);
+  const kept =
+    last && last.kind === 'recovery jog' && last.actual.duration_s <= 0 && written.length > 1 ? written.slice(0, -1) : written;
   return { method: useLaps ? 'device laps' : 'planned amounts', parts: kept, session_verdict: sessionVerdict(kept) };
+}
+
+/**
+ * True for a recovery jog that closes the last round of a repeat with a rep in it: shorthand writes
+ * recoveries between reps ("6 x 800 m w/ 400 m jog"), so this one exists only in the unrolled list.
+ * A recovery after the last rep is written as its own part after the repeat.
+ */
+export function isClosingRecovery(parts: readonly ExpandedPart[], i: number): boolean {
+  const part = parts[i]!;
+  if (part.kind !== 'recovery jog' || !part.repeat || part.repeat.round !== part.repeat.rounds || part.repeat.step === 0)
+    return false;
+  const next = parts[i + 1];
+  return !next || next.item_index !== part.item_index;
 }
 
 /** A rep run far slower than its target and about as slow as the recoveries around it was skipped. */

@@ -187,7 +187,8 @@ describe('GET /api/runs/:id/plan-check', () => {
     expect(res.status).toBe(200);
     expect(res.body.plan_id).toBe(plan.id);
     expect(res.body.session_verdict).toBe('partly');
-    expect(res.body.parts).toHaveLength(14);
+    // 14 unrolled, less the recovery after rep 6 that the plan did not write (issue #14).
+    expect(res.body.parts).toHaveLength(13);
     const reps = res.body.parts.filter((p: { kind: string }) => p.kind === 'rep');
     expect(reps.map((r: { verdict: string }) => r.verdict)).toEqual([
       'on pace',
@@ -202,8 +203,8 @@ describe('GET /api/runs/:id/plan-check', () => {
 
     const csv = await request(app).get(`/api/runs/${runId}/plan-check.csv`).set(auth);
     expect(csv.text.split('\r\n')[0]).toMatch(/^part,kind,planned_distance_m/);
-    expect(csv.text.trim().split('\r\n')).toHaveLength(15);
-  });
+    expect(csv.text.trim().split('\r\n')).toHaveLength(14);
+  }, 30_000);
 
   it('a run with no plan that day is unplanned; the runner can link it to a plan and unlink it', async () => {
     const app = freshApp();
@@ -231,7 +232,7 @@ describe('GET /api/runs/:id/plan-check', () => {
       .body.plan;
     expect((await request(app).put(`/api/runs/${runId}/plan`).set(auth).send({ plan_id: foreignPlan.id })).status).toBe(404);
     expect((await request(app).get(`/api/runs/${runId}/plan-check`).set(other.auth)).status).toBe(404);
-  });
+  }, 30_000);
 
   it('the runner or their coach sets the pace tolerance; a wider tolerance turns a slightly quick rep on pace', async () => {
     const app = freshApp();
@@ -257,5 +258,5 @@ describe('GET /api/runs/:id/plan-check', () => {
       (await request(app).put(`/api/runners/${runner.user.id}/pace-tolerance`).set(runner.auth).send({ pace_tolerance: 0.5 }))
         .status,
     ).toBe(400);
-  });
+  }, 30_000);
 });

@@ -10,6 +10,7 @@ import { PaceToleranceSchema } from '../../../shared/users/schemas.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { parseIdParam } from '../../lib/ids.ts';
+import { PlanCheckAnswerSchema } from '../../../shared/plans/plan-check-answer.ts';
 import { planCheckToCsv } from '../../../shared/plans/plan-check-csv.ts';
 import { setPaceTolerance } from './plans.service.ts';
 import {
@@ -125,6 +126,7 @@ export function createPlansRouter() {
       tag: 'plans',
       summary: 'The run against its session plan, part by part, with verdicts',
       access: 'own-data',
+      response: PlanCheckAnswerSchema,
     },
     async (req, res) => {
       res.json(await planCheckOfRun(requireActor(res), parseIdParam(req.params.id)));

@@ -20,6 +20,8 @@ import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts
 import { getReadableRun, loadRunSeriesAndLaps } from '../runs/runs.service.ts';
 import { assertCanPlanFor, assertCanReadRunner } from '../squads/runner-access.ts';
 import { findUsersByIds, updateUserProfile } from '../users/users.repository.ts';
+import { repBlocks } from '../../../shared/plans/rep-blocks.ts';
+import type { PlanCheckAnswer } from '../../../shared/plans/plan-check-answer.ts';
 import { findPlanCheckResults, savePlanCheckResults } from './plan-check-results.repository.ts';
 import { PLAN_CHECK_CODE_VERSION } from './plan-check-version.ts';
 import {
@@ -122,13 +124,8 @@ export async function removePlan(actor: Actor, id: string): Promise<void> {
   });
 }
 
-export interface PlanCheckResponse extends Omit<PlanCheckResult, 'parts'> {
-  plan_id: string | null;
-  plan: StoredPlan | null;
-  linked: 'chosen' | 'same day' | null;
-  tolerance: number;
-  parts: Array<PlanCheckResult['parts'][number] & { unresolved?: string }>;
-}
+/** The answer of `GET /api/runs/:id/plan-check`, declared once in shared/plans/plan-check-answer.ts. */
+export type PlanCheckResponse = PlanCheckAnswer;
 
 export async function planCheckOfRun(actor: Actor, runId: string): Promise<PlanCheckResponse> {
   return checkRun(await getReadableRun(actor, runId));
@@ -162,6 +159,7 @@ export function toPlanCheckResponse(check: RunCheck): PlanCheckResponse {
       const resolved = check.parts[part.index]!.resolved;
       return resolved.type === 'unresolved' ? { ...part, unresolved: resolved.reason } : part;
     }),
+    rep_blocks: repBlocks(check.parts, check.result.parts),
   };
 }
 

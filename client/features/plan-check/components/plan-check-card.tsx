@@ -3,7 +3,8 @@ import { formatLocalDate } from '../../../../shared/runs/display.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { Verdict } from '../../../components/ui/verdict.tsx';
-import { planCheckDownloads, usePlanCheck, type PlanCheck } from '../api/get-plan-check.ts';
+import type { PlanCheckAnswer } from '../../../../shared/plans/plan-check-answer.ts';
+import { planCheckDownloads, usePlanCheck } from '../api/get-plan-check.ts';
 import { PlanCheckHow } from './plan-check-how.tsx';
 import { PlanCheckTable } from './plan-check-table.tsx';
 import { PlanLinkControls } from './plan-link-controls.tsx';
@@ -79,7 +80,7 @@ export function PlanCheckCard({ runId, localDate, unit, isOwner }: PlanCheckCard
 }
 
 /** The plan's title, its date when it is not the run's, how it was linked, and its shorthand. */
-function PlanHeading({ check, localDate }: { check: PlanCheck; localDate: string }) {
+function PlanHeading({ check, localDate }: { check: PlanCheckAnswer; localDate: string }) {
   const plan = check.plan!;
   const how = check.linked === 'chosen' ? 'chosen for this run' : 'the plan of the run’s day';
   return (

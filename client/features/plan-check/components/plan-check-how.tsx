@@ -1,11 +1,11 @@
 import { formatTolerance } from '../../../../shared/plans/plan-check-display.ts';
-import type { PlanCheck } from '../api/get-plan-check.ts';
+import type { PlanCheckAnswer } from '../../../../shared/plans/plan-check-answer.ts';
 
 // Figures follow shared/plans/plan-check.ts (CUT_SHORT_BELOW, EXTENDED_ABOVE, LAP_FIT, REFINE_MAX_M,
 // SKIPPED_REP_SLOWER) and shared/plans/race-paces.ts (RECENT_RESULT_DAYS).
 
 /** How the plan check lines the run up with the plan and reaches each verdict. */
-export function PlanCheckHow({ method, tolerance }: Pick<PlanCheck, 'method' | 'tolerance'>) {
+export function PlanCheckHow({ method, tolerance }: Pick<PlanCheckAnswer, 'method' | 'tolerance'>) {
   return (
     <details className="rounded-md border border-line bg-paper px-3 py-2 text-sm">
       <summary className="cursor-pointer font-semibold text-teal">How this is computed</summary>

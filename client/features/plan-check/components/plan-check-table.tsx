@@ -7,6 +7,7 @@ import {
   formatDifference,
   formatPaceRange,
   formatPlannedDistance,
+  formatRepBlock,
   formatStops,
 } from '../../../../shared/plans/plan-check-display.ts';
 import type { PlanItem, DistanceUnit } from '../../../../shared/plans/types.ts';
@@ -15,9 +16,9 @@ import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
-import type { PlanCheck } from '../api/get-plan-check.ts';
+import type { PlanCheckAnswer } from '../../../../shared/plans/plan-check-answer.ts';
 
-type PartRow = PlanCheck['parts'][number] & {
+type PartRow = PlanCheckAnswer['parts'][number] & {
   /** "rep 4 of 6", "warm-up". */
   label: string;
   /** The unit the plan wrote this part's distance in; distances show in it so planned and run compare. */
@@ -48,7 +49,8 @@ function target(row: PartRow, unit: Unit): string {
 
 function createColumns(unit: Unit) {
   return helper.columns([
-    helper.accessor('index', { header: '#', ...number, cell: (info) => info.getValue() + 1 }),
+    // Rows are numbered as the summary sentence counts them (a recovery the plan did not write has no row).
+    helper.accessor('index', { header: '#', ...number, cell: (info) => info.row.index + 1 }),
     helper.accessor('label', { header: 'Part' }),
     helper.display({
       id: 'planned',
@@ -101,15 +103,28 @@ function createColumns(unit: Unit) {
   ]);
 }
 
-/** Labels and written units of the expanded parts, by index ("rep 4 of 6"). */
-function describeParts(items: readonly PlanItem[]): Array<{ label: string; written: DistanceUnit | null }> {
-  return expandParts(items).map((part) => ({
-    label: part.repeat ? `${part.kind} ${part.repeat.round} of ${part.repeat.rounds}` : part.kind,
-    written: part.amount.type === 'distance' ? part.amount.unit : null,
-  }));
+/**
+ * Labels and written units of the checked parts, by expanded index ("rep 4 of 6"). A repeated step is
+ * counted among the rows the check has, so five recoveries between six reps read "recovery jog 5 of 5".
+ */
+function describeParts(
+  items: readonly PlanItem[],
+  checked: ReadonlyArray<{ index: number }>,
+): Map<number, { label: string; written: DistanceUnit | null }> {
+  const expanded = expandParts(items);
+  const rows = checked.map((c) => expanded[c.index]).filter((p) => p !== undefined);
+  const out = new Map<number, { label: string; written: DistanceUnit | null }>();
+  for (const part of rows) {
+    const same = part.repeat ? rows.filter((p) => p.item_index === part.item_index && p.repeat?.step === part.repeat!.step) : [];
+    out.set(part.index, {
+      label: part.repeat ? `${part.kind} ${same.indexOf(part) + 1} of ${same.length}` : part.kind,
+      written: part.amount.type === 'distance' ? part.amount.unit : null,
+    });
+  }
+  return out;
 }
 
-type PlanCheckTableProps = { check: PlanCheck; unit: Unit };
+type PlanCheckTableProps = { check: PlanCheckAnswer; unit: Unit };
 
 /**
  * One row per expanded part, in the plan's order (so not sortable): planned and run amounts, pace and
@@ -117,73 +132,84 @@ type PlanCheckTableProps = { check: PlanCheck; unit: Unit };
  * part's note (a skipped rep, a race pace that could not be resolved) shows on a line under it.
  */
 export function PlanCheckTable({ check, unit }: PlanCheckTableProps) {
-  const described = describeParts(check.plan?.parts ?? []);
+  const described = describeParts(check.plan?.parts ?? [], check.parts);
   const data: PartRow[] = check.parts.map((part) => ({
     ...part,
-    label: described[part.index]?.label ?? part.kind,
-    written: described[part.index]?.written ?? unit,
+    label: described.get(part.index)?.label ?? part.kind,
+    written: described.get(part.index)?.written ?? unit,
   }));
   const columns = useMemo(() => createColumns(unit), [unit]);
   const table = useTable({ features: sortableTableFeatures, columns, data });
 
   return (
-    <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
-      <table className="w-full min-w-3xl text-sm">
-        <caption className="sr-only">{`Plan check, part by part, pace per ${unit}`}</caption>
-        <thead className="border-b border-line-strong text-ink-muted">
-          {table.getHeaderGroups().map((group) => (
-            <tr key={group.id}>
-              {group.headers.map((header) => (
-                <th
-                  key={header.id}
-                  scope="col"
-                  className={cn(
-                    'py-1.5 pr-3 font-semibold whitespace-nowrap last:pr-0',
-                    header.column.columnDef.meta?.align === 'right' ? 'text-right' : 'text-left',
-                  )}
-                >
-                  <table.FlexRender header={header} />
-                </th>
-              ))}
-            </tr>
+    <>
+      {check.rep_blocks.length > 0 && (
+        <ul className="mb-2 space-y-1 text-sm" aria-label="Reps at a glance">
+          {check.rep_blocks.map((block) => (
+            <li key={`${block.item_index}:${block.step}`} className="break-words tabular-nums">
+              {formatRepBlock(block, unit)}
+            </li>
           ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => {
-            const note = [row.original.note, row.original.unresolved].filter(Boolean).join('; ');
-            return (
-              <Fragment key={row.id}>
-                <tr className={cn('border-line', note ? '' : 'border-b last:border-0')}>
-                  {row.getAllCells().map((cell) => {
-                    const right = cell.column.columnDef.meta?.align === 'right';
-                    const className = cn(
-                      'py-1.5 pr-3 whitespace-nowrap last:pr-0',
-                      right ? 'text-right tabular-nums' : 'text-left',
-                    );
-                    return cell.column.id === 'index' ? (
-                      <th key={cell.id} scope="row" className={cn(className, 'font-semibold')}>
-                        <table.FlexRender cell={cell} />
-                      </th>
-                    ) : (
-                      <td key={cell.id} className={className}>
-                        <table.FlexRender cell={cell} />
-                      </td>
-                    );
-                  })}
-                </tr>
-                {note && (
-                  <tr className="border-b border-line last:border-0">
-                    <td />
-                    <td colSpan={columns.length - 1} className="pb-1.5 text-ink-muted">
-                      Part {row.original.index + 1}: {note}.
-                    </td>
+        </ul>
+      )}
+      <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
+        <table className="w-full min-w-3xl text-sm">
+          <caption className="sr-only">{`Plan check, part by part, pace per ${unit}`}</caption>
+          <thead className="border-b border-line-strong text-ink-muted">
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id}>
+                {group.headers.map((header) => (
+                  <th
+                    key={header.id}
+                    scope="col"
+                    className={cn(
+                      'py-1.5 pr-3 font-semibold whitespace-nowrap last:pr-0',
+                      header.column.columnDef.meta?.align === 'right' ? 'text-right' : 'text-left',
+                    )}
+                  >
+                    <table.FlexRender header={header} />
+                  </th>
+                ))}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => {
+              const note = [row.original.note, row.original.unresolved].filter(Boolean).join('; ');
+              return (
+                <Fragment key={row.id}>
+                  <tr className={cn('border-line', note ? '' : 'border-b last:border-0')}>
+                    {row.getAllCells().map((cell) => {
+                      const right = cell.column.columnDef.meta?.align === 'right';
+                      const className = cn(
+                        'py-1.5 pr-3 whitespace-nowrap last:pr-0',
+                        right ? 'text-right tabular-nums' : 'text-left',
+                      );
+                      return cell.column.id === 'index' ? (
+                        <th key={cell.id} scope="row" className={cn(className, 'font-semibold')}>
+                          <table.FlexRender cell={cell} />
+                        </th>
+                      ) : (
+                        <td key={cell.id} className={className}>
+                          <table.FlexRender cell={cell} />
+                        </td>
+                      );
+                    })}
                   </tr>
-                )}
-              </Fragment>
-            );
-          })}
-        </tbody>
-      </table>
-    </div>
+                  {note && (
+                    <tr className="border-b border-line last:border-0">
+                      <td />
+                      <td colSpan={columns.length - 1} className="pb-1.5 text-ink-muted">
+                        Part {row.index + 1}: {note}.
+                      </td>
+                    </tr>
+                  )}
+                </Fragment>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+    </>
   );
 }

@@ -6,14 +6,14 @@ import { Button } from '../../../components/ui/button.tsx';
 import { SelectField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { paths } from '../../../config/paths.ts';
-import type { PlanCheck } from '../api/get-plan-check.ts';
+import type { PlanCheckAnswer } from '../../../../shared/plans/plan-check-answer.ts';
 import { usePlansNear } from '../api/get-plans-near.ts';
 import { useLinkRunPlan, type PlanLink } from '../api/link-run-plan.ts';
 
 /** Plans this many days either side of the run are offered for linking. */
 const DAYS_AROUND = 3;
 
-type PlanLinkControlsProps = { runId: string; localDate: string; check: PlanCheck };
+type PlanLinkControlsProps = { runId: string; localDate: string; check: PlanCheckAnswer };
 
 /**
  * The run's owner picks which session plan the run is checked against: one of their plans of the
