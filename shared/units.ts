@@ -5,6 +5,8 @@
  */
 export const METRES_PER_MILE = 1609.344;
 export const METRES_PER_KM = 1000;
+/** Metres in one display unit: the one table every feature converts miles and kilometres with. */
+export const UNIT_METRES: Readonly<Record<'mi' | 'km', number>> = { mi: METRES_PER_MILE, km: METRES_PER_KM };
 export const MARATHON_M = 42_195;
 export const HALF_MARATHON_M = 21_097.5;
 

@@ -1,4 +1,5 @@
 import { CSV_LINE_END, csvCell, csvLine, csvNumber } from '../csv/csv-writer.ts';
+import { UNIT_METRES } from '../units.ts';
 import { formatPace } from '../tracks/format.ts';
 import type { Split, SplitUnit } from '../tracks/types.ts';
 import { splitsToCsv } from '../runs/splits-csv.ts';
@@ -60,8 +61,8 @@ export function runCsvLine(run: ExportRun): string {
     csvNumber(run.distance_m, 1),
     csvNumber(run.elapsed_s, 1),
     csvNumber(run.moving_s, 1),
-    paceOf(run, 1000),
-    paceOf(run, 1609.344),
+    paceOf(run, UNIT_METRES.km),
+    paceOf(run, UNIT_METRES.mi),
     csvNumber(run.ascent_m, 1),
     csvNumber(run.descent_m, 1),
     csvNumber(run.avg_hr === null ? null : Math.round(run.avg_hr), 0),

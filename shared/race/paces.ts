@@ -1,11 +1,7 @@
+import { UNIT_METRES } from '../units.ts';
 import { MILE_M } from './distances.ts';
 
 export type PaceUnit = 'mi' | 'km';
-
-/** Metres in one `unit`: 1609.344 for the international mile (REFERENCES.md §1), 1000 for the km. */
-export function unitLengthM(unit: PaceUnit): number {
-  return unit === 'mi' ? MILE_M : 1000;
-}
 
 /** An average pace in seconds per km and per mile. */
 export interface Pace {
@@ -93,7 +89,7 @@ export function splitTable(distanceM: number, goalS: number, { unit, negativeSpl
   const secondS = (goalS - negativeSplitS) / 2;
   const clockAt = (d: number): number => (d <= halfM ? (d / halfM) * firstS : firstS + ((d - halfM) / halfM) * secondS);
 
-  const unitM = unitLengthM(unit);
+  const unitM = UNIT_METRES[unit];
   const splits: PlannedSplit[] = [];
   for (const [i, d] of boundaries(distanceM, unitM).entries()) {
     const previous = splits[i - 1];

@@ -1,5 +1,5 @@
 import type { SplitUnit } from '../tracks/types.ts';
-import { UNIT_METRES } from './display.ts';
+import { UNIT_METRES } from '../units.ts';
 
 /** The run's series as the track route returns it (thinned; nulls where a value is unknown). */
 export interface TrackColumns {

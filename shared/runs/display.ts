@@ -1,8 +1,5 @@
 import type { CleaningReport, SplitUnit } from '../tracks/types.ts';
-import { METRES_PER_KM, METRES_PER_MILE } from '../units.ts';
-
-/** Metres in one display unit: the international mile (1609.344 m) and the kilometre. */
-export const UNIT_METRES: Readonly<Record<SplitUnit, number>> = { mi: METRES_PER_MILE, km: METRES_PER_KM };
+import { UNIT_METRES } from '../units.ts';
 
 /**
  * A distance in `unit` as a plain number with `decimals` places (default 2); '' for invalid input.

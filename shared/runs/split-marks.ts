@@ -1,5 +1,5 @@
 import type { Split } from '../tracks/types.ts';
-import { UNIT_METRES } from './display.ts';
+import { UNIT_METRES } from '../units.ts';
 
 /** A split within half a metre of the unit counts as full (boundaries are interpolated at exactly k × unit). */
 const FULL_SPLIT_TOLERANCE_M = 0.5;

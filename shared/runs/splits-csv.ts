@@ -1,7 +1,7 @@
 import { csvNumber, toCsv } from '../csv/csv-writer.ts';
 import { formatPace } from '../tracks/format.ts';
 import type { Split, SplitUnit } from '../tracks/types.ts';
-import { SPLIT_UNIT_M } from '../tracks/splits.ts';
+import { UNIT_METRES } from '../units.ts';
 
 /** The columns promised in api-contract.md, in order; more may follow, never fewer. */
 export const SPLITS_CSV_COLUMNS = [
@@ -25,7 +25,7 @@ const EXTRA_COLUMNS = ['flat_pace', 'avg_cadence'] as const;
  * empty cells where a value is unknown. Written by the app's one CSV writer (shared/csv/csv-writer.ts).
  */
 export function splitsToCsv(splits: readonly Split[], unit: SplitUnit): string {
-  const unitM = SPLIT_UNIT_M[unit];
+  const unitM = UNIT_METRES[unit];
   const rows = splits.map((s) => [
     s.index,
     unit,

@@ -1,4 +1,4 @@
-import { METRES_PER_MILE } from './geodesy.ts';
+import { METRES_PER_MILE } from '../units.ts';
 import type { FastestSection, TrackSeries } from './types.ts';
 
 /** The distances of fastest sections, metres: 400 m, 1 km, 1 mile, 5 km, 10 km, half, marathon. */

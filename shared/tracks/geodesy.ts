@@ -5,8 +5,6 @@ import geodesic from 'geographiclib-geodesic';
 const { Geodesic } = geodesic;
 const WGS84 = Geodesic.WGS84;
 
-export { METRES_PER_KM, METRES_PER_MILE } from '../units.ts';
-
 /** True when `lat` ∈ [−90, 90] and `lon` ∈ [−180, 180] and both are finite numbers. */
 export function isValidPosition(lat: number | undefined, lon: number | undefined): boolean {
   return (

@@ -1,9 +1,8 @@
-import { METRES_PER_KM, METRES_PER_MILE } from './geodesy.ts';
+import { UNIT_METRES } from '../units.ts';
 import type { Split, SplitUnit, TrackSeries } from './types.ts';
 import { measureWindow } from './window-stats.ts';
 
 /** Metres in one split unit. */
-export const SPLIT_UNIT_M: Readonly<Record<SplitUnit, number>> = { mi: METRES_PER_MILE, km: METRES_PER_KM };
 
 /**
  * A remainder after the last full split shorter than this (metres) is not reported as a
@@ -46,7 +45,7 @@ export function computeSplits(series: TrackSeries, unit: SplitUnit): Split[] {
   const { t, d } = series;
   const n = t.length;
   if (n < 2) return [];
-  const unitM = SPLIT_UNIT_M[unit];
+  const unitM = UNIT_METRES[unit];
   const total = d[n - 1] as number;
   const fullSplits = Math.floor(total / unitM);
   const splits: Split[] = [];

@@ -1,4 +1,4 @@
-import { METRES_PER_KM, METRES_PER_MILE } from './geodesy.ts';
+import { METRES_PER_KM, METRES_PER_MILE } from '../units.ts';
 import type { RunSummary, TrackSeries } from './types.ts';
 import { measureWindow } from './window-stats.ts';
 

@@ -9,7 +9,8 @@
  * GPS noise drifts like real GPS: a first-order Gauss–Markov (AR(1)) process per axis from a
  * seeded PRNG, so the result is deterministic for a given seed.
  */
-import { geodesicDirect, METRES_PER_KM, METRES_PER_MILE } from './geodesy.ts';
+import { METRES_PER_KM, METRES_PER_MILE } from '../units.ts';
+import { geodesicDirect } from './geodesy.ts';
 import type { SplitUnit, TrackPoint } from './types.ts';
 
 /** The invented lake's starting jetty (open water far from any real lake). */

@@ -5,6 +5,7 @@
  * leaving the decision to the coach; each names where its rule comes from.
  */
 import { describeMarathonEffortRule, EASY_RULE } from '../race/training-ranges.ts';
+import { UNIT_METRES } from '../units.ts';
 import { acuteChronicRatio, type AcuteChronic, type DailyLoad } from './load.ts';
 import { dayOfWeek, isIsoDate, weekDates } from './weeks.ts';
 import { crossTrainingSeconds, missedReasonOf, type WeekDayMark, type MissedReason } from './day-marks.ts';
@@ -140,7 +141,6 @@ const SOURCES: Record<FlagCode, string> = {
   'long-run-missed': "The runner's plan.",
 };
 
-const METRES_PER_UNIT: Record<DistanceUnit, number> = { km: 1000, mi: 1609.344 };
 const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'] as const;
 const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'] as const;
 
@@ -379,12 +379,12 @@ function formatDay(date: string): string {
 
 /** '42.2 km', '26.2 mi' */
 function formatDistance(metres: number, unit: DistanceUnit): string {
-  return `${(metres / METRES_PER_UNIT[unit]).toFixed(1)} ${unit}`;
+  return `${(metres / UNIT_METRES[unit]).toFixed(1)} ${unit}`;
 }
 
 /** '5:07 /km' from seconds per km, in the chosen unit. */
 function formatPace(secondsPerKm: number, unit: DistanceUnit): string {
-  const total = Math.round((secondsPerKm * METRES_PER_UNIT[unit]) / 1000);
+  const total = Math.round((secondsPerKm * UNIT_METRES[unit]) / 1000);
   return `${Math.floor(total / 60)}:${String(total % 60).padStart(2, '0')} /${unit}`;
 }
 

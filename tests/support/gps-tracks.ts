@@ -9,7 +9,8 @@
  * axis (correlated noise, as consumer receivers show) plus optional white jitter, from a seeded
  * PRNG, so every track is reproducible.
  */
-import { geodesicDirect, geodesicInverse, METRES_PER_KM, METRES_PER_MILE } from '../../shared/tracks/geodesy.ts';
+import { geodesicDirect, geodesicInverse } from '../../shared/tracks/geodesy.ts';
+import { METRES_PER_KM, METRES_PER_MILE } from '../../shared/units.ts';
 import { metresPerDegree } from '../../shared/tracks/position-smoother.ts';
 import { createPrng } from '../../shared/tracks/synthetic.ts';
 import type { SplitUnit, TrackPoint } from '../../shared/tracks/types.ts';

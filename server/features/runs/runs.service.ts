@@ -7,6 +7,7 @@ import { estimateRunEnergy } from '../../../shared/tracks/energy.ts';
 import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.ts';
 import { seriesPositions } from '../../../shared/tracks/series.ts';
 import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
+import { METRES_PER_MILE } from '../../../shared/units.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
 import { originalContentType } from '../../../shared/runs/original-download.ts';
@@ -309,7 +310,7 @@ export async function describeRun(actor: Actor, runId: string) {
       ended_at: run.ended_at.toISOString(),
       time_zone_source: run.time_zone_source,
       distance_source: run.distance_source,
-      pace_s_per_mi: run.moving_s > 0 && run.distance_m > 0 ? run.moving_s / (run.distance_m / 1609.344) : null,
+      pace_s_per_mi: run.moving_s > 0 && run.distance_m > 0 ? run.moving_s / (run.distance_m / METRES_PER_MILE) : null,
       descent_m: run.descent_m,
       max_hr: run.max_hr,
       avg_cad: run.avg_cad,

@@ -1,6 +1,7 @@
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { groupForDigest } from '../../../shared/weeks/csv.ts';
 import type { Unit } from '../../../shared/users/schemas.ts';
+import { UNIT_METRES } from '../../../shared/units.ts';
 import type { AppConfig } from '../../config.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
@@ -17,7 +18,7 @@ const HEADINGS = {
 
 /** '24.3 km', '15.1 mi' (the international mile, 1609.344 m). */
 function distance(m: number, unit: Unit): string {
-  return `${(m / (unit === 'mi' ? 1609.344 : 1000)).toFixed(1)} ${unit}`;
+  return `${(m / UNIT_METRES[unit]).toFixed(1)} ${unit}`;
 }
 
 function hoursMinutes(seconds: number): string {

@@ -2,11 +2,12 @@ import { formatDistance, pacePerUnit } from '../../../../shared/runs/display.ts'
 import type { FastestSection } from '../../../../shared/runs/types.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
+import { METRES_PER_MILE } from '../../../../shared/units.ts';
 
 const NAMES: Record<number, string> = {
   400: '400 m',
   1000: '1 km',
-  1609.344: '1 mile',
+  [METRES_PER_MILE]: '1 mile',
   5000: '5 km',
   10000: '10 km',
   21097.5: 'Half marathon',

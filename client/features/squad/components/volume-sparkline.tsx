@@ -1,5 +1,5 @@
 import { lazy, Suspense } from 'react';
-import { UNIT_METRES } from '../../../../shared/runs/display.ts';
+import { UNIT_METRES } from '../../../../shared/units.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 
 const VolumeSparklineChart = lazy(() => import('./volume-sparkline-chart.tsx'));

@@ -3,6 +3,7 @@ import { describeDistance } from '../../../../shared/race/distances.ts';
 import type { PaceUnit, SplitTable } from '../../../../shared/race/paces.ts';
 import { PaceFormSchema, type PacesQuery, type PacesResponse } from '../../../../shared/race/schemas.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
+import { UNIT_METRES } from '../../../../shared/units.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { TextField } from '../../../components/ui/field.tsx';
@@ -120,7 +121,7 @@ function PaceSummary({ data }: { data: PacesResponse }) {
 }
 
 function SplitsTable({ table }: { table: SplitTable }) {
-  const unitM = table.unit === 'mi' ? 1609.344 : 1000;
+  const unitM = UNIT_METRES[table.unit];
   return (
     <div className="min-w-0">
       <h3 className="mb-2 font-semibold">Splits per {table.unit === 'mi' ? 'mile' : 'km'}</h3>

@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import {
-  geodesicDirect,
-  geodesicDistance,
-  geodesicInverse,
-  isValidPosition,
-  METRES_PER_KM,
-  METRES_PER_MILE,
-} from '../../../../shared/tracks/geodesy.ts';
+import { geodesicDirect, geodesicDistance, geodesicInverse, isValidPosition } from '../../../../shared/tracks/geodesy.ts';
+import { METRES_PER_KM, METRES_PER_MILE } from '../../../../shared/units.ts';
 
 function dms(deg: number, min: number, sec: number): number {
   const sign = deg < 0 ? -1 : 1;
