@@ -92,8 +92,6 @@ export const ApiTokenSchema = z.object({
 });
 export type ApiToken = z.infer<typeof ApiTokenSchema>;
 
-export const IdParamsSchema = z.object({ id: z.uuid({ error: 'Not found.' }) });
-
 /** Cookie and header names shared by server and client. */
 export const SESSION_COOKIE = 'pw_session';
 export const CSRF_COOKIE = 'pw_csrf';

@@ -42,11 +42,6 @@ export async function pageSourceFilesOf(
   return query.orderBy('id').limit(limit);
 }
 
-export async function listAllSourceFileKeys(userId: string, trx: Db = db): Promise<string[]> {
-  const rows = await trx('source_files').where({ user_id: userId }).select('storage_key');
-  return rows.map((r) => r.storage_key);
-}
-
 export async function listPlansOfRunner(runnerId: string, trx: Db = db): Promise<SessionPlanRow[]> {
   return trx('session_plans')
     .where({ runner_id: runnerId })

@@ -72,14 +72,6 @@ export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts
     .orderBy('week_reviews.reviewed_at');
 }
 
-export async function weeklyDistances(runnerId: string, from: string, to: string, trx: Db = db) {
-  return trx('runs')
-    .where({ user_id: runnerId })
-    .andWhere('local_date', '>=', from)
-    .andWhere('local_date', '<=', to)
-    .select<Array<{ local_date: string; distance_m: number }>>('local_date', 'distance_m');
-}
-
 export async function listWeekNotes(runnerId: string, weekStart: string, trx: Db = db) {
   return trx('week_notes')
     .join('users', 'users.id', 'week_notes.author_id')

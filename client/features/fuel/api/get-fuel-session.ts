@@ -1,4 +1,4 @@
-import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
@@ -11,7 +11,3 @@ export async function getFuelSession(planId: string): Promise<Plan> {
 
 export const fuelSessionQueryOptions = (planId: string) =>
   queryOptions({ queryKey: fuelKeys.session(planId), queryFn: () => getFuelSession(planId) });
-
-export function useFuelSession(planId: string): Plan {
-  return useSuspenseQuery(fuelSessionQueryOptions(planId)).data;
-}
