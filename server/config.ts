@@ -33,7 +33,7 @@ export interface AppConfig {
   orphanGraceSeconds: number;
 }
 
-/** `DATABASE_URL`, else the embedded cluster on loopback (scripts/pg.sh). */
+/** `DATABASE_URL`, else the embedded cluster on loopback (db/pg.sh). */
 export function databaseUrlFromEnv(env: NodeJS.ProcessEnv = process.env): string {
   return env.DATABASE_URL ?? `postgres://postgres@127.0.0.1:${env.PGPORT ?? 54329}/pacewright`;
 }

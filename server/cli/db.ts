@@ -35,7 +35,7 @@ try {
     await loadDemoData(db);
     console.log('Demo data loaded.');
   } else {
-    console.error('Usage: scripts/db.ts migrate|rollback|seed|make <name>');
+    console.error('Usage: npm run db:migrate | db:rollback | db:seed | db:make -- <name>');
     process.exitCode = 2;
   }
 } finally {

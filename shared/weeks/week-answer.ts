@@ -1,7 +1,7 @@
 /**
  * The week review answer (`GET /api/runners/:id/week`), declared once: the server answers with this
  * type and the client imports it. Every field here is rendered by the week review; the test
- * tests/unit/client/week-review-fields.test.tsx walks these shapes and fails when one is not shown.
+ * tests/unit/client/week-review-fields.test.ts walks these shapes and fails when one is not shown.
  */
 import { z } from 'zod';
 import { RunListItemSchema } from '../runs/schemas.ts';

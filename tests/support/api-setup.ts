@@ -1,7 +1,7 @@
 import { afterAll, beforeEach } from 'vitest';
 import { db } from '../../server/lib/db.ts';
 
-// Every API test starts from empty tables (migrations ran once in scripts/test.ts).
+// Every API test starts from empty tables (migrations ran once in tests/run.ts).
 beforeEach(async () => {
   const { rows } = await db.raw<{ rows: Array<{ tablename: string }> }>(
     "select tablename from pg_tables where schemaname = 'public' and tablename not like 'knex_migrations%'",

@@ -4,7 +4,7 @@ import { readFileSync } from 'node:fs';
 /**
  * The code that turns a run's series and its plan's resolved parts into a result. It imports no other
  * code today (only types); a module it starts importing at run time belongs here too
- * (tests/unit/server/plan-check-version.test.ts checks that).
+ * (tests/unit/server/plans/plan-check-version.test.ts checks that).
  */
 export const PLAN_CHECK_SOURCES = ['shared/plans/plan-check.ts'] as const;
 
