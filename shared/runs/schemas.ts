@@ -57,10 +57,27 @@ export type RunListItem = z.infer<typeof RunListItemSchema>;
 
 export const ImportResultSchema = z.object({
   imported: z.array(RunListItemSchema.extend({ file: z.string() })),
-  duplicates: z.array(z.object({ file: z.string(), runId: z.string() })),
+  /**
+   * `same file`: these very bytes were uploaded before. `same run`: an activity starting within 5 s of
+   * a stored run with a distance within 2 % (shared/runs/duplicates.ts); upload again with
+   * `?duplicates=import` to import it anyway. `activity`: 1-based activity of a multi-activity file, else null.
+   */
+  duplicates: z.array(
+    z.object({
+      file: z.string(),
+      runId: z.string(),
+      reason: z.enum(['same file', 'same run']),
+      activity: z.number().nullable(),
+    }),
+  ),
   rejected: z.array(z.object({ file: z.string(), error: z.string() })),
 });
 export type ImportResult = z.infer<typeof ImportResultSchema>;
+
+/** `POST /api/runs?duplicates=import`: import activities that match a stored run anyway. */
+export const UploadRunsQuerySchema = z
+  .object({ duplicates: z.enum(['skip', 'import'], { error: "duplicates is 'skip' or 'import'." }).optional() })
+  .strict();
 
 export const NewRunNoteInputSchema = z
   .object({

@@ -88,7 +88,9 @@ describe('POST /api/runs', () => {
     const first = await request(app).post('/api/runs').set(auth).attach('files', sample('run-hr-4s.gpx'), 'run-hr-4s.gpx');
     const again = await request(app).post('/api/runs').set(auth).attach('files', sample('run-hr-4s.gpx'), 'renamed.gpx');
     expect(again.status).toBe(422);
-    expect(again.body.duplicates).toEqual([{ file: 'renamed.gpx', runId: first.body.imported[0].id }]);
+    expect(again.body.duplicates).toEqual([
+      { file: 'renamed.gpx', runId: first.body.imported[0].id, reason: 'same file', activity: null },
+    ]);
     expect((await counts()).runs).toBe(1);
   });
 

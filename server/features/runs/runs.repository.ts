@@ -51,6 +51,27 @@ export async function findFirstRunOfSourceFile(sourceFileId: string, trx: Db = d
   return trx('runs').where({ source_file_id: sourceFileId }).orderBy('activity_index').first();
 }
 
+/** The activity indexes of a stored file that have a run. */
+export async function findActivityIndexesOfSourceFile(sourceFileId: string, trx: Db = db): Promise<number[]> {
+  const rows: Array<{ activity_index: number }> = await trx('runs')
+    .where({ source_file_id: sourceFileId })
+    .select('activity_index');
+  return rows.map((r) => r.activity_index);
+}
+
+/** The runner's runs starting within `windowMs` of `startT` (ms): the candidates for the same run twice. */
+export async function findRunsStartingNear(
+  userId: string,
+  startT: number,
+  windowMs: number,
+  trx: Db = db,
+): Promise<Array<Pick<RunRow, 'id' | 'started_at' | 'distance_m'>>> {
+  return trx('runs')
+    .where({ user_id: userId })
+    .whereBetween('started_at', [new Date(startT - windowMs), new Date(startT + windowMs)])
+    .select('id', 'started_at', 'distance_m');
+}
+
 export async function insertSourceFile(row: Omit<SourceFileRow, 'id' | 'created_at'>, trx: Db): Promise<SourceFileRow> {
   const [inserted] = await trx('source_files').insert(row).returning('*');
   return inserted as SourceFileRow;

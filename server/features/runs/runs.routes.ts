@@ -9,6 +9,7 @@ import {
   RenameRunInputSchema,
   RunListItemSchema,
   SplitsCsvQuerySchema,
+  UploadRunsQuerySchema,
   type ListRunsQuery,
 } from '../../../shared/runs/schemas.ts';
 import { formatFileSize } from '../../../shared/units.ts';
@@ -83,6 +84,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       summary:
         'Upload GPX/TCX files (also .gz) as multipart parts named "files"; 201 when at least one run was imported, else 422',
       access: 'own-data',
+      query: UploadRunsQuerySchema,
       response: ImportResultSchema,
       status: 201,
       before: [uploadFiles(config.uploadMaxFileBytes)],
@@ -95,7 +97,8 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       }));
       if (files.length === 0) throw new BadRequestError('Choose at least one .gpx or .tcx file to upload.', 'no-files');
       const actor = requireActor(res);
-      const result = await importFiles(actor, files, store);
+      const { duplicates } = res.locals.query as z.infer<typeof UploadRunsQuerySchema>;
+      const result = await importFiles(actor, files, store, { importDuplicates: duplicates === 'import' });
       await notifyCoachesOfImport(actor, result.imported, mailer, config);
       res.status(result.imported.length > 0 ? 201 : 422).json(result);
     },

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import tzLookup from '@photostructure/tz-lookup';
 import { runFileName } from '../../../shared/runs/file-names.ts';
 import { analyseTrack, type RunAnalysis } from '../../../shared/tracks/analyse.ts';
+import { lapCoverageProblem } from '../../../shared/tracks/lap-coverage.ts';
 import { localDateTime } from '../../../shared/runs/local-time.ts';
 import { estimateRunEnergy } from '../../../shared/tracks/energy.ts';
 import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.ts';
@@ -10,6 +11,7 @@ import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import { METRES_PER_MILE } from '../../../shared/units.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
+import { isSameRun, SAME_RUN_START_S } from '../../../shared/runs/duplicates.ts';
 import { originalContentType } from '../../../shared/runs/original-download.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
@@ -35,6 +37,8 @@ import {
   findRunParts,
   findRunTrack,
   findRunWithParts,
+  findRunsStartingNear,
+  findActivityIndexesOfSourceFile,
   findSourceFileById,
   findSourceFileBySha,
   findSplits,
@@ -192,29 +196,82 @@ const GENERIC_REJECTION =
  * (the run rows and the original file together), so a file is imported whole or not at all.
  * A file whose content was uploaded before is reported as a duplicate of the existing run.
  */
-export async function importFiles(user: UserRow, files: UploadedFile[], store: FileStore): Promise<ImportResult> {
+export async function importFiles(
+  user: UserRow,
+  files: UploadedFile[],
+  store: FileStore,
+  options: { importDuplicates?: boolean } = {},
+): Promise<ImportResult> {
   const result: ImportResult = { imported: [], duplicates: [], rejected: [] };
+  const sameFile = (file: string, runId: string) => ({ file, runId, reason: 'same file' as const, activity: null });
   for (const file of files) {
     const sha256 = createHash('sha256').update(file.data).digest('hex');
     const existing = await findSourceFileBySha(user.id, sha256);
+    // Activities of this very file already stored; with "import anyway" the others still come in
+    // (a multi-activity file whose one activity matched a run from another file).
+    const present = new Set<number>();
     if (existing) {
       const run = await findFirstRunOfSourceFile(existing.id);
-      if (run) result.duplicates.push({ file: file.name, runId: run.id });
-      continue;
+      if (!options.importDuplicates || !run) {
+        if (run) result.duplicates.push(sameFile(file.name, run.id));
+        continue;
+      }
+      for (const index of await findActivityIndexesOfSourceFile(existing.id)) present.add(index);
     }
     let parsed: ParsedRun[];
     let analyses: RunAnalysis[];
     try {
       parsed = parseTrackFile(file.data);
       analyses = parsed.map((p) => analyseTrack(p.track));
+      // A track that cannot be what its own laps record is refused whole: nothing half-imported.
+      parsed.forEach((p, i) => {
+        const problem = lapCoverageProblem(analyses[i]!.summary, p.laps, p.track.report);
+        if (problem) throw new ImportRejection('track-not-laps', parsed.length > 1 ? `Activity ${i + 1}: ${problem}` : problem);
+      });
     } catch (err) {
       if (!(err instanceof ImportRejection)) logger.warn({ err, file: file.name }, 'import failed unexpectedly');
       result.rejected.push({ file: file.name, error: err instanceof ImportRejection ? err.message : GENERIC_REJECTION });
       continue;
     }
-    const storageKey = `${user.id}/${sha256}`;
+    // The same run in another file: each activity on its own (start within 5 s, distance within 2 %).
+    const keep: number[] = [];
+    for (let i = 0; i < parsed.length; i++) {
+      if (present.has(parsed[i]!.activity_index)) continue;
+      const mine = { started_at_t: analyses[i]!.summary.started_at_t, distance_m: analyses[i]!.summary.distance_m };
+      const stored = options.importDuplicates
+        ? undefined
+        : (await findRunsStartingNear(user.id, mine.started_at_t, SAME_RUN_START_S * 1000)).find((r) =>
+            isSameRun(mine, { started_at_t: r.started_at.getTime(), distance_m: r.distance_m }),
+          );
+      if (stored)
+        result.duplicates.push({
+          file: file.name,
+          runId: stored.id,
+          reason: 'same run',
+          activity: parsed.length > 1 ? i + 1 : null,
+        });
+      else keep.push(i);
+    }
+    if (keep.length === 0) {
+      // With "import anyway", only activities of this very file already stored are left out.
+      if (existing) {
+        const run = await findFirstRunOfSourceFile(existing.id);
+        if (run) result.duplicates.push(sameFile(file.name, run.id));
+      }
+      continue;
+    }
+    const storageKey = existing?.storage_key ?? `${user.id}/${sha256}`;
     try {
       const rows = await db.transaction(async (trx) => {
+        const inserted: RunRow[] = [];
+        if (existing) {
+          // The original is stored already and referenced by its other runs.
+          for (const i of keep) {
+            const record = buildRunRecord(user, existing.id, parsed[i]!, analyses[i]!);
+            inserted.push(await insertRunWhole(record.run, record.children, trx));
+          }
+          return inserted;
+        }
         const source = await insertSourceFile(
           {
             user_id: user.id,
@@ -226,8 +283,7 @@ export async function importFiles(user: UserRow, files: UploadedFile[], store: F
           },
           trx,
         );
-        const inserted: RunRow[] = [];
-        for (let i = 0; i < parsed.length; i++) {
+        for (const i of keep) {
           const record = buildRunRecord(user, source.id, parsed[i]!, analyses[i]!);
           inserted.push(await insertRunWhole(record.run, record.children, trx));
         }
@@ -242,12 +298,12 @@ export async function importFiles(user: UserRow, files: UploadedFile[], store: F
       if (isUniqueViolation(err)) {
         const again = await findSourceFileBySha(user.id, sha256);
         const run = again && (await findFirstRunOfSourceFile(again.id));
-        if (run) result.duplicates.push({ file: file.name, runId: run.id });
+        if (run) result.duplicates.push(sameFile(file.name, run.id));
         continue;
       }
       // Nothing was committed; make sure no stray original is left either, and tell the runner.
       logger.error({ err, file: file.name }, 'storing an import failed');
-      await deleteOriginalUnlessReferenced(storageKey, store).catch(() => undefined);
+      if (!existing) await deleteOriginalUnlessReferenced(storageKey, store).catch(() => undefined);
       result.rejected.push({
         file: file.name,
         error: 'This file could not be saved just now. Nothing was stored; please try again.',

@@ -5,10 +5,15 @@ import { api } from '../../../lib/api-client.ts';
 import { runKeys } from './run-keys.ts';
 
 /** Uploads one file as its own request (part name `files`); 422 carries the per-file refusal, not an error. */
-export async function uploadRunFile(file: File, onProgress?: (fraction: number) => void): Promise<ImportResult> {
+export async function uploadRunFile(
+  file: File,
+  onProgress?: (fraction: number) => void,
+  importDuplicates = false,
+): Promise<ImportResult> {
   const form = new FormData();
   form.append('files', file, file.name);
-  return api.upload<ImportResult>('/runs', form, { onProgress, answerStatuses: [422] });
+  const path = importDuplicates ? '/runs?duplicates=import' : '/runs';
+  return api.upload<ImportResult>(path, form, { onProgress, answerStatuses: [422] });
 }
 
 export type RunUpload = {
@@ -20,6 +25,8 @@ export type RunUpload = {
   result?: ImportResult;
   /** Why the request failed as a whole (too large, network). */
   error?: string;
+  /** Kept so a file holding a run already in the log can be imported anyway. */
+  file: File;
 };
 
 /**
@@ -39,22 +46,35 @@ export function useRunUploads() {
   function add(files: File[]) {
     const added = files.map((file) => ({ file, key: `upload-${++counter.current}` }));
     setUploads((list) => [
-      ...added.map(({ file, key }) => ({ key, fileName: file.name, progress: 0, state: 'waiting' as const })),
+      ...added.map(({ file, key }) => ({ key, fileName: file.name, progress: 0, state: 'waiting' as const, file })),
       ...list,
     ]);
-    for (const { file, key } of added) {
-      queue.current = queue.current.then(async () => {
-        update(key, { state: 'sending' });
-        try {
-          const result = await uploadRunFile(file, (progress) => update(key, { progress }));
-          update(key, { state: 'done', progress: 1, result });
-          if (result.imported.length > 0) await queryClient.invalidateQueries({ queryKey: runKeys.lists() });
-        } catch (error) {
-          update(key, { state: 'failed', error: error instanceof Error ? error.message : 'The upload failed.' });
-        }
-      });
-    }
+    for (const { file, key } of added) send(file, key, false);
   }
 
-  return { uploads, add, clear: () => setUploads((list) => list.filter((u) => u.state === 'waiting' || u.state === 'sending')) };
+  function send(file: File, key: string, importDuplicates: boolean) {
+    queue.current = queue.current.then(async () => {
+      update(key, { state: 'sending', progress: 0 });
+      try {
+        const result = await uploadRunFile(file, (progress) => update(key, { progress }), importDuplicates);
+        update(key, { state: 'done', progress: 1, result });
+        if (result.imported.length > 0) await queryClient.invalidateQueries({ queryKey: runKeys.lists() });
+      } catch (error) {
+        update(key, { state: 'failed', error: error instanceof Error ? error.message : 'The upload failed.' });
+      }
+    });
+  }
+
+  /** Sends a file again, importing the runs that match one already in the log. */
+  function importAnyway(key: string) {
+    const upload = uploads.find((u) => u.key === key);
+    if (upload) send(upload.file, key, true);
+  }
+
+  return {
+    uploads,
+    add,
+    importAnyway,
+    clear: () => setUploads((list) => list.filter((u) => u.state === 'waiting' || u.state === 'sending')),
+  };
 }

@@ -13,7 +13,7 @@ const ACCEPT = '.gpx,.tcx,.gz';
 
 /** Drop zone and file picker; each file goes up on its own with its own progress bar and answer. */
 export function RunUpload({ unit }: { unit: Unit }) {
-  const { uploads, add, clear } = useRunUploads();
+  const { uploads, add, clear, importAnyway } = useRunUploads();
   const [dragging, setDragging] = useState(false);
   const hintId = useId();
   const finished = uploads.some((u) => u.state === 'done' || u.state === 'failed');
@@ -65,7 +65,7 @@ export function RunUpload({ unit }: { unit: Unit }) {
         <div className="flex flex-col gap-1">
           <ul aria-label="Uploads" className="flex flex-col divide-y divide-line">
             {uploads.map((upload) => (
-              <UploadRow key={upload.key} upload={upload} unit={unit} />
+              <UploadRow key={upload.key} upload={upload} unit={unit} onImportAnyway={() => importAnyway(upload.key)} />
             ))}
           </ul>
           {finished && (
@@ -79,7 +79,9 @@ export function RunUpload({ unit }: { unit: Unit }) {
   );
 }
 
-function UploadRow({ upload, unit }: { upload: RunUpload; unit: Unit }) {
+type OutcomeProps = { upload: RunUpload; unit: Unit; onImportAnyway: () => void };
+
+function UploadRow({ upload, unit, onImportAnyway }: OutcomeProps) {
   const percent = Math.round(upload.progress * 100);
   return (
     <li className="grid grid-cols-1 gap-x-4 gap-y-1 py-2 text-sm sm:grid-cols-[minmax(0,14rem)_9rem_minmax(0,1fr)] sm:items-center">
@@ -96,22 +98,26 @@ function UploadRow({ upload, unit }: { upload: RunUpload; unit: Unit }) {
         <span className="w-10 shrink-0 text-right text-xs whitespace-nowrap text-ink-muted tabular-nums">{percent} %</span>
       </span>
       <span role="status" className="min-w-0">
-        <UploadOutcome upload={upload} unit={unit} />
+        <UploadOutcome upload={upload} unit={unit} onImportAnyway={onImportAnyway} />
       </span>
     </li>
   );
 }
 
-function UploadOutcome({ upload, unit }: { upload: RunUpload; unit: Unit }) {
+function UploadOutcome({ upload, unit, onImportAnyway }: OutcomeProps) {
   if (upload.state === 'waiting') return <span className="text-ink-muted">waiting…</span>;
   if (upload.state === 'sending')
     return <span className="text-ink-muted">{upload.progress < 1 ? 'sending…' : 'computing splits…'}</span>;
   if (upload.state === 'failed') return <span className="text-tartan-deep">refused: {upload.error}</span>;
-  return <ResultLines result={upload.result!} unit={unit} />;
+  return <ResultLines result={upload.result!} unit={unit} onImportAnyway={onImportAnyway} />;
 }
 
-/** One line per run in the file (a TCX can hold several), per duplicate and per refusal. */
-function ResultLines({ result, unit }: { result: ImportResult; unit: Unit }) {
+/**
+ * One line per run in the file (a TCX can hold several), per duplicate and per refusal. A run found
+ * in the log by its start and distance (not the same bytes) can be imported anyway.
+ */
+function ResultLines({ result, unit, onImportAnyway }: { result: ImportResult; unit: Unit; onImportAnyway: () => void }) {
+  const sameRun = result.duplicates.some((dup) => dup.reason === 'same run');
   return (
     <span className="flex flex-col">
       {result.imported.map((run) => (
@@ -126,13 +132,22 @@ function ResultLines({ result, unit }: { result: ImportResult; unit: Unit }) {
         </span>
       ))}
       {result.duplicates.map((dup) => (
-        <span key={dup.runId}>
-          already in your log →{' '}
+        <span key={`${dup.runId}-${dup.activity ?? 0}`}>
+          {dup.activity !== null && `activity ${dup.activity}: `}
+          {dup.reason === 'same file'
+            ? 'this file is already in your log'
+            : 'already in your log (same start within 5 s, distance within 2 %)'}{' '}
+          →{' '}
           <Link to={paths.run.getHref(dup.runId)} className="font-semibold text-teal underline-offset-2 hover:underline">
             open the existing run
           </Link>
         </span>
       ))}
+      {sameRun && (
+        <Button variant="quiet" className="self-start" onClick={onImportAnyway}>
+          Import anyway
+        </Button>
+      )}
       {result.rejected.map((rej, i) => (
         <span key={i} className="text-tartan-deep">
           refused: {rej.error}
