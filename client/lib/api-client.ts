@@ -118,7 +118,7 @@ export const api = {
   post: <T>(path: string, body?: unknown) => request<T>('POST', path, body),
   patch: <T>(path: string, body: unknown) => request<T>('PATCH', path, body),
   put: <T = void>(path: string, body: unknown) => request<T>('PUT', path, body),
-  delete: <T = void>(path: string) => request<T>('DELETE', path),
+  delete: <T = void>(path: string, body?: unknown) => request<T>('DELETE', path, body),
 };
 
 export function isApiError(error: unknown, status?: number): error is ApiError {

@@ -39,6 +39,13 @@ export function formatLocalDate(localDate: string): string {
   return `${Number(match[3])} ${MONTHS[Number(match[2]) - 1]} ${match[1]}`;
 }
 
+/** `2026-12-04` → `4 Dec` (a phone's date column; the year is in the page's month or list). */
+export function formatShortDate(localDate: string): string {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(localDate);
+  if (!match) return localDate;
+  return `${Number(match[3])} ${MONTHS[Number(match[2]) - 1]}`;
+}
+
 function plural(count: number, one: string, many: string): string {
   return `${count} ${count === 1 ? one : many}`;
 }

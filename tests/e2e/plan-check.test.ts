@@ -80,8 +80,9 @@ async function partRows(table: Locator): Promise<Array<{ part: string; verdict: 
   for (const row of await table.getByRole('row').all()) {
     if ((await row.getByRole('rowheader').count()) === 0) continue; // column headers and note lines
     const cells = (await row.getByRole('cell').allTextContents()).map((t) => t.trim());
-    // part, planned, distance run, time, pace, target, difference, ♥, verdict ("● on pace": glyph then word)
-    out.push({ part: cells[0]!, verdict: cells.at(-1)!.replace(/^[●▲▼◐○◇–]\s*/, '') });
+    // the part is the row header; cells: #, planned, distance run, time, stops, pace, target, difference, ♥, verdict ("● on pace")
+    const part = ((await row.getByRole('rowheader').textContent()) ?? '').trim();
+    out.push({ part, verdict: cells.at(-1)!.replace(/^[●▲▼◐○◇–]\s*/, '') });
   }
   return out;
 }

@@ -7,9 +7,13 @@ import { startServer, type RunningServer } from '../../server/index.ts';
 export const SCREENSHOT_DIR = path.resolve('test-results/screenshots');
 
 /** Debian's Chromium (never a downloaded browser), headless, with a throwaway profile. */
-export async function launchBrowser(): Promise<{ context: BrowserContext; close(): Promise<void> }> {
+export async function launchBrowser(
+  options: { bypassCSP?: boolean; acceptDownloads?: boolean } = {},
+): Promise<{ context: BrowserContext; close(): Promise<void> }> {
   const profile = mkdtempSync(path.join(tmpdir(), 'pacewright-e2e-'));
   const context = await chromium.launchPersistentContext(profile, {
+    // `bypassCSP` lets the accessibility audit inject axe-core; the app's CSP stays on for every other test.
+    ...options,
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
     viewport: { width: 1200, height: 800 },

@@ -29,13 +29,16 @@ export function AppShell({ role, actions, children, unread = {} }: AppShellProps
     <div className="min-h-dvh">
       <a
         href="#main"
-        className="sr-only z-50 rounded bg-teal px-3 py-2 text-white focus:not-sr-only focus:fixed focus:top-2 focus:left-2"
+        className="sr-only z-50 rounded bg-teal text-white focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:px-3 focus:py-2"
       >
         Skip to content
       </a>
       <header className="sticky top-0 z-20 border-b border-line bg-paper">
         <div className="mx-auto flex h-14 max-w-6xl items-center gap-3 px-4 md:gap-8">
-          <Link to={paths.log.getHref()} className="text-xl font-bold tracking-tight text-ink">
+          <Link
+            to={paths.log.getHref()}
+            className="inline-flex tap-target items-center text-xl font-bold tracking-tight text-ink"
+          >
             Pacewright
           </Link>
           <nav

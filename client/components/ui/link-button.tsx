@@ -6,7 +6,7 @@ export function LinkButton({ className, ...props }: LinkProps) {
   return (
     <Link
       className={cn(
-        'inline-flex min-h-9 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-teal hover:border-teal',
+        'inline-flex min-h-11 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-teal hover:border-teal sm:min-h-9',
         className,
       )}
       {...props}

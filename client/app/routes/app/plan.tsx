@@ -209,10 +209,11 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
     range.view === 'week'
       ? planHref({ week: addDays(range.monday, 7) })
       : planHref({ view: 'month', month: formatYearMonth(shiftMonth(range.month, 1)) });
-  const nav = 'inline-flex size-9 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
+  const nav =
+    'inline-flex size-11 sm:size-9 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
   const tab = (active: boolean) =>
     cn(
-      'inline-flex min-h-9 items-center px-3 text-sm font-semibold',
+      'inline-flex min-h-11 sm:min-h-9 items-center px-3 text-sm font-semibold',
       active ? 'bg-teal text-white' : 'bg-card text-teal hover:bg-teal-wash',
     );
 
@@ -254,7 +255,7 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
           {goalRace ? ` · their goal race: ${goalRace.name}` : ' · no goal race set yet'}.{' '}
           <Link
             to={paths.weekReview.getHref(runner.id, range.view === 'week' ? range.monday : range.from)}
-            className="font-semibold text-teal underline-offset-2 hover:underline"
+            className="inline-flex tap-target items-center font-semibold text-teal underline-offset-2 hover:underline"
           >
             Week review
           </Link>
@@ -264,7 +265,7 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
           Your goal race and the session plans that lead to it, with what you ran beside them.{' '}
           <Link
             to={paths.myWeek.getHref(range.view === 'week' ? range.monday : undefined)}
-            className="font-semibold text-teal underline-offset-2 hover:underline"
+            className="inline-flex tap-target items-center font-semibold text-teal underline-offset-2 hover:underline"
           >
             My week: totals, load, flags and notes
           </Link>
@@ -276,7 +277,7 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
           {goalRace && !runner && (
             <Link
               to={paths.goalFuel.getHref()}
-              className="mt-1 inline-block text-sm font-semibold text-teal underline-offset-2 hover:underline"
+              className="mt-1 inline-flex tap-target items-center text-sm font-semibold text-teal underline-offset-2 hover:underline"
             >
               Race fuel plan
             </Link>
@@ -314,7 +315,7 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
         {editor?.plan && (
           <Link
             to={paths.planFuel.getHref(editor.plan.id)}
-            className="-mt-2 self-start text-sm font-semibold text-teal underline-offset-2 hover:underline"
+            className="-mt-2 inline-flex tap-target items-center self-start text-sm font-semibold text-teal underline-offset-2 hover:underline"
           >
             Fuel plan for {editor.plan.title || 'this session'}
           </Link>
@@ -394,7 +395,7 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
             {(range.view === 'week' ? today < range.from || today > range.to : range.from.slice(0, 7) !== today.slice(0, 7)) && (
               <Link
                 to={range.view === 'week' ? planHref() : planHref({ view: 'month' })}
-                className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+                className="inline-flex tap-target items-center text-sm font-semibold text-teal underline-offset-2 hover:underline"
               >
                 {range.view === 'week' ? 'This week' : 'This month'}
               </Link>

@@ -3,6 +3,8 @@ import { useQueryClient } from '@tanstack/react-query';
 import { Card } from '../../../components/ui/card.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { tokensQueryOptions } from '../../../features/api-tokens/api/get-tokens.ts';
+import { DeleteAccountCard } from '../../../features/account/components/delete-account-card.tsx';
+import { YourDataCard } from '../../../features/account/components/your-data-card.tsx';
 import { ApiTokensCard } from '../../../features/api-tokens/components/api-tokens-card.tsx';
 import { authKeys } from '../../../features/auth/api/auth-keys.ts';
 import { PasswordAndSessionsCard } from '../../../features/auth/components/password-and-sessions-card.tsx';
@@ -78,7 +80,9 @@ export default function ProfileRoute() {
         )}
         <PasswordAndSessionsCard />
         <ApiTokensCard />
+        <YourDataCard />
         <OutboxLink />
+        <DeleteAccountCard role={profile.role} />
       </div>
     </>
   );

@@ -46,13 +46,13 @@ export default function WeekReviewRoute() {
             <div className="flex flex-wrap gap-4">
               <Link
                 to={paths.squad.getHref({ week: week.start })}
-                className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+                className="inline-flex tap-target items-center text-sm font-semibold text-teal underline-offset-2 hover:underline"
               >
                 ← All runners
               </Link>
               <Link
                 to={paths.runnerPlan.getHref(runnerId, { week: week.start })}
-                className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+                className="inline-flex tap-target items-center text-sm font-semibold text-teal underline-offset-2 hover:underline"
               >
                 Open {week.runner.name}’s plan
               </Link>

@@ -1,4 +1,4 @@
-import { useLocation } from 'react-router-dom';
+import { useLocation, useSearchParams } from 'react-router-dom';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { SignInForm } from '../../../features/auth/components/sign-in-form.tsx';
 
@@ -7,6 +7,8 @@ export type SignInNotice = { passwordChanged?: boolean };
 
 export default function SignInRoute() {
   const notice = useLocation().state as SignInNotice | null;
+  // Set by "Delete my account" (a full page load, so it travels in the address).
+  const deleted = useSearchParams()[0].get('deleted') === '1';
   return (
     <>
       <title>Sign in · Pacewright</title>
@@ -14,6 +16,11 @@ export default function SignInRoute() {
       {notice?.passwordChanged && (
         <div className="mb-4">
           <FormAlert tone="success">Your password has been changed. Sign in with the new one.</FormAlert>
+        </div>
+      )}
+      {deleted && (
+        <div className="mb-4">
+          <FormAlert tone="success">Your account and everything in it have been deleted.</FormAlert>
         </div>
       )}
       <SignInForm />

@@ -11,7 +11,7 @@ import { InvitationSummary } from '../../../features/invitations/components/invi
 
 /** The first of the two choices looks like the primary button. */
 const PRIMARY_LINK =
-  'inline-flex min-h-9 items-center rounded-md bg-teal px-3.5 py-1.5 text-sm font-semibold text-white hover:bg-teal-deep';
+  'inline-flex min-h-11 sm:min-h-9 items-center rounded-md bg-teal px-3.5 py-1.5 text-sm font-semibold text-white hover:bg-teal-deep';
 
 export const createLoader =
   (queryClient: QueryClient) =>

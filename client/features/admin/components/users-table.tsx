@@ -27,20 +27,20 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
         </p>
       )}
       <div className="relative overflow-x-auto">
-        <table className="w-full min-w-xl text-left text-sm">
+        <table className="w-full text-left text-sm sm:min-w-xl">
           <caption className="sr-only">Accounts and their roles</caption>
           <thead className="border-b border-line text-ink-muted">
             <tr>
               <th scope="col" className="py-1.5 pr-3 font-semibold">
                 Name
               </th>
-              <th scope="col" className="py-1.5 pr-3 font-semibold">
+              <th scope="col" className="hidden py-1.5 pr-3 font-semibold sm:table-cell">
                 E-mail
               </th>
               <th scope="col" className="py-1.5 pr-3 font-semibold">
                 Role
               </th>
-              <th scope="col" className="py-1.5 font-semibold">
+              <th scope="col" className="hidden py-1.5 font-semibold sm:table-cell">
                 Joined
               </th>
             </tr>
@@ -72,12 +72,15 @@ type UserRowProps = {
 function UserRow({ user, isSelf, pendingRole, onChangeRole }: UserRowProps) {
   return (
     <tr className="border-b border-line last:border-0">
-      <th scope="row" className="py-2 pr-3 font-semibold">
+      <th scope="row" className="py-2 pr-3 font-semibold" data-primary="">
         {user.name}
         {isSelf && <span className="ml-1 font-normal text-ink-muted">(you)</span>}
+        {/* Phones: e-mail and joining date under the name instead of in their own columns. */}
+        <span className="block font-normal break-all text-ink-muted sm:hidden">{user.email}</span>
+        <span className="block font-normal text-ink-muted sm:hidden">joined {formatDate(user.created_at)}</span>
       </th>
-      <td className="py-2 pr-3 break-all">{user.email}</td>
-      <td className="py-2 pr-3">
+      <td className="hidden py-2 pr-3 break-all sm:table-cell">{user.email}</td>
+      <td className="py-2 pr-3" data-primary="">
         <select
           aria-label={`Role of ${user.name}`}
           value={pendingRole ?? user.role}
@@ -92,7 +95,7 @@ function UserRow({ user, isSelf, pendingRole, onChangeRole }: UserRowProps) {
           ))}
         </select>
       </td>
-      <td className="py-2">{formatDate(user.created_at)}</td>
+      <td className="hidden py-2 sm:table-cell">{formatDate(user.created_at)}</td>
     </tr>
   );
 }

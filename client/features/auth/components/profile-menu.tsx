@@ -44,7 +44,7 @@ export function ProfileMenu({ user }: { user: User }) {
         aria-expanded={open}
         aria-controls={menuId}
         onClick={() => setOpenOn(open ? null : location.key)}
-        className="flex min-h-9 items-center gap-2 rounded-md px-2 py-1 font-semibold hover:bg-card"
+        className="flex min-h-11 items-center gap-2 rounded-md px-2 py-1 font-semibold hover:bg-card sm:min-h-9"
       >
         <span className="sr-only">Account menu for </span>
         <span className="max-w-32 truncate">{user.name}</span>

@@ -32,7 +32,10 @@ export function SignInForm() {
         error={fieldErrors.password}
       />
       <p className="-mt-2 text-sm">
-        <Link to={paths.forgotPassword.getHref()} className="font-semibold text-teal underline">
+        <Link
+          to={paths.forgotPassword.getHref()}
+          className="inline-flex tap-target items-center font-semibold text-teal underline"
+        >
           Forgot your password?
         </Link>
       </p>
@@ -41,7 +44,10 @@ export function SignInForm() {
       </Button>
       <p className="text-sm text-ink-muted">
         New to Pacewright?{' '}
-        <Link to={paths.signUp.getHref(next ?? undefined)} className="font-semibold text-teal underline">
+        <Link
+          to={paths.signUp.getHref(next ?? undefined)}
+          className="inline-flex tap-target items-center font-semibold text-teal underline"
+        >
           Create an account
         </Link>
       </p>

@@ -1,5 +1,6 @@
 import { lazy, Suspense } from 'react';
 import type { FuelSchedule, HourTotals } from '../../../../shared/fuel/schedule.ts';
+import { ResponsiveTable, type TableColumn } from '../../../components/ui/responsive-table.tsx';
 import { formatAmount, formatHoursMinutes, statusText } from '../utils/fuel-format.ts';
 
 const FuelHoursChart = lazy(() => import('./fuel-hours-chart.tsx'));
@@ -19,18 +20,67 @@ type FuelHoursProps = { schedule: FuelSchedule; chart?: boolean };
  * prorated), each with its status word and glyph; the whole run's totals last. A bar chart of carbohydrate follows,
  * with this table as its fallback.
  */
+type HourRow = {
+  label: string;
+  whole: boolean;
+  values: Record<Nutrient, number>;
+  targets: Record<Nutrient, { low: number; high: number | null }>;
+  status: Record<Nutrient, HourTotals['status']['fluid']>;
+  caffeine_mg: number;
+};
+type Nutrient = 'carbohydrate' | 'fluid' | 'sodium';
+const NUTRIENTS: ReadonlyArray<{ key: Nutrient; words: string; unit: string }> = [
+  { key: 'carbohydrate', words: 'carbs', unit: 'g' },
+  { key: 'fluid', words: 'fluid', unit: 'ml' },
+  { key: 'sodium', words: 'sodium', unit: 'mg' },
+];
+
+/** Hour, then planned / target / status per nutrient, then caffeine. Phones show the carbohydrate; the rest opens per row. */
+const COLUMNS: TableColumn<HourRow>[] = [
+  { id: 'hour', header: 'hour', primary: true, rowHeader: true, cell: (r) => r.label },
+  ...NUTRIENTS.flatMap(({ key, words, unit }): TableColumn<HourRow>[] => [
+    {
+      id: `${key}-planned`,
+      header: `${words} ${unit} planned`,
+      align: 'right',
+      primary: key === 'carbohydrate',
+      cell: (r) => formatAmount(r.values[key]),
+    },
+    {
+      id: `${key}-target`,
+      header: `${words} ${unit} target`,
+      align: 'right',
+      primary: key === 'carbohydrate',
+      cell: (r) => <span className="text-ink-muted print:text-black">{range(r.targets[key])}</span>,
+    },
+    { id: `${key}-status`, header: `${words} status`, primary: key === 'carbohydrate', cell: (r) => statusText(r.status[key]) },
+  ]),
+  { id: 'caffeine', header: 'caffeine mg', align: 'right', cell: (r) => formatAmount(r.caffeine_mg, { dashZero: true }) },
+];
+
 export function FuelHours({ schedule, chart = true }: FuelHoursProps) {
-  const th = 'py-1.5 pr-3 font-semibold whitespace-nowrap last:pr-0';
-  const cellBase = 'py-1 pr-3 whitespace-nowrap last:pr-0';
-  const td = `${cellBase} text-right`;
-  const tdLeft = `${cellBase} text-left`;
-  const cell = (value: number, target: { low: number; high: number | null }, status: HourTotals['status']['fluid']) => (
-    <>
-      <td className={td}>{formatAmount(value)}</td>
-      <td className={`${td} text-ink-muted print:text-black`}>{range(target)}</td>
-      <td className={tdLeft}>{statusText(status)}</td>
-    </>
-  );
+  const rows: HourRow[] = [
+    ...schedule.hours.map((h) => ({
+      label: hourLabel(h),
+      whole: false,
+      values: { carbohydrate: h.carbohydrate_g, fluid: h.fluid_ml, sodium: h.sodium_mg },
+      targets: h.targets,
+      status: h.status,
+      caffeine_mg: h.caffeine_mg,
+    })),
+    {
+      label: 'whole run',
+      whole: true,
+      values: {
+        carbohydrate: schedule.totals.carbohydrate_g,
+        fluid: schedule.totals.fluid_ml,
+        sodium: schedule.totals.sodium_mg,
+      },
+      targets: schedule.target_totals,
+      status: schedule.status,
+      caffeine_mg: schedule.totals.caffeine_mg,
+    },
+  ];
   const bars = schedule.hours.map((h) => ({
     label: hourLabel(h),
     carbohydrate: Math.round(h.carbohydrate_g),
@@ -42,65 +92,13 @@ export function FuelHours({ schedule, chart = true }: FuelHoursProps) {
     .join('; ');
   return (
     <div className="flex flex-col gap-3">
-      <div className="-mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5 print:mx-0 print:overflow-visible print:px-0">
-        <table className="w-full min-w-2xl text-sm tabular-nums print:min-w-0">
-          <caption className="sr-only">Hourly totals against the targets</caption>
-          <thead className="border-b border-line-strong text-ink-muted print:text-black">
-            <tr>
-              <th scope="col" rowSpan={2} className={`${th} text-left align-bottom`}>
-                hour
-              </th>
-              <th scope="colgroup" colSpan={3} className={`${th} text-center`}>
-                carbohydrate g
-              </th>
-              <th scope="colgroup" colSpan={3} className={`${th} text-center`}>
-                fluid ml
-              </th>
-              <th scope="colgroup" colSpan={3} className={`${th} text-center`}>
-                sodium mg
-              </th>
-              <th scope="col" rowSpan={2} className={`${th} text-right align-bottom`}>
-                caffeine mg
-              </th>
-            </tr>
-            <tr>
-              {['carbohydrate', 'fluid', 'sodium'].flatMap((k) => [
-                <th key={`${k}-p`} scope="col" className={`${th} text-right`}>
-                  planned
-                </th>,
-                <th key={`${k}-t`} scope="col" className={`${th} text-right`}>
-                  target
-                </th>,
-                <th key={`${k}-s`} scope="col" className={`${th} text-left`}>
-                  status
-                </th>,
-              ])}
-            </tr>
-          </thead>
-          <tbody>
-            {schedule.hours.map((h) => (
-              <tr key={h.hour} className="border-b border-line">
-                <th scope="row" className={`${tdLeft} font-semibold`}>
-                  {hourLabel(h)}
-                </th>
-                {cell(h.carbohydrate_g, h.targets.carbohydrate, h.status.carbohydrate)}
-                {cell(h.fluid_ml, h.targets.fluid, h.status.fluid)}
-                {cell(h.sodium_mg, h.targets.sodium, h.status.sodium)}
-                <td className={td}>{formatAmount(h.caffeine_mg, { dashZero: true })}</td>
-              </tr>
-            ))}
-            <tr className="border-t-2 border-line-strong font-semibold">
-              <th scope="row" className={tdLeft}>
-                whole run
-              </th>
-              {cell(schedule.totals.carbohydrate_g, schedule.target_totals.carbohydrate, schedule.status.carbohydrate)}
-              {cell(schedule.totals.fluid_ml, schedule.target_totals.fluid, schedule.status.fluid)}
-              {cell(schedule.totals.sodium_mg, schedule.target_totals.sodium, schedule.status.sodium)}
-              <td className={td}>{formatAmount(schedule.totals.caffeine_mg, { dashZero: true })}</td>
-            </tr>
-          </tbody>
-        </table>
-      </div>
+      <ResponsiveTable
+        caption="Hourly totals against the targets"
+        columns={COLUMNS}
+        rows={rows}
+        rowKey={(r) => r.label}
+        rowLabel={(r) => r.label}
+      />
       <p className="text-xs text-ink-muted">
         ✓ within the target range · ▽ under it · △ over it. A last hour shorter than 60 minutes has its target prorated.
         {schedule.totals.caffeine_mg_per_kg !== null && schedule.totals.caffeine_mg > 0 && (

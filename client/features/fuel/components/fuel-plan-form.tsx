@@ -322,7 +322,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                   <p className="text-xs text-ink-muted">{p.note}</p>
                 </>
               )}
-              <label className="mt-2 flex items-center gap-2 text-sm">
+              <label className="mt-2 flex tap-target items-center gap-2 text-sm">
                 <input
                   type="checkbox"
                   checked={t.own}

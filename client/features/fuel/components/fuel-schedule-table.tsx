@@ -1,74 +1,56 @@
 import type { ScheduledIntake } from '../../../../shared/fuel/schedule.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
+import { ResponsiveTable, type TableColumn } from '../../../components/ui/responsive-table.tsx';
 import { formatAmount } from '../utils/fuel-format.ts';
 
 type FuelScheduleTableProps = { intakes: readonly ScheduledIntake[]; unit: Unit; showTimeOfDay: boolean };
 
-/** Every planned intake: where (mile and km), when (clock from the start, and time of day), what, and what it carries. */
+/**
+ * Every planned intake: where (mile and km), when (clock from the start, and time of day), what, and
+ * what it carries. Phones show where, when, what and the carbohydrate; a row opens into the rest.
+ */
 export function FuelScheduleTable({ intakes, unit, showTimeOfDay }: FuelScheduleTableProps) {
   const other: Unit = unit === 'mi' ? 'km' : 'mi';
   const at = (x: ScheduledIntake, u: Unit) => (u === 'mi' ? x.distance_mi : x.distance_km).toFixed(2);
-  const th = 'py-1.5 pr-3 font-semibold whitespace-nowrap last:pr-0';
-  const td = 'py-1 pr-3 whitespace-nowrap last:pr-0';
+  const columns: TableColumn<ScheduledIntake>[] = [
+    { id: 'at', header: `at ${unit}`, align: 'right', primary: true, cell: (x) => at(x, unit) },
+    {
+      id: 'at-other',
+      header: `at ${other}`,
+      align: 'right',
+      cell: (x) => <span className="text-ink-muted print:text-black">{at(x, other)}</span>,
+    },
+    { id: 'clock', header: 'clock', align: 'right', primary: true, cell: (x) => x.clock },
+    ...(showTimeOfDay
+      ? [
+          {
+            id: 'time-of-day',
+            header: 'time of day',
+            align: 'right',
+            cell: (x) => x.time_of_day ?? '',
+          } as TableColumn<ScheduledIntake>,
+        ]
+      : []),
+    { id: 'take', header: 'take', primary: true, rowHeader: true, cell: (x) => x.label },
+    {
+      id: 'carbs',
+      header: 'carbs g',
+      align: 'right',
+      primary: true,
+      cell: (x) => formatAmount(x.carbohydrate_g, { digits: 1, dashZero: true }),
+    },
+    { id: 'fluid', header: 'fluid ml', align: 'right', cell: (x) => formatAmount(x.fluid_ml, { dashZero: true }) },
+    { id: 'sodium', header: 'sodium mg', align: 'right', cell: (x) => formatAmount(x.sodium_mg, { dashZero: true }) },
+    { id: 'caffeine', header: 'caffeine mg', align: 'right', cell: (x) => formatAmount(x.caffeine_mg, { dashZero: true }) },
+    { id: 'refill', header: 'refill', cell: (x) => (x.refill ? 'refill first' : '') },
+  ];
   return (
-    <div className="-mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5 print:mx-0 print:overflow-visible print:px-0">
-      <table className="w-full min-w-xl text-sm tabular-nums print:min-w-0">
-        <caption className="sr-only">Fuel schedule: each intake by distance and clock</caption>
-        <thead className="border-b border-line-strong text-ink-muted print:text-black">
-          <tr>
-            <th scope="col" className={`${th} text-right`}>
-              at {unit}
-            </th>
-            <th scope="col" className={`${th} text-right`}>
-              at {other}
-            </th>
-            <th scope="col" className={`${th} text-right`}>
-              clock
-            </th>
-            {showTimeOfDay && (
-              <th scope="col" className={`${th} text-right`}>
-                time of day
-              </th>
-            )}
-            <th scope="col" className={`${th} text-left`}>
-              take
-            </th>
-            <th scope="col" className={`${th} text-right`}>
-              carbs g
-            </th>
-            <th scope="col" className={`${th} text-right`}>
-              fluid ml
-            </th>
-            <th scope="col" className={`${th} text-right`}>
-              sodium mg
-            </th>
-            <th scope="col" className={`${th} text-right`}>
-              caffeine mg
-            </th>
-            <th scope="col" className={`${th} text-left`}>
-              refill
-            </th>
-          </tr>
-        </thead>
-        <tbody>
-          {intakes.map((x, i) => (
-            <tr key={`${x.time_s}-${x.rule_index}-${i}`} className="border-b border-line last:border-0">
-              <td className={`${td} text-right`}>{at(x, unit)}</td>
-              <td className={`${td} text-right text-ink-muted print:text-black`}>{at(x, other)}</td>
-              <td className={`${td} text-right`}>{x.clock}</td>
-              {showTimeOfDay && <td className={`${td} text-right`}>{x.time_of_day ?? ''}</td>}
-              <th scope="row" className={`${td} text-left font-semibold`}>
-                {x.label}
-              </th>
-              <td className={`${td} text-right`}>{formatAmount(x.carbohydrate_g, { digits: 1, dashZero: true })}</td>
-              <td className={`${td} text-right`}>{formatAmount(x.fluid_ml, { dashZero: true })}</td>
-              <td className={`${td} text-right`}>{formatAmount(x.sodium_mg, { dashZero: true })}</td>
-              <td className={`${td} text-right`}>{formatAmount(x.caffeine_mg, { dashZero: true })}</td>
-              <td className={td}>{x.refill ? 'refill first' : ''}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <ResponsiveTable
+      caption="Fuel schedule: each intake by distance and clock"
+      columns={columns}
+      rows={intakes}
+      rowKey={(x, i) => `${x.time_s}-${x.rule_index}-${i}`}
+      rowLabel={(x) => `${x.label} at ${at(x, unit)} ${unit}`}
+    />
   );
 }

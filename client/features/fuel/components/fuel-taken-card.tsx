@@ -4,6 +4,7 @@ import type { Amounts } from '../../../../shared/fuel/schedule.ts';
 import { FuelTakenInputSchema, type FuelItem, type FuelTakenInput } from '../../../../shared/fuel/schemas.ts';
 import type { PlannedVsTaken, TakenEntry } from '../../../../shared/fuel/taken.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
+import { ResponsiveTable, type TableColumn } from '../../../components/ui/responsive-table.tsx';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { CONTROL_CLASSES, SelectField, TextField } from '../../../components/ui/field.tsx';
@@ -63,82 +64,55 @@ function amountWord(kind: EntryDraft['kind']): 'ml' | 'servings' {
   return kind === 'item' ? 'servings' : 'ml';
 }
 
-function AmountsRow({ label, a, b }: { label: string; a: Amounts; b: Amounts }) {
-  const td = 'py-1 pr-3 text-right whitespace-nowrap last:pr-0';
-  return (
-    <tr className="border-b border-line last:border-0">
-      <th scope="row" className="py-1 pr-3 text-left font-semibold whitespace-nowrap">
-        {label}
-      </th>
-      <td className={td}>{formatAmount(a.carbohydrate_g)}</td>
-      <td className={td}>{formatAmount(b.carbohydrate_g)}</td>
-      <td className={td}>{formatAmount(a.fluid_ml)}</td>
-      <td className={td}>{formatAmount(b.fluid_ml)}</td>
-      <td className={td}>{formatAmount(a.sodium_mg)}</td>
-      <td className={td}>{formatAmount(b.sodium_mg)}</td>
-      <td className={td}>{formatAmount(a.caffeine_mg)}</td>
-      <td className={td}>{formatAmount(b.caffeine_mg)}</td>
-    </tr>
-  );
-}
+type AmountsLine = { label: string; planned: Amounts; taken: Amounts };
+const AMOUNTS: ReadonlyArray<{ key: keyof Amounts; words: string }> = [
+  { key: 'carbohydrate_g', words: 'carbs g' },
+  { key: 'fluid_ml', words: 'fluid ml' },
+  { key: 'sodium_mg', words: 'sodium mg' },
+  { key: 'caffeine_mg', words: 'caffeine mg' },
+];
+/** Hour, then planned and taken per nutrient; phones show the carbohydrate, a row opens into the rest. */
+const AMOUNT_COLUMNS: TableColumn<AmountsLine>[] = [
+  { id: 'hour', header: 'hour', primary: true, rowHeader: true, cell: (r) => r.label },
+  ...AMOUNTS.flatMap(({ key, words }): TableColumn<AmountsLine>[] => [
+    {
+      id: `${key}-planned`,
+      header: `${words} planned`,
+      align: 'right',
+      primary: key === 'carbohydrate_g',
+      cell: (r) => formatAmount(r.planned[key]),
+    },
+    {
+      id: `${key}-taken`,
+      header: `${words} taken`,
+      align: 'right',
+      primary: key === 'carbohydrate_g',
+      cell: (r) => formatAmount(r.taken[key]),
+    },
+  ]),
+];
 
 /** Planned vs taken per clock hour: carbohydrate, fluid, sodium and caffeine side by side. */
 export function PlannedVsTakenTable({ data }: { data: PlannedVsTaken }) {
-  const th = 'py-1.5 pr-3 font-semibold whitespace-nowrap last:pr-0';
   const zero = (a: Amounts) => a.carbohydrate_g + a.fluid_ml + a.sodium_mg + a.caffeine_mg === 0;
+  const none: Amounts = { carbohydrate_g: 0, fluid_ml: 0, sodium_mg: 0, caffeine_mg: 0 };
+  const rows: AmountsLine[] = [
+    ...data.hours.map((h) => ({
+      label: `${formatHoursMinutes(h.from_s)}–${formatHoursMinutes(h.to_s)}`,
+      planned: h.planned,
+      taken: h.taken,
+    })),
+    ...(zero(data.untimed) ? [] : [{ label: 'no time given', planned: none, taken: data.untimed }]),
+    { label: 'whole run', planned: data.totals.planned, taken: data.totals.taken },
+  ];
   return (
-    <div className="-mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
-      <table className="w-full min-w-xl text-sm tabular-nums">
-        <caption className="sr-only">Planned and taken per hour</caption>
-        <thead className="border-b border-line-strong text-ink-muted">
-          <tr>
-            <th scope="col" rowSpan={2} className={`${th} text-left align-bottom`}>
-              hour
-            </th>
-            <th scope="colgroup" colSpan={2} className={`${th} text-center`}>
-              carbs g
-            </th>
-            <th scope="colgroup" colSpan={2} className={`${th} text-center`}>
-              fluid ml
-            </th>
-            <th scope="colgroup" colSpan={2} className={`${th} text-center`}>
-              sodium mg
-            </th>
-            <th scope="colgroup" colSpan={2} className={`${th} text-center`}>
-              caffeine mg
-            </th>
-          </tr>
-          <tr>
-            {[0, 1, 2, 3].flatMap((i) => [
-              <th key={`p${i}`} scope="col" className={`${th} text-right`}>
-                planned
-              </th>,
-              <th key={`t${i}`} scope="col" className={`${th} text-right`}>
-                taken
-              </th>,
-            ])}
-          </tr>
-        </thead>
-        <tbody>
-          {data.hours.map((h) => (
-            <AmountsRow
-              key={h.hour}
-              label={`${formatHoursMinutes(h.from_s)}–${formatHoursMinutes(h.to_s)}`}
-              a={h.planned}
-              b={h.taken}
-            />
-          ))}
-          {!zero(data.untimed) && (
-            <AmountsRow
-              label="no time given"
-              a={{ carbohydrate_g: 0, fluid_ml: 0, sodium_mg: 0, caffeine_mg: 0 }}
-              b={data.untimed}
-            />
-          )}
-          <AmountsRow label="whole run" a={data.totals.planned} b={data.totals.taken} />
-        </tbody>
-      </table>
-    </div>
+    <ResponsiveTable
+      caption="Planned and taken per hour"
+      columns={AMOUNT_COLUMNS}
+      rows={rows}
+      rowKey={(r) => r.label}
+      rowLabel={(r) => r.label}
+    />
   );
 }
 

@@ -1,3 +1,4 @@
+import { cn } from '../../../lib/cn.ts';
 import { useEffect, useId, useRef } from 'react';
 import type { ImportProgress } from '../../../../shared/history/schemas.ts';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
@@ -24,8 +25,8 @@ export function HistoryImport({ importId, onStarted, onFinished }: HistoryImport
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center gap-3">
-        <label className={sending ? 'cursor-not-allowed' : 'cursor-pointer'}>
-          <span className="inline-flex min-h-9 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-ink hover:border-teal hover:text-teal">
+        <label className={cn('inline-flex rounded-md', sending ? 'cursor-not-allowed' : 'cursor-pointer')}>
+          <span className="inline-flex min-h-11 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-ink hover:border-teal hover:text-teal sm:min-h-9">
             Bring in a whole history (.zip)
           </span>
           <input

@@ -49,7 +49,7 @@ export function OutboxView() {
           <button
             type="button"
             onClick={() => void outbox.refetch()}
-            className="text-sm font-semibold text-teal underline-offset-2 hover:underline"
+            className="inline-flex tap-target items-center text-sm font-semibold text-teal underline-offset-2 hover:underline"
           >
             {outbox.isFetching ? 'Checking…' : 'Check for new'}
           </button>
@@ -101,7 +101,7 @@ function MessageReader({ message }: { message: CaughtMessage }) {
               type="button"
               aria-expanded={showHtml}
               onClick={() => setShowHtml(!showHtml)}
-              className="self-start text-sm font-semibold text-teal underline-offset-2 hover:underline"
+              className="inline-flex tap-target items-center self-start text-sm font-semibold text-teal underline-offset-2 hover:underline"
             >
               {showHtml ? 'Hide the HTML version' : 'Show the HTML version'}
             </button>

@@ -9,7 +9,8 @@ import { PlanCheckHow } from './plan-check-how.tsx';
 import { PlanCheckTable } from './plan-check-table.tsx';
 import { PlanLinkControls } from './plan-link-controls.tsx';
 
-const LINK = 'rounded-md border border-line bg-card px-2.5 py-1 text-sm font-semibold text-teal hover:border-teal';
+const LINK =
+  'tap-target inline-flex items-center rounded-md border border-line bg-card px-2.5 py-1 text-sm font-semibold text-teal hover:border-teal';
 
 type PlanCheckCardProps = {
   runId: string;

@@ -1,5 +1,5 @@
 import { createColumnHelper, useTable } from '@tanstack/react-table';
-import { Fragment, useMemo } from 'react';
+import { useMemo } from 'react';
 import { pacePerUnit } from '../../../../shared/runs/display.ts';
 import { expandParts } from '../../../../shared/plans/expand.ts';
 import {
@@ -13,8 +13,8 @@ import {
 import type { PlanItem, DistanceUnit } from '../../../../shared/plans/types.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
+import { DataTable } from '../../../components/ui/data-table.tsx';
 import { Verdict } from '../../../components/ui/verdict.tsx';
-import { cn } from '../../../lib/cn.ts';
 import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
 import type { PlanCheckAnswer } from '../../../../shared/plans/plan-check-answer.ts';
 
@@ -27,6 +27,8 @@ type PartRow = PlanCheckAnswer['parts'][number] & {
 
 const helper = createColumnHelper<SortableTableFeatures, PartRow>();
 const number = { meta: { align: 'right' } } as const;
+/** The columns a phone shows: part, pace run, target and verdict ("rep 3 · 3:18 · 3:30–3:40 · ▲ quick"). */
+const primary = { meta: { align: 'right', primary: true } } as const;
 const dash = (text: string) => text || '–';
 
 /** A header shown as a symbol but read out in words. */
@@ -51,7 +53,7 @@ function createColumns(unit: Unit) {
   return helper.columns([
     // Rows are numbered as the summary sentence counts them (a recovery the plan did not write has no row).
     helper.accessor('index', { header: '#', ...number, cell: (info) => info.row.index + 1 }),
-    helper.accessor('label', { header: 'Part' }),
+    helper.accessor('label', { header: 'Part', meta: { primary: true } }),
     helper.display({
       id: 'planned',
       header: 'Planned',
@@ -82,24 +84,28 @@ function createColumns(unit: Unit) {
     helper.display({
       id: 'pace',
       header: `Moving pace /${unit}`,
-      ...number,
+      ...primary,
       cell: ({ row: { original: r } }) => (
         <span className="font-semibold">{dash(formatPace(pacePerUnit(r.actual.pace_s_per_km, unit)))}</span>
       ),
     }),
-    helper.display({ id: 'target', header: 'Target', ...number, cell: ({ row: { original: r } }) => target(r, unit) }),
+    helper.display({ id: 'target', header: 'Target', ...primary, cell: ({ row: { original: r } }) => target(r, unit) }),
     helper.accessor('difference_s_per_km', {
       header: () => <SymbolHeader symbol={`± s/${unit}`} words={`Difference from the target, seconds per ${unit}`} />,
-      ...number,
+      meta: { align: 'right', label: `± s/${unit} from the target` },
       cell: (info) => formatDifference(info.getValue(), unit),
     }),
     helper.display({
       id: 'hr',
       header: () => <SymbolHeader symbol="♥" words="Average heart rate" />,
-      ...number,
+      meta: { align: 'right', label: 'Average heart rate' },
       cell: ({ row: { original: r } }) => (r.actual.avg_hr === null ? '–' : Math.round(r.actual.avg_hr)),
     }),
-    helper.accessor('verdict', { header: 'Verdict', cell: (info) => <Verdict verdict={info.getValue()} /> }),
+    helper.accessor('verdict', {
+      header: 'Verdict',
+      meta: { primary: true },
+      cell: (info) => <Verdict verdict={info.getValue()} />,
+    }),
   ]);
 }
 
@@ -139,7 +145,7 @@ export function PlanCheckTable({ check, unit }: PlanCheckTableProps) {
     written: described.get(part.index)?.written ?? unit,
   }));
   const columns = useMemo(() => createColumns(unit), [unit]);
-  const table = useTable({ features: sortableTableFeatures, columns, data });
+  const table = useTable({ features: sortableTableFeatures, columns, data, enableSorting: false });
 
   return (
     <>
@@ -152,64 +158,17 @@ export function PlanCheckTable({ check, unit }: PlanCheckTableProps) {
           ))}
         </ul>
       )}
-      <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
-        <table className="w-full min-w-3xl text-sm">
-          <caption className="sr-only">{`Plan check, part by part, pace per ${unit}`}</caption>
-          <thead className="border-b border-line-strong text-ink-muted">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    className={cn(
-                      'py-1.5 pr-3 font-semibold whitespace-nowrap last:pr-0',
-                      header.column.columnDef.meta?.align === 'right' ? 'text-right' : 'text-left',
-                    )}
-                  >
-                    <table.FlexRender header={header} />
-                  </th>
-                ))}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((row) => {
-              const note = [row.original.note, row.original.unresolved].filter(Boolean).join('; ');
-              return (
-                <Fragment key={row.id}>
-                  <tr className={cn('border-line', note ? '' : 'border-b last:border-0')}>
-                    {row.getAllCells().map((cell) => {
-                      const right = cell.column.columnDef.meta?.align === 'right';
-                      const className = cn(
-                        'py-1.5 pr-3 whitespace-nowrap last:pr-0',
-                        right ? 'text-right tabular-nums' : 'text-left',
-                      );
-                      return cell.column.id === 'index' ? (
-                        <th key={cell.id} scope="row" className={cn(className, 'font-semibold')}>
-                          <table.FlexRender cell={cell} />
-                        </th>
-                      ) : (
-                        <td key={cell.id} className={className}>
-                          <table.FlexRender cell={cell} />
-                        </td>
-                      );
-                    })}
-                  </tr>
-                  {note && (
-                    <tr className="border-b border-line last:border-0">
-                      <td />
-                      <td colSpan={columns.length - 1} className="pb-1.5 text-ink-muted">
-                        Part {row.index + 1}: {note}.
-                      </td>
-                    </tr>
-                  )}
-                </Fragment>
-              );
-            })}
-          </tbody>
-        </table>
-      </div>
+      <DataTable
+        table={table}
+        caption={`Plan check, part by part, pace per ${unit}`}
+        minWidth="min-w-3xl"
+        rowHeader="label"
+        rowLabel={(row) => row.original.label}
+        rowNote={(row) => {
+          const note = [row.original.note, row.original.unresolved].filter(Boolean).join('; ');
+          return note ? `Part ${row.index + 1}: ${note}.` : null;
+        }}
+      />
     </>
   );
 }

@@ -1,3 +1,4 @@
+import { Fragment } from 'react';
 import { Link } from 'react-router-dom';
 import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { mondayOf } from '../../../../shared/plans/weeks.ts';
@@ -31,13 +32,9 @@ export function PlanMonth({ month, plans, runs, unit, today, title, weekHref }: 
   for (const r of runs) runsByDate.set(r.local_date, [...(runsByDate.get(r.local_date) ?? []), r]);
 
   return (
-    <div
-      className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5"
-      role="region"
-      aria-label={`${title}, plans and runs`}
-      tabIndex={0}
-    >
-      <table className="w-full min-w-2xl table-fixed text-sm">
+    // Phones: seven columns of at least 44 px (the card's padding is given back); a day is one link to its week.
+    <div className="relative -mx-3 sm:-mx-5 sm:px-5">
+      <table className="w-full table-fixed text-sm">
         <caption className="sr-only">
           {title}: session plans and run distances in {unit} per day
         </caption>
@@ -56,7 +53,7 @@ export function PlanMonth({ month, plans, runs, unit, today, title, weekHref }: 
           {monthWeeks(month).map((week, w) => (
             <tr key={w} className="border-t border-line">
               {week.map((date, d) => (
-                <td key={d} className="h-20 p-0.5 align-top">
+                <td key={d} className="h-20 p-0 align-top sm:p-0.5">
                   {date && (
                     <MonthDay
                       date={date}
@@ -95,30 +92,37 @@ function MonthDay({
   const isToday = date === today;
   const missed = date < today && runs.length === 0 && plans.length > 0;
   return (
-    <div className={cn('flex h-full flex-col gap-0.5 rounded-sm px-1 py-0.5', isToday && 'ring-1 ring-ink')}>
+    <div className={cn('relative flex h-full flex-col gap-0.5 rounded-sm px-0.5 py-0.5 sm:px-1', isToday && 'ring-1 ring-ink')}>
       <Link
         to={weekHref(mondayOf(date))}
-        className={cn('text-xs underline-offset-2 hover:underline', isToday ? 'font-bold text-ink' : 'text-ink-muted')}
+        className={cn(
+          'min-h-6 text-xs underline-offset-2 hover:underline max-sm:absolute max-sm:inset-0 max-sm:px-0.5 max-sm:py-0.5 sm:block',
+          isToday ? 'font-bold text-ink' : 'text-ink-muted',
+        )}
         aria-label={`${formatLocalDate(date)}${isToday ? ' (today)' : ''}: open its week`}
       >
         {Number(date.slice(8))}
       </Link>
       {plans.map((p) => (
-        <span key={p.id} title={p.text} className="truncate border-l-2 border-teal pl-1 text-xs font-semibold">
-          {p.title || 'Session'}
+        <span key={p.id} title={p.text} className="truncate border-l-2 border-teal pl-1 text-xs font-semibold max-sm:mt-4">
+          <span className="max-sm:sr-only">{p.title || 'Session'}</span>
         </span>
       ))}
       {missed && <Verdict verdict="missed" className="text-xs" />}
       {runs.map((run) => (
-        <Link
-          key={run.id}
-          to={paths.run.getHref(run.id)}
-          title={run.name}
-          className="text-xs font-semibold text-teal tabular-nums underline-offset-2 hover:underline"
-        >
-          {formatDistance(run.distance_m, unit, 1)} {unit}
-          <span className="sr-only">, {run.name}</span>
-        </Link>
+        <Fragment key={run.id}>
+          <span className="text-xs font-semibold text-teal tabular-nums sm:hidden" aria-hidden="true">
+            {formatDistance(run.distance_m, unit, 1)}
+          </span>
+          <Link
+            to={paths.run.getHref(run.id)}
+            title={run.name}
+            className="hidden min-h-6 text-xs font-semibold text-teal tabular-nums underline-offset-2 hover:underline sm:block"
+          >
+            {formatDistance(run.distance_m, unit, 1)} {unit}
+            <span className="sr-only">, {run.name}</span>
+          </Link>
+        </Fragment>
       ))}
     </div>
   );

@@ -201,7 +201,7 @@ function Day({
           <div key={run.id} className="flex flex-col gap-0.5 rounded-sm bg-paper px-2 py-1">
             <Link
               to={paths.run.getHref(run.id)}
-              className="text-sm font-semibold text-teal tabular-nums underline-offset-2 hover:underline"
+              className="inline-flex tap-target items-center text-sm font-semibold text-teal tabular-nums underline-offset-2 hover:underline"
             >
               {formatDistance(run.distance_m, unit)} {unit}
               <span className="font-normal text-ink-muted"> · {run.name}</span>
@@ -218,7 +218,7 @@ function Day({
       <div className="mt-auto flex flex-wrap gap-x-3 whitespace-nowrap">
         <Button
           variant="quiet"
-          className="min-h-7 px-0 py-0 text-xs"
+          className="min-h-11 px-0 py-0 text-xs sm:min-h-7"
           onClick={() => onNew(date)}
           aria-label={`New session on ${label}`}
         >
@@ -226,7 +226,7 @@ function Day({
         </Button>
         <Button
           variant="quiet"
-          className="min-h-7 px-0 py-0 text-xs"
+          className="min-h-11 px-0 py-0 text-xs sm:min-h-7"
           onClick={() => onMarkDay(date)}
           aria-label={`Mark ${label} as rest, ill, injured or cross-training`}
         >

@@ -14,7 +14,7 @@ export function UnitSwitch() {
       <fieldset className="flex rounded-md border border-line bg-card p-0.5 text-sm">
         <legend className="sr-only">Distance unit</legend>
         {UNITS.map((value) => (
-          <label key={value} className="cursor-pointer">
+          <label key={value} className="flex cursor-pointer">
             <input
               type="radio"
               name="distance-unit"
@@ -23,7 +23,7 @@ export function UnitSwitch() {
               onChange={() => mutation.mutate({ unit: value })}
               className="peer sr-only"
             />
-            <span className="block rounded px-2.5 py-0.5 font-semibold text-ink-muted peer-checked:bg-teal peer-checked:text-white peer-focus-visible:outline-2 peer-focus-visible:outline-offset-1 peer-focus-visible:outline-teal">
+            <span className="flex tap-target items-center justify-center rounded px-2.5 py-0.5 font-semibold text-ink-muted peer-checked:bg-teal peer-checked:text-white peer-focus-visible:outline-2 peer-focus-visible:outline-offset-1 peer-focus-visible:outline-teal">
               {value}
             </span>
           </label>

@@ -17,8 +17,8 @@ export function HeartRateZones({ zones }: { zones: HeartRateZonesDetail }) {
       : `percent of maximum heart rate (${zones.max_hr} bpm), zones from 50 % to 90 %`;
   return (
     <div className="flex flex-col gap-3">
-      <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
-        <table className="w-full min-w-xs text-sm tabular-nums">
+      <div className="relative">
+        <table className="w-full text-sm tabular-nums">
           <caption className="sr-only">Moving time in each heart-rate zone</caption>
           <thead className="border-b border-line-strong text-ink-muted">
             <tr>

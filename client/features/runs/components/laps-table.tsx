@@ -10,17 +10,18 @@ type LapRow = RunLap & { unit: Unit; pace_s: number | null };
 
 const helper = createColumnHelper<SortableTableFeatures, LapRow>();
 const number = { meta: { align: 'right' }, sortUndefined: 'last', sortDescFirst: false } as const;
+const primary = { ...number, meta: { align: 'right', primary: true } } as const;
 const whole = (value: number | null) => (value === null ? '–' : Math.round(value).toString());
 
 const COLUMNS = helper.columns([
-  helper.accessor('index', { header: 'Lap', ...number }),
+  helper.accessor('index', { header: 'Lap', ...primary }),
   helper.accessor('distance_m', {
     header: 'Distance',
-    ...number,
+    ...primary,
     cell: (info) => formatDistance(info.getValue(), info.row.original.unit) || '–',
   }),
-  helper.accessor('total_time_s', { header: 'Time', ...number, cell: (info) => formatDuration(info.getValue()) }),
-  helper.accessor('pace_s', { header: 'Pace', ...number, cell: (info) => formatPace(info.getValue()) || '–' }),
+  helper.accessor('total_time_s', { header: 'Time', ...primary, cell: (info) => formatDuration(info.getValue()) }),
+  helper.accessor('pace_s', { header: 'Pace', ...primary, cell: (info) => formatPace(info.getValue()) || '–' }),
   helper.accessor('avg_hr', { header: 'Avg HR', ...number, cell: (info) => whole(info.getValue()) }),
   helper.accessor('max_hr', { header: 'Max HR', ...number, cell: (info) => whole(info.getValue()) }),
 ]);
@@ -34,6 +35,12 @@ export function LapsTable({ laps, unit }: { laps: RunLap[]; unit: Unit }) {
   }));
   const table = useTable({ features: sortableTableFeatures, columns: COLUMNS, data });
   return (
-    <DataTable table={table} caption={`Device laps, pace per ${unit} from lap time`} minWidth="min-w-md" rowHeader="index" />
+    <DataTable
+      table={table}
+      caption={`Device laps, pace per ${unit} from lap time`}
+      minWidth="min-w-md"
+      rowHeader="index"
+      rowLabel={(row) => `lap ${row.original.index}`}
+    />
   );
 }

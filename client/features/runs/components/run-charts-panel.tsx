@@ -53,7 +53,7 @@ export function RunChartsPanel({ track, unit }: { track: RunTrack; unit: Unit })
       <details className="text-sm">
         <summary className="cursor-pointer font-semibold text-teal">The charts’ figures as a table</summary>
         <div className="relative mt-2 max-h-72 overflow-auto">
-          <table className="w-full min-w-xs tabular-nums">
+          <table className="w-full tabular-nums">
             <caption className="sr-only">
               Pace, heart rate and elevation every {step} {unit}
             </caption>

@@ -1,6 +1,7 @@
 import { runDownloads } from '../api/get-run.ts';
 
-const LINK = 'rounded-md border border-line bg-card px-2.5 py-1 font-semibold text-teal hover:border-teal';
+const LINK =
+  'tap-target inline-flex items-center rounded-md border border-line bg-card px-2.5 py-1 font-semibold text-teal hover:border-teal';
 
 /** Plain links: the browser downloads the files itself, with the session cookie. */
 export function RunDownloads({ runId }: { runId: string }) {

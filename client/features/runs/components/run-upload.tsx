@@ -43,8 +43,8 @@ export function RunUpload({ unit }: { unit: Unit }) {
         <p id={hintId} className="text-sm text-ink-muted">
           GPX or TCX, also gzip-compressed (.gpx.gz, .tcx.gz); several at once.
         </p>
-        <label className="cursor-pointer">
-          <span className="inline-flex min-h-9 items-center rounded-md bg-teal px-3.5 py-1.5 text-sm font-semibold text-white hover:bg-teal-deep">
+        <label className="inline-flex cursor-pointer rounded-md">
+          <span className="inline-flex min-h-11 items-center rounded-md bg-teal px-3.5 py-1.5 text-sm font-semibold text-white hover:bg-teal-deep sm:min-h-9">
             Choose files
           </span>
           <input

@@ -1,3 +1,4 @@
+import { Fragment } from 'react';
 import { Link } from 'react-router-dom';
 import {
   CALENDAR_WEEKDAYS as WEEKDAYS,
@@ -33,7 +34,8 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
   const weeks = monthWeeks(month);
   const title = MONTH_NAMES.format(new Date(Date.UTC(month.year, month.month - 1, 1)));
   const monthTotal = runs.reduce((sum, r) => sum + r.distance_m, 0);
-  const nav = 'inline-flex size-8 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
+  const nav =
+    'inline-flex size-11 shrink-0 sm:size-8 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
 
   return (
     <div className="flex flex-col gap-2">
@@ -45,7 +47,7 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
         >
           ◀
         </Link>
-        <h3 className="min-w-36 text-center font-semibold" aria-live="polite">
+        <h3 className="min-w-28 text-center font-semibold sm:min-w-36" aria-live="polite">
           {title}
         </h3>
         <Link
@@ -59,8 +61,9 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
           {runs.length} {runs.length === 1 ? 'run' : 'runs'} · {formatDistance(monthTotal, unit, 1)} {unit}
         </span>
       </div>
-      <div className="relative -mx-4 overflow-x-auto px-4 sm:-mx-5 sm:px-5">
-        <table className="w-full min-w-sm table-fixed text-sm tabular-nums">
+      {/* Phones: seven columns of at least 44 px (the card's padding is given back), week totals on a line under each week. */}
+      <div className="relative -mx-3 overflow-x-auto sm:-mx-5 sm:px-5">
+        <table className="w-full table-fixed text-sm tabular-nums sm:min-w-sm">
           <caption className="sr-only">
             {title}: distance in {unit} per day, and per week
           </caption>
@@ -73,7 +76,7 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
                   </abbr>
                 </th>
               ))}
-              <th scope="col" className="w-14 pb-1 text-right text-xs font-semibold">
+              <th scope="col" className="hidden w-14 pb-1 text-right text-xs font-semibold sm:table-cell">
                 Week
               </th>
             </tr>
@@ -84,17 +87,25 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
                 (sum, date) => sum + (date ? (byDate.get(date) ?? []).reduce((s, r) => s + r.distance_m, 0) : 0),
                 0,
               );
+              const total = weekTotal > 0 ? formatDistance(weekTotal, unit, 1) : null;
               return (
-                <tr key={w} className="border-t border-line">
-                  {week.map((date, d) => (
-                    <td key={d} className="h-14 p-0.5 align-top">
-                      {date && <Day date={date} runs={byDate.get(date) ?? []} unit={unit} isToday={date === today} />}
+                <Fragment key={w}>
+                  <tr className="border-t border-line">
+                    {week.map((date, d) => (
+                      <td key={d} className="h-14 p-0 align-top sm:p-0.5">
+                        {date && <Day date={date} runs={byDate.get(date) ?? []} unit={unit} isToday={date === today} />}
+                      </td>
+                    ))}
+                    <td className="hidden p-0.5 pt-1.5 text-right align-top font-semibold sm:table-cell">
+                      {total ?? <span className="text-line-strong">·</span>}
                     </td>
-                  ))}
-                  <td className="p-0.5 pt-1.5 text-right align-top font-semibold">
-                    {weekTotal > 0 ? formatDistance(weekTotal, unit, 1) : <span className="text-line-strong">·</span>}
-                  </td>
-                </tr>
+                  </tr>
+                  <tr className="sm:hidden">
+                    <td colSpan={7} className="pb-1 text-right text-xs text-ink-muted">
+                      Week <span className="font-semibold text-ink">{total ? `${total} ${unit}` : '–'}</span>
+                    </td>
+                  </tr>
+                </Fragment>
               );
             })}
           </tbody>
@@ -107,7 +118,7 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
 function Day({ date, runs, unit, isToday }: { date: string; runs: RunListItem[]; unit: Unit; isToday: boolean }) {
   const day = Number(date.slice(8));
   return (
-    <div className={cn('flex h-full flex-col rounded-sm px-1 py-0.5', isToday && 'ring-1 ring-ink')}>
+    <div className={cn('flex h-full flex-col rounded-sm px-0.5 py-0.5 sm:px-1', isToday && 'ring-1 ring-ink')}>
       <span className={cn('text-xs', isToday ? 'font-bold text-ink' : 'text-ink-muted')}>
         {day}
         {isToday && <span className="sr-only"> (today)</span>}
@@ -122,7 +133,7 @@ function Day({ date, runs, unit, isToday }: { date: string; runs: RunListItem[];
             key={run.id}
             to={paths.run.getHref(run.id)}
             title={run.name}
-            className="font-semibold text-teal underline-offset-2 hover:underline"
+            className="flex min-h-11 items-center font-semibold text-teal underline-offset-2 hover:underline sm:inline sm:min-h-6"
           >
             {formatDistance(run.distance_m, unit, 1)}
             <span className="sr-only">

@@ -1,6 +1,6 @@
 import { createColumnHelper, functionalUpdate, useTable, type SortingState, type Updater } from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
-import { formatDistance, formatLocalDate, pacePerUnit } from '../../../../shared/runs/display.ts';
+import { formatDistance, formatLocalDate, formatShortDate, pacePerUnit } from '../../../../shared/runs/display.ts';
 import type { RunListSorting } from '../../../../shared/runs/list-sort.ts';
 import type { RunListItem, RunListSort } from '../../../../shared/runs/schemas.ts';
 import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
@@ -18,19 +18,24 @@ const COLUMNS = helper.columns([
   helper.accessor('when', {
     header: 'Date',
     sortFn: 'alphanumeric',
+    meta: { primary: true },
     cell: (info) => (
       <span className="tabular-nums">
-        {formatLocalDate(info.row.original.local_date)} <span className="text-ink-muted">{info.row.original.local_time}</span>
+        <span className="sm:hidden">{formatShortDate(info.row.original.local_date)}</span>
+        <span className="hidden sm:inline">
+          {formatLocalDate(info.row.original.local_date)} <span className="text-ink-muted">{info.row.original.local_time}</span>
+        </span>
       </span>
     ),
   }),
   helper.accessor('name', {
     header: 'Name',
     enableSorting: false,
+    meta: { primary: true },
     cell: (info) => (
       <Link
         to={paths.run.getHref(info.row.original.id)}
-        className="inline-block max-w-64 truncate align-bottom font-semibold text-teal underline-offset-2 hover:underline"
+        className="inline-flex tap-target items-center align-bottom font-semibold text-teal underline-offset-2 hover:underline sm:inline-block sm:max-w-64 sm:truncate"
       >
         {info.getValue()}
       </Link>
@@ -39,12 +44,14 @@ const COLUMNS = helper.columns([
   helper.accessor('distance_m', {
     header: 'Distance',
     ...number,
+    meta: { align: 'right', primary: true },
     cell: (info) => `${formatDistance(info.getValue(), info.row.original.unit)} ${info.row.original.unit}`,
   }),
   helper.accessor('moving_s', { header: 'Moving', ...number, cell: (info) => formatDuration(info.getValue()) }),
   helper.accessor('pace_s_per_km', {
     header: 'Pace',
     ...number,
+    meta: { align: 'right', primary: true },
     sortDescFirst: false,
     cell: (info) => {
       const pace = formatPace(pacePerUnit(info.getValue(), info.row.original.unit));
@@ -99,5 +106,5 @@ export function RunsTable({ runs, unit, sorting, onSortingChange }: RunsTablePro
     state: { sorting: tableSorting },
     onSortingChange: changeSorting,
   });
-  return <DataTable table={table} caption="Your runs" minWidth="min-w-xl" />;
+  return <DataTable table={table} caption="Your runs" minWidth="min-w-xl" rowLabel={(row) => row.original.name} />;
 }

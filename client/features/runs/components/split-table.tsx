@@ -11,6 +11,8 @@ type SplitRow = Split & { mark: 'fastest' | 'slowest' | null };
 
 const helper = createColumnHelper<SortableTableFeatures, SplitRow>();
 const number = { meta: { align: 'right' }, sortUndefined: 'last', sortDescFirst: false } as const;
+/** The columns a phone shows (#, distance, moving, pace); the rest open under a row. */
+const primary = { ...number, meta: { align: 'right', primary: true } } as const;
 const whole = (value: number | null) => (value === null ? '–' : Math.round(value).toString());
 const blankIfNull = (text: string) => text || '–';
 
@@ -25,17 +27,17 @@ function SymbolHeader({ symbol, words }: { symbol: string; words: string }) {
 }
 
 const COLUMNS = helper.columns([
-  helper.accessor('index', { header: '#', ...number, cell: (info) => info.getValue() }),
+  helper.accessor('index', { header: '#', ...primary, cell: (info) => info.getValue() }),
   helper.accessor('distance_m', {
     header: 'Distance',
-    ...number,
+    ...primary,
     cell: (info) => formatDistance(info.getValue(), info.row.original.unit),
   }),
   helper.accessor('elapsed_s', { header: 'Clock', ...number, cell: (info) => formatDuration(info.getValue()) }),
-  helper.accessor('moving_s', { header: 'Moving', ...number, cell: (info) => formatDuration(info.getValue()) }),
+  helper.accessor('moving_s', { header: 'Moving', ...primary, cell: (info) => formatDuration(info.getValue()) }),
   helper.accessor('pace_s', {
     header: 'Pace',
-    ...number,
+    ...primary,
     cell: (info) => {
       const mark = info.row.original.mark;
       return (
@@ -64,21 +66,25 @@ const COLUMNS = helper.columns([
   helper.accessor('avg_hr', {
     header: () => <SymbolHeader symbol="avg ♥" words="Average heart rate" />,
     ...number,
+    meta: { align: 'right', label: 'Average heart rate' },
     cell: (info) => whole(info.getValue()),
   }),
   helper.accessor('max_hr', {
     header: () => <SymbolHeader symbol="max ♥" words="Maximum heart rate" />,
     ...number,
+    meta: { align: 'right', label: 'Maximum heart rate' },
     cell: (info) => whole(info.getValue()),
   }),
   helper.accessor('elev_gain_m', {
     header: () => <SymbolHeader symbol="↑ m" words="Climb in metres" />,
     ...number,
+    meta: { align: 'right', label: 'Climb in metres' },
     cell: (info) => whole(info.getValue()),
   }),
   helper.accessor('elev_loss_m', {
     header: () => <SymbolHeader symbol="↓ m" words="Descent in metres" />,
     ...number,
+    meta: { align: 'right', label: 'Descent in metres' },
     cell: (info) => whole(info.getValue()),
   }),
 ]);
@@ -97,6 +103,7 @@ export function SplitTable({ splits, unitLabel }: { splits: Split[]; unitLabel: 
       caption={`Splits per ${unitLabel}; pace is per ${unitLabel} from moving time`}
       minWidth="min-w-2xl"
       rowHeader="index"
+      rowLabel={(row) => `split ${row.original.index}`}
       rowClassName={(row) => (row.original.mark === 'fastest' ? 'bg-tartan-wash/40' : undefined)}
     />
   );

@@ -8,7 +8,7 @@ export function UnitToggle({ label, value, onChange }: UnitToggleProps) {
     <fieldset className="flex rounded-md border border-line bg-card p-0.5 text-sm">
       <legend className="sr-only">{label}</legend>
       {UNITS.map((unit) => (
-        <label key={unit} className="relative cursor-pointer">
+        <label key={unit} className="relative flex cursor-pointer">
           <input
             type="radio"
             name={label}
@@ -17,7 +17,7 @@ export function UnitToggle({ label, value, onChange }: UnitToggleProps) {
             onChange={() => onChange(unit)}
             className="peer absolute inset-0 cursor-pointer opacity-0"
           />
-          <span className="block rounded px-2.5 py-0.5 font-semibold text-ink-muted peer-checked:bg-teal peer-checked:text-white peer-focus-visible:outline-2 peer-focus-visible:outline-offset-1 peer-focus-visible:outline-teal">
+          <span className="flex tap-target items-center justify-center rounded px-2.5 py-0.5 font-semibold text-ink-muted peer-checked:bg-teal peer-checked:text-white peer-focus-visible:outline-2 peer-focus-visible:outline-offset-1 peer-focus-visible:outline-teal">
             {unit}
           </span>
         </label>

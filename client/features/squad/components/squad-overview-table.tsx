@@ -33,20 +33,21 @@ const COLUMNS = helper.columns([
   helper.accessor('runner', {
     header: 'Runner',
     sortFn: 'alphanumeric',
+    meta: { primary: true },
     cell: (info) => {
       const { runner, start } = info.row.original.source;
       return (
         <span className="flex flex-col items-start">
           <Link
             to={paths.weekReview.getHref(runner.id, start)}
-            className="font-semibold text-teal underline-offset-2 hover:underline"
+            className="inline-flex tap-target items-center font-semibold text-teal underline-offset-2 hover:underline"
             aria-label={`${runner.name}: week review`}
           >
             {runner.name}
           </Link>
           <Link
             to={paths.runnerPlan.getHref(runner.id, { week: start })}
-            className="text-xs text-teal underline-offset-2 hover:underline"
+            className="inline-flex tap-target items-center text-xs text-teal underline-offset-2 hover:underline"
             aria-label={`${runner.name}: plan`}
           >
             Plan
@@ -71,6 +72,7 @@ const COLUMNS = helper.columns([
   helper.accessor('run', {
     header: 'Run',
     ...number,
+    meta: { align: 'right', primary: true },
     cell: (info) => <span className="font-semibold">{distance(info.getValue(), info.row.original.unit)}</span>,
   }),
   helper.accessor('as_planned', {
@@ -93,13 +95,14 @@ const COLUMNS = helper.columns([
   helper.accessor('flag_count', {
     header: 'Flags',
     sortUndefined: 'last',
+    meta: { primary: true },
     cell: (info) => {
       const { flags } = info.row.original.source;
       if (flags.length === 0) return <span className="text-ink-muted">none</span>;
       return (
         <span className="inline-flex items-baseline gap-1.5" title={flags.map((f) => f.message).join('\n\n')}>
           <span className="font-semibold text-tartan tabular-nums">{flags.length}</span>
-          <span>{flags.map((f) => flagWords(f.code)).join(', ')}</span>
+          <span className="whitespace-normal">{flags.map((f) => flagWords(f.code)).join(', ')}</span>
         </span>
       );
     },
@@ -111,7 +114,7 @@ const COLUMNS = helper.columns([
   }),
   helper.accessor('reviewed', {
     header: 'Reviewed',
-    meta: { align: 'right' },
+    meta: { align: 'right', primary: true },
     cell: (info) =>
       info.getValue() ? (
         <span className="font-semibold text-teal">
@@ -149,5 +152,7 @@ export function SquadOverviewTable({ rows, unit, today, caption }: SquadOverview
     reviewed: source.reviewed ? 1 : 0,
   }));
   const table = useTable({ features: sortableTableFeatures, columns: COLUMNS, data });
-  return <DataTable table={table} caption={caption} minWidth="min-w-3xl" rowHeader="runner" />;
+  return (
+    <DataTable table={table} caption={caption} minWidth="min-w-3xl" rowHeader="runner" rowLabel={(row) => row.original.runner} />
+  );
 }

@@ -61,7 +61,7 @@ function Members({ squad }: { squad: SquadDetail }) {
                   </Button>
                 </span>
               ) : (
-                <Button variant="secondary" onClick={() => setConfirmingId(m.id)} aria-label={`Remove ${m.name} from squad`}>
+                <Button variant="secondary" onClick={() => setConfirmingId(m.id)} aria-label={`Remove from squad: ${m.name}`}>
                   Remove from squad
                 </Button>
               )}

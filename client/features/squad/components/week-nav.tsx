@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 
-const NAV = 'inline-flex size-9 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
+const NAV =
+  'inline-flex size-11 sm:size-9 items-center justify-center rounded-md border border-line bg-card text-teal hover:border-teal';
 
 type WeekNavProps = {
   title: string;
@@ -26,7 +27,10 @@ export function WeekNav({ title, previous, next, current }: WeekNavProps) {
         </Link>
       </div>
       {current && (
-        <Link to={current} className="text-sm font-semibold text-teal underline-offset-2 hover:underline">
+        <Link
+          to={current}
+          className="inline-flex tap-target items-center text-sm font-semibold text-teal underline-offset-2 hover:underline"
+        >
           This week
         </Link>
       )}
@@ -40,7 +44,7 @@ export function DownloadLink({ href, children }: { href: string; children: strin
     <a
       href={href}
       download
-      className="inline-flex min-h-9 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-teal hover:border-teal"
+      className="inline-flex min-h-11 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-teal hover:border-teal sm:min-h-9"
     >
       {children}
     </a>

@@ -93,7 +93,10 @@ export function WeekTotals({ week, unit, today }: { week: RunnerWeek; unit: Unit
         note={longRun ? `${Math.round(longRun.share_of_week * 100)} % of the week’s run distance.` : 'No run this week yet.'}
       >
         {longRun ? (
-          <Link to={paths.run.getHref(longRun.run_id)} className="text-teal underline-offset-2 hover:underline">
+          <Link
+            to={paths.run.getHref(longRun.run_id)}
+            className="inline-flex tap-target items-center text-teal underline-offset-2 hover:underline"
+          >
             {formatDistance(longRun.distance_m, unit, 1)} {unit}
             {longRunDay && <span className="font-normal"> on {formatDay(longRunDay.date)}</span>}
           </Link>

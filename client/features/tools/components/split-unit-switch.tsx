@@ -11,7 +11,7 @@ export function SplitUnitSwitch({ value, onChange }: SplitUnitSwitchProps) {
       <legend className="mb-1 text-sm font-semibold">Splits per</legend>
       <div className="flex w-fit rounded-md border border-line-strong bg-white p-0.5 text-sm">
         {UNITS.map((unit) => (
-          <label key={unit} className="cursor-pointer">
+          <label key={unit} className="flex cursor-pointer">
             <input
               type="radio"
               name="unit"
@@ -20,7 +20,7 @@ export function SplitUnitSwitch({ value, onChange }: SplitUnitSwitchProps) {
               onChange={() => onChange(unit)}
               className="peer sr-only"
             />
-            <span className="block rounded px-3 py-1.5 font-semibold text-ink-muted peer-checked:bg-teal peer-checked:text-white peer-focus-visible:outline-2 peer-focus-visible:outline-offset-1 peer-focus-visible:outline-teal">
+            <span className="flex tap-target items-center justify-center rounded px-3 py-1.5 font-semibold text-ink-muted peer-checked:bg-teal peer-checked:text-white peer-focus-visible:outline-2 peer-focus-visible:outline-offset-1 peer-focus-visible:outline-teal">
               {unit === 'mi' ? 'mile' : 'km'}
             </span>
           </label>

@@ -4,6 +4,7 @@ import {
   describeDistanceMeasure,
   formatDistance,
   formatLocalDate,
+  formatShortDate,
   formatRunStart,
   pacePerUnit,
 } from '../../../../shared/runs/display.ts';
@@ -62,6 +63,16 @@ describe('formatLocalDate', () => {
     ['oops', 'oops'],
   ])('%s → "%s"', (date, text) => {
     expect(formatLocalDate(date)).toBe(text);
+  });
+});
+
+describe('formatShortDate', () => {
+  it.each([
+    ['2026-10-03', '3 Oct'],
+    ['2026-12-31', '31 Dec'],
+    ['oops', 'oops'],
+  ])('%s → "%s"', (date, text) => {
+    expect(formatShortDate(date)).toBe(text);
   });
 });
 
