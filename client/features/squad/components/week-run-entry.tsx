@@ -22,7 +22,7 @@ export function WeekRunEntry({ run, unit, meId, runnerId }: { run: WeekDayRun; u
     <div className="flex flex-col gap-1 rounded-sm bg-paper px-2 py-1" data-run-id={run.id}>
       <Link
         to={paths.run.getHref(run.id)}
-        className="text-sm font-semibold text-teal tabular-nums underline-offset-2 hover:underline"
+        className="inline-flex tap-target items-center text-sm font-semibold text-teal tabular-nums underline-offset-2 hover:underline"
       >
         {formatDistance(run.distance_m, unit)} {unit}
         <span className="font-normal text-ink-muted"> · {run.name}</span>
