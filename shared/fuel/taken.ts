@@ -86,7 +86,13 @@ export function resolveTakenEntries(
       continue;
     }
     const item = byId.get(e.item_id);
-    if (!item) return { ok: false, index, field: 'item_id', message: 'There is no fuel item with this id.' };
+    if (!item)
+      return {
+        ok: false,
+        index,
+        field: 'item_id',
+        message: 'This item is no longer among your fuel items: remove the entry, or add the item again.',
+      };
     out.push({
       kind: 'item',
       item_id: item.id,

@@ -129,6 +129,10 @@ describe('Fuel', () => {
     await form.getByRole('button', { name: 'Add a bottle' }).click();
     const bottle = form.getByRole('group', { name: 'Bottle 1' });
     await bottle.getByRole('button', { name: 'Mix in an item' }).click();
+    // The picker starts empty (issue 17): nothing goes into the bottle unasked.
+    const mixed = bottle.getByLabel('Mixed in, bottle 1 item 1');
+    expect(await mixed.inputValue()).toBe('');
+    await mixed.selectOption({ index: 1 });
     await expect.poll(() => bottle.getByText('25 g carbohydrate', { exact: false }).count()).toBe(1);
     await form.getByRole('button', { name: 'Add an intake' }).click();
     const drink = form.getByRole('group', { name: 'Intake 2' });
@@ -198,8 +202,8 @@ describe('Fuel', () => {
     const plannedDrink = taken.getByRole('checkbox', { name: /^bottle A, 200 ml at mi .* \(0:30:00\)$/ });
     await plannedDrink.check();
     expect(await taken.getByLabel('Time, entry 2').inputValue()).toBe('0:30');
-    expect(await taken.getByLabel('Ml, entry 2').inputValue()).toBe('200');
-    await taken.getByLabel('Ml, entry 2').fill('100');
+    expect(await taken.getByLabel('Millilitres (ml), entry 2').inputValue()).toBe('200');
+    await taken.getByLabel('Millilitres (ml), entry 2').fill('100');
     await taken.getByLabel('Stomach (1–5)').selectOption('4');
     await taken.getByLabel('Energy (1–5)').selectOption('3');
     await taken.getByRole('button', { name: 'Save fuel taken' }).click();

@@ -128,7 +128,7 @@ export default function RunRoute() {
       </div>
 
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
-        <FuelTakenCard runId={run.id} localDate={run.summary.local_date} isOwner={isOwner} unit={unit} />
+        <FuelTakenCard runId={run.id} userId={profile.id} localDate={run.summary.local_date} isOwner={isOwner} unit={unit} />
         <CheckinCard runId={run.id} isOwner={isOwner} />
       </div>
     </>

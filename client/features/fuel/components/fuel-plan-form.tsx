@@ -470,9 +470,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
               <div className="flex flex-wrap gap-2">
                 <Button
                   variant="secondary"
-                  onClick={() =>
-                    setBottle(b.key, { contents: [...b.contents, { key: newKey(), itemId: items[0]?.id ?? '', servings: '1' }] })
-                  }
+                  onClick={() => setBottle(b.key, { contents: [...b.contents, { key: newKey(), itemId: '', servings: '1' }] })}
                   disabled={items.length === 0}
                 >
                   Mix in an item

@@ -1,5 +1,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
+import { isApiError } from '../../../lib/api-client.ts';
+import { useDraft } from '../../../lib/use-draft.ts';
 import type { Amounts } from '../../../../shared/fuel/schedule.ts';
 import { FuelTakenInputSchema, type FuelItem, type FuelTakenInput } from '../../../../shared/fuel/schemas.ts';
 import type { PlannedVsTaken, TakenEntry } from '../../../../shared/fuel/taken.ts';
@@ -33,6 +35,11 @@ type EntryDraft = {
 
 let nextKey = 1;
 
+/** Entries restored from a draft keep their keys; new ones count on from above them. */
+function reserveKeys(entries: readonly EntryDraft[]): void {
+  nextKey = Math.max(nextKey, ...entries.map((e) => e.key + 1));
+}
+
 const SCALE = ['1', '2', '3', '4', '5'];
 
 function entryDraft(e: TakenEntry, planned: number | null): EntryDraft {
@@ -62,6 +69,56 @@ function isPlannedEntry(p: ReturnType<typeof plannedIntakes>[number], e: TakenEn
 /** The amount field of an entry: millilitres for water and drinks, servings for items. */
 function amountWord(kind: EntryDraft['kind']): 'ml' | 'servings' {
   return kind === 'item' ? 'servings' : 'ml';
+}
+
+/** The amount field's label, in the words the runner reads. */
+function amountLabel(kind: EntryDraft['kind']): string {
+  return kind === 'item' ? 'Servings' : 'Millilitres (ml)';
+}
+
+type EntryProblems = { item?: string; amount?: string; time?: string };
+const TIME_WORDS = 'Write the time as h:mm from the start, e.g. 1:15.';
+
+/** An entry as the API takes it (NaN where the text is not a number, so the schema names the field). */
+function entryPayload(e: EntryDraft) {
+  const amount = readNumber(e.amount) ?? Number.NaN;
+  const time_s = e.time.trim() === '' ? null : (parseRunTime(e.time) ?? Number.NaN);
+  if (e.kind === 'water') return { kind: 'water', fluid_ml: amount, time_s };
+  if (e.kind === 'drink') return { kind: 'drink', bottle: e.bottle, fluid_ml: amount, time_s };
+  return { kind: 'item', item_id: e.itemId, servings: amount, time_s };
+}
+
+/** Field problems of one entry, checked by the same schema the server uses, worded for its fields. */
+function checkEntry(e: EntryDraft): EntryProblems {
+  const problems: EntryProblems = {};
+  if (e.time.trim() !== '' && parseRunTime(e.time) === null) problems.time = TIME_WORDS;
+  if (readNumber(e.amount) === null)
+    problems.amount =
+      e.kind === 'item' ? 'Write the servings as a number, e.g. 1 or 0.5.' : 'Write the millilitres as a number, e.g. 150.';
+  const parsed = FuelTakenInputSchema.safeParse({ entries: [entryPayload(e)], stomach: null, energy: null, notes: '' });
+  for (const issue of parsed.success ? [] : parsed.error.issues) {
+    const field = issue.path[2];
+    if (field === 'time_s') problems.time ??= issue.message;
+    else if (field === 'servings' || field === 'fluid_ml') problems.amount ??= issue.message;
+    else if (field === 'item_id' || field === 'bottle') problems.item ??= issue.message;
+  }
+  return problems;
+}
+
+const hasProblems = (p: EntryProblems | undefined) => Boolean(p && (p.item || p.amount || p.time));
+
+/** The API's field issues (`entries.3.item_id`) put back on the entries they name. */
+function problemsFromServer(error: unknown, entries: readonly EntryDraft[]): Record<number, EntryProblems> {
+  const out: Record<number, EntryProblems> = {};
+  if (!isApiError(error)) return out;
+  for (const { field, message } of error.fieldIssues) {
+    const m = /^entries\.(\d+)\.(\w+)$/.exec(field ?? '');
+    const entry = m ? entries[Number(m[1])] : undefined;
+    if (!m || !entry) continue;
+    const slot = m[2] === 'time_s' ? 'time' : m[2] === 'servings' || m[2] === 'fluid_ml' ? 'amount' : 'item';
+    out[entry.key] = { ...out[entry.key], [slot]: slot === 'time' && /seconds/.test(message) ? TIME_WORDS : message };
+  }
+  return out;
 }
 
 type AmountsLine = { label: string; planned: Amounts; taken: Amounts };
@@ -139,25 +196,43 @@ function ReadOnly({ view }: { view: FuelTakenView }) {
 
 type FuelTakenFormProps = {
   runId: string;
+  userId: string;
   view: FuelTakenView;
   items: readonly FuelItem[];
   plan: FuelPlan | undefined;
   unit: Unit;
 };
 
-function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
+type Extra = { what: string; amount: string; time: string };
+type TakenDraft = { entries: EntryDraft[]; stomach: string; energy: string; notes: string; extra: Extra };
+
+function FuelTakenForm({ runId, userId, view, items, plan, unit }: FuelTakenFormProps) {
   const planned = plannedIntakes(plan);
-  const [entries, setEntries] = useState<EntryDraft[]>(() =>
-    (view.fuel_taken?.entries ?? []).map((e) => entryDraft(e, planned.find((p) => isPlannedEntry(p, e))?.index ?? null)),
-  );
-  const [stomach, setStomach] = useState(String(view.fuel_taken?.stomach ?? ''));
-  const [energy, setEnergy] = useState(String(view.fuel_taken?.energy ?? ''));
-  const [notes, setNotes] = useState(view.fuel_taken?.notes ?? '');
-  const [extra, setExtra] = useState({ what: items[0] ? `item:${items[0].id}` : 'water', amount: '1', time: '' });
-  const [errors, setErrors] = useState<string[]>([]);
+  // Everything typed is kept in this device's storage until saved, so a reload or a refused save loses nothing.
+  const draft = useDraft<TakenDraft>(`fuel-taken:${userId}:${runId}`, () => ({
+    entries: (view.fuel_taken?.entries ?? []).map((e) => entryDraft(e, planned.find((p) => isPlannedEntry(p, e))?.index ?? null)),
+    stomach: String(view.fuel_taken?.stomach ?? ''),
+    energy: String(view.fuel_taken?.energy ?? ''),
+    notes: view.fuel_taken?.notes ?? '',
+    // The extra-item picker starts empty: nothing goes on the record that the runner did not choose.
+    extra: { what: '', amount: '', time: '' },
+  }));
+  const { entries, stomach, energy, notes, extra } = draft.value;
+  useState(() => reserveKeys(entries));
+  const patch = (change: Partial<TakenDraft>) => draft.update((d) => ({ ...d, ...change }));
+  const setEntries = (change: (es: EntryDraft[]) => EntryDraft[]) => draft.update((d) => ({ ...d, entries: change(d.entries) }));
+  const [extraProblems, setExtraProblems] = useState<EntryProblems & { what?: string }>({});
+  const [serverProblems, setServerProblems] = useState<Record<number, EntryProblems>>({});
+  const [submitted, setSubmitted] = useState(false);
   const [saved, setSaved] = useState(false);
   const save = useSaveFuelTaken(runId);
   const small = cn(CONTROL_CLASSES, 'w-full px-2 py-1.5 text-sm');
+  const problems = (e: EntryDraft): EntryProblems => ({ ...checkEntry(e), ...serverProblems[e.key] });
+  const editEntry = (key: number, change: Partial<EntryDraft>) => {
+    setSaved(false);
+    setServerProblems(({ [key]: _done, ...rest }) => rest);
+    setEntries((es) => es.map((x) => (x.key === key ? { ...x, ...change } : x)));
+  };
 
   const tick = (p: (typeof planned)[number], on: boolean) => {
     setSaved(false);
@@ -192,60 +267,66 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
     );
   };
 
+  const extraKind: EntryDraft['kind'] = extra.what === 'water' ? 'water' : 'item';
   function addExtra() {
     setSaved(false);
-    const isWater = extra.what === 'water';
     const item = items.find((i) => `item:${i.id}` === extra.what);
-    setEntries((es) => [
-      ...es,
-      {
-        key: nextKey++,
-        kind: isWater ? 'water' : 'item',
-        itemId: item?.id ?? '',
-        bottle: '',
-        name: isWater ? 'water' : (item?.name ?? ''),
-        amount: extra.amount,
-        time: extra.time,
-        planned: null,
-      },
-    ]);
-    setExtra({ ...extra, time: '' });
+    const entry: EntryDraft = {
+      key: nextKey++,
+      kind: extraKind,
+      itemId: item?.id ?? '',
+      bottle: '',
+      name: extraKind === 'water' ? 'water' : (item?.name ?? ''),
+      amount: extra.amount,
+      time: extra.time,
+      planned: null,
+    };
+    const found = {
+      ...checkEntry(entry),
+      what: extra.what === '' ? 'Choose what you took: one of your fuel items or water.' : undefined,
+    };
+    setExtraProblems(found);
+    if (found.what || hasProblems(found)) return;
+    patch({ entries: [...entries, entry], extra: { what: extra.what, amount: '', time: '' } });
   }
 
   function onSubmit(event: FormEvent) {
     event.preventDefault();
     setSaved(false);
-    const time = (t: string) => (t.trim() === '' ? null : (parseRunTime(t) ?? Number.NaN));
+    setSubmitted(true);
+    if (entries.some((e) => hasProblems(checkEntry(e)))) return;
     const parsed = FuelTakenInputSchema.safeParse({
-      entries: entries.map((e) => {
-        const amount = readNumber(e.amount) ?? Number.NaN;
-        if (e.kind === 'water') return { kind: 'water', fluid_ml: amount, time_s: time(e.time) };
-        if (e.kind === 'drink') return { kind: 'drink', bottle: e.bottle, fluid_ml: amount, time_s: time(e.time) };
-        return { kind: 'item', item_id: e.itemId, servings: amount, time_s: time(e.time) };
-      }),
+      entries: entries.map(entryPayload),
       stomach: stomach === '' ? null : Number(stomach),
       energy: energy === '' ? null : Number(energy),
       notes,
     });
-    if (!parsed.success) {
-      setErrors(
-        parsed.error.issues.map((i) => (i.path[0] === 'entries' ? `Entry ${Number(i.path[1]) + 1}: ${i.message}` : i.message)),
-      );
-      return;
-    }
-    setErrors([]);
-    save.mutate(parsed.data as FuelTakenInput, { onSuccess: () => setSaved(true) });
+    if (!parsed.success) return;
+    save.mutate(parsed.data as FuelTakenInput, {
+      onSuccess: () => {
+        draft.clear();
+        setServerProblems({});
+        setSaved(true);
+      },
+      // A refusal keeps every entry on screen (and in the draft) and puts the answer at the fields it names.
+      onError: (error) => setServerProblems(problemsFromServer(error, entries)),
+    });
   }
 
+  const marked = entries.filter((e) => hasProblems(problems(e))).length;
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Fuel taken" className="flex flex-col gap-4">
+      {draft.restored && !saved && (
+        <FormAlert tone="success">Restored what you entered earlier on this device; it is not saved yet.</FormAlert>
+      )}
       {planned.length > 0 && (
         <fieldset className="flex flex-col gap-1">
           <legend className="mb-1 text-sm font-semibold">Planned: tick what you took</legend>
           {planned.map((p) => (
-            <label key={p.index} className="flex items-center gap-2 text-sm tabular-nums">
+            <label key={p.index} className="flex min-h-11 items-center gap-2 text-sm tabular-nums sm:min-h-6">
               <input
                 type="checkbox"
+                className="size-5 shrink-0"
                 checked={entries.some((e) => e.planned === p.index)}
                 onChange={(e) => tick(p, e.target.checked)}
               />
@@ -260,38 +341,74 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
         {entries.length === 0 && (
           <p className="text-sm text-ink-muted">Nothing yet: tick planned intakes or add what you took.</p>
         )}
-        {entries.map((e, i) => (
-          <div key={e.key} className="grid grid-cols-[1fr_5rem_5rem_auto] items-end gap-2 text-sm">
-            <span className="pb-2 font-semibold">{e.kind === 'water' ? 'water' : e.name}</span>
-            <label className="flex flex-col gap-1">
-              <span className="text-xs">{amountWord(e.kind)}</span>
-              <input
-                className={small}
-                inputMode="decimal"
-                aria-label={`${amountWord(e.kind) === 'ml' ? 'Ml' : 'Servings'}, entry ${i + 1}`}
-                value={e.amount}
-                onChange={(ev) => setEntries(entries.map((x) => (x.key === e.key ? { ...x, amount: ev.target.value } : x)))}
-              />
-            </label>
-            <label className="flex flex-col gap-1">
-              <span className="text-xs">time h:mm</span>
-              <input
-                className={small}
-                aria-label={`Time, entry ${i + 1}`}
-                value={e.time}
-                onChange={(ev) => setEntries(entries.map((x) => (x.key === e.key ? { ...x, time: ev.target.value } : x)))}
-              />
-            </label>
-            <Button variant="quiet" onClick={() => setEntries(entries.filter((x) => x.key !== e.key))}>
-              Remove entry {i + 1}
-            </Button>
-          </div>
-        ))}
+        {entries.map((e, i) => {
+          const p = problems(e);
+          const id = `fuel-entry-${e.key}`;
+          return (
+            <div key={e.key} className="flex flex-col gap-1">
+              <div className="grid grid-cols-[1fr_5.5rem_5.5rem_auto] items-end gap-2 text-sm">
+                <span className="pb-2 font-semibold" aria-describedby={p.item ? `${id}-item` : undefined}>
+                  {e.kind === 'water' ? 'water' : e.name}
+                </span>
+                <label className="flex flex-col gap-1">
+                  <span className="text-xs">{amountWord(e.kind)}</span>
+                  <input
+                    className={small}
+                    inputMode="decimal"
+                    aria-label={`${amountLabel(e.kind)}, entry ${i + 1}`}
+                    aria-invalid={p.amount ? true : undefined}
+                    aria-describedby={p.amount ? `${id}-amount` : undefined}
+                    value={e.amount}
+                    onChange={(ev) => editEntry(e.key, { amount: ev.target.value })}
+                  />
+                </label>
+                <label className="flex flex-col gap-1">
+                  <span className="text-xs">time h:mm</span>
+                  <input
+                    className={small}
+                    aria-label={`Time, entry ${i + 1}`}
+                    aria-invalid={p.time ? true : undefined}
+                    aria-describedby={p.time ? `${id}-time` : undefined}
+                    value={e.time}
+                    onChange={(ev) => editEntry(e.key, { time: ev.target.value })}
+                  />
+                </label>
+                <Button variant="quiet" onClick={() => setEntries((es) => es.filter((x) => x.key !== e.key))}>
+                  Remove entry {i + 1}
+                </Button>
+              </div>
+              {p.item && (
+                <p id={`${id}-item`} className="text-sm font-semibold text-tartan">
+                  {e.name}: {p.item}
+                </p>
+              )}
+              {p.amount && (
+                <p id={`${id}-amount`} className="text-sm font-semibold text-tartan">
+                  {amountLabel(e.kind)}: {p.amount}
+                </p>
+              )}
+              {p.time && (
+                <p id={`${id}-time`} className="text-sm font-semibold text-tartan">
+                  Time: {p.time}
+                </p>
+              )}
+            </div>
+          );
+        })}
       </section>
 
-      <fieldset className="grid grid-cols-2 items-end gap-2 rounded-md border border-line p-3 sm:grid-cols-4">
+      <fieldset className="grid grid-cols-1 items-start gap-2 rounded-md border border-line p-3 sm:grid-cols-4">
         <legend className="px-1 text-sm font-semibold">Add something else</legend>
-        <SelectField label="Extra item" value={extra.what} onChange={(e) => setExtra({ ...extra, what: e.target.value })}>
+        <SelectField
+          label="What you took"
+          value={extra.what}
+          error={extraProblems.what}
+          onChange={(e) => {
+            setExtraProblems({});
+            patch({ extra: { ...extra, what: e.target.value } });
+          }}
+        >
+          <option value="">Choose…</option>
           {items.map((i) => (
             <option key={i.id} value={`item:${i.id}`}>
               {i.name}
@@ -300,24 +417,38 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
           <option value="water">water</option>
         </SelectField>
         <TextField
-          label={extra.what === 'water' ? 'Ml' : 'Servings'}
+          label={extra.what === '' ? 'Amount' : amountLabel(extraKind)}
           inputMode="decimal"
           value={extra.amount}
-          onChange={(e) => setExtra({ ...extra, amount: e.target.value })}
+          error={extraProblems.amount}
+          placeholder={extraKind === 'water' ? '150' : '1'}
+          onChange={(e) => {
+            setExtraProblems((x) => ({ ...x, amount: undefined }));
+            patch({ extra: { ...extra, amount: e.target.value } });
+          }}
         />
         <TextField
           label="Time (h:mm from the start)"
           value={extra.time}
-          onChange={(e) => setExtra({ ...extra, time: e.target.value })}
+          error={extraProblems.time}
+          onChange={(e) => {
+            setExtraProblems((x) => ({ ...x, time: undefined }));
+            patch({ extra: { ...extra, time: e.target.value } });
+          }}
           placeholder="1:15"
         />
-        <Button variant="secondary" onClick={addExtra}>
+        <Button variant="secondary" className="sm:mt-6" onClick={addExtra}>
           Add to the record
         </Button>
       </fieldset>
 
       <div className="grid grid-cols-2 gap-3">
-        <SelectField label="Stomach (1–5)" value={stomach} onChange={(e) => setStomach(e.target.value)} hint="1 upset, 5 settled">
+        <SelectField
+          label="Stomach (1–5)"
+          value={stomach}
+          onChange={(e) => patch({ stomach: e.target.value })}
+          hint="1 upset, 5 settled"
+        >
           <option value="">not said</option>
           {SCALE.map((n) => (
             <option key={n} value={n}>
@@ -325,7 +456,12 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
             </option>
           ))}
         </SelectField>
-        <SelectField label="Energy (1–5)" value={energy} onChange={(e) => setEnergy(e.target.value)} hint="1 empty, 5 strong">
+        <SelectField
+          label="Energy (1–5)"
+          value={energy}
+          onChange={(e) => patch({ energy: e.target.value })}
+          hint="1 empty, 5 strong"
+        >
           <option value="">not said</option>
           {SCALE.map((n) => (
             <option key={n} value={n}>
@@ -339,19 +475,15 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
         <textarea
           className={cn(CONTROL_CLASSES, 'min-h-16 px-3 py-2')}
           value={notes}
-          onChange={(e) => setNotes(e.target.value)}
+          onChange={(e) => patch({ notes: e.target.value })}
         />
       </label>
-      {errors.length > 0 && (
+      {submitted && marked > 0 && (
         <FormAlert>
-          {errors.map((e) => (
-            <span key={e} className="block">
-              {e}
-            </span>
-          ))}
+          {marked === 1 ? 'One entry needs' : `${marked} entries need`} a fix before saving: see the messages beside them.
         </FormAlert>
       )}
-      {save.error && <FormAlert>{save.error.message}</FormAlert>}
+      {save.error && <FormAlert>Not saved: {save.error.message} Everything you entered is still here.</FormAlert>}
       {saved && <FormAlert tone="success">Fuel taken saved.</FormAlert>}
       <div>
         <Button type="submit" disabled={save.isPending}>
@@ -362,10 +494,10 @@ function FuelTakenForm({ runId, view, items, plan, unit }: FuelTakenFormProps) {
   );
 }
 
-type FuelTakenCardProps = { runId: string; localDate: string; isOwner: boolean; unit: Unit };
+type FuelTakenCardProps = { runId: string; userId: string; localDate: string; isOwner: boolean; unit: Unit };
 
 /** What was taken on the run and how it went; planned vs taken per hour when the run's session or race has a fuel plan. */
-export function FuelTakenCard({ runId, localDate, isOwner, unit }: FuelTakenCardProps) {
+export function FuelTakenCard({ runId, userId, localDate, isOwner, unit }: FuelTakenCardProps) {
   const taken = useFuelTaken(runId);
   const items = useQuery({ ...fuelItemsQueryOptions(), enabled: isOwner });
   const plan = useRunFuelPlan(localDate, taken.data?.planned_vs_taken?.fuel_plan_id ?? null);
@@ -386,7 +518,15 @@ export function FuelTakenCard({ runId, localDate, isOwner, unit }: FuelTakenCard
         <div className="flex flex-col gap-4">
           {isOwner ? (
             items.data ? (
-              <FuelTakenForm key={plan?.id ?? 'no-plan'} runId={runId} view={view} items={items.data} plan={plan} unit={unit} />
+              <FuelTakenForm
+                key={plan?.id ?? 'no-plan'}
+                runId={runId}
+                userId={userId}
+                view={view}
+                items={items.data}
+                plan={plan}
+                unit={unit}
+              />
             ) : (
               <p role="status" className="text-sm text-ink-muted">
                 Loading your fuel items…

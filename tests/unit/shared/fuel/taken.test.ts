@@ -65,7 +65,7 @@ describe('resolveTakenEntries', () => {
       ok: false,
       index: 1,
       field: 'item_id',
-      message: 'There is no fuel item with this id.',
+      message: 'This item is no longer among your fuel items: remove the entry, or add the item again.',
     });
   });
 

@@ -1,0 +1,133 @@
+import type { Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
+import type { RunningServer } from '../../server/index.ts';
+import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
+import { launchBrowser, screenshot, signIn, startAppServer } from '../support/browser.ts';
+
+/** Forms never lose work (issue 17): drafts survive a reload, a refused save keeps everything and answers at the field. */
+const runner = DEMO_PEOPLE.find((p) => p.email.startsWith('priya@'))!;
+
+let server: RunningServer;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+
+beforeAll(async () => {
+  server = await startAppServer();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.close();
+});
+
+/** A request as the app makes it: JSON with the CSRF header from its cookie. */
+async function call<T>(page: Page, method: string, url: string, body?: unknown): Promise<T> {
+  return page.evaluate(
+    async ({ method, url, body, cookie, header }) => {
+      const token = decodeURIComponent(
+        document.cookie
+          .split('; ')
+          .find((c) => c.startsWith(`${cookie}=`))
+          ?.split('=')[1] ?? '',
+      );
+      const res = await fetch(url, {
+        method,
+        headers: { 'content-type': 'application/json', [header]: token },
+        body: body === undefined ? undefined : JSON.stringify(body),
+      });
+      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
+      return res.status === 204 ? null : res.json();
+    },
+    { method, url, body, cookie: CSRF_COOKIE, header: CSRF_HEADER },
+  );
+}
+
+describe('fuel taken on the run page', () => {
+  it('checks fields where they are typed, keeps a draft over a reload, and a refused save keeps every entry with the message at the field', async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    await page.setViewportSize({ width: 375, height: 812 });
+    await page.goto(`${server.url}/sign-in`);
+    await signIn(page, runner.email, runner.password);
+    await page.waitForURL(/\/log$/);
+    const suffix = Date.now().toString(36);
+    await call(page, 'POST', '/api/fuel-items', {
+      name: `chews ${suffix}`,
+      carbohydrate_g: 24,
+      sodium_mg: 50,
+      caffeine_mg: 0,
+      fluid_ml: 0,
+    });
+    const { item: gel } = await call<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
+      name: `gel ${suffix}`,
+      carbohydrate_g: 22,
+      sodium_mg: 40,
+      caffeine_mg: 0,
+      fluid_ml: 0,
+    });
+    const { runs } = await call<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=1');
+    await page.goto(`${server.url}/runs/${runs[0]!.id}`);
+    const taken = page.getByRole('form', { name: 'Fuel taken' });
+    await taken.waitFor();
+
+    // The picker starts empty; a bad amount and a bad time are refused at their fields, in their words.
+    const what = taken.getByLabel('What you took');
+    expect(await what.inputValue()).toBe('');
+    await taken.getByRole('button', { name: 'Add to the record' }).click();
+    await expect.poll(() => taken.getByText('Choose what you took: one of your fuel items or water.').count()).toBe(1);
+    await what.selectOption({ label: 'water' });
+    await taken.getByLabel('Millilitres (ml)', { exact: true }).fill('-200');
+    await taken.getByLabel('Time (h:mm from the start)').fill('9:99');
+    await taken.getByRole('button', { name: 'Add to the record' }).click();
+    await expect.poll(() => taken.getByText('Write the time as h:mm from the start, e.g. 1:15.').count()).toBe(1);
+    await expect.poll(() => taken.getByText('At least 1 ml.').count()).toBe(1);
+    expect(await taken.getByLabel(/^Millilitres \(ml\), entry/).count()).toBe(0);
+
+    // Two items and how it went.
+    for (const [name, servings, time] of [
+      [`chews ${suffix}`, '2', '0:40'],
+      [`gel ${suffix}`, '1', '1:20'],
+    ] as const) {
+      await what.selectOption({ label: name });
+      await taken.getByLabel('Servings', { exact: true }).fill(servings);
+      await taken.getByLabel('Time (h:mm from the start)').fill(time);
+      await taken.getByRole('button', { name: 'Add to the record' }).click();
+    }
+    await expect.poll(() => taken.getByLabel(/^Servings, entry/).count()).toBe(2);
+    await taken.getByLabel('Stomach (1–5)').selectOption('4');
+    await taken.getByLabel('Energy (1–5)').selectOption('3');
+    await taken.getByLabel('Fuel notes').fill('Chews went down well; the gel late.');
+
+    // A reload keeps all of it (a draft on this device).
+    await page.reload();
+    await taken.waitFor();
+    await expect.poll(() => taken.getByLabel(/^Servings, entry/).count()).toBe(2);
+    expect(await taken.getByLabel('Servings, entry 1').inputValue()).toBe('2');
+    expect(await taken.getByLabel('Time, entry 2').inputValue()).toBe('1:20');
+    expect(await taken.getByLabel('Stomach (1–5)').inputValue()).toBe('4');
+    expect(await taken.getByLabel('Fuel notes').inputValue()).toBe('Chews went down well; the gel late.');
+
+    // The gel is deleted elsewhere (another tab): the server refuses the save and names entry 2.
+    await call(page, 'DELETE', `/api/fuel-items/${gel.id}`);
+    await taken.getByRole('button', { name: 'Save fuel taken' }).click();
+    await expect.poll(() => taken.getByText(/^Not saved: /).count()).toBe(1);
+    const atField = taken.getByText(new RegExp(`^gel ${suffix}: `));
+    await expect.poll(() => atField.count()).toBe(1);
+    await screenshot(page, 'fuel-taken-refused-375');
+    expect(await taken.getByLabel(/^Servings, entry/).count()).toBe(2);
+    expect(await taken.getByLabel('Servings, entry 1').inputValue()).toBe('2');
+    expect(await taken.getByLabel('Energy (1–5)').inputValue()).toBe('3');
+    expect(await taken.getByLabel('Fuel notes').inputValue()).toBe('Chews went down well; the gel late.');
+
+    // Removing the named entry and saving again works, and the draft is gone.
+    await taken.getByRole('button', { name: 'Remove entry 2' }).click();
+    await taken.getByRole('button', { name: 'Save fuel taken' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Fuel taken saved.' }).count()).toBe(1);
+    const stored = await page.evaluate(() =>
+      Object.keys(localStorage).filter((k) => k.startsWith('pacewright:draft:fuel-taken:')),
+    );
+    expect(stored).toEqual([]);
+    await page.close();
+  });
+});
