@@ -200,7 +200,7 @@ describe('The coach prescribes', () => {
     expect(await count()).toBe(before + source);
 
     // "Move to…" lists the seven days as large buttons.
-    const first = page.getByRole('button', { name: /^Move .* to another day$/ }).first();
+    const first = page.getByRole('button', { name: /^Move to another day: / }).first();
     await first.click();
     const days = page
       .getByRole('group', { name: /^Move .* to$/ })

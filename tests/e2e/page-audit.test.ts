@@ -90,6 +90,14 @@ const firstWeekReview = async (page: Page) => {
   await link.waitFor();
   return (await link.getAttribute('href'))!;
 };
+/** The coach's view of a squad runner's plan (week or month), reached from the squad overview. */
+const firstRunnerPlan = (view: 'week' | 'month') => async (page: Page) => {
+  await page.goto(`${page.url().split('/').slice(0, 3).join('/')}/squad`);
+  const link = page.locator('a[href$="/plan"], a[href*="/plan?"]').first();
+  await link.waitFor();
+  const href = (await link.getAttribute('href'))!.split('?')[0]!;
+  return view === 'month' ? `${href}?view=month` : href;
+};
 
 const PAGES: Record<Role, AuditedPage[]> = {
   'signed-out': [
@@ -117,6 +125,8 @@ const PAGES: Record<Role, AuditedPage[]> = {
     { name: 'squad', path: '/squad' },
     { name: 'week-review', path: firstWeekReview },
     { name: 'plan', path: '/plan' },
+    { name: 'runner-plan-week', path: firstRunnerPlan('week') },
+    { name: 'runner-plan-month', path: firstRunnerPlan('month') },
     { name: 'tools', path: '/tools' },
     { name: 'profile', path: '/profile' },
   ],

@@ -220,15 +220,15 @@ function Day({
           variant="quiet"
           className="min-h-11 px-0 py-0 text-xs sm:min-h-7"
           onClick={() => onNew(date)}
-          aria-label={`New session on ${label}`}
+          aria-label={`Add session on ${label}`}
         >
-          + Add session
+          <span aria-hidden="true">+</span> Add session
         </Button>
         <Button
           variant="quiet"
           className="min-h-11 px-0 py-0 text-xs sm:min-h-7"
           onClick={() => onMarkDay(date)}
-          aria-label={`Mark ${label} as rest, ill, injured or cross-training`}
+          aria-label={`${mark ? 'Change mark' : 'Mark day'}: ${label} as rest, ill, injured or cross-training`}
         >
           {mark ? 'Change mark' : 'Mark day'}
         </Button>
@@ -278,16 +278,16 @@ function SessionCard({ plan, label, missed, onEdit, onMove, now, timeZone, movin
         <span className="flex flex-wrap gap-x-3">
           <Button
             variant="quiet"
-            className="min-h-7 px-0 py-0 text-xs whitespace-nowrap"
+            className="min-h-11 px-0 py-0 text-xs whitespace-nowrap sm:min-h-7"
             aria-expanded={choosing}
             onClick={() => setChoosing((c) => !c)}
-            aria-label={`Move ${plan.title || 'session'} on ${label} to another day`}
+            aria-label={`Move to another day: ${plan.title || 'session'} on ${label}`}
           >
             Move to…
           </Button>
           <Button
             variant="quiet"
-            className="min-h-7 px-0 py-0 text-xs"
+            className="min-h-11 px-0 py-0 text-xs sm:min-h-7"
             onClick={() => onEdit(plan)}
             aria-label={`Edit ${plan.title || 'session'} on ${label}`}
           >
