@@ -103,6 +103,7 @@ const PAGES: Record<Role, AuditedPage[]> = {
   'signed-out': [
     { name: 'sign-in', path: '/sign-in' },
     { name: 'sign-up', path: '/sign-up' },
+    { name: 'sign-up-confirm', path: '/sign-up/confirm/not-a-real-token' },
     { name: 'forgot-password', path: '/forgot-password' },
     { name: 'reset-password', path: '/reset-password/not-a-real-token' },
     { name: 'invitation', path: '/invite/not-a-real-token' },
