@@ -4,9 +4,12 @@ import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
+import type Stripe from 'stripe';
 import type { AppConfig } from './config.ts';
 import { authenticate } from './features/auth/authenticate.ts';
 import { createAuthRouter } from './features/auth/auth.routes.ts';
+import { createFeesRouter } from './features/fees/fees.routes.ts';
+import { createPaymentsClient } from './features/fees/payments-client.ts';
 import { createFuelRouter } from './features/fuel/fuel.routes.ts';
 import { createGoalsRouter } from './features/goals/goals.routes.ts';
 import { createPlansRouter } from './features/plans/plans.routes.ts';
@@ -36,6 +39,8 @@ export interface AppDeps {
   store?: FileStore;
   /** Outgoing e-mail; SMTP to SMTP_URL or the local mail catcher by default. */
   mailer?: Mailer;
+  /** The payment service's SDK client; built from config.payments by default (null: payments not set up). */
+  payments?: Stripe | null;
 }
 
 const API_VERSION = '0.1.0';
@@ -46,6 +51,7 @@ export function createApp({
   clientDir,
   store = createFsStore(config.dataDir),
   mailer = createSmtpMailer(config),
+  payments = createPaymentsClient(config),
 }: AppDeps): Express {
   const app = express();
   app.disable('x-powered-by');
@@ -59,6 +65,8 @@ export function createApp({
       serializers: { req: (req: { url?: string }) => ({ ...req, url: req.url && loggableUrl(req.url) }) },
     }),
   );
+  // The payment service signs the exact bytes it sends: its webhook gets the raw body (same size limit).
+  app.use('/api/payments/webhook', express.raw({ type: () => true, limit: config.jsonLimit }));
   app.use(express.json({ limit: config.jsonLimit }));
   app.use(cookieParser());
 
@@ -78,6 +86,7 @@ export function createApp({
     createNotesRouter(),
     createFuelRouter(),
     createHistoryRouter(store, config),
+    createFeesRouter(config, payments),
   ];
   const openApi = buildOpenApiDocument(
     features.flatMap((f) => f.specs),

@@ -31,6 +31,12 @@ export interface AppConfig {
   mailFrom: string;
   /** Stored files without rows are removed by the orphan sweeper only when older than this (ORPHAN_GRACE_SECONDS). */
   orphanGraceSeconds: number;
+  /**
+   * The payment service (coach fees, server/features/fees/README.md). `url` null means the real service when a
+   * secret key is set in production; outside production `startServer` starts the local fake and puts its address
+   * here. `webhookSecret` signs and checks webhook events.
+   */
+  payments: { url: string | null; secretKey: string | null; webhookSecret: string; fakePort: number };
 }
 
 /** `DATABASE_URL`, else the embedded cluster on loopback (db/pg.sh). */
@@ -78,5 +84,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     mailCatcherPort: Number(env.MAIL_CATCHER_PORT ?? 2525),
     mailFrom: env.MAIL_FROM ?? 'Pacewright <no-reply@pacewright.test>',
     orphanGraceSeconds: Number(orphanGrace),
+    payments: {
+      url: env.PAYMENTS_URL || null,
+      secretKey: env.STRIPE_SECRET_KEY || (mode === 'production' ? null : 'sk_test_local_fake'),
+      // Outside production a per-process secret shared with the local fake, like the session secret.
+      webhookSecret: env.STRIPE_WEBHOOK_SECRET || `whsec_${randomBytes(24).toString('hex')}`,
+      fakePort: Number(env.PAYMENTS_FAKE_PORT ?? 0),
+    },
   };
 }

@@ -41,7 +41,26 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   const catcher = !config.smtpUrl && config.env !== 'production' ? await startMailCatcher(config.mailCatcherPort) : null;
   const mailConfig = catcher ? { ...config, mailCatcherPort: catcher.port } : config;
   const { createSmtpMailer } = await import('./lib/mailer.ts');
-  const app = createApp({ config, store, mailer: createSmtpMailer(mailConfig), clientDir: path.join(ROOT, 'dist/client') });
+  // Development and tests: the local fake of the payment service on loopback, unless PAYMENTS_URL names one.
+  // Imported only here and only outside production, so a production server never loads it.
+  const fake =
+    !config.payments.url && config.env !== 'production'
+      ? await (
+          await import('./features/fees/payment-fake.ts')
+        ).startPaymentFake({ port: config.payments.fakePort, webhookSecret: config.payments.webhookSecret })
+      : null;
+  if (fake) config.payments.url = fake.url;
+  const { createPaymentsClient } = await import('./features/fees/payments-client.ts');
+  const payments = createPaymentsClient(config);
+  const app = createApp({
+    config,
+    store,
+    mailer: createSmtpMailer(mailConfig),
+    payments,
+    clientDir: path.join(ROOT, 'dist/client'),
+  });
+  const { startReconcileJob } = await import('./features/fees/reconcile-job.ts');
+  const reconcile = payments ? await startReconcileJob(payments, config.databaseUrl) : null;
   // Bulk imports run in the background through a pg-boss queue in the same database.
   const { startImportWorker, stopImportWorker } = await import('./features/history/import-queue.ts');
   await startImportWorker(store, {
@@ -59,6 +78,14 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   const sweeper = startOrphanSweeper({ store, dataDir: config.dataDir, graceSeconds: config.orphanGraceSeconds });
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
+  fake?.setDeliver(async (payload, signature) => {
+    const answer = await fetch(`http://${config.host}:${port}/api/payments/webhook`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'stripe-signature': signature },
+      body: payload,
+    });
+    return answer.status;
+  });
   return {
     server,
     config,
@@ -71,6 +98,8 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
       await sweeper.stop();
       await stopImportWorker();
       await catcher?.close();
+      await fake?.close();
+      await reconcile?.stop();
       await db.destroy();
     },
   };

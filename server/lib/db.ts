@@ -411,6 +411,54 @@ export interface ImportFileRow {
   result: unknown;
 }
 
+export interface SquadFeeRow {
+  squad_id: string;
+  kind: 'none' | 'monthly' | 'block';
+  amount_minor: number | null;
+  currency: string | null;
+  first_month_discount_minor: number | null;
+  block_weeks: number | null;
+  updated_by: string | null;
+  updated_at: Date;
+}
+
+export interface PaymentCustomerRow {
+  user_id: string;
+  customer_id: string;
+  created_at: Date;
+}
+
+export interface FeePayerRow {
+  squad_id: string;
+  runner_id: string;
+  subscription_id: string | null;
+  paid_through: string | null;
+  cancel_at_period_end: boolean;
+  ended: boolean;
+  waived: boolean;
+  subscription_event_at: string | null;
+  updated_at: Date;
+}
+
+export interface FeeReceiptRow {
+  id: string;
+  payment_ref: string;
+  squad_id: string;
+  runner_id: string;
+  amount_minor: number;
+  currency: string;
+  paid_at: Date;
+  period_start: string;
+  period_end: string;
+}
+
+export interface PaymentEventRow {
+  event_id: string;
+  type: string;
+  outcome: string;
+  received_at: Date;
+}
+
 declare module 'knex/types/tables.js' {
   interface Tables {
     users: UserRow;
@@ -450,6 +498,11 @@ declare module 'knex/types/tables.js' {
     run_checkins: RunCheckinRow;
     imports: ImportRow;
     import_files: ImportFileRow;
+    squad_fees: SquadFeeRow;
+    payment_customers: PaymentCustomerRow;
+    fee_payers: FeePayerRow;
+    fee_receipts: FeeReceiptRow;
+    payment_events: PaymentEventRow;
   }
 }
 

@@ -3,8 +3,9 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
+import { startPaymentFake } from '../../server/features/fees/payment-fake.ts';
 import { db } from '../../server/lib/db.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
 import { createUser } from '../support/factories.ts';
@@ -27,9 +28,15 @@ interface World {
   week: string;
 }
 
+// Checkouts go to the local fake of the payment service (issue 20).
+const paymentFake = await startPaymentFake({ webhookSecret: 'whsec_matrix' });
+afterAll(() => paymentFake.close());
+
 async function buildWorld(): Promise<World> {
   const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-matrix-'));
-  const app = createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
+  const config = testConfig({ dataDir });
+  config.payments = { ...config.payments, url: paymentFake.url, webhookSecret: 'whsec_matrix' };
+  const app = createApp({ config, store: createFsStore(dataDir), mailer: recordingMailer });
   const people = {
     owner: await createUser({ role: 'runner' }),
     'other runner': await createUser({ role: 'runner' }),
@@ -45,6 +52,7 @@ async function buildWorld(): Promise<World> {
     { squad_id: squad!.id, runner_id: people.owner.user.id },
     { squad_id: otherSquad!.id, runner_id: people['other runner'].user.id },
   ]);
+  await db('squad_fees').insert({ squad_id: squad!.id, kind: 'monthly', amount_minor: 4500, currency: 'USD' });
   const auth = { 'signed out': {} } as Record<ActorName, Record<string, string>>;
   for (const [name, p] of Object.entries(people)) {
     const token = (await request(app).post('/api/auth/token').send({ email: p.user.email, password: p.password })).body
@@ -268,6 +276,42 @@ const CASES: Case[] = [
     name: 'POST /api/squads/:id/invitations',
     call: (w, a) => request(w.app).post(`/api/squads/${w.squadId}/invitations`).set(a).send({ email: 'x@example.test' }),
     expected: s(403, 403, 201, 404, 403, 401),
+  },
+  {
+    name: 'GET /api/squads/:id/fee',
+    call: (w, a) => request(w.app).get(`/api/squads/${w.squadId}/fee`).set(a),
+    expected: s(200, 404, 200, 404, 404, 401),
+  },
+  {
+    name: 'PUT /api/squads/:id/fee',
+    call: (w, a) =>
+      request(w.app).put(`/api/squads/${w.squadId}/fee`).set(a).send({ kind: 'monthly', amount_minor: 5000, currency: 'EUR' }),
+    expected: s(403, 403, 200, 404, 403, 401),
+  },
+  {
+    name: 'POST /api/squads/:id/checkout',
+    call: (w, a) => request(w.app).post(`/api/squads/${w.squadId}/checkout`).set(a),
+    expected: s(201, 404, 404, 404, 404, 401),
+  },
+  {
+    name: 'GET /api/squads/:id/billing',
+    call: (w, a) => request(w.app).get(`/api/squads/${w.squadId}/billing`).set(a),
+    expected: s(403, 403, 200, 404, 403, 401),
+  },
+  {
+    name: 'GET /api/squads/:id/billing.csv',
+    call: (w, a) => request(w.app).get(`/api/squads/${w.squadId}/billing.csv`).set(a),
+    expected: s(403, 403, 200, 404, 403, 401),
+  },
+  {
+    name: 'PUT /api/squads/:id/members/:runnerId/fee-waiver',
+    call: (w, a) => request(w.app).put(`/api/squads/${w.squadId}/members/${w.ownerId}/fee-waiver`).set(a).send({ waived: true }),
+    expected: s(403, 403, 200, 404, 403, 401),
+  },
+  {
+    name: 'GET /api/me/fees',
+    call: (w, a) => request(w.app).get('/api/me/fees').set(a),
+    expected: s(200, 200, 200, 200, 200, 401),
   },
   {
     name: 'GET /api/admin/users',

@@ -150,6 +150,12 @@ describe('every CSV the app produces defuses formula starts', () => {
       'GET /api/squads/{id}/overview.csv',
       await text(request(app).get(`/api/squads/${squad!.id}/overview.csv?week=${DATE}`).set(coachAuth)),
     );
+    // The coach's billing CSV carries the runner's name too (issue 20).
+    await db('squad_fees').insert({ squad_id: squad!.id, kind: 'monthly', amount_minor: 4500, currency: 'USD' });
+    csvs.set(
+      'GET /api/squads/{id}/billing.csv',
+      await text(request(app).get(`/api/squads/${squad!.id}/billing.csv`).set(coachAuth)),
+    );
     const exported = await binary(request(app).get('/api/me/export').set(auth));
     expect(exported.status).toBe(200);
     for (const [name, body] of await unzipCsvs(exported.body as Buffer)) csvs.set(`export ${name}`, body);

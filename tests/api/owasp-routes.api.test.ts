@@ -9,7 +9,9 @@ import jwt, { type SignOptions } from 'jsonwebtoken';
 import request from 'supertest';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import yauzl from 'yauzl';
+import Stripe from 'stripe';
 import { createApp } from '../../server/app.ts';
+import { startPaymentFake } from '../../server/features/fees/payment-fake.ts';
 import { startImportWorker, stopImportWorker } from '../../server/features/history/import-queue.ts';
 import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
 import { db } from '../../server/lib/db.ts';
@@ -43,7 +45,21 @@ const config = testConfig({
   authRateLimit: { windowMs: 60_000, max: 100_000 },
 });
 const store = createFsStore(dataDir);
+// The local fake of the payment service (issue 20): checkouts, the portal and signed webhook events, all on loopback.
+const paymentFake = await startPaymentFake({ webhookSecret: config.payments.webhookSecret });
+config.payments.url = paymentFake.url;
 const app = createApp({ config, store, mailer: recordingMailer });
+paymentFake.setDeliver(
+  async (payload, signature) =>
+    (
+      await request(app)
+        .post('/api/payments/webhook')
+        .set('content-type', 'application/json')
+        .set('stripe-signature', signature)
+        .send(payload)
+    ).status,
+);
+const signer = new Stripe('sk_test_signer');
 
 // ---------------------------------------------------------------------------------------------
 // The world every check runs against: two runners, two coaches with a squad each, an admin, and
@@ -84,7 +100,11 @@ interface World {
     weekNote: string;
     library: string;
     batch: string;
+    /** A squad with a monthly fee the owner pays (a running subscription at the fake). */
+    paidSquad: string;
   };
+  /** An open checkout of the owner's at the fake, for the development route that completes it. */
+  checkoutUrl: string;
   inviteToken: string;
   resetToken: string;
   /** The owner's calendar feed path value (`cal_….ics`). */
@@ -228,13 +248,36 @@ async function buildWorld(): Promise<World> {
   );
   // Reset and sign-up mail goes out after the answer (issue 13 #7).
   await afterAnswerSettled();
+  const monthlyFee = { kind: 'monthly', amount_minor: 4500, currency: 'USD' };
+  await must('fee', as(coach).put(`/api/squads/${squad}/fee`).send(monthlyFee), 200);
+  const paidSquad = (await must('paid squad', as(coach).post('/api/squads').send({ name: 'Paid Mornings' }), 201)).body.squad
+    .id as string;
+  await db('squad_members').insert({ squad_id: paidSquad, runner_id: owner.id });
+  await must('paid squad fee', as(coach).put(`/api/squads/${paidSquad}/fee`).send(monthlyFee), 200);
+  const paidCheckout = (await must('paid checkout', as(owner).post(`/api/squads/${paidSquad}/checkout`), 201)).body.url as string;
+  await must('pay', request(app).post('/api/dev/payments/complete').send({ url: paidCheckout, card: '4242424242424242' }), 200);
+  const checkoutUrl = (await must('checkout', as(owner).post(`/api/squads/${squad}/checkout`), 201)).body.url as string;
   const imported = await must('import', as(owner).post('/api/imports').attach('file', historyZip(), 'history.zip'), 202);
   const importId = imported.body.import.id as string;
   await waitForImport(owner.browser, importId);
 
   return {
     people,
-    ids: { run: runId, plan, fuelItem, raceResult, namedToken, squad, invitation, import: importId, weekNote, library, batch },
+    ids: {
+      run: runId,
+      plan,
+      fuelItem,
+      raceResult,
+      namedToken,
+      squad,
+      invitation,
+      import: importId,
+      weekNote,
+      library,
+      batch,
+      paidSquad,
+    },
+    checkoutUrl,
     inviteToken: linkTokenMailedTo(owner.email, 'inv'),
     calendarToken: calendarUrl.split('/').at(-1)!,
     resetToken: linkTokenMailedTo(people.spare.email, 'rst'),
@@ -272,7 +315,7 @@ interface Row {
   /** A valid JSON body; required exactly when the route documents one. */
   body?: (w: World) => object;
   /** What a POST/PUT/PATCH without a JSON body takes instead. */
-  takes?: 'nothing' | 'gps-files' | 'gps-archive';
+  takes?: 'nothing' | 'gps-files' | 'gps-archive' | 'signed-event';
   /** Also takes `?runner_id=`: someone else's runner id must answer 404 too. */
   runnerIdQuery?: true;
   /** Why nobody is a stranger to these ids (otherwise the caller's unrelated counterpart is). */
@@ -454,6 +497,26 @@ const ROUTES: Record<string, Row> = {
   'GET /api/squads/{id}/overview': { caller: 'coach', params: { id: squadId }, query: (w) => ({ week: w.week }) },
   'GET /api/squads/{id}/overview.csv': { caller: 'coach', params: { id: squadId }, query: (w) => ({ week: w.week }) },
   'POST /api/squads/{id}/digest': { caller: 'coach', params: { id: squadId }, body: (w) => ({ week: w.week }) },
+  'GET /api/squads/{id}/fee': { caller: 'owner', params: { id: squadId } },
+  'PUT /api/squads/{id}/fee': {
+    caller: 'coach',
+    params: { id: squadId },
+    body: () => ({ kind: 'monthly', amount_minor: 5000, currency: 'EUR', first_month_discount_minor: 1000 }),
+  },
+  'POST /api/squads/{id}/checkout': { caller: 'owner', params: { id: squadId }, takes: 'nothing' },
+  'POST /api/squads/{id}/fee/cancel': { caller: 'owner', params: { id: id((w) => w.ids.paidSquad) }, takes: 'nothing' },
+  'POST /api/me/fees/portal': { caller: 'owner', takes: 'nothing' },
+  'GET /api/me/fees': { caller: 'owner' },
+  'GET /api/squads/{id}/billing': { caller: 'coach', params: { id: squadId } },
+  'GET /api/squads/{id}/billing.csv': { caller: 'coach', params: { id: squadId } },
+  'PUT /api/squads/{id}/members/{runnerId}/fee-waiver': {
+    caller: 'coach',
+    params: { id: squadId, runnerId: ownerId },
+    body: () => ({ waived: true }),
+  },
+  'POST /api/payments/webhook': { caller: 'anyone', takes: 'signed-event' },
+  // The declined test card: a complete, valid call that leaves the owner due, so the checkout row can still pay.
+  'POST /api/dev/payments/complete': { caller: 'anyone', body: (w) => ({ url: w.checkoutUrl, card: '4000000000000002' }) },
   'GET /api/invitations/{token}': {
     caller: 'anyone',
     params: { token: { kind: 'secret', value: (w) => w.inviteToken, madeUp: 400 } },
@@ -569,6 +632,18 @@ function call(client: Client, c: RouteCase, w: World, options: CallOptions = {})
   if (c.row.body) return test.send(c.row.body(w));
   if (c.row.takes === 'gps-files') return test.attach('files', freshGpx(), 'lake-loop.gpx');
   if (c.row.takes === 'gps-archive') return test.attach('file', historyZip(), 'history.zip');
+  if (c.row.takes === 'signed-event') {
+    // A harmless event the app stores and acknowledges, signed with the SDK's own test helper.
+    const payload = JSON.stringify({
+      id: `evt_${randomUUID().replace(/-/g, '')}`,
+      object: 'event',
+      created: Math.floor(Date.now() / 1000),
+      type: 'customer.created',
+      data: { object: { id: 'cus_x', object: 'customer' } },
+    });
+    const signature = signer.webhooks.generateTestHeaderString({ payload, secret: config.payments.webhookSecret });
+    return test.set('Content-Type', 'application/json').set('Stripe-Signature', signature).send(payload);
+  }
   return test;
 }
 
@@ -754,6 +829,7 @@ beforeAll(async () => {
 
 afterAll(async () => {
   await stopImportWorker();
+  await paymentFake.close();
   stopCapture();
 });
 
