@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import { ValidationError } from './errors.ts';
 import type { FieldIssue } from '../../shared/api/errors.ts';
 import { toFieldIssues } from '../../shared/api/field-issues.ts';
+import { controlCharacterIssues } from '../../shared/api/text.ts';
 
 interface Schemas {
   params?: z.ZodType;
@@ -11,7 +12,8 @@ interface Schemas {
 }
 
 /**
- * Validates the request against shared zod schemas and replaces body/params with the parsed values
+ * Validates the request against shared zod schemas and replaces body/params with the parsed values. Any string
+ * holding a control character is refused first (`controlCharacterIssues`), field by field.
  * (query is read-only in Express 5, so parsed query lands in res.locals.query).
  */
 export function validate(schemas: Schemas): RequestHandler {
@@ -21,6 +23,12 @@ export function validate(schemas: Schemas): RequestHandler {
       const schema = schemas[part];
       if (!schema) continue;
       const input: unknown = part === 'body' ? (req.body ?? {}) : req[part];
+      // No text field takes a control character (NUL and the like), whatever its schema says (issue 13 #13).
+      const controls = controlCharacterIssues(input);
+      if (controls.length > 0) {
+        problems.push(...controls);
+        continue;
+      }
       const result = schema.safeParse(input);
       if (!result.success) {
         problems.push(...toFieldIssues(result.error));

@@ -1,10 +1,7 @@
 import { z } from 'zod';
+import { calendarDateSchema } from '../api/calendar-date.ts';
 
-const PlanDateSchema = z.iso
-  .date({ error: 'Use a date like 2026-10-18.' })
-  .refine((d) => d >= '1900-01-01' && d <= '2999-12-31', {
-    message: 'Pick a date between the years 1900 and 2999.',
-  });
+const PlanDateSchema = calendarDateSchema('2026-10-18');
 
 /** Race distances in metres: 400 m to 250 km. */
 export const RaceDistanceSchema = z

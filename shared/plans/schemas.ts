@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { calendarDateSchema } from '../api/calendar-date.ts';
 import { countExpandedParts } from './expand.ts';
 import { parseShorthand } from './shorthand.ts';
 import { DISTANCE_UNITS, PACE_PERS, PART_KINDS, PLAN_LIMITS, RELATIVE_PACE_REFS } from './types.ts';
@@ -6,10 +7,8 @@ import type { Part, PlanItem, Repeat } from './types.ts';
 
 const L = PLAN_LIMITS;
 
-/** A plan's date: ISO `YYYY-MM-DD` in the years 1900–2999 (a plan dated in year 10000 is refused). */
-export const PlanDateSchema = z.iso
-  .date({ error: 'Use a date like 2026-10-03.' })
-  .refine((d) => d >= '1900-01-01' && d <= '2999-12-31', { message: 'Pick a date between the years 1900 and 2999.' });
+/** A plan's date: ISO `YYYY-MM-DD` from 1900 to 2100 (shared/api/calendar-date.ts). */
+export const PlanDateSchema = calendarDateSchema('2026-10-03');
 
 const TitleSchema = z
   .string({ error: 'A title is text.' })

@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import { calendarDateSchema } from '../api/calendar-date.ts';
 import { NoteConcernSchema } from '../notes/schemas.ts';
 
 export const SplitUnitSchema = z.enum(['mi', 'km'], { error: 'Unit must be mi or km.' });
 
 export const SplitsCsvQuerySchema = z.object({ unit: SplitUnitSchema.default('mi') });
 
-const IsoDateSchema = z.iso.date({ error: 'Use a date like 2026-10-03.' });
+const IsoDateSchema = calendarDateSchema('2026-10-03');
 
 /** What the runs list can be ordered by: start time, distance, moving time, pace (moving time per metre). */
 export const RUN_LIST_SORTS = ['date', 'distance', 'duration', 'pace'] as const;

@@ -37,7 +37,7 @@ const DayMarksQuerySchema = z
   .object({ from: PlanDateSchema, to: PlanDateSchema, runner_id: z.uuid({ error: 'Not a runner id.' }).optional() })
   .strict();
 
-/** A `:date` path value: a real calendar date in the years 1900–2999, else 400 with the schema's sentence. */
+/** A `:date` path value: a real calendar date from 1900 to 2100, else 400 with the schema's sentence. */
 function parseDateParam(value: string | string[] | undefined): string {
   const parsed = PlanDateSchema.safeParse(value);
   if (!parsed.success) throw new BadRequestError(parsed.error.issues[0]?.message ?? 'Use a date like 2026-10-03.', 'bad-date');

@@ -7,6 +7,7 @@ import {
   type RunSplitRow,
   type SourceFileRow,
 } from '../../lib/db.ts';
+import { insertInChunks } from '../../lib/insert-in-chunks.ts';
 import type { ListRunsQuery, RunListItem, RunListOrder, RunListSort } from '../../../shared/runs/schemas.ts';
 
 /** The columns a run list item is made of (reading only these skips the track details on long lists). */
@@ -89,9 +90,22 @@ export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, chi
   const [row] = await trx('runs').insert(run).returning('*');
   const runId = (row as RunRow).id;
   await trx('run_tracks').insert({ run_id: runId, ...children.track });
-  if (children.splits.length) await trx('run_splits').insert(children.splits.map((s) => ({ run_id: runId, ...s })));
-  if (children.laps.length) await trx('run_laps').insert(children.laps.map((l) => ({ run_id: runId, ...l })));
-  if (children.fastest.length) await trx('run_fastest_sections').insert(children.fastest.map((f) => ({ run_id: runId, ...f })));
+  // In chunks: a long track's splits (or a file's laps) can pass PostgreSQL's 65 535 parameters per statement.
+  await insertInChunks(
+    trx,
+    'run_splits',
+    children.splits.map((s) => ({ run_id: runId, ...s })),
+  );
+  await insertInChunks(
+    trx,
+    'run_laps',
+    children.laps.map((l) => ({ run_id: runId, ...l })),
+  );
+  await insertInChunks(
+    trx,
+    'run_fastest_sections',
+    children.fastest.map((f) => ({ run_id: runId, ...f })),
+  );
   return row as RunRow;
 }
 

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { NewRunNoteInputSchema } from '../../../shared/runs/schemas.ts';
 import { overviewToCsv, weekToCsv } from '../../../shared/weeks/csv.ts';
+import { calendarDateSchema } from '../../../shared/api/calendar-date.ts';
 import { RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
@@ -11,13 +12,13 @@ import type { Mailer } from '../../lib/mailer.ts';
 import { sendSquadDigest } from './digest.service.ts';
 import { addWeekNote, buildRunnerWeek, buildSquadOverview, setWeekReviewed } from './weeks.service.ts';
 
-const DateSchema = z.iso.date({ error: 'Use a date like 2026-11-23.' });
+const DateSchema = calendarDateSchema();
 const WeekQuerySchema = z.object({ start: DateSchema.optional() });
 const OverviewQuerySchema = z.object({ week: DateSchema.optional() });
 
 function weekParam(value: string | string[] | undefined): string {
   const parsed = DateSchema.safeParse(value);
-  if (!parsed.success) throw new BadRequestError('Use a week start date like 2026-11-23.');
+  if (!parsed.success) throw new BadRequestError(parsed.error.issues[0]?.message ?? 'Use a week start date like 2026-11-23.');
   return parsed.data;
 }
 
