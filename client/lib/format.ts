@@ -17,3 +17,19 @@ const DATE_TIME_FORMAT = new Intl.DateTimeFormat('en-GB', {
 export function formatDateTime(iso: string): string {
   return DATE_TIME_FORMAT.format(new Date(iso));
 }
+
+/**
+ * Today as `YYYY-MM-DD` in the device's time zone: the one "today" of the screens (a runner's browser runs in
+ * the runner's own time zone, which is also where the server dates their runs).
+ */
+export function deviceToday(now = new Date()): string {
+  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+}
+
+/** A duration in words rounded to the minute: "4 h 35 min", "4 h", "50 min". */
+export function formatHoursMinutes(seconds: number): string {
+  const minutes = Math.round(seconds / 60);
+  const h = Math.floor(minutes / 60);
+  const m = minutes % 60;
+  return h > 0 ? `${h} h${m > 0 ? ` ${m} min` : ''}` : `${m} min`;
+}

@@ -1,3 +1,5 @@
+import { METRES_PER_MILE } from '../units.ts';
+
 /**
  * Pace as `m:ss` from seconds (per whatever unit the caller uses), rounded to the nearest
  * second; an hour or more shows as `h:mm:ss`. Null, NaN, infinite or negative input gives ''.
@@ -27,10 +29,10 @@ function formatClock(total: number): string {
 
 /** Seconds per km → seconds per mile (× 1.609344). */
 export function paceKmToMile(secondsPerKm: number): number {
-  return secondsPerKm * 1.609344;
+  return secondsPerKm * (METRES_PER_MILE / 1000);
 }
 
 /** Seconds per mile → seconds per km (÷ 1.609344). */
 export function paceMileToKm(secondsPerMile: number): number {
-  return secondsPerMile / 1.609344;
+  return secondsPerMile / (METRES_PER_MILE / 1000);
 }

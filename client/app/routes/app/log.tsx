@@ -23,14 +23,12 @@ import { MAX_RUNS_PER_PAGE, RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../
 import { runKeys } from '../../../features/runs/api/run-keys.ts';
 import { RunUpload } from '../../../features/runs/components/run-upload.tsx';
 import { RunsCalendar } from '../../../features/runs/components/runs-calendar.tsx';
+import { deviceToday } from '../../../lib/format.ts';
 import { RunsTable } from '../../../features/runs/components/runs-table.tsx';
 
-/** Today on this device, as a calendar date and month (the calendar opens on this month). */
-function deviceToday(): { date: string; month: YearMonth } {
-  const now = new Date();
-  const month = { year: now.getFullYear(), month: now.getMonth() + 1 };
-  const date = `${month.year}-${String(month.month).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
-  return { date, month };
+/** This month on this device (the calendar opens on it). */
+function deviceMonth(now = new Date()): YearMonth {
+  return { year: now.getFullYear(), month: now.getMonth() + 1 };
 }
 
 const FIRST_PAGE = { page: 1, per_page: RUNS_PER_PAGE };
@@ -46,7 +44,7 @@ function readPage(search: URLSearchParams): number {
  */
 function readMonth(search: URLSearchParams, newest: RunPage): YearMonth {
   const latest = newest.runs[0];
-  return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? deviceToday().month;
+  return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? deviceMonth();
 }
 
 /** The list's order from the address (`?sort=&order=`), so a sorted list survives reloads and shared links. */
@@ -128,7 +126,7 @@ export default function LogRoute() {
                 month={month}
                 runs={monthRuns.runs}
                 unit={profile.unit}
-                today={deviceToday().date}
+                today={deviceToday()}
                 page={page}
                 sorting={sorting}
               />

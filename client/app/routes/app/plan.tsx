@@ -20,6 +20,7 @@ import { plansQueryOptions, usePlans } from '../../../features/plans/api/get-pla
 import { GoalRaceLine } from '../../../features/plans/components/goal-race-line.tsx';
 import { PlanMonth } from '../../../features/plans/components/plan-month.tsx';
 import { PlanWeek, formatDay } from '../../../features/plans/components/plan-week.tsx';
+import { deviceToday } from '../../../lib/format.ts';
 import { SessionEditor } from '../../../features/plans/components/session-editor.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
@@ -34,12 +35,6 @@ import { ToleranceControl } from '../../../features/plans/components/tolerance-c
 import { squadsQueryOptions } from '../../../features/squad/api/get-squads.ts';
 import { requireAccess } from '../../guards.ts';
 import { MAX_RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
-
-/** Today on this device as `YYYY-MM-DD`. */
-function deviceToday(): string {
-  const now = new Date();
-  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
-}
 
 type PlanView =
   { view: 'week'; monday: string; from: string; to: string } | { view: 'month'; month: YearMonth; from: string; to: string };

@@ -27,7 +27,8 @@ import { SquadOverviewHow } from '../../../features/squad/components/squad-overv
 import { SquadOverviewTable } from '../../../features/squad/components/squad-overview-table.tsx';
 import { SquadPeople } from '../../../features/squad/components/squad-people.tsx';
 import { DownloadLink, WeekNav } from '../../../features/squad/components/week-nav.tsx';
-import { deviceToday, formatWeekRange } from '../../../features/squad/utils/week-format.ts';
+import { formatWeekRange } from '../../../features/squad/utils/week-format.ts';
+import { deviceToday } from '../../../lib/format.ts';
 import { requireAccess } from '../../guards.ts';
 
 /** The squads this coach runs (the list also holds squads they merely belong to). */

@@ -1,7 +1,7 @@
 import { lazy, Suspense } from 'react';
 import type { FuelSchedule, HourTotals } from '../../../../shared/fuel/schedule.ts';
 import { ResponsiveTable, type TableColumn } from '../../../components/ui/responsive-table.tsx';
-import { formatAmount, formatHoursMinutes, statusText } from '../utils/fuel-format.ts';
+import { formatAmount, formatTimeFromStart, statusText } from '../utils/fuel-format.ts';
 
 const FuelHoursChart = lazy(() => import('./fuel-hours-chart.tsx'));
 
@@ -10,7 +10,7 @@ function range(t: { low: number; high: number | null }): string {
 }
 
 function hourLabel(h: HourTotals): string {
-  return `${formatHoursMinutes(h.from_s)}–${formatHoursMinutes(h.to_s)}`;
+  return `${formatTimeFromStart(h.from_s)}–${formatTimeFromStart(h.to_s)}`;
 }
 
 type FuelHoursProps = { schedule: FuelSchedule; chart?: boolean };

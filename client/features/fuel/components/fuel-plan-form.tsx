@@ -15,7 +15,7 @@ import type { FuelPlan } from '../api/types.ts';
 import {
   bottleMix,
   formatAmount,
-  formatHoursMinutes,
+  formatTimeFromStart,
   parsePace,
   parseRunTime,
   readNumber,
@@ -72,7 +72,7 @@ const newKey = () => nextKey++;
 const str = (n: number | null | undefined) => (n === null || n === undefined ? '' : String(n));
 
 function clockOf(s: number): string {
-  return formatHoursMinutes(s);
+  return formatTimeFromStart(s);
 }
 
 function intakeDraft(rule: IntakeRule | null, unit: Unit): IntakeDraft {

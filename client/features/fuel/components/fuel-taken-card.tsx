@@ -17,7 +17,7 @@ import { useFuelTaken } from '../api/get-fuel-taken.ts';
 import { useRunFuelPlan } from '../api/get-run-fuel-plan.ts';
 import { useSaveFuelTaken } from '../api/save-fuel-taken.ts';
 import type { FuelPlan, FuelTakenView } from '../api/types.ts';
-import { formatAmount, formatHoursMinutes, parseRunTime, readNumber } from '../utils/fuel-format.ts';
+import { formatAmount, formatTimeFromStart, parseRunTime, readNumber } from '../utils/fuel-format.ts';
 import { FuelCautions } from './fuel-cautions.tsx';
 
 type EntryDraft = {
@@ -50,7 +50,7 @@ function entryDraft(e: TakenEntry, planned: number | null): EntryDraft {
     bottle: e.bottle ?? '',
     name: e.name,
     amount: String(e.kind === 'item' ? (e.servings ?? 1) : e.fluid_ml),
-    time: e.time_s === null ? '' : formatHoursMinutes(e.time_s),
+    time: e.time_s === null ? '' : formatTimeFromStart(e.time_s),
     planned,
   };
 }
@@ -155,7 +155,7 @@ export function PlannedVsTakenTable({ data }: { data: PlannedVsTaken }) {
   const none: Amounts = { carbohydrate_g: 0, fluid_ml: 0, sodium_mg: 0, caffeine_mg: 0 };
   const rows: AmountsLine[] = [
     ...data.hours.map((h) => ({
-      label: `${formatHoursMinutes(h.from_s)}–${formatHoursMinutes(h.to_s)}`,
+      label: `${formatTimeFromStart(h.from_s)}–${formatTimeFromStart(h.to_s)}`,
       planned: h.planned,
       taken: h.taken,
     })),
@@ -181,7 +181,7 @@ function ReadOnly({ view }: { view: FuelTakenView }) {
       <ul className="flex flex-col gap-1 tabular-nums">
         {taken.entries.map((e, i) => (
           <li key={i}>
-            {e.time_s === null ? 'no time' : formatHoursMinutes(e.time_s)} ·{' '}
+            {e.time_s === null ? 'no time' : formatTimeFromStart(e.time_s)} ·{' '}
             {e.kind === 'item' ? `${e.name} ×${e.servings}` : `${e.name} ${formatAmount(e.fluid_ml)} ml`}
           </li>
         ))}
@@ -249,7 +249,7 @@ function FuelTakenForm({ runId, userId, view, items, plan, unit }: FuelTakenForm
                   bottle: p.bottle,
                   name: `bottle ${p.bottle}`,
                   amount: String(p.ml ?? ''),
-                  time: formatHoursMinutes(p.time_s),
+                  time: formatTimeFromStart(p.time_s),
                   planned: p.index,
                 }
               : {
@@ -259,7 +259,7 @@ function FuelTakenForm({ runId, userId, view, items, plan, unit }: FuelTakenForm
                   bottle: '',
                   name: p.label,
                   amount: String(p.servings ?? 1),
-                  time: formatHoursMinutes(p.time_s),
+                  time: formatTimeFromStart(p.time_s),
                   planned: p.index,
                 },
           ]

@@ -17,7 +17,7 @@ export function formatAmount(value: number, { digits = 0, dashZero = false } = {
 }
 
 /** Seconds from the start as `h:mm` (0:40, 1:20). */
-export function formatHoursMinutes(seconds: number): string {
+export function formatTimeFromStart(seconds: number): string {
   const m = Math.round(seconds / 60);
   return `${Math.floor(m / 60)}:${String(m % 60).padStart(2, '0')}`;
 }

@@ -7,6 +7,7 @@ import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { crossTrainingSeconds, missedLabel, type MissedReason } from '../../../../shared/weeks/day-marks.ts';
 import { mondayOf, plannedVolume, weekDates } from '../../../../shared/plans/weeks.ts';
 import { formatDistance } from '../../../../shared/runs/display.ts';
+import { formatHoursMinutes } from '../../../lib/format.ts';
 import type { RunListItem } from '../../../../shared/runs/schemas.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Button } from '../../../components/ui/button.tsx';
@@ -46,14 +47,6 @@ type PlanWeekProps = {
 };
 
 const PLAN_DRAG_TYPE = 'application/x-pacewright-plan';
-
-/** "4 h 35 min", "50 min". */
-function formatHoursMinutes(seconds: number): string {
-  const minutes = Math.round(seconds / 60);
-  const h = Math.floor(minutes / 60);
-  const m = minutes % 60;
-  return h > 0 ? `${h} h${m > 0 ? ` ${m} min` : ''}` : `${m} min`;
-}
 
 function groupBy<T>(list: T[], key: (item: T) => string): Map<string, T[]> {
   const map = new Map<string, T[]>();

@@ -6,7 +6,8 @@ import { DataTable } from '../../../components/ui/data-table.tsx';
 import { paths } from '../../../config/paths.ts';
 import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
 import type { OverviewRow } from '../api/types.ts';
-import { flagWords, formatDaysAgo, formatHoursMinutes } from '../utils/week-format.ts';
+import { formatHoursMinutes } from '../../../lib/format.ts';
+import { flagWords, formatDaysAgo } from '../utils/week-format.ts';
 import { VolumeSparkline } from './volume-sparkline.tsx';
 
 type Row = {

@@ -7,7 +7,8 @@ import { cn } from '../../../lib/cn.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { UnreadDot } from '../../notes/components/unread-dot.tsx';
 import { WeekRunEntry } from './week-run-entry.tsx';
-import { formatDay, formatHoursMinutes } from '../utils/week-format.ts';
+import { formatHoursMinutes } from '../../../lib/format.ts';
+import { formatDay } from '../utils/week-format.ts';
 
 type WeekDaysProps = { week: RunnerWeek; unit: Unit; meId: string };
 

@@ -6,7 +6,8 @@ import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
-import { formatDay, formatDaysAgo, formatHoursMinutes } from '../utils/week-format.ts';
+import { formatHoursMinutes } from '../../../lib/format.ts';
+import { formatDay, formatDaysAgo } from '../utils/week-format.ts';
 
 function Figure({ label, children, note }: { label: string; children: ReactNode; note?: ReactNode }) {
   return (

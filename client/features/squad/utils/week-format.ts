@@ -5,12 +5,6 @@ const DAY_LONG = new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numer
 const DAY_MONTH = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
 const DAY_MS = 86_400_000;
 
-/** Today on this device as `YYYY-MM-DD`. */
-export function deviceToday(): string {
-  const now = new Date();
-  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
-}
-
 /** "Mon 7 Dec" (or "Monday 7 December" when `long`) for a `YYYY-MM-DD`. */
 export function formatDay(date: string, long = false): string {
   return (long ? DAY_LONG : DAY_SHORT).format(new Date(`${date}T00:00:00Z`));
@@ -43,14 +37,6 @@ export function formatDaysAgo(iso: string | null, today: string): string {
   if (days <= 0) return 'today';
   if (days === 1) return 'yesterday';
   return `${days} days ago`;
-}
-
-/** "4 h 35 min", "50 min". */
-export function formatHoursMinutes(seconds: number): string {
-  const minutes = Math.round(seconds / 60);
-  const h = Math.floor(minutes / 60);
-  const m = minutes % 60;
-  return h > 0 ? `${h} h${m > 0 ? ` ${m} min` : ''}` : `${m} min`;
 }
 
 /** Short words for each flag; the week review shows the full reason beside them. */
