@@ -1,4 +1,5 @@
 import type { CleaningReport, Split } from '../tracks/types.ts';
+import type { TrimpResult } from '../weeks/trimp.ts';
 import type { DistanceReportAnswer, RunListItem } from './schemas.ts';
 
 /** `GET /api/runs` */
@@ -56,6 +57,13 @@ export interface EnergyDetail {
   method: string;
 }
 
+/** The run's training load as stored at import (`details.trimp`). */
+export interface TrimpDetail extends TrimpResult {
+  resting_hr: number;
+  max_hr: number;
+  method: string;
+}
+
 /** `GET /api/runs/:id` */
 export interface RunDetail {
   id: string;
@@ -71,6 +79,8 @@ export interface RunDetail {
     format: string;
     hr_zones: HeartRateZonesDetail | null;
     energy: EnergyDetail | null;
+    /** Banister TRIMP with the profile values it used; null without heart rate, resting and maximum heart rate. */
+    trimp?: TrimpDetail | null;
     /** Absent on runs imported before issue #14. */
     distance?: DistanceReportAnswer | null;
   };
