@@ -67,7 +67,7 @@ export type SignUpConfirmed = z.infer<typeof SignUpConfirmedSchema>;
 
 /** The same sentence for every sign-up, whether or not the address already has an account (issue 13 #7). */
 export const SIGN_UP_SENT_MESSAGE =
-  'Check your e-mail: we sent a link to finish creating your account. It works for 24 hours. No e-mail after a few minutes? Look in the spam folder, or sign up again.';
+  'Check your e-mail. If this address is new to Pacewright, a link to finish creating your account is on its way (it works for 24 hours); if it already has an account, its owner gets a note instead. No e-mail after a few minutes? Look in the spam folder.';
 export const RESET_SENT_MESSAGE = 'If that address has an account, a link to choose a new password is on its way.';
 
 export const CreateTokenInputSchema = LoginInputSchema;
