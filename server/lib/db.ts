@@ -71,6 +71,8 @@ export interface RunRow {
   activity_index: number;
   name: string;
   sport: string | null;
+  /** Run, ride or hike (issue #14); only runs count in running totals and plan checks. */
+  activity_kind: 'run' | 'ride' | 'hike';
   started_at: Date;
   ended_at: Date;
   local_date: string;

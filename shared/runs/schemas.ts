@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ActivityKindSchema } from './activity-kind.ts';
 import { calendarDateSchema } from '../api/calendar-date.ts';
 import { NoteConcernSchema } from '../notes/schemas.ts';
 
@@ -35,9 +36,13 @@ export const RenameRunInputSchema = z
       .string({ error: 'Give the run a name.' })
       .trim()
       .min(1, 'Give the run a name.')
-      .max(120, 'Keep the name under 120 characters.'),
+      .max(120, 'Keep the name under 120 characters.')
+      .optional(),
+    /** Run, ride or hike: the runner corrects what the import decided (issue #14). */
+    kind: ActivityKindSchema.optional(),
   })
-  .strict();
+  .strict()
+  .refine((input) => input.name !== undefined || input.kind !== undefined, { message: 'Give the run a name.' });
 
 /** One line of the runs list. */
 export const RunListItemSchema = z.object({
@@ -53,6 +58,8 @@ export const RunListItemSchema = z.object({
   pace_s_per_km: z.number().nullable(),
   ascent_m: z.number().nullable(),
   avg_hr: z.number().nullable(),
+  /** Run, ride or hike; rides and hikes are kept out of running totals and plan checks. */
+  kind: ActivityKindSchema,
 });
 export type RunListItem = z.infer<typeof RunListItemSchema>;
 

@@ -1,4 +1,5 @@
 import type { CleaningReport, Split } from '../tracks/types.ts';
+import type { ActivityKind } from './activity-kind.ts';
 import type { TrimpResult } from '../weeks/trimp.ts';
 import type { DistanceReportAnswer, RunListItem } from './schemas.ts';
 
@@ -70,6 +71,8 @@ export interface RunDetail {
   owner_id: string;
   name: string;
   sport: string | null;
+  /** Run, ride or hike (issue #14). */
+  kind: ActivityKind;
   summary: RunSummary;
   splits: { mi: Split[]; km: Split[] };
   laps: RunLap[];

@@ -217,7 +217,7 @@ function sha256(text: string): string {
  * next read. `inputsOf` must hold every run's runner.
  */
 export async function checkRuns(
-  runs: ReadonlyArray<Pick<RunRow, 'id' | 'user_id' | 'local_date'>>,
+  runs: ReadonlyArray<Pick<RunRow, 'id' | 'user_id' | 'local_date' | 'activity_kind'>>,
   inputsOf: ReadonlyMap<string, RunnerCheckInputs>,
 ): Promise<Map<string, RunCheck>> {
   const runIds = runs.map((r) => r.id);
@@ -244,7 +244,8 @@ export async function checkRuns(
   for (const run of runs) {
     const inputs = inputsOf.get(run.user_id)!;
     const { plan, linked } = planOfRun(run, links.get(run.id), plansById, firstOfDay);
-    if (!plan || !linked) {
+    // A ride or a hike is never checked against a running plan (issue #14).
+    if (!plan || !linked || run.activity_kind !== 'run') {
       out.set(run.id, { plan: null, linked: null, tolerance: inputs.tolerance, parts: [], result: UNPLANNED });
       continue;
     }

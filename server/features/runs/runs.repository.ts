@@ -23,6 +23,7 @@ export const RUN_LIST_COLUMNS = [
   'moving_s',
   'ascent_m',
   'avg_hr',
+  'activity_kind',
 ] as const satisfies ReadonlyArray<keyof RunRow>;
 
 export type RunListRow = Pick<RunRow, (typeof RUN_LIST_COLUMNS)[number]>;
@@ -41,6 +42,7 @@ export function toRunListItem(row: RunListRow): RunListItem {
     pace_s_per_km: row.moving_s > 0 && row.distance_m > 0 ? row.moving_s / (row.distance_m / 1000) : null,
     ascent_m: row.ascent_m,
     avg_hr: row.avg_hr,
+    kind: row.activity_kind,
   };
 }
 
@@ -224,8 +226,15 @@ export async function listRunsOf(
   return { rows, total: Number(count) };
 }
 
-export async function renameRun(id: string, name: string, trx: Db = db): Promise<RunRow | undefined> {
-  const [row] = await trx('runs').where({ id }).update({ name }).returning('*');
+export async function renameRun(
+  id: string,
+  changes: { name?: string; kind?: RunRow['activity_kind'] },
+  trx: Db = db,
+): Promise<RunRow | undefined> {
+  const update: Partial<Pick<RunRow, 'name' | 'activity_kind'>> = {};
+  if (changes.name !== undefined) update.name = changes.name;
+  if (changes.kind !== undefined) update.activity_kind = changes.kind;
+  const [row] = await trx('runs').where({ id }).update(update).returning('*');
   return row as RunRow | undefined;
 }
 

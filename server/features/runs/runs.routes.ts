@@ -182,13 +182,15 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       method: 'patch',
       path: '/runs/:id',
       tag: 'runs',
-      summary: 'Rename a run',
+      summary: 'Rename a run, or change its kind (run, ride or hike)',
       access: 'own-data',
       body: RenameRunInputSchema,
       response: z.object({ run: RunListItemSchema }),
     },
     async (req, res) => {
-      res.json({ run: await renameOwnRun(requireActor(res), parseIdParam(req.params.id), req.body.name) });
+      res.json({
+        run: await renameOwnRun(requireActor(res), parseIdParam(req.params.id), { name: req.body.name, kind: req.body.kind }),
+      });
     },
   );
 

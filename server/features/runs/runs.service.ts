@@ -11,6 +11,7 @@ import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import { METRES_PER_MILE } from '../../../shared/units.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
+import { activityKindOf, type ActivityKind } from '../../../shared/runs/activity-kind.ts';
 import { isSameRun, SAME_RUN_START_S } from '../../../shared/runs/duplicates.ts';
 import { originalContentType } from '../../../shared/runs/original-download.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
@@ -116,6 +117,7 @@ function buildRunRecord(user: UserRow, sourceFileId: string, parsed: ParsedRun, 
     activity_index: parsed.activity_index,
     name: parsed.name?.trim().slice(0, 120) || `Run ${local.date} ${local.time}`,
     sport: parsed.sport,
+    activity_kind: activityKindOf(parsed.sport, summary),
     started_at: new Date(summary.started_at_t),
     ended_at: new Date(summary.ended_at_t),
     local_date: local.date,
@@ -361,6 +363,7 @@ export async function describeRun(actor: Actor, runId: string) {
     owner_id: run.user_id,
     name: run.name,
     sport: run.sport,
+    kind: run.activity_kind,
     summary: {
       ...toRunListItem(run),
       ended_at: run.ended_at.toISOString(),
@@ -406,9 +409,10 @@ export async function listRuns(actor: Actor, query: ListRunsQuery) {
   return { runs: rows.map(toRunListItem), total, page: query.page, per_page: query.per_page };
 }
 
-export async function renameOwnRun(actor: Actor, runId: string, name: string) {
+/** Renames a run and/or changes its kind (run, ride, hike); only the owner may. */
+export async function renameOwnRun(actor: Actor, runId: string, changes: { name?: string; kind?: ActivityKind }) {
   await getOwnRun(actor, runId);
-  return toRunListItem((await renameRun(runId, name))!);
+  return toRunListItem((await renameRun(runId, changes))!);
 }
 
 /** Deletes the run and, when no other run came from the same file, the original file too. */

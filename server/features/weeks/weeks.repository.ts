@@ -20,12 +20,16 @@ export async function listRunLoadsOf(
   trx: Db = db,
 ): Promise<RunLoadRow[]> {
   if (runnerIds.length === 0) return [];
-  return trx('runs')
-    .whereIn('user_id', runnerIds)
-    .andWhere('local_date', '>=', from)
-    .andWhere('local_date', '<=', to)
-    .orderBy('started_at')
-    .select<RunLoadRow[]>('user_id', 'local_date', 'distance_m', trx.raw(TRIMP));
+  return (
+    trx('runs')
+      .whereIn('user_id', runnerIds)
+      .andWhere('local_date', '>=', from)
+      .andWhere('local_date', '<=', to)
+      // Rides and hikes stay out of running totals, loads and the week review (issue #14).
+      .andWhere('activity_kind', 'run')
+      .orderBy('started_at')
+      .select<RunLoadRow[]>('user_id', 'local_date', 'distance_m', trx.raw(TRIMP))
+  );
 }
 
 /** Several runners' runs between two local dates (inclusive) as list items, in the order they started. */
@@ -36,12 +40,16 @@ export async function listRunItemsOf(
   trx: Db = db,
 ): Promise<Array<RunListRow & { user_id: string; trimp: number | null }>> {
   if (runnerIds.length === 0) return [];
-  return trx('runs')
-    .whereIn('user_id', runnerIds)
-    .andWhere('local_date', '>=', from)
-    .andWhere('local_date', '<=', to)
-    .orderBy('started_at')
-    .select(...RUN_LIST_COLUMNS, 'user_id', trx.raw(TRIMP));
+  return (
+    trx('runs')
+      .whereIn('user_id', runnerIds)
+      .andWhere('local_date', '>=', from)
+      .andWhere('local_date', '<=', to)
+      // Rides and hikes stay out of running totals, loads and the week review (issue #14).
+      .andWhere('activity_kind', 'run')
+      .orderBy('started_at')
+      .select(...RUN_LIST_COLUMNS, 'user_id', trx.raw(TRIMP))
+  );
 }
 
 /** Each runner's latest upload time (runners without runs are left out). */

@@ -22,6 +22,7 @@ import { LapsTable } from '../../../features/runs/components/laps-table.tsx';
 import { RouteOutline } from '../../../features/runs/components/route-outline.tsx';
 import { RunChartsPanel } from '../../../features/runs/components/run-charts-panel.tsx';
 import { RunDownloads } from '../../../features/runs/components/run-downloads.tsx';
+import { ActivityKindLine } from '../../../features/runs/components/activity-kind.tsx';
 import { RunOwnerActions } from '../../../features/runs/components/run-owner-actions.tsx';
 import { RunSummary } from '../../../features/runs/components/run-summary.tsx';
 import { SplitTable } from '../../../features/runs/components/split-table.tsx';
@@ -59,6 +60,7 @@ export default function RunRoute() {
       <PageHeader title={run.name} />
       <div className="-mt-3 mb-5 flex flex-col gap-4">
         <RunSummary summary={run.summary} unit={unit} />
+        <ActivityKindLine runId={run.id} kind={run.kind} isOwner={isOwner} />
         {run.details.distance && (
           <p className="text-sm text-ink-muted" data-testid="distance-measure">
             Distance: {describeDistanceMeasure(run.details.distance, unit)}

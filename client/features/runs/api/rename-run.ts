@@ -1,11 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ActivityKind } from '../../../../shared/runs/activity-kind.ts';
 import type { RunListItem } from '../../../../shared/runs/schemas.ts';
 import type { RunDetail } from '../../../../shared/runs/types.ts';
 import { api } from '../../../lib/api-client.ts';
 import { runKeys } from './run-keys.ts';
 
-export async function renameRun({ id, name }: { id: string; name: string }): Promise<RunListItem> {
-  const { run } = await api.patch<{ run: RunListItem }>(`/runs/${encodeURIComponent(id)}`, { name });
+/** Renames a run or changes its kind (run, ride, hike). */
+export async function renameRun({ id, ...changes }: { id: string; name?: string; kind?: ActivityKind }): Promise<RunListItem> {
+  const { run } = await api.patch<{ run: RunListItem }>(`/runs/${encodeURIComponent(id)}`, changes);
   return run;
 }
 
@@ -15,7 +17,9 @@ export function useRenameRun() {
     mutationFn: renameRun,
     onSuccess: (run) => {
       queryClient.setQueryData<RunDetail>(runKeys.detail(run.id), (detail) =>
-        detail ? { ...detail, name: run.name, summary: { ...detail.summary, name: run.name } } : detail,
+        detail
+          ? { ...detail, name: run.name, kind: run.kind, summary: { ...detail.summary, name: run.name, kind: run.kind } }
+          : detail,
       );
       return queryClient.invalidateQueries({ queryKey: runKeys.lists() });
     },

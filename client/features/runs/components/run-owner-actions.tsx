@@ -20,8 +20,8 @@ export function RunOwnerActions({ runId, name }: { runId: string; name: string }
   function onRename(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     const parsed = RenameRunInputSchema.safeParse({ name: new FormData(event.currentTarget).get('name') });
-    if (!parsed.success) {
-      setNameError(parsed.error.issues[0]?.message ?? 'Give the run a name.');
+    if (!parsed.success || parsed.data.name === undefined) {
+      setNameError(parsed.error?.issues[0]?.message ?? 'Give the run a name.');
       return;
     }
     setNameError(null);

@@ -1,4 +1,5 @@
 import { createColumnHelper, functionalUpdate, useTable, type SortingState, type Updater } from '@tanstack/react-table';
+import { ActivityKindMark } from './activity-kind.tsx';
 import { Link } from 'react-router-dom';
 import { formatDistance, formatLocalDate, formatShortDate, pacePerUnit } from '../../../../shared/runs/display.ts';
 import type { RunListSorting } from '../../../../shared/runs/list-sort.ts';
@@ -33,12 +34,15 @@ const COLUMNS = helper.columns([
     enableSorting: false,
     meta: { primary: true },
     cell: (info) => (
-      <Link
-        to={paths.run.getHref(info.row.original.id)}
-        className="inline-flex tap-target items-center align-bottom font-semibold text-teal underline-offset-2 hover:underline sm:inline-block sm:max-w-64 sm:truncate"
-      >
-        {info.getValue()}
-      </Link>
+      <>
+        <Link
+          to={paths.run.getHref(info.row.original.id)}
+          className="inline-flex tap-target items-center align-bottom font-semibold text-teal underline-offset-2 hover:underline sm:inline-block sm:max-w-64 sm:truncate"
+        >
+          {info.getValue()}
+        </Link>
+        <ActivityKindMark kind={info.row.original.kind} />
+      </>
     ),
   }),
   helper.accessor('distance_m', {
