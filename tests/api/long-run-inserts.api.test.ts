@@ -75,6 +75,7 @@ async function runRow(): Promise<Omit<RunRow, 'id' | 'created_at'>> {
     activity_index: 0,
     name: 'Very long run',
     sport: 'running',
+    activity_kind: 'run',
     started_at: new Date(T0),
     ended_at: new Date(T0 + 3_600_000),
     local_date: '2026-11-01',
