@@ -23,6 +23,10 @@ export default defineConfig({
           environment: 'node',
           fileParallelism: false,
           setupFiles: ['tests/support/api-setup.ts'],
+          // Real PostgreSQL and bcrypt under a loaded 2-core machine: a test that signs in fifty times
+          // can pass 5 s, and a timed-out test keeps running into the next one. Speed is the benchmarks' job.
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
         },
       },
       {
