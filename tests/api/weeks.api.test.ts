@@ -12,6 +12,8 @@ import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
 import { RunnerWeekSchema, WeekDayRunSchema } from '../../shared/weeks/week-answer.ts';
+import { DigestReceiptSchema, SquadOverviewRowSchema, SquadOverviewSchema } from '../../shared/weeks/squad-overview.ts';
+import { z } from 'zod';
 import { startTestMail } from '../support/mail.ts';
 import { testConfig } from '../support/test-app.ts';
 
@@ -224,6 +226,10 @@ describe('squad overview and weekly digest', { timeout: 30_000 }, () => {
 
     const overview = await request(app).get(`/api/squads/${squad!.id}/overview?week=2026-11-23`).set(coach.auth);
     expect(overview.status).toBe(200);
+    // The answer is exactly its declared schema: no key missing, none the schema does not name.
+    SquadOverviewSchema.extend({ rows: z.array(SquadOverviewRowSchema.strict()) })
+      .strict()
+      .parse(overview.body);
     expect(overview.body.rows.map((r: { runner: { name: string } }) => r.runner.name)).toEqual([
       'Ada Absent',
       'Jun Jumper',
@@ -236,6 +242,7 @@ describe('squad overview and weekly digest', { timeout: 30_000 }, () => {
 
     const digest = await request(app).post(`/api/squads/${squad!.id}/digest`).set(coach.auth).send({ week: '2026-11-23' });
     expect(digest.status).toBe(200);
+    DigestReceiptSchema.strict().parse(digest.body);
     const [mail] = (await request(app).get('/api/dev/outbox')).body.messages;
     expect(mail.to).toBe(coach.user.email);
     expect(mail.subject).toBe('Lakeside Harriers: week of 2026-11-23');

@@ -1,6 +1,7 @@
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { groupForDigest } from '../../../shared/weeks/csv.ts';
 import type { Unit } from '../../../shared/users/schemas.ts';
+import type { DigestReceipt } from '../../../shared/weeks/squad-overview.ts';
 import { UNIT_METRES } from '../../../shared/units.ts';
 import type { AppConfig } from '../../config.ts';
 import { NotFoundError } from '../../lib/errors.ts';
@@ -55,7 +56,7 @@ export async function sendSquadDigest(
   mailer: Mailer,
   config: AppConfig,
   now = new Date(),
-) {
+): Promise<DigestReceipt> {
   const squad = await findSquadById(squadId);
   if (!squad || squad.coach_id !== actor.id) throw new NotFoundError('There is no squad of yours with this id.');
   const coach = (await findUserById(squad.coach_id))!;

@@ -3,6 +3,7 @@ import { NewRunNoteInputSchema } from '../../../shared/runs/schemas.ts';
 import { overviewToCsv, weekToCsv } from '../../../shared/weeks/csv.ts';
 import { calendarDateSchema } from '../../../shared/api/calendar-date.ts';
 import { RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
+import { DigestReceiptSchema, SquadOverviewSchema } from '../../../shared/weeks/squad-overview.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
@@ -104,6 +105,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       summary: 'One row per squad runner for a week: planned and run, sessions, flags, last upload, reviewed, 12-week volume',
       access: 'squads:manage',
       query: OverviewQuerySchema,
+      response: SquadOverviewSchema,
     },
     async (req, res) => {
       const { week } = res.locals.query as z.infer<typeof OverviewQuerySchema>;
@@ -138,6 +140,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       summary: 'E-mail the weekly digest of this squad to its coach now',
       access: 'squads:manage',
       body: z.object({ week: DateSchema.optional() }).strict(),
+      response: DigestReceiptSchema,
     },
     async (req, res) => {
       res.json(await sendSquadDigest(requireActor(res), parseIdParam(req.params.id), req.body.week, mailer, config));

@@ -1,3 +1,4 @@
+import type { SquadOverview, SquadOverviewRow } from '../../../shared/weeks/squad-overview.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { expandParts } from '../../../shared/plans/expand.ts';
 import { racePacesFor } from '../../../shared/plans/race-paces.ts';
@@ -348,29 +349,8 @@ export async function setWeekReviewed(actor: Actor, runnerId: string, start: str
   else await deleteWeekReview(runnerId, start, actor.id);
 }
 
-export interface OverviewRow {
-  runner: { id: string; name: string };
-  start: string;
-  planned_distance_m: number;
-  run_distance_m: number;
-  moving_s: number;
-  sessions_planned: number;
-  sessions_as_planned: number;
-  /** Plans dated up to the runner's today: the denominator of "sessions as planned". */
-  sessions_due: number;
-  /** Time-based parts of the week's plans, seconds (plans given by time have no distance). */
-  planned_duration_s: number;
-  flags: Array<{ code: string; message: string }>;
-  last_upload: string | null;
-  reviewed: boolean;
-  volume_12_weeks: number[];
-  /** Notes on the week's runs the coach has not opened. */
-  unread_notes: number;
-  /** Runs this week with a check-in of soreness 4 or 5. */
-  high_soreness: number;
-  /** Sessions other than easy running planned before today and not run, or run and judged missed. */
-  missed_key_sessions: number;
-}
+/** One squad runner's row of the overview: the answer's schema is `SquadOverviewRowSchema` in shared/weeks. */
+export type OverviewRow = SquadOverviewRow;
 
 /** Soreness from this value up (on the 1–5 scale) is "high": the coach hears of it (common practice, our choice). */
 export const HIGH_SORENESS = 4;
@@ -386,7 +366,12 @@ function missedKeySessions(week: RunnerWeek): number {
 }
 
 /** One row per squad runner for the week containing `week` (each runner's own week start). */
-export async function buildSquadOverview(actor: Actor, squadId: string, week: string | undefined, now = new Date()) {
+export async function buildSquadOverview(
+  actor: Actor,
+  squadId: string,
+  week: string | undefined,
+  now = new Date(),
+): Promise<SquadOverview> {
   const squad = await findSquadById(squadId);
   if (!squad || (squad.coach_id !== actor.id && actor.role !== 'admin'))
     throw new NotFoundError('There is no squad of yours with this id.');
