@@ -97,10 +97,15 @@ async function startServerProcess(dataDir: string): Promise<ServerProcess> {
   const alive = () => {
     if (child.exitCode !== null) throw new Error(`the server exited with code ${child.exitCode}:\n${stderr}`);
   };
-  const listening = await waitFor(() => {
-    alive();
-    return server.logs.find((l) => l.msg?.startsWith('Pacewright is listening on '))?.msg;
-  }, 'the server to listen');
+  const listening = await waitFor(
+    () => {
+      alive();
+      return server.logs.find((l) => l.msg?.startsWith('Pacewright is listening on '))?.msg;
+      // A cold `tsx` start compiles the whole server: tens of seconds on a loaded 2-core machine.
+    },
+    'the server to listen',
+    90_000,
+  );
   server.url = listening.slice('Pacewright is listening on '.length);
   await waitFor(async () => {
     alive();
@@ -205,7 +210,8 @@ async function startHalfSentUpload(server: ServerProcess, authorization: string,
  */
 async function startBlockedImport(server: ServerProcess, authorization: string, data: Buffer) {
   heldLock = await db.transaction();
-  await heldLock.raw('lock table runs in access exclusive mode');
+  // EXCLUSIVE, not ACCESS EXCLUSIVE: the import's same-run lookup (a plain SELECT) must pass; its INSERT must wait.
+  await heldLock.raw('lock table runs in exclusive mode');
   const outcome = uploadTo(server.url, authorization, 'morning.gpx', data).then(
     (res) => `answered ${res.status}`,
     () => 'connection lost',
@@ -302,7 +308,7 @@ describe('the web server killed (SIGKILL) during uploads', () => {
       expect(((await res.json()) as { duplicates: unknown[] }).duplicates).toEqual([]);
     }
     expect(await storedCounts()).toMatchObject({ source_files: 3, runs: 3, run_tracks: 3 });
-  }, 60_000);
+  }, 240_000);
 });
 
 describe('the orphan sweep and an upload on another process', () => {
