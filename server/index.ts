@@ -52,10 +52,11 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   if (fake) config.payments.url = fake.url;
   const { createPaymentsClient } = await import('./features/fees/payments-client.ts');
   const payments = createPaymentsClient(config);
+  const mailer = createSmtpMailer(mailConfig);
   const app = createApp({
     config,
     store,
-    mailer: createSmtpMailer(mailConfig),
+    mailer,
     payments,
     clientDir: path.join(ROOT, 'dist/client'),
   });
@@ -76,6 +77,9 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   // swept in the background now and hourly; listening never waits for it.
   const { startOrphanSweeper } = await import('./features/runs/orphan-sweeper.ts');
   const sweeper = startOrphanSweeper({ store, dataDir: config.dataDir, graceSeconds: config.orphanGraceSeconds });
+  // A runner hears of a coach's changes once per editing burst (server/features/plans/README.md).
+  const { startPlanNoticeSweeper } = await import('./features/plans/plan-notices.ts');
+  const planNotices = startPlanNoticeSweeper(mailer, config.publicUrl);
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   fake?.setDeliver(async (payload, signature) => {
@@ -96,6 +100,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
       // Mail still being sent for answers already given (sign-up, reset requests).
       await afterAnswerSettled();
       await sweeper.stop();
+      await planNotices.stop();
       await stopImportWorker();
       await catcher?.close();
       await fake?.close();

@@ -208,3 +208,8 @@ export type RunnerSummary = z.infer<typeof RunnerSummarySchema>;
 
 /** `POST /api/me/calendar`: the secret feed address, shown once. */
 export const CalendarFeedSchema = z.object({ url: z.string() });
+export type CalendarFeed = z.infer<typeof CalendarFeedSchema>;
+
+/** `GET /api/me/calendar`: whether the feed is on and since when (the address itself is never shown again). */
+export const CalendarFeedStatusSchema = z.object({ on: z.boolean(), since: z.string().nullable() });
+export type CalendarFeedStatus = z.infer<typeof CalendarFeedStatusSchema>;

@@ -82,11 +82,18 @@ describe('POST /api/me/calendar and GET <feed url>', () => {
   it('replacing the address stops the old one (404), turning it off stops the new one; made-up addresses 404', async () => {
     const app = freshApp();
     const runner = await person(app, 'runner', 'Ivy Runner');
+    const status = async () => (await request(app).get('/api/me/calendar').set(runner.auth)).body as unknown;
+    expect(await status()).toEqual({ on: false, since: null });
     const first = (await request(app).post('/api/me/calendar').set(runner.auth)).body.url as string;
     const second = (await request(app).post('/api/me/calendar').set(runner.auth)).body.url as string;
     expect((await request(app).get(new URL(first).pathname)).status).toBe(404);
     expect((await request(app).get(new URL(second).pathname)).status).toBe(200);
+    // The status says on and since when, never the address (it is shown once, when made).
+    const on = (await request(app).get('/api/me/calendar').set(runner.auth)).text;
+    expect(JSON.parse(on)).toEqual({ on: true, since: expect.stringMatching(/^\d{4}-\d{2}-\d{2}T/) });
+    expect(on).not.toContain('cal_');
     expect((await request(app).delete('/api/me/calendar').set(runner.auth)).status).toBe(204);
+    expect(await status()).toEqual({ on: false, since: null });
     expect((await request(app).get(new URL(second).pathname)).status).toBe(404);
     expect((await request(app).get(`/api/calendar/cal_${'A'.repeat(43)}.ics`)).status).toBe(404);
     expect((await request(app).get('/api/calendar/not-a-token')).status).toBe(404);

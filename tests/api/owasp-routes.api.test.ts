@@ -455,6 +455,7 @@ const ROUTES: Record<string, Row> = {
   },
   'GET /api/runners/{id}': { caller: 'owner', params: { id: ownerId } },
   // The coach's feed is made and turned off, so the owner's address stays valid for its own row.
+  'GET /api/me/calendar': { caller: 'owner' },
   'POST /api/me/calendar': { caller: 'coach', takes: 'nothing', issuesToken: true },
   'DELETE /api/me/calendar': { caller: 'coach' },
   'GET /api/calendar/{token}': {

@@ -1,4 +1,5 @@
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
@@ -40,6 +41,29 @@ export async function launchBrowser(
 /** The built app on a free loopback port, against the e2e database that tests/run.ts seeded. */
 export async function startAppServer(): Promise<RunningServer> {
   return startServer({ ...process.env, PORT: '0', HOST: '127.0.0.1', NODE_ENV: 'test', MAIL_CATCHER_PORT: '0' });
+}
+
+/**
+ * The same, on a port chosen before start so the server's public address (links in e-mails, the
+ * calendar feed address) is the one the test can open.
+ */
+export async function startAppServerWithPublicUrl(): Promise<RunningServer> {
+  const port = await new Promise<number>((resolve, reject) => {
+    const probe = createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const address = probe.address();
+      probe.close(() => resolve(typeof address === 'object' && address ? address.port : 0));
+    });
+  });
+  return startServer({
+    ...process.env,
+    PORT: String(port),
+    HOST: '127.0.0.1',
+    PUBLIC_URL: `http://127.0.0.1:${port}`,
+    NODE_ENV: 'test',
+    MAIL_CATCHER_PORT: '0',
+  });
 }
 
 export async function screenshot(page: Page, name: string): Promise<void> {

@@ -11,6 +11,12 @@ export async function deleteCalendarFeed(userId: string, trx: Db = db): Promise<
   await trx('calendar_feeds').where({ user_id: userId }).delete();
 }
 
+/** When the user's current feed address was made, or undefined when the feed is off. */
+export async function findCalendarFeedCreatedAt(userId: string, trx: Db = db): Promise<Date | undefined> {
+  const row = await trx('calendar_feeds').where({ user_id: userId }).first<{ created_at: Date } | undefined>('created_at');
+  return row?.created_at;
+}
+
 export async function findFeedOwner(tokenHash: string, trx: Db = db) {
   return trx('calendar_feeds')
     .join('users', 'users.id', 'calendar_feeds.user_id')

@@ -1,12 +1,26 @@
-import { CalendarFeedSchema } from '../../../shared/plans/prescribe-schemas.ts';
+import { CalendarFeedSchema, CalendarFeedStatusSchema } from '../../../shared/plans/prescribe-schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
-import { createCalendarFeed, removeCalendarFeed, renderCalendarFeed } from './calendar.service.ts';
+import { calendarFeedStatus, createCalendarFeed, removeCalendarFeed, renderCalendarFeed } from './calendar.service.ts';
 
 /** Issue 15: a private iCalendar (RFC 5545) subscription of one's planned sessions. */
 export function createCalendarRouter(config: AppConfig) {
   const api = createApiRouter();
+
+  api.route(
+    {
+      method: 'get',
+      path: '/me/calendar',
+      tag: 'calendar',
+      summary: 'Whether the calendar feed is on and since when (the address is shown only when made)',
+      access: 'own-data',
+      response: CalendarFeedStatusSchema,
+    },
+    async (_req, res) => {
+      res.json(await calendarFeedStatus(requireActor(res)));
+    },
+  );
 
   api.route(
     {

@@ -9,6 +9,7 @@ import { addDays } from '../../../shared/weeks/weeks.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import {
   deleteCalendarFeed,
+  findCalendarFeedCreatedAt,
   findFeedOwner,
   findSquadRunnerIds,
   listFeedPlans,
@@ -30,6 +31,11 @@ export async function createCalendarFeed(actor: Actor, publicUrl: string): Promi
   const token = `cal_${randomBytes(32).toString('base64url')}`;
   await replaceCalendarFeed(actor.id, hashToken(token));
   return `${publicUrl}/api/calendar/${token}.ics`;
+}
+
+export async function calendarFeedStatus(actor: Actor): Promise<{ on: boolean; since: string | null }> {
+  const createdAt = await findCalendarFeedCreatedAt(actor.id);
+  return { on: createdAt !== undefined, since: createdAt?.toISOString() ?? null };
 }
 
 export async function removeCalendarFeed(actor: Actor): Promise<void> {

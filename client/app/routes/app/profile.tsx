@@ -7,6 +7,8 @@ import { DeleteAccountCard } from '../../../features/account/components/delete-a
 import { YourDataCard } from '../../../features/account/components/your-data-card.tsx';
 import { ApiTokensCard } from '../../../features/api-tokens/components/api-tokens-card.tsx';
 import { authKeys } from '../../../features/auth/api/auth-keys.ts';
+import { calendarFeedQueryOptions } from '../../../features/calendar/api/calendar-feed.ts';
+import { CalendarFeedCard } from '../../../features/calendar/components/calendar-feed-card.tsx';
 import { PasswordAndSessionsCard } from '../../../features/auth/components/password-and-sessions-card.tsx';
 import { myCoachesQueryOptions } from '../../../features/coaches/api/get-my-coaches.ts';
 import { CoachesCard } from '../../../features/coaches/components/coaches-card.tsx';
@@ -18,6 +20,7 @@ import { OutboxLink } from '../../../features/outbox/components/outbox-link.tsx'
 import { planCheckKeys } from '../../../features/plan-check/api/plan-check-keys.ts';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
 import { ImportNoticeToggle } from '../../../features/profile/components/import-notice-toggle.tsx';
+import { PlanNoticeToggle } from '../../../features/profile/components/plan-notice-toggle.tsx';
 import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
 import { WeekAndLoadForm } from '../../../features/profile/components/week-and-load-form.tsx';
@@ -30,6 +33,7 @@ export const createLoader = (queryClient: QueryClient) => async () => {
     queryClient.prefetchQuery(goalRaceQueryOptions()),
     queryClient.prefetchQuery(raceResultsQueryOptions()),
     queryClient.prefetchQuery(myCoachesQueryOptions()),
+    queryClient.prefetchQuery(calendarFeedQueryOptions()),
   ]);
   return null;
 };
@@ -73,11 +77,17 @@ export default function ProfileRoute() {
           <WeekAndLoadForm />
         </Card>
         {profile.role === 'runner' && <CoachesCard myId={profile.id} />}
+        {profile.role === 'runner' && (
+          <Card title="Plan notices" description="E-mail when your coach writes or changes sessions on your plan.">
+            <PlanNoticeToggle />
+          </Card>
+        )}
         {profile.role === 'coach' && (
           <Card title="Notices" description="E-mail about your squads besides the weekly digest.">
             <ImportNoticeToggle />
           </Card>
         )}
+        <CalendarFeedCard isCoach={profile.role === 'coach'} />
         <PasswordAndSessionsCard />
         <ApiTokensCard />
         <YourDataCard />
