@@ -1,10 +1,18 @@
+import path from 'node:path';
 import ical from 'node-ical';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
 import { db } from '../../server/lib/db.ts';
 import type { RunningServer } from '../../server/index.ts';
-import { launchBrowser, screenshot, signIn, startAppServerWithPublicUrl, watchErrors } from '../support/browser.ts';
+import {
+  launchBrowser,
+  screenshot,
+  SCREENSHOT_DIR,
+  signIn,
+  startAppServerWithPublicUrl,
+  watchErrors,
+} from '../support/browser.ts';
 
 // Issue 15: the calendar feed from the profile card, at 375 and 1280 px. The coach writes a session on
 // a runner's plan; the runner and the coach each turn their feed on, copy the address shown, and the
@@ -86,6 +94,7 @@ async function feedCycle(page: Page, summary: string, date: string, shot: string
   await expect.poll(() => card.getByText(/^The calendar feed is on/).count(), WAIT).toBe(1);
   expect(await noSideways(page)).toBeLessThanOrEqual(0);
   await screenshot(page, shot);
+  await card.screenshot({ path: path.join(SCREENSHOT_DIR, `${shot}-card.png`) });
 
   // The address on the page, fetched and parsed: the coach's session is there on its day, in shorthand.
   const events = await readFeed(first);
@@ -98,7 +107,7 @@ async function feedCycle(page: Page, summary: string, date: string, shot: string
 
   // Shown once: "I have copied it" hides it, and a reload never shows it again.
   await card.getByRole('button', { name: 'I have copied it' }).click();
-  expect(await address.count()).toBe(0);
+  await expect.poll(() => address.count(), WAIT).toBe(0);
   await page.reload();
   await expect.poll(() => card.getByText(/^The calendar feed is on/).count(), WAIT).toBe(1);
   expect(await card.getByLabel('Calendar feed address').count()).toBe(0);
@@ -161,8 +170,9 @@ describe('The calendar feed on the profile', () => {
     // The coach, on a desktop: their feed holds the squad's sessions, named by runner.
     const desk = await signedInPage(coach.email, coach.password, '/profile', 1280);
     const deskErrors = watchErrors(desk);
-    expect(await desk.getByRole('checkbox', { name: 'E-mail me when my coach changes my plan' }).count()).toBe(0);
     await feedCycle(desk, `${ivy.name}: ${TITLE}`, week.wednesday, 'calendar-feed-coach-1280');
+    // A coach has no coach: the plan-change switch is a runner's only.
+    expect(await desk.getByRole('checkbox', { name: 'E-mail me when my coach changes my plan' }).count()).toBe(0);
     expect(deskErrors).toEqual([]);
     await desk.close();
   });
