@@ -1,3 +1,5 @@
+import { localDateTime } from '../../shared/runs/local-time.ts';
+
 const DATE_FORMAT = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
 
 /** "3 Oct 2026" in the device's time zone. */
@@ -19,11 +21,11 @@ export function formatDateTime(iso: string): string {
 }
 
 /**
- * Today as `YYYY-MM-DD` in the device's time zone: the one "today" of the screens (a runner's browser runs in
- * the runner's own time zone, which is also where the server dates their runs).
+ * Today as `YYYY-MM-DD` in the profile's time zone, not the device's (issue 17): the one "today" of the
+ * screens, the same zone the server dates runs in, even when a phone is set to another zone.
  */
-export function deviceToday(now = new Date()): string {
-  return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`;
+export function todayIn(timeZone: string, now: number = Date.now()): string {
+  return localDateTime(now, timeZone).date;
 }
 
 /** A duration in words rounded to the minute: "4 h 35 min", "4 h", "50 min". */

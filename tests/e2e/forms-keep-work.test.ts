@@ -130,4 +130,40 @@ describe('fuel taken on the run page', () => {
     expect(stored).toEqual([]);
     await page.close();
   });
+
+  it('the after-run check-in keeps a draft over a reload until it is saved', async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    await page.setViewportSize({ width: 375, height: 812 });
+    await page.goto(`${server.url}/sign-in`);
+    await signIn(page, runner.email, runner.password);
+    await page.waitForURL(/\/log$/);
+    const { runs } = await call<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=2');
+    await page.goto(`${server.url}/runs/${runs[1]!.id}`);
+    const checkin = page.getByRole('form', { name: 'After-run check-in' });
+    await checkin.waitFor();
+    await checkin.getByLabel('Sleep the night before (hours)').fill('7.5');
+    await checkin.getByLabel('Soreness (1–5)').selectOption('2');
+    await checkin.getByLabel('Check-in notes').fill('Calves tight after the hills.');
+
+    await page.reload();
+    await checkin.waitFor();
+    await expect.poll(() => checkin.getByText(/^Restored what you entered earlier on this device/).count()).toBe(1);
+    expect(await checkin.getByLabel('Sleep the night before (hours)').inputValue()).toBe('7.5');
+    expect(await checkin.getByLabel('Soreness (1–5)').inputValue()).toBe('2');
+    expect(await checkin.getByLabel('Check-in notes').inputValue()).toBe('Calves tight after the hills.');
+
+    await checkin.getByRole('button', { name: 'Save check-in' }).click();
+    await expect.poll(() => checkin.getByText('Check-in saved.').count()).toBe(1);
+    const stored = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('pacewright:draft:checkin:')));
+    expect(stored).toEqual([]);
+    // What was saved is what the server now holds.
+    const saved = await call<{ checkin: { sleep_hours: number; notes: string } | null }>(
+      page,
+      'GET',
+      `/api/runs/${runs[1]!.id}/checkin`,
+    );
+    expect(saved.checkin?.sleep_hours).toBe(7.5);
+    await page.close();
+  });
 });

@@ -83,6 +83,15 @@ describe('Tools page', () => {
     await resultForm.getByRole('button', { name: 'Show equivalents' }).click();
     await expect.poll(() => page.getByRole('region', { name: 'Training pace ranges' }).count()).toBe(1);
 
+    // A refused entry clears the results it no longer matches (issue 17): no old splits beside a new error.
+    await paceForm.getByLabel('Goal time').fill('half past three');
+    await paceForm.getByRole('button', { name: 'Show paces' }).click();
+    await expect.poll(() => paceForm.getByText(/Enter the time as h:mm:ss/).count()).toBe(1);
+    expect(await paceForm.getByRole('region', { name: 'Splits per km' }).count()).toBe(0);
+    await resultForm.getByLabel('Your time').fill('soon');
+    await resultForm.getByRole('button', { name: 'Show equivalents' }).click();
+    await expect.poll(() => page.getByRole('region', { name: 'Training pace ranges' }).count()).toBe(0);
+
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
     expect(overflow).toBeLessThanOrEqual(0);
     await screenshot(page, 'tools-phone');

@@ -18,17 +18,17 @@ import { paths } from '../../../config/paths.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { HistoryImport } from '../../../features/imports/components/history-import.tsx';
 import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
-import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { profileQueryOptions, useProfile } from '../../../features/profile/api/get-profile.ts';
+import { todayIn } from '../../../lib/format.ts';
 import { MAX_RUNS_PER_PAGE, RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
 import { runKeys } from '../../../features/runs/api/run-keys.ts';
 import { RunUpload } from '../../../features/runs/components/run-upload.tsx';
 import { RunsCalendar } from '../../../features/runs/components/runs-calendar.tsx';
-import { deviceToday } from '../../../lib/format.ts';
 import { RunsTable } from '../../../features/runs/components/runs-table.tsx';
 
-/** This month on this device (the calendar opens on it). */
-function deviceMonth(now = new Date()): YearMonth {
-  return { year: now.getFullYear(), month: now.getMonth() + 1 };
+/** This month in the profile's time zone (the calendar opens on it when there are no runs). */
+function thisMonth(timeZone: string): YearMonth {
+  return parseYearMonth(todayIn(timeZone).slice(0, 7))!;
 }
 
 const FIRST_PAGE = { page: 1, per_page: RUNS_PER_PAGE };
@@ -42,9 +42,9 @@ function readPage(search: URLSearchParams): number {
  * The calendar's month: the address's `?month=`, else the month of the newest run (so the last
  * runs are in view even early in a new month), else this month.
  */
-function readMonth(search: URLSearchParams, newest: RunPage): YearMonth {
+function readMonth(search: URLSearchParams, newest: RunPage, timeZone: string): YearMonth {
   const latest = newest.runs[0];
-  return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? deviceMonth();
+  return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? thisMonth(timeZone);
 }
 
 /** The list's order from the address (`?sort=&order=`), so a sorted list survives reloads and shared links. */
@@ -69,7 +69,11 @@ export const createLoader =
       queryClient.ensureQueryData(runsQueryOptions(FIRST_PAGE)),
       queryClient.ensureQueryData(runsQueryOptions(listFilters(readPage(search), readSorting(search)))),
     ]);
-    await queryClient.ensureQueryData(runsQueryOptions(monthFilters(readMonth(search, newest))));
+    await queryClient.ensureQueryData(
+      runsQueryOptions(
+        monthFilters(readMonth(search, newest, (await queryClient.ensureQueryData(profileQueryOptions())).time_zone)),
+      ),
+    );
     return null;
   };
 
@@ -80,7 +84,7 @@ export default function LogRoute() {
   const newest = useRuns(FIRST_PAGE);
   const sorting = readSorting(search);
   const list = useRuns(listFilters(page, sorting));
-  const month = readMonth(search, newest);
+  const month = readMonth(search, newest, profile.time_zone);
   const monthRuns = useRuns(monthFilters(month));
   const pages = Math.max(1, Math.ceil(list.total / list.per_page));
   const monthParam = search.get('month') ?? undefined;
@@ -126,7 +130,7 @@ export default function LogRoute() {
                 month={month}
                 runs={monthRuns.runs}
                 unit={profile.unit}
-                today={deviceToday()}
+                today={todayIn(profile.time_zone)}
                 page={page}
                 sorting={sorting}
               />

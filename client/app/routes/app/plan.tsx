@@ -20,9 +20,8 @@ import { plansQueryOptions, usePlans } from '../../../features/plans/api/get-pla
 import { GoalRaceLine } from '../../../features/plans/components/goal-race-line.tsx';
 import { PlanMonth } from '../../../features/plans/components/plan-month.tsx';
 import { PlanWeek, formatDay } from '../../../features/plans/components/plan-week.tsx';
-import { deviceToday } from '../../../lib/format.ts';
 import { SessionEditor } from '../../../features/plans/components/session-editor.tsx';
-import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { profileQueryOptions, useProfile } from '../../../features/profile/api/get-profile.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { isApiError } from '../../../lib/api-client.ts';
 import { useDayMarks } from '../../../features/plans/api/day-marks.ts';
@@ -34,6 +33,7 @@ import { LibraryCard } from '../../../features/plans/components/library-card.tsx
 import { ToleranceControl } from '../../../features/plans/components/tolerance-control.tsx';
 import { squadsQueryOptions } from '../../../features/squad/api/get-squads.ts';
 import { requireAccess } from '../../guards.ts';
+import { todayIn } from '../../../lib/format.ts';
 import { MAX_RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
 
 type PlanView =
@@ -69,7 +69,8 @@ export const createLoader =
   async ({ request, params }: LoaderFunctionArgs) => {
     const runnerId = params.runnerId;
     if (runnerId) await requireAccess(queryClient, request, 'squads:manage');
-    const range = readView(new URL(request.url).searchParams, deviceToday());
+    const profile = await queryClient.ensureQueryData(profileQueryOptions());
+    const range = readView(new URL(request.url).searchParams, todayIn(profile.time_zone));
     await Promise.all([
       queryClient.ensureQueryData(goalRaceQueryOptions(runnerId)),
       queryClient.ensureQueryData(plansQueryOptions(planFilters(range, runnerId))),
@@ -103,9 +104,9 @@ function RunnerPlan({ runnerId }: { runnerId: string }) {
 function PlanPage({ runner }: { runner: { id: string; name: string; pace_tolerance: number } | null }) {
   const runnerId = runner?.id;
   const [search] = useSearchParams();
-  const today = deviceToday();
-  const range = readView(search, today);
   const profile = useProfile();
+  const today = todayIn(profile.time_zone);
+  const range = readView(search, today);
   const me = useMe();
   const isCoach = me?.role === 'coach';
   const squads = useQuery({ ...squadsQueryOptions(), enabled: isCoach });

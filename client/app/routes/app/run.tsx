@@ -131,7 +131,7 @@ export default function RunRoute() {
 
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
         <FuelTakenCard runId={run.id} userId={profile.id} localDate={run.summary.local_date} isOwner={isOwner} unit={unit} />
-        <CheckinCard runId={run.id} isOwner={isOwner} />
+        <CheckinCard runId={run.id} userId={profile.id} isOwner={isOwner} />
       </div>
     </>
   );

@@ -11,7 +11,8 @@ import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
 import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
-import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { profileQueryOptions, useProfile } from '../../../features/profile/api/get-profile.ts';
+import { todayIn } from '../../../lib/format.ts';
 import {
   squadOverviewCsvHref,
   squadOverviewQueryOptions,
@@ -28,7 +29,6 @@ import { SquadOverviewTable } from '../../../features/squad/components/squad-ove
 import { SquadPeople } from '../../../features/squad/components/squad-people.tsx';
 import { DownloadLink, WeekNav } from '../../../features/squad/components/week-nav.tsx';
 import { formatWeekRange } from '../../../features/squad/utils/week-format.ts';
-import { deviceToday } from '../../../lib/format.ts';
 import { requireAccess } from '../../guards.ts';
 
 /** The squads this coach runs (the list also holds squads they merely belong to). */
@@ -48,7 +48,8 @@ export const createLoader =
   async ({ request }: LoaderFunctionArgs) => {
     const user = await requireAccess(queryClient, request, 'squads:manage');
     const squads = coachedSquads(await queryClient.ensureQueryData(squadsQueryOptions()), user.id);
-    const { squad, monday } = readSelection(new URL(request.url).searchParams, squads, deviceToday());
+    const profile = await queryClient.ensureQueryData(profileQueryOptions());
+    const { squad, monday } = readSelection(new URL(request.url).searchParams, squads, todayIn(profile.time_zone));
     if (squad) await queryClient.ensureQueryData(squadOverviewQueryOptions(squad.id, monday));
     return null;
   };
@@ -58,7 +59,7 @@ export default function SquadRoute() {
   const [search] = useSearchParams();
   const navigate = useNavigate();
   const squads = coachedSquads(useSquads(), me?.id ?? '');
-  const today = deviceToday();
+  const today = todayIn(useProfile().time_zone);
   const { squad, monday } = readSelection(search, squads, today);
 
   return (

@@ -6,6 +6,7 @@ import { Card } from '../../../components/ui/card.tsx';
 import { CONTROL_CLASSES, SelectField, TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
+import { useDraft } from '../../../lib/use-draft.ts';
 import { useCheckin } from '../api/get-checkin.ts';
 import { useSaveCheckin } from '../api/save-checkin.ts';
 import type { CheckinView } from '../api/types.ts';
@@ -43,9 +44,10 @@ function ColdWaterNotes({ temp, minutes }: { temp: string; minutes: string }) {
   );
 }
 
-function CheckinForm({ runId, view }: { runId: string; view: CheckinView }) {
+function CheckinForm({ runId, userId, view }: { runId: string; userId: string; view: CheckinView }) {
   const c = view.checkin;
-  const [d, setD] = useState<Draft>({
+  // Kept in this device's storage while typed, so a reload or a refused save loses nothing (client/README.md).
+  const draft = useDraft<Draft>(`checkin:${userId}:${runId}`, () => ({
     sleep: str(c?.sleep_hours),
     soreness: str(c?.soreness),
     mood: str(c?.mood),
@@ -54,13 +56,14 @@ function CheckinForm({ runId, view }: { runId: string; view: CheckinView }) {
     coldTemp: str(c?.cold_water?.water_temp_c),
     coldMinutes: str(c?.cold_water?.minutes),
     notes: c?.notes ?? '',
-  });
+  }));
+  const d = draft.value;
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [saved, setSaved] = useState(false);
   const save = useSaveCheckin(runId);
   const set = (patch: Partial<Draft>) => {
     setSaved(false);
-    setD({ ...d, ...patch });
+    draft.update((current) => ({ ...current, ...patch }));
   };
   const cold = d.coldTemp.trim() !== '' || d.coldMinutes.trim() !== '';
 
@@ -84,7 +87,12 @@ function CheckinForm({ runId, view }: { runId: string; view: CheckinView }) {
       return;
     }
     setErrors({});
-    save.mutate(parsed.data as CheckinInput, { onSuccess: () => setSaved(true) });
+    save.mutate(parsed.data as CheckinInput, {
+      onSuccess: () => {
+        draft.clear();
+        setSaved(true);
+      },
+    });
   }
 
   const scale = (label: string, value: string, key: 'soreness' | 'mood', hint: string) => (
@@ -100,6 +108,9 @@ function CheckinForm({ runId, view }: { runId: string; view: CheckinView }) {
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="After-run check-in" className="flex flex-col gap-4">
+      {draft.restored && !saved && (
+        <FormAlert tone="success">Restored what you entered earlier on this device; it is not saved yet.</FormAlert>
+      )}
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-3">
         <TextField
           label="Sleep the night before (hours)"
@@ -215,13 +226,13 @@ function ReadOnly({ view }: { view: CheckinView }) {
 }
 
 /** The after-run check-in: sleep, soreness, mood and recovery work; the runner edits it, a coach reads it. */
-export function CheckinCard({ runId, isOwner }: { runId: string; isOwner: boolean }) {
+export function CheckinCard({ runId, userId, isOwner }: { runId: string; userId: string; isOwner: boolean }) {
   const checkin = useCheckin(runId);
   return (
     <Card title="After-run check-in" description="Sleep, soreness, mood and the recovery work you did.">
       {checkin.data ? (
         isOwner ? (
-          <CheckinForm runId={runId} view={checkin.data} />
+          <CheckinForm runId={runId} userId={userId} view={checkin.data} />
         ) : (
           <ReadOnly view={checkin.data} />
         )

@@ -26,6 +26,8 @@ export function PaceCalculator({ defaultUnit }: { defaultUnit: PaceUnit }) {
     PaceFormSchema,
     (data) => ({ ...readRaceEntry(data), unit, negative_split: readText(data, 'negative_split') }),
     ({ unit: _unit, ...value }) => setGoal(value),
+    // Old results beside a refused entry read as if they answered it: clear them (issue 17).
+    () => setGoal(null),
   );
 
   return (

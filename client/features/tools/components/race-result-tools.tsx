@@ -26,7 +26,7 @@ import { ScrollTable, TD, TD_NUM, TH, TH_NUM } from './scroll-table.tsx';
  */
 export function RaceResultTools({ unit }: { unit: PaceUnit }) {
   const [result, setResult] = useState<EquivalentsQuery | null>(null);
-  const { onSubmit, fieldErrors } = useToolForm(RaceResultFormSchema, readRaceEntry, setResult);
+  const { onSubmit, fieldErrors } = useToolForm(RaceResultFormSchema, readRaceEntry, setResult, () => setResult(null));
 
   return (
     <>

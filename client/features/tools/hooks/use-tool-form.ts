@@ -10,6 +10,8 @@ export function useToolForm<S extends z.ZodType>(
   schema: S,
   readValues: (data: FormData) => unknown,
   onValid: (value: z.output<S>) => void,
+  /** Called when a submit is refused, so the page can clear results that no longer match the form. */
+  onInvalid?: () => void,
 ) {
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
 
@@ -20,6 +22,7 @@ export function useToolForm<S extends z.ZodType>(
     if (!result.success) {
       const errors = toFieldErrors(toFieldIssues(result.error));
       setFieldErrors(errors);
+      onInvalid?.();
       const names = Object.keys(errors);
       const first = Array.from(form.elements).find((el): el is HTMLInputElement => names.includes((el as HTMLInputElement).name));
       first?.focus();
