@@ -9,8 +9,9 @@ const embedded = !usesExternalDatabase();
 if (embedded) process.env.DATABASE_URL = withDatabase(startEmbeddedPostgres(['pacewright']), 'pacewright');
 
 const { loadConfig, ConfigError } = await import('../config.ts');
+let config: ReturnType<typeof loadConfig>;
 try {
-  loadConfig();
+  config = loadConfig();
 } catch (err) {
   if (err instanceof ConfigError) {
     console.error(`Pacewright cannot start: ${err.message}`);
@@ -33,7 +34,18 @@ if (process.env.NODE_ENV !== 'production' && (await loadDemoDataOnFirstRun(db)))
 buildClientIfStale();
 
 const { startServer } = await import('../index.ts');
-const running = await startServer();
+const { portInUseMessage } = await import('./lib/port-in-use.ts');
+let running: Awaited<ReturnType<typeof startServer>>;
+try {
+  running = await startServer();
+} catch (err) {
+  // A failed start never leaves the embedded PostgreSQL running behind it (issue 17).
+  if (embedded) stopEmbeddedPostgres();
+  const busy = portInUseMessage(err, config);
+  if (!busy) throw err;
+  console.error(`Pacewright cannot start: ${busy}`);
+  process.exit(1);
+}
 
 console.log(`\nPacewright is running at ${running.url}\n`);
 if (process.env.NODE_ENV !== 'production') {
