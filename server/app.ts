@@ -19,6 +19,7 @@ import { createSquadsRouter } from './features/squads/squads.routes.ts';
 import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
 import { createNotesRouter } from './features/notes/notes.routes.ts';
+import { createNoticesRouter } from './features/notices/notices.routes.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { createHistoryRouter } from './features/history/history.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
@@ -84,7 +85,8 @@ export function createApp({
     createOutboxRouter(config),
     createWeeksRouter(mailer, config),
     createNotesRouter(),
-    createFuelRouter(),
+    createFuelRouter(mailer, config),
+    createNoticesRouter(config),
     createHistoryRouter(store, config),
     createFeesRouter(config, payments),
   ];

@@ -11,6 +11,8 @@ export interface RunningServer {
   server: Server;
   config: AppConfig;
   url: string;
+  /** Sends batched notices that are due (at `now`, default the clock); it also runs every few seconds. */
+  sweepNotices(now?: Date): Promise<{ sent: number; dropped: number; failed: number }>;
   close(): Promise<void>;
 }
 
@@ -62,6 +64,9 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   });
   const { startReconcileJob } = await import('./features/fees/reconcile-job.ts');
   const reconcile = payments ? await startReconcileJob(payments, config.databaseUrl) : null;
+  // Batched notices (uploads, notes) go out when due.
+  const { startNoticeSweeper } = await import('./features/notices/notice-sweeper.ts');
+  const notices = startNoticeSweeper({ mailer, config });
   // Bulk imports run in the background through a pg-boss queue in the same database.
   const { startImportWorker, stopImportWorker } = await import('./features/history/import-queue.ts');
   await startImportWorker(store, {
@@ -94,6 +99,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     server,
     config,
     url: `http://${config.host}:${port}`,
+    sweepNotices: (now) => notices.sweepNow(now),
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
@@ -101,6 +107,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
       await afterAnswerSettled();
       await sweeper.stop();
       await planNotices.stop();
+      await notices.stop();
       await stopImportWorker();
       await catcher?.close();
       await fake?.close();

@@ -15,6 +15,7 @@ import * as m20261205005000 from './20261205005000_coach_prescribes.ts';
 import * as m20261205006000 from './20261205006000_conversation.ts';
 import * as m20261205102000 from './20261205102000_pending_signups.ts';
 import * as m20261205103000 from './20261205103000_activity_kind.ts';
+import * as m20261205105000 from './20261205105000_notices.ts';
 import * as m20261205107000 from './20261205107000_coach_fees.ts';
 
 interface Migration {
@@ -40,6 +41,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261205006000_conversation': m20261205006000,
   '20261205102000_pending_signups': m20261205102000,
   '20261205103000_activity_kind': m20261205103000,
+  '20261205105000_notices': m20261205105000,
   '20261205107000_coach_fees': m20261205107000,
 };
 

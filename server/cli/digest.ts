@@ -23,8 +23,13 @@ let failures = 0;
 try {
   const squads = await db('squads')
     .join('users', 'users.id', 'squads.coach_id')
-    .select('squads.id', 'squads.name', 'users.id as coach_id', 'users.role');
+    .select('squads.id', 'squads.name', 'users.id as coach_id', 'users.role', 'users.notify_on_digest');
   for (const squad of squads) {
+    // The profile switch (or the digest's one-click unsubscribe) stops the weekly run; "send now" on the squad page still works.
+    if (!squad.notify_on_digest) {
+      console.log(`${squad.name}: the coach switched the digest off; not sent`);
+      continue;
+    }
     try {
       const sent = await sendSquadDigest({ id: squad.coach_id, role: squad.role }, squad.id, week, mailer, config);
       console.log(`${squad.name}: digest for the week of ${sent.week_start} sent to ${sent.sent_to}`);

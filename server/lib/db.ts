@@ -24,6 +24,10 @@ export interface UserRow {
   pace_tolerance: number;
   notify_on_import: boolean;
   notify_on_plan_change: boolean;
+  notify_on_note: boolean;
+  notify_on_pain_alert: boolean;
+  notify_on_squad_leave: boolean;
+  notify_on_digest: boolean;
   week_starts_on: number;
   sex: 'male' | 'female' | null;
   created_at: Date;
@@ -251,7 +255,28 @@ export interface DevOutboxRow {
   subject: string;
   text: string;
   html: string;
+  /** Lower-case header names to their unfolded values. */
+  headers: Record<string, string>;
   sent_at: Date;
+}
+
+export interface NoticeRow {
+  id: string;
+  recipient_id: string;
+  kind: 'import' | 'note' | 'pain_alert' | 'squad_leave';
+  batch_key: string;
+  payload: Record<string, unknown>;
+  created_at: Date;
+  sent_at: Date | null;
+  outcome: 'sent' | 'switched-off' | 'nothing-left' | 'failed' | null;
+  attempts: number;
+  retry_at: Date | null;
+}
+
+export interface NoticeSwitchChangeRow {
+  user_id: string;
+  kind: string;
+  changed_at: Date;
 }
 
 export interface InvitationRow {
@@ -485,6 +510,8 @@ declare module 'knex/types/tables.js' {
     calendar_feeds: CalendarFeedRow;
     plan_check_results: PlanCheckResultRow;
     dev_outbox: DevOutboxRow;
+    notices: NoticeRow;
+    notice_switch_changes: NoticeSwitchChangeRow;
     invitations: InvitationRow;
     password_resets: PasswordResetRow;
     sessions: SessionRow;

@@ -12,9 +12,9 @@ export const logger = pino(
   { write: (line: string) => destination.write(line) },
 );
 
-/** Invitation, password-reset and sign-up links carry their secret in the path: logs keep only its kind. */
+/** Invitation, password-reset, sign-up and unsubscribe links carry their secret in the path: logs keep only its kind. */
 export function loggableUrl(url: string): string {
-  return url.replace(/\b(inv|rst|cal|sgn)_[A-Za-z0-9_-]+/g, '$1_[Redacted]');
+  return url.replace(/\b(inv|rst|cal|sgn|uns)_[A-Za-z0-9_-]+/g, '$1_[Redacted]');
 }
 
 /**

@@ -6,6 +6,8 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   html: string;
+  /** Extra headers, e.g. List-Unsubscribe on notices (RFC 8058). */
+  headers?: Record<string, string>;
 }
 
 export interface Mailer {

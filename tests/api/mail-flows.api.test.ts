@@ -1,4 +1,3 @@
-import { readFileSync } from 'node:fs';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
@@ -70,29 +69,5 @@ describe('password reset', () => {
     expect(expired.status).toBe(410);
     expect(expired.body.error).toMatch(/expired/);
     expect((await request(app).post('/api/auth/login').send({ email: user.email, password })).status).toBe(200);
-  });
-});
-
-describe('import notice to coaches', () => {
-  it('a squad runner’s import e-mails their coach, unless the coach turned notices off', async () => {
-    const app = appWithMail();
-    const coach = await createUser({ role: 'coach', email: 'coach@example.test' });
-    const runner = await createUser({ name: 'Rhea Runner' });
-    const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'S' }).returning('id');
-    await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.user.id });
-    const token = (await request(app).post('/api/auth/token').send({ email: runner.user.email, password: runner.password })).body
-      .token;
-    const file = readFileSync('fixtures/gps-samples/run-hr-4s.gpx');
-    await request(app).post('/api/runs').set('Authorization', `Bearer ${token}`).attach('files', file, 'a.gpx');
-    const [notice] = await outbox(app);
-    expect(notice).toMatchObject({ to: 'coach@example.test', subject: 'Rhea Runner imported a run' });
-    expect(notice!.text).toMatch(/http:\/\/pacewright\.test\/runs\//);
-
-    await db('users').where({ id: coach.user.id }).update({ notify_on_import: false });
-    await request(app)
-      .post('/api/runs')
-      .set('Authorization', `Bearer ${token}`)
-      .attach('files', readFileSync('fixtures/gps-samples/watch-run-3-laps.tcx'), 'b.tcx');
-    expect(await outbox(app)).toHaveLength(1);
   });
 });

@@ -14,6 +14,7 @@ import { createApp } from '../../server/app.ts';
 import { startPaymentFake } from '../../server/features/fees/payment-fake.ts';
 import { startImportWorker, stopImportWorker } from '../../server/features/history/import-queue.ts';
 import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
+import { signUnsubscribeToken } from '../../server/features/notices/unsubscribe-token.ts';
 import { db } from '../../server/lib/db.ts';
 import { captureLogLines } from '../../server/lib/logger.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
@@ -110,6 +111,8 @@ interface World {
   /** The owner's calendar feed path value (`cal_….ics`). */
   calendarToken: string;
   signUpToken: string;
+  /** A one-click unsubscribe token of the owner's (`uns_…`), as a notice e-mail carries it. */
+  unsubscribeToken: string;
   week: string;
   newPassword: string;
 }
@@ -280,6 +283,7 @@ async function buildWorld(): Promise<World> {
     checkoutUrl,
     inviteToken: linkTokenMailedTo(owner.email, 'inv'),
     calendarToken: calendarUrl.split('/').at(-1)!,
+    unsubscribeToken: signUnsubscribeToken(config.jwtSecret, { userId: owner.id, kind: 'note', issuedAt: new Date() }),
     resetToken: linkTokenMailedTo(people.spare.email, 'rst'),
     signUpToken: linkTokenMailedTo(signUpAddress, 'sgn'),
     week: '2012-10-22',
@@ -476,6 +480,17 @@ const ROUTES: Record<string, Row> = {
     body: () => ({ text: 'Legs were heavy.' }),
   },
   'GET /api/me/unread': { caller: 'owner' },
+  'GET /api/me/notices': { caller: 'owner' },
+  'PATCH /api/me/notices': { caller: 'owner', body: () => ({ note: true }) },
+  'GET /api/notices/unsubscribe/{token}': {
+    caller: 'anyone',
+    params: { token: { kind: 'secret', value: (w) => w.unsubscribeToken, madeUp: 400 } },
+  },
+  'POST /api/notices/unsubscribe/{token}': {
+    caller: 'anyone',
+    params: { token: { kind: 'secret', value: (w) => w.unsubscribeToken, madeUp: 400 } },
+    body: () => ({ 'List-Unsubscribe': 'One-Click' }),
+  },
   'POST /api/notes/{id}/read': { caller: 'owner', params: { id: id((w) => w.ids.weekNote) }, takes: 'nothing' },
   'PUT /api/runners/{id}/weeks/{start}/review': {
     caller: 'coach',
@@ -704,6 +719,7 @@ const SECRET_PATTERNS: Array<[string, RegExp]> = [
   ['an invitation link token', /inv_[A-Za-z0-9_-]{43}/],
   ['a calendar feed address', /cal_[A-Za-z0-9_-]{43}/],
   ['a sign-up link token', /sgn_[A-Za-z0-9_-]{43}/],
+  ['an unsubscribe link token', /uns_[A-Za-z0-9_-]{60,}/],
 ];
 
 /** What secret `text` reveals, if any (a just-issued bearer token may be allowed). */

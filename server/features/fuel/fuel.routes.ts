@@ -7,7 +7,9 @@ import {
   FuelPlanInputSchema,
   FuelTakenInputSchema,
 } from '../../../shared/fuel/schemas.ts';
+import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
+import type { Mailer } from '../../lib/mailer.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import {
@@ -30,7 +32,7 @@ import {
 const RunnerQuerySchema = z.object({ runner_id: z.uuid({ error: 'Not a runner id.' }).optional() });
 type RunnerQuery = z.infer<typeof RunnerQuerySchema>;
 
-export function createFuelRouter() {
+export function createFuelRouter(mailer: Mailer, config: AppConfig) {
   const api = createApiRouter();
 
   api.route(
@@ -240,7 +242,7 @@ export function createFuelRouter() {
       body: CheckinInputSchema,
     },
     async (req, res) => {
-      res.json(await putCheckin(requireActor(res), parseIdParam(req.params.id), req.body));
+      res.json(await putCheckin(requireActor(res), parseIdParam(req.params.id), req.body, { mailer, config }));
     },
   );
 

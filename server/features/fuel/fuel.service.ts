@@ -25,7 +25,10 @@ import { proposeTargets, type FuelTarget, type FuelTargets } from '../../../shar
 import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import type { FuelPlanRow, RunCheckinRow, RunRow } from '../../lib/db.ts';
+import { HIGH_SORENESS_ALERT } from '../../../shared/notices/batching.ts';
 import { AppError, ForbiddenError, NotFoundError, ValidationError } from '../../lib/errors.ts';
+import { logger } from '../../lib/logger.ts';
+import { recordSorenessAlert, type NoticeDeps } from '../notices/notices.service.ts';
 import { findGoalRace, listRaceResults } from '../goals/goals.repository.ts';
 import { findFirstPlanOnDate, findPlanById, findRunPlanLink } from '../plans/plans.repository.ts';
 import { getReadableRun } from '../runs/runs.service.ts';
@@ -429,9 +432,10 @@ export async function getCheckin(actor: Actor, runId: string): Promise<CheckinVi
   return checkinView(await findRunCheckin(run.id));
 }
 
-export async function putCheckin(actor: Actor, runId: string, input: CheckinInput): Promise<CheckinView> {
+export async function putCheckin(actor: Actor, runId: string, input: CheckinInput, notices: NoticeDeps): Promise<CheckinView> {
   const run = await ownRun(actor, runId);
-  return checkinView(
+  const before = await findRunCheckin(run.id);
+  const saved = checkinView(
     await upsertRunCheckin({
       run_id: run.id,
       sleep_hours: input.sleep_hours,
@@ -444,4 +448,11 @@ export async function putCheckin(actor: Actor, runId: string, input: CheckinInpu
       notes: input.notes,
     }),
   );
+  // Told once when soreness rises to 4–5, not again on each later edit of the same check-in.
+  const rose = (input.soreness ?? 0) >= HIGH_SORENESS_ALERT && (before?.soreness ?? 0) < HIGH_SORENESS_ALERT;
+  if (rose)
+    await recordSorenessAlert(actor.id, run, input.soreness!, notices).catch((err: unknown) =>
+      logger.error({ err, run: run.id }, 'recording a soreness alert failed'),
+    );
+  return saved;
 }

@@ -75,6 +75,15 @@ export async function markImportFailed(id: string, file: string, error: string, 
 }
 
 /** Marks the import done when every file is; returns whether it is. */
+/** Every run an import created, in the order of its files. */
+export async function listImportedRunIds(importId: string, trx: Db = db): Promise<string[]> {
+  const rows = await trx('import_files').where({ import_id: importId, status: 'imported' }).orderBy('position').select('result');
+  return rows.flatMap((r) => {
+    const ids = (r.result as { runIds?: unknown } | null)?.runIds;
+    return Array.isArray(ids) ? ids.filter((id): id is string => typeof id === 'string') : [];
+  });
+}
+
 export async function finishImportIfComplete(id: string, trx: Db = db): Promise<boolean> {
   const rows = await trx('imports')
     .where({ id })

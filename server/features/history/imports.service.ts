@@ -16,6 +16,7 @@ import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { importFiles } from '../runs/runs.service.ts';
+import { recordUploadNotice } from '../notices/notices.service.ts';
 import { findUserById } from '../users/users.repository.ts';
 import {
   claimFile,
@@ -23,6 +24,7 @@ import {
   finishImportIfComplete,
   findImportById,
   insertImport,
+  listImportedRunIds,
   listOpenFiles,
   markImportFailed,
   markImportRunning,
@@ -185,7 +187,14 @@ function outcomeOf(result: Awaited<ReturnType<typeof importFiles>>): FileOutcome
 }
 
 async function finish(importId: string, dataDir: string): Promise<void> {
-  if (await finishImportIfComplete(importId)) await rm(archivePath(dataDir, importId), { force: true });
+  if (!(await finishImportIfComplete(importId))) return;
+  await rm(archivePath(dataDir, importId), { force: true });
+  // One notice to the coaches for the whole archive (issue 16), queued once: only the finishing call gets here.
+  const row = await findImportById(importId);
+  if (row)
+    await recordUploadNotice(row.user_id, await listImportedRunIds(importId)).catch((err: unknown) =>
+      logger.error({ err, importId }, 'recording the upload notice of an import failed'),
+    );
 }
 
 /**

@@ -4,6 +4,24 @@ import type { AddressInfo } from 'node:net';
 import { logger } from '../../lib/logger.ts';
 import { insertCaughtMessage } from './outbox.repository.ts';
 
+/**
+ * The message's headers as sent: lower-case names, folded lines joined (RFC 5322 §2.2.3), repeated
+ * headers (Received) joined with ", ". Taken from the raw lines, not mailparser's parsed values,
+ * which turn List-* headers into objects.
+ */
+export function headersOf(lines: ReadonlyArray<{ key: string; line: string }>): Record<string, string> {
+  const headers: Record<string, string> = {};
+  for (const { key, line } of lines) {
+    const value = line
+      .slice(line.indexOf(':') + 1)
+      .replace(/\r?\n[ \t]+/g, ' ')
+      .trim();
+    const name = key.toLowerCase();
+    headers[name] = name in headers ? `${headers[name]}, ${value}` : value;
+  }
+  return headers;
+}
+
 export interface MailCatcher {
   port: number;
   close(): Promise<void>;
@@ -32,6 +50,7 @@ export async function startMailCatcher(port: number): Promise<MailCatcher> {
             subject: parsed.subject ?? '',
             text: parsed.text ?? '',
             html: typeof parsed.html === 'string' ? parsed.html : '',
+            headers: headersOf(parsed.headerLines),
           });
           callback();
         })

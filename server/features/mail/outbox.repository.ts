@@ -12,6 +12,7 @@ export async function listCaughtMessages(limit = 200, trx: Db = db) {
     subject: r.subject,
     text: r.text,
     html: r.html,
+    headers: r.headers,
     sent_at: r.sent_at.toISOString(),
   }));
 }

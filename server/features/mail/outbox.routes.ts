@@ -10,6 +10,8 @@ const MessageSchema = z.object({
   subject: z.string(),
   text: z.string(),
   html: z.string(),
+  /** Lower-case header names to values, e.g. `list-unsubscribe` (api-contract.md). */
+  headers: z.record(z.string(), z.string()),
   sent_at: z.string(),
 });
 

@@ -20,7 +20,8 @@ import { parseIdParam } from '../../lib/ids.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import type { AppConfig } from '../../config.ts';
 import type { Mailer } from '../../lib/mailer.ts';
-import { notifyCoachesOfImport } from '../squads/squads.service.ts';
+import { recordUploadNotice } from '../notices/notices.service.ts';
+import { logger } from '../../lib/logger.ts';
 import {
   addNote,
   deleteOwnRun,
@@ -99,7 +100,11 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       const actor = requireActor(res);
       const { duplicates } = res.locals.query as z.infer<typeof UploadRunsQuerySchema>;
       const result = await importFiles(actor, files, store, { importDuplicates: duplicates === 'import' });
-      await notifyCoachesOfImport(actor, result.imported, mailer, config);
+      // The coaches hear of it once per upload batch (the page sends a request per file): queued, not sent here.
+      await recordUploadNotice(
+        actor.id,
+        result.imported.map((r) => r.id),
+      ).catch((err: unknown) => logger.error({ err }, 'recording an upload notice failed'));
       res.status(result.imported.length > 0 ? 201 : 422).json(result);
     },
   );
@@ -235,9 +240,12 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       status: 201,
     },
     async (req, res) => {
-      res
-        .status(201)
-        .json({ note: await addNote(requireActor(res), parseIdParam(req.params.id), req.body.text, req.body.concern ?? null) });
+      res.status(201).json({
+        note: await addNote(requireActor(res), parseIdParam(req.params.id), req.body.text, req.body.concern ?? null, {
+          mailer,
+          config,
+        }),
+      });
     },
   );
 

@@ -24,6 +24,7 @@ import { assertCanReadRunner } from '../squads/runner-access.ts';
 import { decodeColumns, encodeColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
 import { findReadNoteIds } from '../notes/notes.repository.ts';
+import { recordNoteNotice, type NoticeDeps } from '../notices/notices.service.ts';
 import {
   findReferencedStorageKeys,
   holdOriginalFilesSharedLock,
@@ -479,13 +480,17 @@ export async function notesOf(actor: Actor, runId: string) {
 }
 
 /** Only the runner flags their own note as about pain or illness. */
-export async function addNote(actor: Actor, runId: string, text: string, concern: NoteConcern | null = null) {
+export async function addNote(actor: Actor, runId: string, text: string, concern: NoteConcern | null, notices: NoticeDeps) {
   const run = await getReadableRun(actor, runId);
   if (concern && run.user_id !== actor.id)
     throw new ValidationError('Only the runner flags a note as about pain or illness.', [
       { field: 'concern', message: 'Only the runner flags a note as about pain or illness.' },
     ]);
-  return insertRunNote(run.id, actor.id, text, concern);
+  const note = await insertRunNote(run.id, actor.id, text, concern);
+  await recordNoteNotice({ id: note.id, kind: 'run-note', runner_id: run.user_id, author_id: actor.id, concern }, notices).catch(
+    (err: unknown) => logger.error({ err, note: note.id }, 'recording a note notice failed'),
+  );
+  return note;
 }
 
 /** The stored series and device laps of a run the caller has already been allowed to read. */

@@ -101,7 +101,10 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       status: 204,
     },
     async (req, res) => {
-      await removeFromSquad(requireActor(res), parseIdParam(req.params.id), parseIdParam(req.params.runnerId));
+      await removeFromSquad(requireActor(res), parseIdParam(req.params.id), parseIdParam(req.params.runnerId), {
+        mailer,
+        config,
+      });
       res.status(204).end();
     },
   );

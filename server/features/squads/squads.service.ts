@@ -8,6 +8,7 @@ import { db, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
+import { recordSquadLeave, type NoticeDeps } from '../notices/notices.service.ts';
 import { findUserById } from '../users/users.repository.ts';
 import {
   claimInvitation,
@@ -196,11 +197,17 @@ export async function withdrawInvitation(actor: Actor, squadId: string, invitati
   if (!(await revokeInvitation(squadId, invitationId, now))) throw new NotFoundError('There is no open invitation with this id.');
 }
 
-/** A coach removes a runner, or a runner leaves (runnerId = themself). */
-export async function removeFromSquad(actor: Actor, squadId: string, runnerId: string) {
+/** A coach removes a runner, or a runner leaves (runnerId = themself); a runner leaving is told to the coach. */
+export async function removeFromSquad(actor: Actor, squadId: string, runnerId: string, notices: NoticeDeps, now = new Date()) {
   const squad = await findSquadById(squadId);
   const allowed = squad && (squad.coach_id === actor.id || runnerId === actor.id);
   if (!allowed || !(await removeMember(squadId, runnerId))) throw new NotFoundError('This runner is not in that squad.');
+  if (runnerId !== actor.id || runnerId === squad.coach_id) return;
+  const runner = await findUserById(runnerId);
+  const leftOn = new Intl.DateTimeFormat('en-CA', { timeZone: runner?.time_zone ?? 'UTC' }).format(now);
+  await recordSquadLeave(squad, { id: runnerId, name: runner?.name ?? 'A runner' }, leftOn, notices).catch((err: unknown) =>
+    logger.error({ err, squad: squad.id }, 'recording a squad-leave notice failed'),
+  );
 }
 
 export async function coachesOf(actor: Actor) {
@@ -208,40 +215,4 @@ export async function coachesOf(actor: Actor) {
     squad: { id: c.squad_id, name: c.squad_name },
     coach: { id: c.coach_id, name: c.coach_name, email: c.coach_email },
   }));
-}
-
-/**
- * Tells each coach of the runner (who has not turned it off) that runs were imported. Failures are
- * logged, never passed on: a mail problem must not undo an import.
- */
-export async function notifyCoachesOfImport(
-  runner: { id: string; name: string },
-  runs: Array<{ id: string; name: string; local_date: string; distance_m: number }>,
-  mailer: Mailer,
-  config: AppConfig,
-): Promise<void> {
-  if (runs.length === 0) return;
-  const coaches = await listCoachesOfRunner(runner.id);
-  const seen = new Set<string>();
-  for (const c of coaches) {
-    if (seen.has(c.coach_id)) continue;
-    seen.add(c.coach_id);
-    const coach = await findUserById(c.coach_id);
-    if (!coach?.notify_on_import) continue;
-    const lines = runs.map(
-      (r) => `${r.local_date} · ${r.name} · ${(r.distance_m / 1000).toFixed(2)} km: ${config.publicUrl}/runs/${r.id}`,
-    );
-    const intro = `${runner.name} imported ${runs.length === 1 ? 'a run' : `${runs.length} runs`}.`;
-    const off = 'You can turn these notices off on your profile page.';
-    try {
-      await mailer.send({
-        to: coach.email,
-        subject: `${runner.name} imported ${runs.length === 1 ? 'a run' : `${runs.length} runs`}`,
-        text: `${intro}\n\n${lines.join('\n')}\n\n${off}\n`,
-        html: htmlMessage(intro, [...lines, off]),
-      });
-    } catch (err) {
-      logger.warn({ err, coach: coach.id }, 'could not send an import notice');
-    }
-  }
 }

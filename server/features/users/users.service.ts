@@ -1,3 +1,5 @@
+import { NOTICE_KIND_INFO, NOTICE_KINDS } from '../../../shared/notices/kinds.ts';
+import { recordSwitchChanges } from '../notices/notices.repository.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import {
   findUserById,
@@ -22,6 +24,9 @@ export async function updateProfile(userId: string, changes: UpdateProfileInput)
   }
   const row = await updateUserProfile(userId, changes);
   if (!row) throw new NotFoundError();
+  // A notice switch changed here too makes older unsubscribe links for it stale (issue 16).
+  const switched = NOTICE_KINDS.filter((kind) => current[NOTICE_KIND_INFO[kind].column] !== row[NOTICE_KIND_INFO[kind].column]);
+  await recordSwitchChanges(userId, switched, new Date());
   return toProfile(row);
 }
 

@@ -6,6 +6,8 @@ import { UNIT_METRES } from '../../../shared/units.ts';
 import type { AppConfig } from '../../config.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
+import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
+import { unsubscribeHeaders, unsubscribeLinks } from '../notices/notices.service.ts';
 import { findSquadById } from '../squads/squads.repository.ts';
 import { findUserById } from '../users/users.repository.ts';
 import { buildSquadOverview, type OverviewRow } from './weeks.service.ts';
@@ -69,6 +71,7 @@ export async function sendSquadDigest(
   }));
   const closing = 'Flags describe what the numbers show; you know the runner — the decision is yours.';
   const link = `${config.publicUrl}/squad`;
+  const off = unsubscribeLinks(config, coach.id, 'digest', now);
   const text = [
     `${squad.name} — week of ${weekOf}`,
     '',
@@ -80,6 +83,10 @@ export async function sendSquadDigest(
     closing,
     `Open the squad: ${link}`,
     '',
+    '--',
+    `You get this e-mail because “${NOTICE_KIND_INFO.digest.label}” is on in your profile.`,
+    `Turn these e-mails off: ${off.page}`,
+    '',
   ].join('\n');
   const html = `<!doctype html><html><body style="background:#f6f4ef;color:#1d2330;font-family:'Source Sans 3',Arial,sans-serif;padding:24px"><div style="max-width:620px;margin:auto;background:#fffdf9;border:1px solid #ddd7ca;padding:24px"><p style="font-weight:700;margin:0 0 8px">Pacewright</p><h1 style="font-size:20px;margin:0 0 16px">${escapeHtml(squad.name)} — week of ${escapeHtml(weekOf)}</h1>${sections
     .map(
@@ -88,8 +95,14 @@ export async function sendSquadDigest(
     )
     .join(
       '',
-    )}<p style="margin-top:16px">${escapeHtml(closing)}</p><p><a href="${escapeHtml(link)}" style="color:#0f5c5c">Open the squad</a></p></div></body></html>`;
-  await mailer.send({ to: coach.email, subject: `${squad.name}: week of ${weekOf}`, text, html });
+    )}<p style="margin-top:16px">${escapeHtml(closing)}</p><p><a href="${escapeHtml(link)}" style="color:#0f5c5c">Open the squad</a></p><p style="font-size:13px;color:#545b69;margin:24px 0 0">You get this e-mail because “${escapeHtml(NOTICE_KIND_INFO.digest.label)}” is on in your profile. <a href="${escapeHtml(off.page)}" style="color:#545b69">Turn these e-mails off</a></p></div></body></html>`;
+  await mailer.send({
+    to: coach.email,
+    subject: `${squad.name}: week of ${weekOf}`,
+    text,
+    html,
+    headers: unsubscribeHeaders(config, coach.id, 'digest', now),
+  });
   return {
     sent_to: coach.email,
     week_start: weekOf,

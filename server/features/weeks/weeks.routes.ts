@@ -76,6 +76,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
           weekParam(req.params.start),
           req.body.text,
           req.body.concern ?? null,
+          { mailer, config },
         ),
       });
     },

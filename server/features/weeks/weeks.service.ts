@@ -14,6 +14,8 @@ import { longRunPlanId, summariseWeek, type WeekPlan, type WeekRun } from '../..
 import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
 import type { FuelTakenRow, NoteConcern, SessionPlanRow, UserRow } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
+import { logger } from '../../lib/logger.ts';
+import { recordNoteNotice, type NoticeDeps } from '../notices/notices.service.ts';
 import { findFuelTakenOf, findRunCheckinsOf } from '../fuel/fuel.repository.ts';
 import { plannedFuelTotalsOf } from '../fuel/fuel.service.ts';
 import { findReadNoteIds } from '../notes/notes.repository.ts';
@@ -329,7 +331,8 @@ export async function addWeekNote(
   runnerId: string,
   start: string,
   text: string,
-  concern: NoteConcern | null = null,
+  concern: NoteConcern | null,
+  notices: NoticeDeps,
 ) {
   await assertCanReadRunner(actor, runnerId);
   if (concern && actor.id !== runnerId)
@@ -337,6 +340,9 @@ export async function addWeekNote(
       { field: 'concern', message: 'Only the runner flags a note as about pain or illness.' },
     ]);
   const id = await insertWeekNote(runnerId, start, actor.id, text, concern);
+  await recordNoteNotice({ id, kind: 'week-note', runner_id: runnerId, author_id: actor.id, concern }, notices).catch(
+    (err: unknown) => logger.error({ err, note: id }, 'recording a note notice failed'),
+  );
   return { id, text, concern };
 }
 
