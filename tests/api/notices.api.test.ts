@@ -44,6 +44,9 @@ const mailTo = async (email: string) => (await outbox()).filter((m) => m.to === 
 /** Drives the batch sweep directly at a moment `seconds` from now, as the server's timer would. */
 const sweepIn = (seconds: number) => sendDueNotices({ mailer, config }, new Date(Date.now() + seconds * 1000));
 
+/** Each test imports generated runs; on a loaded machine that alone can pass the default 5 s. */
+const IMPORTS_TAKE_TIME = { timeout: 30_000 };
+
 const BASE_T = Date.UTC(2026, 10, 2, 6, 30);
 /** A small generated run (distinct bytes per index), `index` days after BASE_T. */
 function gpxFile(index: number): { name: string; data: Buffer } {
@@ -79,7 +82,7 @@ async function upload(auth: Record<string, string>, files: Array<{ name: string;
   return res.body.imported as Array<{ id: string }>;
 }
 
-describe('upload notices: one e-mail per upload batch', () => {
+describe('upload notices: one e-mail per upload batch', IMPORTS_TAKE_TIME, () => {
   it('10 files in one request → one notice to the coach, listing the 10 runs in miles, sent once the batch is quiet', async () => {
     const { coach, runner } = await squadOfOne();
     await upload(
@@ -147,7 +150,7 @@ describe('upload notices: one e-mail per upload batch', () => {
   });
 });
 
-describe('note notices: at most one e-mail per person per 15 minutes', () => {
+describe('note notices: at most one e-mail per person per 15 minutes', IMPORTS_TAKE_TIME, () => {
   it('5 notes within 15 minutes → one e-mail listing the 5; the other side hears nothing of its own notes', async () => {
     const { coach, runner } = await squadOfOne();
     const [run] = await upload(runner.auth, [gpxFile(70)]);
@@ -192,7 +195,7 @@ describe('note notices: at most one e-mail per person per 15 minutes', () => {
   });
 });
 
-describe('pain and soreness alerts: at once, worded with care', () => {
+describe('pain and soreness alerts: at once, worded with care', IMPORTS_TAKE_TIME, () => {
   it('a check-in with soreness 4 e-mails the coach at once (no sweep), once; defers to a physician or physiotherapist', async () => {
     const { coach, runner } = await squadOfOne();
     const [run] = await upload(runner.auth, [gpxFile(90)]);
@@ -232,7 +235,7 @@ describe('pain and soreness alerts: at once, worded with care', () => {
   });
 });
 
-describe('a runner leaving a squad', () => {
+describe('a runner leaving a squad', IMPORTS_TAKE_TIME, () => {
   it('tells the coach at once; a coach removing a runner is not told about their own action', async () => {
     const { coach, runner, squadId } = await squadOfOne();
     const left = await request(app).delete(`/api/squads/${squadId}/members/${runner.user.id}`).set(runner.auth);
@@ -248,7 +251,7 @@ describe('a runner leaving a squad', () => {
   });
 });
 
-describe('POST /api/notices/unsubscribe/:token (RFC 8058 one-click)', () => {
+describe('POST /api/notices/unsubscribe/:token (RFC 8058 one-click)', IMPORTS_TAKE_TIME, () => {
   /** The real message's List-Unsubscribe address, as a mail program reads it. */
   async function leaveNoticeLink() {
     const squad = await squadOfOne();
@@ -349,7 +352,7 @@ describe('POST /api/notices/unsubscribe/:token (RFC 8058 one-click)', () => {
   });
 });
 
-describe('PATCH /api/me/notices', () => {
+describe('PATCH /api/me/notices', IMPORTS_TAKE_TIME, () => {
   it('refuses an unknown kind or a non-boolean with a sentence and changes nothing', async () => {
     const { coach } = await squadOfOne();
     const unknown = await request(app).patch('/api/me/notices').set(coach.auth).send({ likes: false });
@@ -361,7 +364,7 @@ describe('PATCH /api/me/notices', () => {
   });
 });
 
-describe('the weekly digest', () => {
+describe('the weekly digest', IMPORTS_TAKE_TIME, () => {
   it('carries the one-click unsubscribe headers for the digest kind', async () => {
     const { coach, squadId } = await squadOfOne();
     const sent = await request(app).post(`/api/squads/${squadId}/digest`).set(coach.auth).send({});
