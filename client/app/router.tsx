@@ -69,6 +69,7 @@ export function createAppRouter(queryClient: QueryClient) {
                 { path: paths.planFuel.path, lazy: page(() => import('./routes/app/fuel-plan.tsx')) },
                 { path: paths.goalFuel.path, lazy: page(() => import('./routes/app/fuel-plan.tsx')) },
                 { path: paths.profile.path, lazy: page(() => import('./routes/app/profile.tsx')) },
+                { path: paths.fees.path, lazy: page(() => import('./routes/app/fees.tsx')) },
                 { path: paths.admin.path, lazy: page(() => import('./routes/app/admin.tsx')) },
               ],
             },

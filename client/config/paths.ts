@@ -93,6 +93,7 @@ export const paths = {
   goalFuel: { path: '/goal-race/fuel', getHref: () => '/goal-race/fuel' },
   goalFuelPrint: { path: '/goal-race/fuel/print', getHref: () => '/goal-race/fuel/print' },
   profile: { path: '/profile', getHref: () => '/profile' },
+  fees: { path: '/fees', getHref: () => '/fees' },
   admin: { path: '/admin', getHref: () => '/admin' },
 } as const;
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { EmailSchema } from '../auth/schemas.ts';
+import { FeeSchema } from '../fees/schemas.ts';
 import { looksLikeLink, NO_LINKS_IN_SQUAD_NAME } from './link-check.ts';
 
 export const CreateSquadInputSchema = z
@@ -24,6 +25,8 @@ export const InvitationPreviewSchema = z.object({
   coach: z.object({ name: z.string() }),
   email: z.string(),
   status: z.enum(['open', 'accepted', 'revoked', 'expired']),
+  /** The squad's fee, shown before the runner accepts. */
+  fee: FeeSchema,
 });
 
 export const SquadDetailSchema = SquadSchema.extend({

@@ -59,7 +59,7 @@ const escapeHtml = (text: string) =>
 
 function page(title: string, body: string): string {
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
-<title>${escapeHtml(title)}</title><style>
+<title>${escapeHtml(title)}</title><link rel="icon" href="data:,"><style>
 body{font-family:system-ui,sans-serif;background:#eef1f5;color:#222;margin:0;padding:24px}
 main{max-width:420px;margin:0 auto;background:#fff;border:1px solid #cdd3db;border-radius:6px;padding:20px}
 label{display:block;margin:12px 0 4px}input{width:100%;box-sizing:border-box;font-size:18px;padding:10px;border:1px solid #889}

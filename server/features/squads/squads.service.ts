@@ -8,6 +8,8 @@ import { db, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
+import { findSquadFee } from '../fees/fees.repository.ts';
+import { toFee } from '../fees/fees.service.ts';
 import { recordSquadLeave, type NoticeDeps } from '../notices/notices.service.ts';
 import { findUserById } from '../users/users.repository.ts';
 import {
@@ -168,6 +170,8 @@ export async function previewInvitation(token: string, now = new Date()) {
     coach: { name: coach?.name ?? '' },
     email: row.email,
     status: invitationStatus(row, now),
+    // A paid squad says its fee before anyone accepts (issue 20).
+    fee: toFee(await findSquadFee(squad.id)),
   };
 }
 

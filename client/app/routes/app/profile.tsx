@@ -11,6 +11,7 @@ import { calendarFeedQueryOptions } from '../../../features/calendar/api/calenda
 import { CalendarFeedCard } from '../../../features/calendar/components/calendar-feed-card.tsx';
 import { PasswordAndSessionsCard } from '../../../features/auth/components/password-and-sessions-card.tsx';
 import { myCoachesQueryOptions } from '../../../features/coaches/api/get-my-coaches.ts';
+import { MyFeesCard } from '../../../features/fees/components/my-fees-card.tsx';
 import { CoachesCard } from '../../../features/coaches/components/coaches-card.tsx';
 import { goalRaceQueryOptions } from '../../../features/goals/api/get-goal-race.ts';
 import { raceResultsQueryOptions } from '../../../features/goals/api/get-race-results.ts';
@@ -82,6 +83,7 @@ export default function ProfileRoute() {
             <PlanNoticeToggle />
           </Card>
         )}
+        {profile.role === 'runner' && <MyFeesCard />}
         {profile.role === 'coach' && (
           <Card title="Notices" description="E-mail about your squads besides the weekly digest.">
             <ImportNoticeToggle />

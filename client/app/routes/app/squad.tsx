@@ -10,6 +10,7 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { PageHeader } from '../../../components/ui/page-header.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useMe } from '../../../features/auth/api/get-me.ts';
+import { SquadFeesCard } from '../../../features/fees/components/squad-fees-card.tsx';
 import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
 import { profileQueryOptions, useProfile } from '../../../features/profile/api/get-profile.ts';
 import { todayIn } from '../../../lib/format.ts';
@@ -212,6 +213,8 @@ function SquadWeek({ squad, squads, monday, today, onPick }: SquadWeekProps) {
       <Card title="Runners and invitations" description="Who is in the squad, and who has been asked to join.">
         <SquadPeople squad={squad} />
       </Card>
+
+      <SquadFeesCard squadId={squad.id} squadName={squad.name} />
     </div>
   );
 }

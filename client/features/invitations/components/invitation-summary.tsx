@@ -1,3 +1,4 @@
+import { describeFee } from '../../fees/components/fee-words.ts';
 import type { InvitationPreview } from '../api/get-invitation.ts';
 
 /** Who invites whom to what, and what joining a squad means for the runner's data. */
@@ -17,6 +18,12 @@ export function InvitationSummary({ invitation }: { invitation: InvitationPrevie
           <li>{coach} can read your runs, your session plans and your weeks, and may write session plans for you.</li>
           <li>You and {coach} can write notes on your runs; each of you sees the other’s.</li>
           <li>You can leave the squad any time from your profile page. From then on {coach} can no longer read your data.</li>
+          {invitation.fee.kind !== 'none' && (
+            <li data-testid="invitation-fee">
+              This squad has a fee: <strong>{describeFee(invitation.fee)}</strong>. You pay it by card on the payment service’s
+              own page after joining, and can cancel at the end of any paid period.
+            </li>
+          )}
         </ul>
       </div>
     </div>
