@@ -59,7 +59,8 @@ export function LibraryCard({ forRunner, squadRunners, defaultDate, onApplied }:
                   onClick={() => setApplying(applying === s.id ? null : s.id)}
                   aria-label={`Apply ${s.name} to…`}
                 >
-                  Apply to…
+                  {/* The visible word begins the spoken name (axe label-content-name-mismatch). */}
+                  Apply…
                 </Button>
                 <Button
                   variant="quiet"
