@@ -5,7 +5,8 @@ import type { ExpandedPart, Part, PlanItem, RacePaces, RelativePaceRef, Resolved
 /**
  * The flat, ordered list of parts the plan check walks: every repeat is unrolled round by round,
  * so `6 x 800 m w/ 400 m jog` gives twelve entries (rep, jog, rep, jog, …). A recovery after the
- * last rep stays in the list; the plan check treats it as optional. Inputs are not mutated.
+ * last rep stays in the list (`isClosingRecovery`): the plan check uses it for the alignment only,
+ * and nothing counts it as planned. Inputs are not mutated.
  */
 export function expandParts(items: readonly PlanItem[]): ExpandedPart[] {
   const out: ExpandedPart[] = [];
@@ -21,6 +22,19 @@ export function expandParts(items: readonly PlanItem[]): ExpandedPart[] {
     }
   });
   return out;
+}
+
+/**
+ * True for a recovery jog that closes the last round of a repeat with a rep in it: shorthand writes
+ * recoveries between reps ("6 x 800 m w/ 400 m jog"), so this one exists only in the unrolled list.
+ * A recovery after the last rep is written as its own part after the repeat.
+ */
+export function isClosingRecovery(parts: readonly ExpandedPart[], i: number): boolean {
+  const part = parts[i]!;
+  if (part.kind !== 'recovery jog' || !part.repeat || part.repeat.round !== part.repeat.rounds || part.repeat.step === 0)
+    return false;
+  const next = parts[i + 1];
+  return !next || next.item_index !== part.item_index;
 }
 
 /** How many parts `items` expands to, without building the list. */

@@ -1,5 +1,5 @@
 import { isIsoDate, weekStart } from '../weeks/weeks.ts';
-import { expandParts } from './expand.ts';
+import { expandParts, isClosingRecovery } from './expand.ts';
 import type { PlanItem } from './types.ts';
 
 export { addDays, weekDates } from '../weeks/weeks.ts';
@@ -17,12 +17,16 @@ export function mondayOf(date: string): string {
 /**
  * The planned volume of a session, with repeats unrolled: metres over the parts given as a distance
  * and seconds over the parts given as a time (the two are not mixed: turning a time into a distance
- * would need a pace). Example: '2 mi warm-up, 6 x 800 m w/ 400 m jog, 20 min easy' → 13 637.376 m and 1200 s.
+ * would need a pace). A recovery after the last rep counts only when written (`isClosingRecovery`, as
+ * the plan check judges it). Example: '2 mi warm-up, 6 x 800 m w/ 400 m jog, 20 min easy' → 10 018.688 m
+ * (2 mi, six reps and five jogs) and 1200 s.
  */
 export function plannedVolume(items: readonly PlanItem[]): { distance_m: number; duration_s: number } {
   let distance_m = 0;
   let duration_s = 0;
-  for (const part of expandParts(items)) {
+  const parts = expandParts(items);
+  for (const [i, part] of parts.entries()) {
+    if (isClosingRecovery(parts, i)) continue;
     if (part.amount.type === 'distance') distance_m += part.amount.distance_m;
     else duration_s += part.amount.duration_s;
   }

@@ -1,8 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { expandParts, resolveTargets } from '../../../../shared/plans/expand.ts';
+import { expandParts, isClosingRecovery, resolveTargets } from '../../../../shared/plans/expand.ts';
 import {
   checkRunAgainstPlan,
-  isClosingRecovery,
   judgePart,
   sessionVerdict,
   type CheckLap,
