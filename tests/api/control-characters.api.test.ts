@@ -1,51 +1,14 @@
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
-import { createApp } from '../../server/app.ts';
 import { afterAnswerSettled } from '../../server/lib/after-answer.ts';
 import { db } from '../../server/lib/db.ts';
-import { createFsStore } from '../../server/lib/storage.ts';
 import { CONTROL_CHARACTER_MESSAGE } from '../../shared/api/text.ts';
-import { createUser } from '../support/factories.ts';
 import { databaseFingerprint } from '../support/db-fingerprint.ts';
-import { recordingMailer, testConfig } from '../support/test-app.ts';
+import { buildWorld, freshApp, type App, type World } from '../support/test-world.ts';
 
 // Issue 13 #13: a NUL byte in any text field ended in a 500 (PostgreSQL cannot store it in text).
 // Every validated field now refuses control characters (C0 but tab, line feed and carriage return;
 // DEL; C1) with one sentence: 400, nothing changed. Tabs and line breaks in notes still pass.
-
-type App = ReturnType<typeof createApp>;
-type Auth = Record<string, string>;
-
-function freshApp(): App {
-  const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-controls-'));
-  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
-}
-
-async function person(app: App, role: 'runner' | 'coach', name: string) {
-  const { user, password } = await createUser({ role, name });
-  const token = (await request(app).post('/api/auth/token').send({ email: user.email, password })).body.token as string;
-  return { id: user.id, auth: { Authorization: `Bearer ${token}` } as Auth };
-}
-
-interface World {
-  runner: { id: string; auth: Auth };
-  coach: { id: string; auth: Auth };
-  squad: string;
-  plan: string;
-}
-
-async function buildWorld(app: App): Promise<World> {
-  const runner = await person(app, 'runner', 'Ivy Runner');
-  const coach = await person(app, 'coach', 'Dana Coach');
-  const squad = (await request(app).post('/api/squads').set(coach.auth).send({ name: 'Harbor Line' })).body.squad.id as string;
-  await db('squad_members').insert({ squad_id: squad, runner_id: runner.id });
-  const plan = await request(app).post('/api/plans').set(runner.auth).send({ date: '2026-11-24', text: '45 min easy' });
-  expect(plan.status).toBe(201);
-  return { runner, coach, squad, plan: plan.body.plan.id as string };
-}
 
 interface Case {
   /** The field the sentence is given for. */
@@ -114,7 +77,7 @@ const CONTROLS = ['\u0000', '\u0007', '\u001b', '\u007f', '\u0085'];
 
 describe('control characters in text (issue 13 #13)', () => {
   it.each(Object.keys(CASES))('%s: 400 with one sentence for NUL, BEL, ESC, DEL and NEL; nothing changed', async (name) => {
-    const app = freshApp();
+    const app = freshApp('controls');
     const world = await buildWorld(app);
     const { field, send } = CASES[name]!;
     await afterAnswerSettled();
@@ -130,7 +93,7 @@ describe('control characters in text (issue 13 #13)', () => {
   });
 
   it('a nested field and an object key are named too; tabs and line breaks in a note are kept', async () => {
-    const app = freshApp();
+    const app = freshApp('controls');
     const world = await buildWorld(app);
     const nested = await request(app)
       .post('/api/plans')
@@ -152,7 +115,7 @@ describe('control characters in text (issue 13 #13)', () => {
   });
 
   it('a password may hold any character: it is only ever stored as a hash', async () => {
-    const app = freshApp();
+    const app = freshApp('controls');
     const res = await request(app)
       .post('/api/auth/register')
       .send({ email: 'odd@example.test', password: 'long enough \u0007 secret', name: 'Odd Password', role: 'runner' });

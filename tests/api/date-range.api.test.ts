@@ -1,51 +1,13 @@
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
-import { createApp } from '../../server/app.ts';
-import { db } from '../../server/lib/db.ts';
-import { createFsStore } from '../../server/lib/storage.ts';
 import { DATE_RANGE_MESSAGE } from '../../shared/api/calendar-date.ts';
-import { createUser } from '../support/factories.ts';
-import { recordingMailer, testConfig } from '../support/test-app.ts';
 import { databaseFingerprint } from '../support/db-fingerprint.ts';
+import { buildWorld, freshApp, type App, type World } from '../support/test-world.ts';
 
 // Issue 13 #13: week dates 0001-01-01 and 9999-12-31 ended in a 500 (week, week.csv, overview, digest).
 // Every date the API takes now lies in 1900-01-01 … 2100-12-31; outside that: 400, the sentence,
 // nothing changed. The routes are found in /api/openapi.json, so a new date-taking route without a
 // row here fails this file.
-
-type App = ReturnType<typeof createApp>;
-type Auth = Record<string, string>;
-
-function freshApp(): App {
-  const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-dates-'));
-  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
-}
-
-async function person(app: App, role: 'runner' | 'coach', name: string) {
-  const { user, password } = await createUser({ role, name });
-  const token = (await request(app).post('/api/auth/token').send({ email: user.email, password })).body.token as string;
-  return { id: user.id, auth: { Authorization: `Bearer ${token}` } as Auth };
-}
-
-interface World {
-  runner: { id: string; auth: Auth };
-  coach: { id: string; auth: Auth };
-  squad: string;
-  plan: string;
-}
-
-async function buildWorld(app: App): Promise<World> {
-  const runner = await person(app, 'runner', 'Ivy Runner');
-  const coach = await person(app, 'coach', 'Dana Coach');
-  const squad = (await request(app).post('/api/squads').set(coach.auth).send({ name: 'Harbor Line' })).body.squad.id as string;
-  await db('squad_members').insert({ squad_id: squad, runner_id: runner.id });
-  const plan = await request(app).post('/api/plans').set(runner.auth).send({ date: '2026-11-24', text: '45 min easy' });
-  expect(plan.status).toBe(201);
-  return { runner, coach, squad, plan: plan.body.plan.id as string };
-}
 
 interface Row {
   /** Sends the request with `date` wherever the route takes a date. */
@@ -152,7 +114,7 @@ const OUT_OF_RANGE = ['0001-01-01', '9999-12-31', '1899-12-31', '2101-01-01'];
 
 describe('dates outside 1900–2100 (issue 13 #13)', () => {
   it('every date-taking route has a row here (found in /api/openapi.json)', async () => {
-    const found = await dateTakingRoutes(freshApp());
+    const found = await dateTakingRoutes(freshApp('dates'));
     expect(found).toEqual(Object.keys(ROWS).sort());
     expect(found.length).toBeGreaterThanOrEqual(18);
   });
@@ -160,7 +122,7 @@ describe('dates outside 1900–2100 (issue 13 #13)', () => {
   it.each(Object.keys(ROWS))(
     '%s: 400 with the sentence for years 1, 9999, 1899 and 2101, nothing changed; 1900-01-01 and 2100-12-31 pass',
     async (key) => {
-      const app = freshApp();
+      const app = freshApp('dates');
       const world = await buildWorld(app);
       const before = await databaseFingerprint();
       for (const date of OUT_OF_RANGE) {
