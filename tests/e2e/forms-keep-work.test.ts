@@ -1,73 +1,35 @@
-import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
-import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
-import { launchBrowser, screenshot, signIn, startAppServer } from '../support/browser.ts';
+import { screenshot } from '../support/browser.ts';
+import { callApi, signInThroughPage, useBrowserSession } from '../support/browser-session.ts';
 
 /** Forms never lose work (issue 17): drafts survive a reload, a refused save keeps everything and answers at the field. */
 const runner = DEMO_PEOPLE.find((p) => p.email.startsWith('priya@'))!;
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
-
-/** A request as the app makes it: JSON with the CSRF header from its cookie. */
-async function call<T>(page: Page, method: string, url: string, body?: unknown): Promise<T> {
-  return page.evaluate(
-    async ({ method, url, body, cookie, header }) => {
-      const token = decodeURIComponent(
-        document.cookie
-          .split('; ')
-          .find((c) => c.startsWith(`${cookie}=`))
-          ?.split('=')[1] ?? '',
-      );
-      const res = await fetch(url, {
-        method,
-        headers: { 'content-type': 'application/json', [header]: token },
-        body: body === undefined ? undefined : JSON.stringify(body),
-      });
-      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
-      return res.status === 204 ? null : res.json();
-    },
-    { method, url, body, cookie: CSRF_COOKIE, header: CSRF_HEADER },
-  );
-}
+const session = useBrowserSession();
 
 describe('fuel taken on the run page', () => {
   it('checks fields where they are typed, keeps a draft over a reload, and a refused save keeps every entry with the message at the field', async () => {
-    await browser.context.clearCookies();
-    const page = await browser.context.newPage();
-    await page.setViewportSize({ width: 375, height: 812 });
-    await page.goto(`${server.url}/sign-in`);
-    await signIn(page, runner.email, runner.password);
+    const page = await session.browser.context.newPage();
+    await signInThroughPage(page, session.server.url, runner, { width: 375, height: 812 });
     await page.waitForURL(/\/log$/);
     const suffix = Date.now().toString(36);
-    await call(page, 'POST', '/api/fuel-items', {
+    await callApi(page, 'POST', '/api/fuel-items', {
       name: `chews ${suffix}`,
       carbohydrate_g: 24,
       sodium_mg: 50,
       caffeine_mg: 0,
       fluid_ml: 0,
     });
-    const { item: gel } = await call<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
+    const { item: gel } = await callApi<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
       name: `gel ${suffix}`,
       carbohydrate_g: 22,
       sodium_mg: 40,
       caffeine_mg: 0,
       fluid_ml: 0,
     });
-    const { runs } = await call<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=1');
-    await page.goto(`${server.url}/runs/${runs[0]!.id}`);
+    const { runs } = await callApi<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=1');
+    await page.goto(`${session.server.url}/runs/${runs[0]!.id}`);
     const taken = page.getByRole('form', { name: 'Fuel taken' });
     await taken.waitFor();
 
@@ -109,7 +71,7 @@ describe('fuel taken on the run page', () => {
     expect(await taken.getByLabel('Fuel notes').inputValue()).toBe('Chews went down well; the gel late.');
 
     // The gel is deleted elsewhere (another tab): the server refuses the save and names entry 2.
-    await call(page, 'DELETE', `/api/fuel-items/${gel.id}`);
+    await callApi(page, 'DELETE', `/api/fuel-items/${gel.id}`);
     await taken.getByRole('button', { name: 'Save fuel taken' }).click();
     await expect.poll(() => taken.getByText(/^Not saved: /).count()).toBe(1);
     const atField = taken.getByText(new RegExp(`^gel ${suffix}: `));
@@ -132,14 +94,11 @@ describe('fuel taken on the run page', () => {
   });
 
   it('the after-run check-in keeps a draft over a reload until it is saved', async () => {
-    await browser.context.clearCookies();
-    const page = await browser.context.newPage();
-    await page.setViewportSize({ width: 375, height: 812 });
-    await page.goto(`${server.url}/sign-in`);
-    await signIn(page, runner.email, runner.password);
+    const page = await session.browser.context.newPage();
+    await signInThroughPage(page, session.server.url, runner, { width: 375, height: 812 });
     await page.waitForURL(/\/log$/);
-    const { runs } = await call<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=2');
-    await page.goto(`${server.url}/runs/${runs[1]!.id}`);
+    const { runs } = await callApi<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=2');
+    await page.goto(`${session.server.url}/runs/${runs[1]!.id}`);
     const checkin = page.getByRole('form', { name: 'After-run check-in' });
     await checkin.waitFor();
     await checkin.getByLabel('Sleep the night before (hours)').fill('7.5');
@@ -158,7 +117,7 @@ describe('fuel taken on the run page', () => {
     const stored = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('pacewright:draft:checkin:')));
     expect(stored).toEqual([]);
     // What was saved is what the server now holds.
-    const saved = await call<{ checkin: { sleep_hours: number; notes: string } | null }>(
+    const saved = await callApi<{ checkin: { sleep_hours: number; notes: string } | null }>(
       page,
       'GET',
       `/api/runs/${runs[1]!.id}/checkin`,

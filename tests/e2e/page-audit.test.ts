@@ -1,9 +1,8 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
-import type { RunningServer } from '../../server/index.ts';
-import { launchBrowser, screenshot, signIn, startAppServer } from '../support/browser.ts';
+import { screenshot } from '../support/browser.ts';
+import { callApi, signInThroughPage, useBrowserSession } from '../support/browser-session.ts';
 import {
   DESKTOP,
   MIN_TARGET,
@@ -25,45 +24,15 @@ type AuditedPage = { name: string; path: string | ((page: Page) => Promise<strin
 
 const person = (role: 'runner' | 'coach' | 'admin') => DEMO_PEOPLE.find((p) => p.role === role)!;
 
-async function getJson<T>(page: Page, url: string): Promise<T> {
-  return page.evaluate(async (u) => {
-    const res = await fetch(u, { credentials: 'same-origin' });
-    if (!res.ok) throw new Error(`${u}: ${res.status}`);
-    return res.json();
-  }, url);
-}
-
-/** A write as the app makes it: JSON with the CSRF header from its cookie. */
-async function sendJson<T>(page: Page, method: string, url: string, body: unknown): Promise<T> {
-  return page.evaluate(
-    async ({ method, url, body, cookie, header }) => {
-      const token = decodeURIComponent(
-        document.cookie
-          .split('; ')
-          .find((c) => c.startsWith(`${cookie}=`))
-          ?.split('=')[1] ?? '',
-      );
-      const res = await fetch(url, {
-        method,
-        headers: { 'content-type': 'application/json', [header]: token },
-        body: JSON.stringify(body),
-      });
-      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
-      return res.status === 204 ? null : res.json();
-    },
-    { method, url, body, cookie: CSRF_COOKIE, header: CSRF_HEADER },
-  );
-}
-
 const firstRun = async (page: Page) => {
-  const { runs } = await getJson<{ runs: { id: string }[] }>(page, '/api/runs?per_page=1');
+  const { runs } = await callApi<{ runs: { id: string }[] }>(page, 'GET', '/api/runs?per_page=1');
   return `/runs/${runs[0]!.id}`;
 };
 const longRunFuelPlan = async (page: Page) => {
-  const { plans } = await getJson<{ plans: { id: string; title: string }[] }>(page, '/api/plans');
+  const { plans } = await callApi<{ plans: { id: string; title: string }[] }>(page, 'GET', '/api/plans');
   const long = plans.find((p) => /long run/i.test(p.title)) ?? plans[0]!;
   // A fuel plan with every column filled (a caffeinated gel, a bottle with refills), so its schedule and hourly tables are audited.
-  const { item: gel } = await sendJson<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
+  const { item: gel } = await callApi<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
     name: 'Audit gel with caffeine',
     serving: '1 gel',
     carbohydrate_g: 25,
@@ -71,7 +40,7 @@ const longRunFuelPlan = async (page: Page) => {
     caffeine_mg: 50,
     fluid_ml: 0,
   });
-  await sendJson(page, 'PUT', `/api/plans/${long.id}/fuel-plan`, {
+  await callApi(page, 'PUT', `/api/plans/${long.id}/fuel-plan`, {
     body_mass_kg: 58,
     easy_pace_s_per_km: 360,
     expected_duration_s: 3 * 3600,
@@ -138,25 +107,17 @@ const PAGES: Record<Role, AuditedPage[]> = {
   ],
 };
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const session = useBrowserSession({ bypassCSP: true });
 let page: Page;
 
 beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser({ bypassCSP: true });
-  page = await browser.context.newPage();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
+  page = await session.browser.context.newPage();
 });
 
 /** Opens the page at one size, waits for its data, photographs it and runs every rule. */
 async function auditAt(path: string, size: { width: number; height: number }, shot: string): Promise<Finding[]> {
   await page.setViewportSize(size);
-  await page.goto(`${server.url}${path}`);
+  await page.goto(`${session.server.url}${path}`);
   await page.waitForLoadState('networkidle');
   await page.locator('h1').first().waitFor();
   await page.evaluate(() => document.fonts.ready);
@@ -170,13 +131,11 @@ async function auditAt(path: string, size: { width: number; height: number }, sh
 for (const role of Object.keys(PAGES) as Role[]) {
   describe(`every page ${role === 'signed-out' ? 'signed out' : `as the demo ${role}`}, at 375 and 1280 px`, () => {
     beforeAll(async () => {
-      await browser.context.clearCookies();
-      if (role === 'signed-out') return;
-      const who = person(role);
-      await page.setViewportSize(DESKTOP);
-      await page.goto(`${server.url}/sign-in`);
-      await signIn(page, who.email, who.password);
-      await page.waitForURL((url) => url.pathname !== '/sign-in');
+      if (role === 'signed-out') {
+        await session.browser.context.clearCookies();
+        return;
+      }
+      await signInThroughPage(page, session.server.url, person(role), DESKTOP);
     });
 
     for (const audited of PAGES[role]) {
