@@ -80,7 +80,7 @@ export function createApp({
     createToolsRouter(),
     createPrescribeRouter(),
     createCalendarRouter(config),
-    createPlansRouter(),
+    createPlansRouter(config),
     createSquadsRouter(mailer, config),
     createOutboxRouter(config),
     createWeeksRouter(mailer, config),

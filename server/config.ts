@@ -1,4 +1,5 @@
 import { randomBytes } from 'node:crypto';
+import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { MAX_ARCHIVE_UPLOAD_BYTES } from '../shared/history/archive-rules.ts';
 
@@ -24,6 +25,18 @@ export interface AppConfig {
   uploadMaxFileBytes: number;
   /** Largest bulk-import .zip (MAX_ARCHIVE_UPLOAD_BYTES); lowered in tests to prove the 413. */
   uploadMaxArchiveBytes: number;
+  /** All files of one upload request together, bytes (server/features/runs/README.md). */
+  uploadMaxRequestBytes: number;
+  /** Uploads (single files or archives) one user may have arriving at the same time. */
+  uploadsAtOncePerUser: number;
+  /** Upload requests per user per window. */
+  uploadRateLimit: { windowMs: number; max: number };
+  /** Pace-tolerance changes (each makes every plan check recompute) per user per window. */
+  recomputeRateLimit: { windowMs: number; max: number };
+  /** Original files one user may keep, bytes (STORAGE_QUOTA_MB). */
+  storageQuotaBytes: number;
+  /** Worker threads for parsing, analysis and plan checks (COMPUTE_THREADS). */
+  computeThreads: number;
   publicUrl: string;
   /** Outgoing mail server; unset = the local mail catcher on loopback (development). */
   smtpUrl: string | null;
@@ -44,6 +57,13 @@ export function databaseUrlFromEnv(env: NodeJS.ProcessEnv = process.env): string
   return env.DATABASE_URL ?? `postgres://postgres@127.0.0.1:${env.PGPORT ?? 54329}/pacewright`;
 }
 
+/** COMPUTE_THREADS, else one thread fewer than the cores (the event loop keeps one), between 1 and 4. */
+export function defaultComputeThreads(env: NodeJS.ProcessEnv = process.env): number {
+  const configured = Number(env.COMPUTE_THREADS);
+  if (Number.isInteger(configured) && configured >= 1) return Math.min(configured, 16);
+  return Math.max(1, Math.min(4, availableParallelism() - 1));
+}
+
 const WEAK_SECRETS = new Set(['', 'secret', 'changeme', 'change-me', 'dev', 'development']);
 
 export class ConfigError extends Error {}
@@ -60,6 +80,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   const orphanGrace = env.ORPHAN_GRACE_SECONDS || '600';
   if (!/^\d+$/.test(orphanGrace)) {
     throw new ConfigError(`ORPHAN_GRACE_SECONDS must be a whole number of seconds (0 or more), not "${orphanGrace}".`);
+  }
+  const quotaMb = env.STORAGE_QUOTA_MB || '1024';
+  if (!/^\d+$/.test(quotaMb) || Number(quotaMb) < 1) {
+    throw new ConfigError(`STORAGE_QUOTA_MB must be a whole number of megabytes (1 or more), not "${quotaMb}".`);
   }
   const port = Number(env.PORT ?? 3000);
   const host = env.HOST ?? '127.0.0.1';
@@ -79,6 +103,12 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     jsonLimit: '1mb',
     uploadMaxFileBytes: 64 * 1024 * 1024,
     uploadMaxArchiveBytes: MAX_ARCHIVE_UPLOAD_BYTES,
+    uploadMaxRequestBytes: 256 * 1024 * 1024,
+    uploadsAtOncePerUser: 2,
+    uploadRateLimit: { windowMs: 10 * 60 * 1000, max: 30 },
+    recomputeRateLimit: { windowMs: 60 * 60 * 1000, max: 30 },
+    storageQuotaBytes: Number(quotaMb) * 1024 * 1024,
+    computeThreads: defaultComputeThreads(env),
     publicUrl: env.PUBLIC_URL ?? `http://${host}:${port}`,
     smtpUrl: env.SMTP_URL || null,
     mailCatcherPort: Number(env.MAIL_CATCHER_PORT ?? 2525),

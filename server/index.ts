@@ -43,6 +43,9 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   const catcher = !config.smtpUrl && config.env !== 'production' ? await startMailCatcher(config.mailCatcherPort) : null;
   const mailConfig = catcher ? { ...config, mailCatcherPort: catcher.port } : config;
   const { createSmtpMailer } = await import('./lib/mailer.ts');
+  // Parsing, analysis and plan checks run in worker threads (server/features/runs/README.md).
+  const { configureComputePool, stopComputePool } = await import('./features/compute/compute-pool.ts');
+  configureComputePool({ threads: config.computeThreads });
   // Development and tests: the local fake of the payment service on loopback, unless PAYMENTS_URL names one.
   // Imported only here and only outside production, so a production server never loads it.
   const fake =
@@ -73,6 +76,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     dataDir: config.dataDir,
     maxEntryBytes: config.uploadMaxFileBytes,
     databaseUrl: config.databaseUrl,
+    storageQuotaBytes: config.storageQuotaBytes,
   });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
@@ -109,6 +113,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
       await planNotices.stop();
       await notices.stop();
       await stopImportWorker();
+      await stopComputePool();
       await catcher?.close();
       await fake?.close();
       await reconcile?.stop();

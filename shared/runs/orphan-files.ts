@@ -84,3 +84,12 @@ export function selectLeftoverArchives(
     })
     .map((f) => f.key);
 }
+
+/**
+ * Names of files in DATA_DIR/uploads (single-file uploads waiting for their request to finish)
+ * older than the grace period: a request removes its own when it ends, so these were left by a crash.
+ */
+export function selectLeftoverUploads(files: readonly StoredFileInfo[], now: Date, graceSeconds: number): string[] {
+  checkGrace(graceSeconds);
+  return files.filter((f) => PARTIAL_UPLOAD_NAME.test(f.key) && isPastGrace(f, now, graceSeconds)).map((f) => f.key);
+}

@@ -127,3 +127,11 @@ export const DistanceReportSchema = z.object({
   distance_m: z.number(),
 });
 export type DistanceReportAnswer = z.infer<typeof DistanceReportSchema>;
+
+/** GET /api/me/storage: the original files a user keeps against their quota. */
+export const StorageUsageSchema = z.object({
+  used_bytes: z.number(),
+  quota_bytes: z.number(),
+  files: z.number(),
+});
+export type StorageUsage = z.infer<typeof StorageUsageSchema>;

@@ -382,6 +382,7 @@ const ROUTES: Record<string, Row> = {
   'DELETE /api/me': { caller: 'owner', body: (w) => ({ password: w.people.owner.password }) },
   'GET /api/me/export': { caller: 'owner' },
   'GET /api/me/coaches': { caller: 'owner' },
+  'GET /api/me/storage': { caller: 'owner' },
 
   'GET /api/admin/users': { caller: 'admin' },
   'PATCH /api/admin/users/{id}': {

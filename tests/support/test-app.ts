@@ -5,7 +5,10 @@ import type { Mailer, OutgoingMail } from '../../server/lib/mailer.ts';
 import { loadConfig, type AppConfig } from '../../server/config.ts';
 import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
 
-/** Test configuration: cheap bcrypt, a fixed secret, and a rate limit high enough not to interfere. */
+/**
+ * Test configuration: cheap bcrypt, a fixed secret, and rate limits and per-user upload caps high
+ * enough not to interfere (tests of those limits set the real numbers back, see loadConfig).
+ */
 export function testConfig(overrides: Partial<AppConfig> = {}): AppConfig {
   return {
     ...loadConfig({
@@ -15,6 +18,9 @@ export function testConfig(overrides: Partial<AppConfig> = {}): AppConfig {
     }),
     bcryptCost: 4,
     authRateLimit: { windowMs: 60_000, max: 1000 },
+    uploadsAtOncePerUser: 1000,
+    uploadRateLimit: { windowMs: 60_000, max: 100_000 },
+    recomputeRateLimit: { windowMs: 60_000, max: 100_000 },
     ...overrides,
   };
 }

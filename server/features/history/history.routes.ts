@@ -16,6 +16,7 @@ import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { clearSessionCookie } from '../auth/sessions.service.ts';
+import { uploadGuards } from '../runs/upload-guards.ts';
 import { deleteAccount } from './account.service.ts';
 import { streamExport } from './export.service.ts';
 import { enqueueImport } from './import-queue.ts';
@@ -72,7 +73,8 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
       access: 'own-data',
       response: ImportCreatedSchema,
       status: 202,
-      before: [uploadArchive(config.dataDir, config.uploadMaxArchiveBytes)],
+      // Signed in, not too many uploads, storage left: settled before a byte of the archive is read.
+      before: [...uploadGuards(config, { checkStorage: true }), uploadArchive(config.dataDir, config.uploadMaxArchiveBytes)],
     },
     async (req, res) => {
       const file = req.file;

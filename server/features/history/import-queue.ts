@@ -60,6 +60,8 @@ export interface ImportWorkerOptions {
   databaseUrl?: string;
   /** How often an idle worker looks for jobs; pg-boss allows 0.5 s at least. */
   pollingIntervalSeconds?: number;
+  /** Original files a user may keep, bytes; no limit when absent. */
+  storageQuotaBytes?: number;
 }
 
 /**
@@ -76,6 +78,7 @@ export async function startImportWorker(store: FileStore, options: ImportWorkerO
     filesAtOnce: FILES_AT_ONCE,
     leaseSeconds: LEASE_SECONDS,
     shouldStop: () => stopping,
+    storageQuotaBytes: options.storageQuotaBytes,
   };
   for (let i = 0; i < IMPORTS_AT_ONCE; i++) {
     workerIds.push(

@@ -175,6 +175,8 @@ export interface ImportWorkDeps {
   leaseSeconds: number;
   /** True once the worker is asked to stop: finish the files in hand, start no more. */
   shouldStop: () => boolean;
+  /** Original files a user may keep, bytes (STORAGE_QUOTA_MB); files past it are refused. No limit when absent. */
+  storageQuotaBytes?: number;
 }
 
 const DAMAGED_ENTRY = 'This file is damaged inside the archive, so it could not be read.';
@@ -227,7 +229,7 @@ export async function processImport(importId: string, deps: ImportWorkDeps): Pro
   };
   const importOne = async (position: number, name: string, data: Buffer) => {
     try {
-      const result = await importFiles(user, [{ name, data }], deps.store);
+      const result = await importFiles(user, [{ name, data }], deps.store, { storageQuotaBytes: deps.storageQuotaBytes });
       await record(position, name, outcomeOf(result));
     } catch (err) {
       // Not the file's fault (the database went away, say): leave it open for the next attempt.

@@ -7,8 +7,10 @@ import {
   UpdatePlanInputSchema,
 } from '../../../shared/plans/schemas.ts';
 import { PaceToleranceSchema } from '../../../shared/users/schemas.ts';
+import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
-import { requireActor } from '../../lib/authorize.ts';
+import { authorize, requireActor } from '../../lib/authorize.ts';
+import { perUserRateLimit } from '../../lib/per-user-rate-limit.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import { PlanCheckAnswerSchema } from '../../../shared/plans/plan-check-answer.ts';
 import { planCheckToCsv } from '../../../shared/plans/plan-check-csv.ts';
@@ -34,7 +36,7 @@ const LinkPlanInputSchema = z
   .object({ plan_id: z.union([z.uuid({ error: 'Not a plan id.' }), z.null(), z.literal('auto')]) })
   .strict();
 
-export function createPlansRouter() {
+export function createPlansRouter(config: AppConfig) {
   const api = createApiRouter();
 
   api.route(
@@ -166,6 +168,15 @@ export function createPlansRouter() {
       access: 'own-data',
       body: z.object({ pace_tolerance: PaceToleranceSchema }).strict(),
       response: z.object({ pace_tolerance: z.number() }),
+      // Each change makes every stored plan check of the runner stale, to be recomputed on the next read.
+      before: [
+        authorize('own-data'),
+        perUserRateLimit({
+          ...config.recomputeRateLimit,
+          code: 'too-many-changes',
+          message: `The pace tolerance can be changed ${config.recomputeRateLimit.max} times in ${Math.round(config.recomputeRateLimit.windowMs / 60_000)} minutes, as every change rechecks all runs against their plans. Please try again later.`,
+        }),
+      ],
     },
     async (req, res) => {
       res.json({

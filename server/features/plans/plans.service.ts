@@ -1,23 +1,21 @@
 import { createHash } from 'node:crypto';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import { expandParts, resolveTargets } from '../../../shared/plans/expand.ts';
-import {
-  checkRunAgainstPlan,
-  DEFAULT_TOLERANCE,
-  type CheckedPart,
-  type PlanCheckResult,
-} from '../../../shared/plans/plan-check.ts';
+import { DEFAULT_TOLERANCE, type CheckedPart, type PlanCheckResult } from '../../../shared/plans/plan-check.ts';
 import { racePacesFor, type RaceTime } from '../../../shared/plans/race-paces.ts';
 import { firstPlanOfEachDay, planCheckInputsText, planOfRun } from '../../../shared/plans/run-plan-choice.ts';
 import type { CreatePlanInput, UpdatePlanInput } from '../../../shared/plans/schemas.ts';
 import { formatShorthand, normaliseItems, parseShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
+import { databaseUrlFromEnv } from '../../config.ts';
+import { DatabaseUnavailableError } from '../../lib/database-errors.ts';
 import { db, type GoalRaceRow, type RunRow, type SessionPlanRow, type UserRow } from '../../lib/db.ts';
 import { recordPlanChanges } from './plan-changes.service.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
-import { getReadableRun, loadRunSeriesAndLaps } from '../runs/runs.service.ts';
+import { computePlanCheckJob } from '../compute/compute-pool.ts';
+import { getReadableRun, loadRunLaps } from '../runs/runs.service.ts';
 import { assertCanPlanFor, assertCanReadRunner } from '../squads/runner-access.ts';
 import { findUsersByIds, updateUserProfile } from '../users/users.repository.ts';
 import { repBlocks } from '../../../shared/plans/rep-blocks.ts';
@@ -203,7 +201,7 @@ export async function loadRunnerCheckInputs(runnerIds: readonly string[]): Promi
 
 const UNPLANNED: PlanCheckResult = { method: 'planned amounts', parts: [], session_verdict: 'unplanned' };
 
-/** Runs whose stored track is decoded at the same time when their results have to be computed. */
+/** Runs whose stored track is read (and sent to a compute worker) at the same time when their results have to be computed. */
 const COMPUTE_BATCH = 4;
 
 function sha256(text: string): string {
@@ -261,11 +259,23 @@ export async function checkRuns(
   const stored = new Map((await findPlanCheckResults(pending.map((p) => p.run.id))).map((r) => [r.run_id, r]));
   const toCompute = pending.filter((p) => p.key === null || stored.get(p.run.id)?.inputs_key !== p.key);
   const computed = new Map<string, PlanCheckResult>();
+  const databaseUrl = databaseUrlFromEnv();
   for (let i = 0; i < toCompute.length; i += COMPUTE_BATCH) {
     await Promise.all(
       toCompute.slice(i, i + COMPUTE_BATCH).map(async (p) => {
-        const { series, laps } = await loadRunSeriesAndLaps(p.run);
-        computed.set(p.run.id, checkRunAgainstPlan(p.parts, series, laps, p.tolerance));
+        // Reading and decoding the stored track and checking it is CPU work: a compute worker does it, in the runner's turn.
+        const out = await computePlanCheckJob(p.run.user_id, {
+          parts: p.parts,
+          runId: p.run.id,
+          databaseUrl,
+          laps: await loadRunLaps(p.run),
+          tolerance: p.tolerance,
+        });
+        if (!out.ok) {
+          if (out.reason === 'database-unavailable') throw new DatabaseUnavailableError();
+          throw new NotFoundError('This run has no stored track.');
+        }
+        computed.set(p.run.id, out.result);
       }),
     );
   }

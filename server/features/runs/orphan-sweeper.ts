@@ -3,6 +3,7 @@ import path from 'node:path';
 import {
   importIdOfArchive,
   selectLeftoverArchives,
+  selectLeftoverUploads,
   selectOrphanOriginals,
   type StoredFileInfo,
 } from '../../../shared/runs/orphan-files.ts';
@@ -11,6 +12,7 @@ import type { FileStore } from '../../lib/storage.ts';
 import { findImportStatuses } from '../history/imports.repository.ts';
 import { importsDir } from '../history/imports.service.ts';
 import { findReferencedStorageKeys, withOriginalFilesExclusiveLock } from './original-files.repository.ts';
+import { uploadsTempDir } from './upload-to-disk.ts';
 
 /**
  * Removes files a crash left behind: an original stored by an upload whose transaction never
@@ -30,6 +32,7 @@ export interface SweepOptions {
 export interface SweepResult {
   originals: string[];
   archives: string[];
+  uploads: string[];
 }
 
 /** Stored originals are looked up this many at a time. */
@@ -105,17 +108,33 @@ async function sweepLeftoverArchives(options: SweepOptions, now: Date): Promise<
   return leftovers;
 }
 
-/** One sweep over the stored originals and DATA_DIR/imports; returns what it removed. */
+async function sweepLeftoverUploads(options: SweepOptions, now: Date): Promise<string[]> {
+  const dir = uploadsTempDir(options.dataDir);
+  const leftovers = selectLeftoverUploads(await listImportsDir(dir), now, options.graceSeconds);
+  for (const name of leftovers) {
+    await rm(path.join(dir, name), { force: true });
+    logger.warn({ file: path.join(dir, name) }, 'removed an upload a crash left behind');
+  }
+  return leftovers;
+}
+
+/** One sweep over the stored originals, DATA_DIR/imports and DATA_DIR/uploads; returns what it removed. */
 export async function sweepOrphans(options: SweepOptions): Promise<SweepResult> {
   // One "now" for the whole sweep: files written while it lists look new and are kept.
   const now = new Date();
   const originals = await sweepOrphanOriginals(options, now);
   const archives = options.shouldStop?.() ? [] : await sweepLeftoverArchives(options, now);
+  const uploads = options.shouldStop?.() ? [] : await sweepLeftoverUploads(options, now);
   logger.info(
-    { removedOriginals: originals.length, removedArchives: archives.length, graceSeconds: options.graceSeconds },
+    {
+      removedOriginals: originals.length,
+      removedArchives: archives.length,
+      removedUploads: uploads.length,
+      graceSeconds: options.graceSeconds,
+    },
     'orphan sweep finished',
   );
-  return { originals, archives };
+  return { originals, archives, uploads };
 }
 
 export interface OrphanSweeper {

@@ -173,6 +173,11 @@ export async function findSplits(runId: string, unit: 'mi' | 'km', trx: Db = db)
   return trx('run_splits').where({ run_id: runId, unit }).orderBy('split_index');
 }
 
+/** A run's device laps, in order. */
+export async function findRunLaps(runId: string, trx: Db = db): Promise<RunLapRow[]> {
+  return trx('run_laps').where({ run_id: runId }).orderBy('lap_index');
+}
+
 export async function findRunTrack(runId: string, trx: Db = db) {
   return trx('run_tracks').where({ run_id: runId }).first();
 }

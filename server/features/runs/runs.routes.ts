@@ -1,5 +1,3 @@
-import multer from 'multer';
-import type { RequestHandler } from 'express';
 import { z } from 'zod';
 import {
   ImportResultSchema,
@@ -10,12 +8,12 @@ import {
   RunListItemSchema,
   SplitsCsvQuerySchema,
   UploadRunsQuerySchema,
+  StorageUsageSchema,
   type ListRunsQuery,
 } from '../../../shared/runs/schemas.ts';
-import { formatFileSize } from '../../../shared/units.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
-import { AppError, BadRequestError } from '../../lib/errors.ts';
+import { BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import type { AppConfig } from '../../config.ts';
@@ -32,47 +30,14 @@ import {
   originalFileOf,
   renameOwnRun,
   splitsCsvOf,
+  storageOf,
   trackOf,
 } from './runs.service.ts';
+import { uploadGuards, type StorageLocals } from './upload-guards.ts';
+import { receiveUploads, receivedFiles, uploadsTempDir } from './upload-to-disk.ts';
 
 /** Files per upload request; a whole history goes through the bulk import instead. */
 const MAX_FILES_PER_UPLOAD = 20;
-
-/** multer with its errors turned into the JSON errors of api-contract.md (413 for sizes). */
-function uploadFiles(maxFileBytes: number): RequestHandler {
-  const UPLOAD_LIMITS = { fileSizeBytes: maxFileBytes, files: MAX_FILES_PER_UPLOAD };
-  const upload = multer({
-    storage: multer.memoryStorage(),
-    limits: { fileSize: UPLOAD_LIMITS.fileSizeBytes, files: UPLOAD_LIMITS.files, fields: 10, parts: UPLOAD_LIMITS.files + 10 },
-  }).array('files', UPLOAD_LIMITS.files);
-  return (req, res, next) => {
-    upload(req, res, (err: unknown) => {
-      if (!err) return next();
-      if (err instanceof multer.MulterError) {
-        if (err.code === 'LIMIT_FILE_SIZE')
-          return next(
-            new AppError(
-              413,
-              'too-large',
-              `Each file can be at most ${formatFileSize(UPLOAD_LIMITS.fileSizeBytes)}. Compress it as .gpx.gz or .tcx.gz, or split it.`,
-            ),
-          );
-        if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_PART_COUNT')
-          return next(
-            new AppError(
-              413,
-              'too-many-files',
-              `Upload at most ${UPLOAD_LIMITS.files} files at once; for a whole history use the bulk import.`,
-            ),
-          );
-        if (err.code === 'LIMIT_UNEXPECTED_FILE')
-          return next(new BadRequestError('Send the files in form fields named "files".'));
-        return next(new BadRequestError('The upload could not be read. Please try again.'));
-      }
-      next(new BadRequestError('The upload could not be read. Please send the files as multipart/form-data.'));
-    });
-  };
-}
 
 export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Mailer) {
   const api = createApiRouter();
@@ -88,24 +53,47 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       query: UploadRunsQuerySchema,
       response: ImportResultSchema,
       status: 201,
-      before: [uploadFiles(config.uploadMaxFileBytes)],
+      // Who is asking, and whether they may upload now, is settled before a byte of the body is read.
+      before: [
+        ...uploadGuards(config, { checkStorage: true }),
+        receiveUploads({
+          tempDir: uploadsTempDir(config.dataDir),
+          maxFileBytes: config.uploadMaxFileBytes,
+          maxRequestBytes: config.uploadMaxRequestBytes,
+          maxFiles: MAX_FILES_PER_UPLOAD,
+          storageLeft: (req) => (req.res?.locals as StorageLocals | undefined)?.storage,
+        }),
+      ],
     },
     async (req, res) => {
-      const files = ((req.files as Express.Multer.File[] | undefined) ?? []).map((f) => ({
-        // multer decodes names as latin1; browsers send UTF-8.
-        name: Buffer.from(f.originalname, 'latin1').toString('utf8'),
-        data: f.buffer,
-      }));
+      const files = receivedFiles(req);
       if (files.length === 0) throw new BadRequestError('Choose at least one .gpx or .tcx file to upload.', 'no-files');
       const actor = requireActor(res);
       const { duplicates } = res.locals.query as z.infer<typeof UploadRunsQuerySchema>;
-      const result = await importFiles(actor, files, store, { importDuplicates: duplicates === 'import' });
+      const result = await importFiles(actor, files, store, {
+        storageQuotaBytes: config.storageQuotaBytes,
+        importDuplicates: duplicates === 'import',
+      });
       // The coaches hear of it once per upload batch (the page sends a request per file): queued, not sent here.
       await recordUploadNotice(
         actor.id,
         result.imported.map((r) => r.id),
       ).catch((err: unknown) => logger.error({ err }, 'recording an upload notice failed'));
       res.status(result.imported.length > 0 ? 201 : 422).json(result);
+    },
+  );
+
+  api.route(
+    {
+      method: 'get',
+      path: '/me/storage',
+      tag: 'runs',
+      summary: 'Storage used by your original files against your quota (STORAGE_QUOTA_MB)',
+      access: 'own-data',
+      response: StorageUsageSchema,
+    },
+    async (_req, res) => {
+      res.json(await storageOf(requireActor(res), config.storageQuotaBytes));
     },
   );
 

@@ -1,27 +1,22 @@
-import { createHash } from 'node:crypto';
-import tzLookup from '@photostructure/tz-lookup';
 import { runFileName } from '../../../shared/runs/file-names.ts';
-import { analyseTrack, type RunAnalysis } from '../../../shared/tracks/analyse.ts';
-import { lapCoverageProblem } from '../../../shared/tracks/lap-coverage.ts';
-import { localDateTime } from '../../../shared/runs/local-time.ts';
-import { estimateRunEnergy } from '../../../shared/tracks/energy.ts';
-import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.ts';
-import { seriesPositions } from '../../../shared/tracks/series.ts';
-import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
 import { METRES_PER_MILE } from '../../../shared/units.ts';
-import type { Actor } from '../../../shared/auth/permissions.ts';
-import { DistanceReportSchema, type ImportResult, type ListRunsQuery } from '../../../shared/runs/schemas.ts';
-import { activityKindOf, type ActivityKind } from '../../../shared/runs/activity-kind.ts';
+import type { ActivityKind } from '../../../shared/runs/activity-kind.ts';
 import { isSameRun, SAME_RUN_START_S } from '../../../shared/runs/duplicates.ts';
 import { originalContentType } from '../../../shared/runs/original-download.ts';
+import { webcrypto } from 'node:crypto';
+import { readFile } from 'node:fs/promises';
+import type { Actor } from '../../../shared/auth/permissions.ts';
+import type { ImportResult, ListRunsQuery, StorageUsage } from '../../../shared/runs/schemas.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
+import { overQuotaReason } from '../../../shared/runs/upload-limits.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
 import { db, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
+import { ComputeBusyError, ComputeCrashError, ComputeTimeoutError, computeImportJob } from '../compute/compute-pool.ts';
 import { assertCanReadRunner } from '../squads/runner-access.ts';
-import { decodeColumns, encodeColumns } from './track-blob.ts';
+import { decodeColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
 import { findReadNoteIds } from '../notes/notes.repository.ts';
 import { recordNoteNotice, type NoticeDeps } from '../notices/notices.service.ts';
@@ -30,13 +25,12 @@ import {
   holdOriginalFilesSharedLock,
   withOriginalFilesExclusiveLock,
 } from './original-files.repository.ts';
-import { ImportRejection } from './parse/import-rejection.ts';
-import { parseTrackFile, type ParsedRun } from './parse/parse-track-file.ts';
+import { runOwnerProfile, type RunRecord } from './run-record.ts';
 import {
   deleteRunAndOrphanFile,
   findFirstRunOfSourceFile,
   findRunById,
-  findRunParts,
+  findRunLaps,
   findRunTrack,
   findRunWithParts,
   findRunsStartingNear,
@@ -50,165 +44,85 @@ import {
   renameRun,
   toRunListItem,
 } from './runs.repository.ts';
-
-export interface UploadedFile {
-  name: string;
-  data: Buffer;
-}
-
-/** Time zone of the run's first position (tz-lookup), else the runner's profile time zone. */
-function timeZoneOf(parsed: ParsedRun, fallback: string): { zone: string; source: 'start position' | 'profile' } {
-  const { lat, lon, length } = parsed.track.columns;
-  let first = 0;
-  while (first < length && Number.isNaN(lat[first])) first++;
-  if (first < length) {
-    try {
-      const zone = tzLookup(lat[first]!, lon[first]!);
-      // Open sea answers a nautical Etc/GMT±N zone; the runner's own zone is a better guess there.
-      if (!zone.startsWith('Etc/')) return { zone, source: 'start position' };
-    } catch {
-      // Out-of-range positions were already dropped; keep the profile zone if the lookup still fails.
-    }
-  }
-  return { zone: fallback, source: 'profile' };
-}
-
-/**
- * Figures that depend on the profile at import time (heart rates, weight): time in heart-rate zones
- * and the ACSM energy estimate. Stored with the inputs used, so the run page can say what they came from.
- */
-function profileDependentFigures(user: UserRow, analysis: RunAnalysis) {
-  const { series, summary } = analysis;
-  const zones = heartRateZones(user.max_hr, user.resting_hr);
-  const energy = estimateRunEnergy(summary.distance_m, summary.moving_s, user.weight_kg);
-  const trimp =
-    series.hr && user.resting_hr !== null && user.max_hr !== null
-      ? trimpOfSeries(series.t, series.hr, series.moving, user.resting_hr, user.max_hr, user.sex)
-      : null;
-  return {
-    trimp: trimp
-      ? {
-          ...trimp,
-          resting_hr: user.resting_hr,
-          max_hr: user.max_hr,
-          method: 'Banister TRIMP, summed interval by interval over moving time',
-        }
-      : null,
-    hr_zones:
-      zones && series.hr
-        ? {
-            method: zones.method,
-            max_hr: user.max_hr,
-            resting_hr: user.resting_hr,
-            zones: zones.zones,
-            seconds: timeInZones(series.t, series.hr, series.moving, zones.zones),
-          }
-        : null,
-    energy: energy ? { ...energy, weight_kg: user.weight_kg, method: 'ACSM running equation, level, 5 kcal per litre O2' } : null,
-  };
-}
-
-function buildRunRecord(user: UserRow, sourceFileId: string, parsed: ParsedRun, analysis: RunAnalysis) {
-  const { summary, series } = analysis;
-  const tz = timeZoneOf(parsed, user.time_zone);
-  const local = localDateTime(summary.started_at_t, tz.zone);
-  const run: Omit<RunRow, 'id' | 'created_at'> = {
-    user_id: user.id,
-    source_file_id: sourceFileId,
-    activity_index: parsed.activity_index,
-    name: parsed.name?.trim().slice(0, 120) || `Run ${local.date} ${local.time}`,
-    sport: parsed.sport,
-    activity_kind: activityKindOf(parsed.sport, summary),
-    started_at: new Date(summary.started_at_t),
-    ended_at: new Date(summary.ended_at_t),
-    local_date: local.date,
-    local_time: local.time,
-    time_zone: tz.zone,
-    time_zone_source: tz.source,
-    distance_m: summary.distance_m,
-    distance_source: summary.distance_source,
-    elapsed_s: summary.elapsed_s,
-    moving_s: summary.moving_s,
-    ascent_m: summary.ascent_m,
-    descent_m: summary.descent_m,
-    avg_hr: summary.avg_hr,
-    max_hr: summary.max_hr,
-    avg_cad: summary.avg_cad,
-    points: summary.points,
-    segments: summary.segments,
-    details: {
-      cleaning: parsed.track.report,
-      format: parsed.format,
-      distance: DistanceReportSchema.parse(summary.distance_report),
-      ...profileDependentFigures(user, analysis),
-    },
-  };
-  const { lat, lon } = seriesPositions(parsed.track, series);
-  const columns: Record<string, Float64Array> = { t: series.t, d: series.d, lat, lon };
-  if (series.ele_smooth) columns.ele = series.ele_smooth;
-  if (series.hr) columns.hr = series.hr;
-  if (series.cad) columns.cad = series.cad;
-  columns.moving = Float64Array.from(series.moving);
-  const blob = encodeColumns(columns);
-  const toSplitRow = (s: Split): Omit<RunSplitRow, 'run_id'> => ({
-    unit: s.unit,
-    split_index: s.index,
-    distance_m: s.distance_m,
-    start_at: new Date(s.start_t),
-    end_at: new Date(s.end_t),
-    elapsed_s: s.elapsed_s,
-    moving_s: s.moving_s,
-    pace_s: s.pace_s,
-    flat_pace_s: s.flat_pace_s,
-    avg_hr: s.avg_hr,
-    max_hr: s.max_hr,
-    avg_cad: s.avg_cad,
-    elev_gain_m: s.elev_gain_m,
-    elev_loss_m: s.elev_loss_m,
-  });
-  return {
-    run,
-    children: {
-      track: { columns: blob.columns, point_count: blob.pointCount, data: blob.data },
-      splits: [...analysis.splits.mi, ...analysis.splits.km].map(toSplitRow),
-      laps: parsed.laps.map((l, i) => ({
-        lap_index: i + 1,
-        start_at: new Date(l.start_t),
-        total_time_s: l.total_time_s,
-        distance_m: l.distance_m,
-        avg_hr: l.avg_hr,
-        max_hr: l.max_hr,
-      })),
-      fastest: analysis.fastest.map((f) => ({
-        distance_m: f.distance_m,
-        time_s: f.time_s,
-        pace_s_per_km: f.pace_s_per_km,
-        start_at: new Date(f.start_t),
-        end_at: new Date(f.end_t),
-        start_distance_m: f.start_distance_m,
-      })),
-    },
-  };
-}
+import { lockStorageOf, storageUsedBy } from './storage-quota.repository.ts';
 
 const GENERIC_REJECTION =
   'This file could not be read as a GPS track. If it came from a watch, please send it to us so we can look.';
 
 /**
- * Imports uploaded files for `user`: each file is parsed, computed and stored in its own transaction
- * (the run rows and the original file together), so a file is imported whole or not at all.
- * A file whose content was uploaded before is reported as a duplicate of the existing run.
+ * A file to import: bytes in memory (an archive entry, a script) or a streamed upload waiting on
+ * disk with the SHA-256 taken while it arrived.
+ */
+export type UploadedFile = { name: string; data: Buffer } | { name: string; path: string; size: number; sha256: string };
+
+export interface ImportOptions {
+  /** Original files the user may keep, bytes; a file that does not fit is refused. No limit when absent. */
+  storageQuotaBytes?: number;
+  /** Import activities that match a stored run anyway (`?duplicates=import`). */
+  importDuplicates?: boolean;
+}
+
+async function sha256Of(file: UploadedFile): Promise<string> {
+  if ('sha256' in file) return file.sha256;
+  // WebCrypto hashes on libuv's thread pool: a 60 MB entry never holds up the event loop.
+  return Buffer.from(await webcrypto.subtle.digest('SHA-256', file.data)).toString('hex');
+}
+
+const sizeOf = (file: UploadedFile) => ('data' in file ? file.data.length : file.size);
+
+/** Parsing and analysis in a compute worker; a rejection of the file comes back as a sentence. */
+async function computeRuns(
+  user: UserRow,
+  file: UploadedFile,
+): Promise<{ ok: true; format: string; records: RunRecord[] } | { ok: false; error: string }> {
+  try {
+    const out = await computeImportJob(user.id, {
+      source: 'data' in file ? { data: file.data } : { path: file.path },
+      owner: runOwnerProfile(user),
+    });
+    return out.ok ? out : { ok: false, error: out.message };
+  } catch (err) {
+    if (err instanceof ComputeBusyError) throw err;
+    if (err instanceof ComputeTimeoutError) {
+      return {
+        ok: false,
+        error: `Reading this file took longer than ${Math.round(err.limitMs / 1000)} seconds, more than one run may take. Split it into single runs and upload those.`,
+      };
+    }
+    if (err instanceof ComputeCrashError) {
+      return {
+        ok: false,
+        error: 'Reading this file needed more memory than one run may use. Split it into single runs and upload those.',
+      };
+    }
+    logger.warn({ err, file: file.name }, 'import failed unexpectedly');
+    return { ok: false, error: GENERIC_REJECTION };
+  }
+}
+
+/** A file that does not fit in the user's storage quota (checked under the user's storage lock). */
+class OverQuota extends Error {
+  constructor(readonly used: number) {
+    super('over quota');
+  }
+}
+
+/**
+ * Imports uploaded files for `user`: each file is parsed and analysed in a compute worker, then
+ * stored in its own transaction (the run rows and the original file together), so a file is
+ * imported whole or not at all. A file whose content was uploaded before is reported as a
+ * duplicate of the existing run; one that would pass the storage quota is refused.
  */
 export async function importFiles(
   user: UserRow,
   files: UploadedFile[],
   store: FileStore,
-  options: { importDuplicates?: boolean } = {},
+  options: ImportOptions = {},
 ): Promise<ImportResult> {
   const result: ImportResult = { imported: [], duplicates: [], rejected: [] };
   const sameFile = (file: string, runId: string) => ({ file, runId, reason: 'same file' as const, activity: null });
   for (const file of files) {
-    const sha256 = createHash('sha256').update(file.data).digest('hex');
+    const sha256 = await sha256Of(file);
     const existing = await findSourceFileBySha(user.id, sha256);
     // Activities of this very file already stored; with "import anyway" the others still come in
     // (a multi-activity file whose one activity matched a run from another file).
@@ -221,26 +135,17 @@ export async function importFiles(
       }
       for (const index of await findActivityIndexesOfSourceFile(existing.id)) present.add(index);
     }
-    let parsed: ParsedRun[];
-    let analyses: RunAnalysis[];
-    try {
-      parsed = parseTrackFile(file.data);
-      analyses = parsed.map((p) => analyseTrack(p.track));
-      // A track that cannot be what its own laps record is refused whole: nothing half-imported.
-      parsed.forEach((p, i) => {
-        const problem = lapCoverageProblem(analyses[i]!.summary, p.laps, p.track.report);
-        if (problem) throw new ImportRejection('track-not-laps', parsed.length > 1 ? `Activity ${i + 1}: ${problem}` : problem);
-      });
-    } catch (err) {
-      if (!(err instanceof ImportRejection)) logger.warn({ err, file: file.name }, 'import failed unexpectedly');
-      result.rejected.push({ file: file.name, error: err instanceof ImportRejection ? err.message : GENERIC_REJECTION });
+    const computed = await computeRuns(user, file);
+    if (!computed.ok) {
+      result.rejected.push({ file: file.name, error: computed.error });
       continue;
     }
+    const records = computed.records;
     // The same run in another file: each activity on its own (start within 5 s, distance within 2 %).
-    const keep: number[] = [];
-    for (let i = 0; i < parsed.length; i++) {
-      if (present.has(parsed[i]!.activity_index)) continue;
-      const mine = { started_at_t: analyses[i]!.summary.started_at_t, distance_m: analyses[i]!.summary.distance_m };
+    const keep: RunRecord[] = [];
+    for (const [i, record] of records.entries()) {
+      if (present.has(record.run.activity_index)) continue;
+      const mine = { started_at_t: new Date(record.run.started_at).getTime(), distance_m: record.run.distance_m };
       const stored = options.importDuplicates
         ? undefined
         : (await findRunsStartingNear(user.id, mine.started_at_t, SAME_RUN_START_S * 1000)).find((r) =>
@@ -251,9 +156,9 @@ export async function importFiles(
           file: file.name,
           runId: stored.id,
           reason: 'same run',
-          activity: parsed.length > 1 ? i + 1 : null,
+          activity: records.length > 1 ? i + 1 : null,
         });
-      else keep.push(i);
+      else keep.push(record);
     }
     if (keep.length === 0) {
       // With "import anyway", only activities of this very file already stored are left out.
@@ -263,41 +168,57 @@ export async function importFiles(
       }
       continue;
     }
+    const size = sizeOf(file);
     const storageKey = existing?.storage_key ?? `${user.id}/${sha256}`;
+    // The track blob crossed from the worker as a Uint8Array.
+    const insertRecord = (record: RunRecord, sourceFileId: string, trx: Parameters<typeof insertRunWhole>[2]) => {
+      const track = record.children.track;
+      return insertRunWhole(
+        { ...record.run, source_file_id: sourceFileId },
+        {
+          ...record.children,
+          track: { ...track, data: Buffer.from(track.data.buffer, track.data.byteOffset, track.data.byteLength) },
+        },
+        trx,
+      );
+    };
     try {
       const rows = await db.transaction(async (trx) => {
         const inserted: RunRow[] = [];
         if (existing) {
-          // The original is stored already and referenced by its other runs.
-          for (const i of keep) {
-            const record = buildRunRecord(user, existing.id, parsed[i]!, analyses[i]!);
-            inserted.push(await insertRunWhole(record.run, record.children, trx));
-          }
+          // The original is stored already and referenced by its other runs: no new storage is used.
+          for (const record of keep) inserted.push(await insertRecord(record, existing.id, trx));
           return inserted;
+        }
+        if (options.storageQuotaBytes !== undefined) {
+          await lockStorageOf(user.id, trx);
+          const used = (await storageUsedBy(user.id, trx)).bytes;
+          if (used + size > options.storageQuotaBytes) throw new OverQuota(used);
         }
         const source = await insertSourceFile(
           {
             user_id: user.id,
             original_name: file.name.slice(0, 255),
             sha256,
-            size_bytes: String(file.data.length),
+            size_bytes: String(size),
             storage_key: storageKey,
-            format: parsed[0]!.format,
+            format: computed.format,
           },
           trx,
         );
-        for (const i of keep) {
-          const record = buildRunRecord(user, source.id, parsed[i]!, analyses[i]!);
-          inserted.push(await insertRunWhole(record.run, record.children, trx));
-        }
+        for (const record of keep) inserted.push(await insertRecord(record, source.id, trx));
         // Last step inside the transaction: if storing the original fails, no row is committed.
         // The shared lock keeps the orphan sweeper off this file until the rows are committed.
         await holdOriginalFilesSharedLock(trx);
-        await store.put(storageKey, file.data);
+        await store.put(storageKey, 'data' in file ? file.data : await readFile(file.path));
         return inserted;
       });
       result.imported.push(...rows.map((r) => ({ ...toRunListItem(r), file: file.name })));
     } catch (err) {
+      if (err instanceof OverQuota) {
+        result.rejected.push({ file: file.name, error: overQuotaReason(err.used, size, options.storageQuotaBytes!) });
+        continue;
+      }
       if (isUniqueViolation(err)) {
         const again = await findSourceFileBySha(user.id, sha256);
         const run = again && (await findFirstRunOfSourceFile(again.id));
@@ -314,6 +235,12 @@ export async function importFiles(
     }
   }
   return result;
+}
+
+/** The storage a user keeps and may keep, for the profile. */
+export async function storageOf(actor: Actor, quotaBytes: number): Promise<StorageUsage> {
+  const used = await storageUsedBy(actor.id);
+  return { used_bytes: used.bytes, quota_bytes: quotaBytes, files: used.files };
 }
 
 /** The run if `actor` may read it; 404 otherwise (also for ids of other people's runs). */
@@ -493,14 +420,8 @@ export async function addNote(actor: Actor, runId: string, text: string, concern
   return note;
 }
 
-/** The stored series and device laps of a run the caller has already been allowed to read. */
-export async function loadRunSeriesAndLaps(run: Pick<RunRow, 'id'>) {
-  const row = await findRunTrack(run.id);
-  if (!row) throw new NotFoundError('This run has no stored track.');
-  const columns = decodeColumns(row.columns, row.point_count, row.data);
-  const { laps } = await findRunParts(run.id);
-  return {
-    series: { t: columns.t!, d: columns.d!, hr: columns.hr ?? null, moving: columns.moving ?? null },
-    laps: laps.map((l) => ({ start_t: l.start_at.getTime(), total_time_s: l.total_time_s, distance_m: l.distance_m })),
-  };
+/** The device laps of a run the caller has already been allowed to read, as the plan check reads them. */
+export async function loadRunLaps(run: Pick<RunRow, 'id'>) {
+  const laps = await findRunLaps(run.id);
+  return laps.map((l) => ({ start_t: l.start_at.getTime(), total_time_s: l.total_time_s, distance_m: l.distance_m }));
 }

@@ -1,3 +1,4 @@
+import { tinyTrackShareReason, tooLongReason, tooManyPointsReason } from '../../../../shared/runs/upload-limits.ts';
 import { cleanPoints } from '../../../../shared/tracks/clean.ts';
 import type { CleanTrack, DeviceLap, RawTrack } from '../../../../shared/tracks/types.ts';
 import { decodeXml, detectFormat, gunzipIfNeeded, rejectBinary, type TrackFormat } from './detect.ts';
@@ -32,8 +33,14 @@ export function parseTrackFile(input: Buffer): ParsedRun[] {
   rejectBinary(buffer);
   const text = decodeXml(buffer);
   const format = detectFormat(text);
+  // Counted before reading, so a file of a million points is refused in a fraction of its reading time.
+  const tooMany = tooManyPointsReason(countTrackPointTags(text, format));
+  if (tooMany) throw new ImportRejection('too-many-points', tooMany);
   try {
-    return format === 'gpx' ? runsFromGpx(text) : runsFromTcx(text);
+    const { runs, points } = format === 'gpx' ? runsFromGpx(text) : runsFromTcx(text);
+    const tiny = tinyTrackShareReason(buffer.length, points);
+    if (tiny) throw new ImportRejection('tiny-track-share', tiny);
+    return runs;
   } catch (error) {
     if (error instanceof XmlReadError) {
       throw new ImportRejection(
@@ -45,7 +52,25 @@ export function parseTrackFile(input: Buffer): ParsedRun[] {
   }
 }
 
-function runsFromGpx(text: string): ParsedRun[] {
+/**
+ * Opening tags of track points (`<trkpt`, `<Trackpoint`, with any namespace prefix), found with
+ * indexOf: an upper bound of the points the reader will collect (comments are counted too).
+ */
+export function countTrackPointTags(text: string, format: TrackFormat): number {
+  const tag = format === 'gpx' ? 'trkpt' : 'Trackpoint';
+  let count = 0;
+  for (let at = text.indexOf(tag); at !== -1; at = text.indexOf(tag, at + tag.length)) {
+    const before = text.charCodeAt(at - 1);
+    const after = text.charCodeAt(at + tag.length);
+    // `<trkpt ` or `<ns:trkpt>`, never `</trkpt>` or a longer name such as `<trkpts`.
+    const opens = before === 0x3c /* < */ || (before === 0x3a /* : */ && text.lastIndexOf('<', at) > text.lastIndexOf('/', at));
+    if (opens && (after === 0x20 || after === 0x3e || after === 0x09 || after === 0x0a || after === 0x0d || after === 0x2f))
+      count++;
+  }
+  return count;
+}
+
+function runsFromGpx(text: string): { runs: ParsedRun[]; points: number } {
   const contents = readGpx(text);
   if (contents.track.points.length === 0) {
     if (contents.tracks === 0 && (contents.waypoints > 0 || contents.routePoints > 0)) {
@@ -53,10 +78,10 @@ function runsFromGpx(text: string): ParsedRun[] {
     }
     throw new ImportRejection('empty-track', "This file's track is empty.");
   }
-  return [toRun(contents.track, 0)];
+  return { runs: [toRun(contents.track, 0)], points: contents.track.points.length };
 }
 
-function runsFromTcx(text: string): ParsedRun[] {
+function runsFromTcx(text: string): { runs: ParsedRun[]; points: number } {
   const contents = readTcx(text);
   if (contents.activities.length === 0) {
     if (contents.courses > 0) {
@@ -75,12 +100,14 @@ function runsFromTcx(text: string): ParsedRun[] {
     }
   });
   if (runs.length === 0 && firstRejection) throw firstRejection;
-  return runs;
+  return { runs, points: contents.activities.reduce((sum, a) => sum + a.points.length, 0) };
 }
 
 function toRun(raw: RawTrack, index: number): ParsedRun {
   const total = raw.points.length;
   if (total === 0) throw new ImportRejection('empty-track', "This file's track is empty.");
+  const tooMany = tooManyPointsReason(total);
+  if (tooMany) throw new ImportRejection('too-many-points', tooMany);
   const track = cleanPoints(raw.points, raw.segment_starts);
   const { report } = track;
   if (report.dropped_untimed === total) {
@@ -98,5 +125,8 @@ function toRun(raw: RawTrack, index: number): ParsedRun {
   if (track.columns.length === 1) {
     throw new ImportRejection('single-point', "This file's track has a single point, so there is no distance or time to split.");
   }
+  const times = track.columns.t;
+  const tooLong = tooLongReason((times[track.columns.length - 1]! - times[0]!) / 1000);
+  if (tooLong) throw new ImportRejection('too-long', tooLong);
   return { format: raw.format, activity_index: index, name: raw.name, sport: raw.sport, track, laps: raw.laps };
 }

@@ -1,0 +1,99 @@
+import { readFile } from 'node:fs/promises';
+import { Readable } from 'node:stream';
+import { createGunzip } from 'node:zlib';
+import { MAX_TRACK_POINTS, tooManyPointsReason } from '../../../shared/runs/upload-limits.ts';
+import { analyseTrack } from '../../../shared/tracks/analyse.ts';
+import { lapCoverageProblem } from '../../../shared/tracks/lap-coverage.ts';
+import { MAX_DOCUMENT_BYTES, type TrackFormat } from './parse/detect.ts';
+import { ImportRejection } from './parse/import-rejection.ts';
+import { parseTrackFile } from './parse/parse-track-file.ts';
+import { buildRunRecord, type RunOwnerProfile, type RunRecord } from './run-record.ts';
+
+/** One file to turn into runs: a file on disk (a streamed upload) or bytes (an archive entry). */
+export interface ImportComputeInput {
+  source: { path: string } | { data: Uint8Array };
+  owner: RunOwnerProfile;
+}
+
+export type ImportComputeOutput =
+  { ok: true; format: TrackFormat; records: RunRecord[] } | { ok: false; code: string; message: string };
+
+const POINT_TAGS = [Buffer.from('<trkpt'), Buffer.from('<Trackpoint')];
+/** Bytes a tag may straddle between two chunks. */
+const OVERLAP = 16;
+
+function countOpeningTags(chunk: Buffer): number {
+  let count = 0;
+  for (const tag of POINT_TAGS) {
+    for (let at = chunk.indexOf(tag); at !== -1; at = chunk.indexOf(tag, at + tag.length)) {
+      const after = chunk[at + tag.length];
+      // `<trkpt ` or `<trkpt>`, never a longer name.
+      if (after === 0x20 || after === 0x3e || after === 0x2f || after === 0x09 || after === 0x0a || after === 0x0d) count++;
+    }
+  }
+  return count;
+}
+
+/**
+ * True once the (possibly gzip-compressed) file shows more than MAX_TRACK_POINTS point tags,
+ * found while it is decompressed a chunk at a time: a file of a million points is refused after
+ * reading a fraction of it, never decompressed whole. Unprefixed tags only, so it never over-counts;
+ * the parser counts again, exactly, for whatever passes here.
+ */
+async function showsTooManyPoints(data: Buffer): Promise<boolean> {
+  const gzipped = data[0] === 0x1f && data[1] === 0x8b;
+  const chunks: AsyncIterable<Buffer> = gzipped
+    ? Readable.from([data]).pipe(createGunzip({ chunkSize: 1024 * 1024 }))
+    : Readable.from([data]);
+  let count = 0;
+  let tail = Buffer.alloc(0);
+  let read = 0;
+  try {
+    for await (const chunk of chunks) {
+      read += chunk.length;
+      const window = Buffer.concat([tail, chunk]);
+      // Tags wholly inside the overlap were counted with the previous chunk.
+      count += countOpeningTags(window) - countOpeningTags(tail);
+      if (count > MAX_TRACK_POINTS) return true;
+      if (read > MAX_DOCUMENT_BYTES) return false; // the parser refuses it for its size
+      tail = window.subarray(Math.max(0, window.length - OVERLAP));
+    }
+  } catch {
+    return false; // a damaged gzip stream: the parser says so in words
+  }
+  return false;
+}
+
+/**
+ * Reads, parses, checks the limits of (shared/runs/upload-limits.ts), analyses and builds the rows
+ * of one file. The CPU-heavy half of an import: it runs in a compute worker, never on the event loop.
+ * A file that cannot become a run answers `ok: false` with a sentence (an ImportRejection does not
+ * survive the trip between threads as its own class).
+ */
+export async function computeImport(input: ImportComputeInput): Promise<ImportComputeOutput> {
+  const { source } = input;
+  const data =
+    'path' in source
+      ? await readFile(source.path)
+      : Buffer.from(source.data.buffer, source.data.byteOffset, source.data.byteLength);
+  if (await showsTooManyPoints(data)) {
+    return { ok: false, code: 'too-many-points', message: tooManyPointsReason(MAX_TRACK_POINTS + 1)! };
+  }
+  try {
+    const parsed = parseTrackFile(data);
+    const analyses = parsed.map((p) => analyseTrack(p.track));
+    // A track that cannot be what its own laps record is refused whole: nothing half-imported.
+    parsed.forEach((p, i) => {
+      const problem = lapCoverageProblem(analyses[i]!.summary, p.laps, p.track.report);
+      if (problem) throw new ImportRejection('track-not-laps', parsed.length > 1 ? `Activity ${i + 1}: ${problem}` : problem);
+    });
+    return {
+      ok: true,
+      format: parsed[0]!.format,
+      records: parsed.map((p, i) => buildRunRecord(input.owner, p, analyses[i]!)),
+    };
+  } catch (err) {
+    if (err instanceof ImportRejection) return { ok: false, code: err.code, message: err.message };
+    throw err;
+  }
+}

@@ -1,0 +1,164 @@
+import { createHash, randomUUID } from 'node:crypto';
+import { createWriteStream } from 'node:fs';
+import { mkdir, rm } from 'node:fs/promises';
+import path from 'node:path';
+import { Transform } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import type { Request, RequestHandler } from 'express';
+import multer, { type StorageEngine } from 'multer';
+import { storageFullReason } from '../../../shared/runs/upload-limits.ts';
+import { formatFileSize } from '../../../shared/units.ts';
+import { AppError, BadRequestError } from '../../lib/errors.ts';
+import { logger } from '../../lib/logger.ts';
+
+/** An uploaded file as it waits on disk for the import: where, how big, and its SHA-256 (taken while it arrived). */
+export interface ReceivedFile {
+  name: string;
+  path: string;
+  size: number;
+  sha256: string;
+}
+
+/** Where uploads wait while their request is handled: `DATA_DIR/uploads/upload-<uuid>.part`. */
+export function uploadsTempDir(dataDir: string): string {
+  return path.join(dataDir, 'uploads');
+}
+
+export interface ReceiveLimits {
+  tempDir: string;
+  maxFileBytes: number;
+  maxRequestBytes: number;
+  maxFiles: number;
+  /** Bytes this user may still store (quota minus what they keep), read before the body. */
+  storageLeft: (req: Request) => { left: number; used: number; quota: number } | undefined;
+}
+
+const RECEIVED = Symbol('received bytes');
+type CountedRequest = Request & { [RECEIVED]?: number };
+
+export class RequestTooLargeError extends AppError {
+  constructor(maxBytes: number) {
+    super(
+      413,
+      'too-large',
+      `One upload can carry at most ${formatFileSize(maxBytes)} of files. Send fewer files at a time, or compress them as .gpx.gz or .tcx.gz.`,
+    );
+  }
+}
+
+export class StorageFullError extends AppError {
+  constructor(usedBytes: number, quotaBytes: number) {
+    super(413, 'storage-full', storageFullReason(usedBytes, quotaBytes), { used_bytes: usedBytes, quota_bytes: quotaBytes });
+  }
+}
+
+/**
+ * A multer storage engine that streams each file to a temporary file, counting the request's bytes
+ * (and the user's storage left) as they arrive and hashing them on the way, so nothing of an upload
+ * is ever held in memory whole. A limit crossed stops the upload there; multer removes what was written.
+ */
+function diskWithLimits(limits: ReceiveLimits): StorageEngine {
+  return {
+    _handleFile(req, file, callback) {
+      const counted = req as CountedRequest;
+      const target = path.join(limits.tempDir, `upload-${randomUUID()}.part`);
+      const hash = createHash('sha256');
+      const storage = limits.storageLeft(req);
+      let size = 0;
+      const counter = new Transform({
+        transform(chunk: Buffer, _encoding, done) {
+          size += chunk.length;
+          counted[RECEIVED] = (counted[RECEIVED] ?? 0) + chunk.length;
+          if (counted[RECEIVED] > limits.maxRequestBytes) return done(new RequestTooLargeError(limits.maxRequestBytes));
+          if (storage && counted[RECEIVED] > storage.left) return done(new StorageFullError(storage.used, storage.quota));
+          hash.update(chunk);
+          done(null, chunk);
+        },
+      });
+      mkdir(limits.tempDir, { recursive: true })
+        .then(() => pipeline(file.stream, counter, createWriteStream(target)))
+        .then(
+          () => callback(null, { path: target, size, sha256: hash.digest('hex') } as Partial<Express.Multer.File>),
+          async (err: unknown) => {
+            await rm(target, { force: true });
+            // The rest of this part is read and dropped by busboy; multer then drains the request.
+            file.stream.resume();
+            callback(err as Error);
+          },
+        );
+    },
+    _removeFile(_req, file, callback) {
+      rm(file.path, { force: true }).then(
+        () => callback(null),
+        (err: Error) => callback(err),
+      );
+    },
+  };
+}
+
+/** Removes a request's temporary files once its answer has gone (or the client went away). */
+function removeWhenDone(req: Request, res: Parameters<RequestHandler>[1]): void {
+  res.once('close', () => {
+    const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+    for (const file of files) {
+      rm(file.path, { force: true }).catch((err: unknown) => logger.warn({ err, file: file.path }, 'removing an upload failed'));
+    }
+  });
+}
+
+/**
+ * Receives the multipart parts named "files" onto disk with per-file, per-request and storage
+ * limits, as `req.files` (ReceivedFile-shaped, see `receivedFiles`). Errors become the JSON errors
+ * of api-contract.md (413 for sizes). Runs only after the caller was let in (see upload-guards.ts).
+ */
+export function receiveUploads(limits: ReceiveLimits): RequestHandler {
+  const upload = multer({
+    storage: diskWithLimits(limits),
+    limits: { fileSize: limits.maxFileBytes, files: limits.maxFiles, fields: 10, fieldSize: 4096, parts: limits.maxFiles + 10 },
+  }).array('files', limits.maxFiles);
+  return (req, res, next) => {
+    const declared = Number(req.get('content-length'));
+    // A body announced larger than the limit is refused before a byte of it is read.
+    if (Number.isFinite(declared) && declared > limits.maxRequestBytes + 64 * 1024) {
+      return next(new RequestTooLargeError(limits.maxRequestBytes));
+    }
+    removeWhenDone(req, res);
+    upload(req, res, (err: unknown) => {
+      if (!err) return next();
+      if (err instanceof AppError) return next(err);
+      if (err instanceof multer.MulterError) {
+        if (err.code === 'LIMIT_FILE_SIZE')
+          return next(
+            new AppError(
+              413,
+              'too-large',
+              `Each file can be at most ${formatFileSize(limits.maxFileBytes)}. Compress it as .gpx.gz or .tcx.gz, or split it.`,
+            ),
+          );
+        if (err.code === 'LIMIT_FILE_COUNT' || err.code === 'LIMIT_PART_COUNT')
+          return next(
+            new AppError(
+              413,
+              'too-many-files',
+              `Upload at most ${limits.maxFiles} files at once; for a whole history use the bulk import.`,
+            ),
+          );
+        if (err.code === 'LIMIT_UNEXPECTED_FILE')
+          return next(new BadRequestError('Send the files in form fields named "files".'));
+        return next(new BadRequestError('The upload could not be read. Please try again.'));
+      }
+      next(new BadRequestError('The upload could not be read. Please send the files as multipart/form-data.'));
+    });
+  };
+}
+
+/** The files `receiveUploads` put on disk, with names decoded as browsers send them. */
+export function receivedFiles(req: Request): ReceivedFile[] {
+  return ((req.files as Array<Express.Multer.File & { sha256: string }> | undefined) ?? []).map((f) => ({
+    // multer decodes names as latin1; browsers send UTF-8.
+    name: Buffer.from(f.originalname, 'latin1').toString('utf8'),
+    path: f.path,
+    size: f.size,
+    sha256: f.sha256,
+  }));
+}
