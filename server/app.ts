@@ -20,6 +20,7 @@ import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
 import { createNotesRouter } from './features/notes/notes.routes.ts';
 import { createNoticesRouter } from './features/notices/notices.routes.ts';
+import { warmComputePool } from './features/compute/compute-pool.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { createHistoryRouter } from './features/history/history.routes.ts';
 import { buildOpenApiDocument, renderApiPage } from './features/openapi/openapi.ts';
@@ -54,6 +55,8 @@ export function createApp({
   mailer = createSmtpMailer(config),
   payments = createPaymentsClient(config),
 }: AppDeps): Express {
+  // The compute pool's first thread starts loading now rather than on the first upload.
+  warmComputePool();
   const app = express();
   app.disable('x-powered-by');
   if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);

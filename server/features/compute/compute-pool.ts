@@ -81,6 +81,11 @@ function thePool(): Piscina<ComputeTask, unknown> {
   return pool;
 }
 
+/** Starts the pool's first thread now, so the first upload does not wait for it (app start). */
+export function warmComputePool(): void {
+  thePool();
+}
+
 /** Waits until `userId` has fewer than `jobsAtOncePerUser` jobs in the pool, then counts this one. */
 async function takeTurn(userId: string): Promise<void> {
   if ((running.get(userId) ?? 0) >= limits.jobsAtOncePerUser) {

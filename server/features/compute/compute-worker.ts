@@ -11,7 +11,7 @@ import { computeImport, type ImportComputeInput } from '../runs/import-compute.t
  * so only this worker yields: when the cores are busy, the event loop that answers every request
  * gets the CPU first and heavy jobs take longer instead.
  */
-const COMPUTE_NICENESS = 10;
+const COMPUTE_NICENESS = 5;
 try {
   setPriority(COMPUTE_NICENESS);
 } catch {

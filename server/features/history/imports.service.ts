@@ -188,9 +188,18 @@ function outcomeOf(result: Awaited<ReturnType<typeof importFiles>>): FileOutcome
   return { status: 'rejected', result: { error }, error };
 }
 
+/**
+ * Marks a complete import done and removes its archive before that commits, so "done" always means
+ * the archive is gone (a crash in between leaves an import whose files are all done, which the next
+ * start finishes without opening the archive).
+ */
 async function finish(importId: string, dataDir: string): Promise<void> {
-  if (!(await finishImportIfComplete(importId))) return;
-  await rm(archivePath(dataDir, importId), { force: true });
+  const finished = await db.transaction(async (trx) => {
+    if (!(await finishImportIfComplete(importId, trx))) return false;
+    await rm(archivePath(dataDir, importId), { force: true });
+    return true;
+  });
+  if (!finished) return;
   // One notice to the coaches for the whole archive (issue 16), queued once: only the finishing call gets here.
   const row = await findImportById(importId);
   if (row)
