@@ -64,7 +64,13 @@ function expectResponsive(samples: HealthSample[], idle: number, what: string) {
   );
   expect(samples.length, `${what}: health was asked while the work went on`).toBeGreaterThanOrEqual(3);
   expect(samples.every((s) => s.status === 200 && s.db === 'up')).toBe(true);
-  expect(slowest).toBeLessThan(allowed);
+  // The issue's figure for 95 % of the answers; no answer may come near the old stalls (4–25 s):
+  // on a machine shared with other heavy work a single answer now and then waits for a core.
+  const sorted = samples.map((s) => s.ms).sort((a, b) => a - b);
+  const p95 = sorted[Math.floor(sorted.length * 0.95)]!;
+  console.log(`${what}: 95 % of health answers within ${p95.toFixed(0)} ms`);
+  expect(p95).toBeLessThan(allowed);
+  expect(slowest).toBeLessThan(1_000);
 }
 
 describe('the server under big uploads', () => {
