@@ -24,10 +24,8 @@ const MB = 1024 * 1024;
 /** The figure of issue 13: /api/health answers within this while others' work goes on. */
 const HEALTH_WITHIN_MS = 200;
 /**
- * On a machine shared with other heavy work, an idle server's health answers already take up to
- * about this long now and then (three processes must be scheduled in turn); measured before each
- * test, the allowance grows by what the idle server shows beyond 200 ms, so only this server's own
- * stalls fail the test. Before issue 13 they were 4–15 s.
+ * What an idle server's slowest health answer takes on this machine just before the work starts:
+ * printed beside the figure, so a slow machine can be told from a stalled server. It never widens the limit.
  */
 async function idleSlowest(): Promise<number> {
   const { samples } = await healthWhile(server.url, new Promise((resolve) => setTimeout(resolve, 2_000)));
@@ -57,20 +55,14 @@ const leftInUploads = () => {
 
 function expectResponsive(samples: HealthSample[], idle: number, what: string) {
   const slowest = Math.max(...samples.map((s) => s.ms));
-  const allowed = Math.max(HEALTH_WITHIN_MS, idle + 50);
   const worst = [...samples].sort((a, b) => b.ms - a.ms).slice(0, 3);
   console.log(
-    `${what}: ${samples.length} health checks over ${(samples.at(-1)!.at / 1000).toFixed(1)} s, slowest ${worst.map((s) => `${s.ms.toFixed(0)} ms at ${(s.at / 1000).toFixed(1)} s`).join(', ')}; idle server's slowest ${idle.toFixed(0)} ms, allowed ${allowed.toFixed(0)} ms`,
+    `${what}: ${samples.length} health checks over ${(samples.at(-1)!.at / 1000).toFixed(1)} s, slowest ${worst.map((s) => `${s.ms.toFixed(0)} ms at ${(s.at / 1000).toFixed(1)} s`).join(', ')}; idle server's slowest ${idle.toFixed(0)} ms; limit ${HEALTH_WITHIN_MS} ms for every answer`,
   );
   expect(samples.length, `${what}: health was asked while the work went on`).toBeGreaterThanOrEqual(3);
   expect(samples.every((s) => s.status === 200 && s.db === 'up')).toBe(true);
-  // The issue's figure for 95 % of the answers; no answer may come near the old stalls (4–25 s):
-  // on a machine shared with other heavy work a single answer now and then waits for a core.
-  const sorted = samples.map((s) => s.ms).sort((a, b) => a - b);
-  const p95 = sorted[Math.floor(sorted.length * 0.95)]!;
-  console.log(`${what}: 95 % of health answers within ${p95.toFixed(0)} ms`);
-  expect(p95).toBeLessThan(allowed);
-  expect(slowest).toBeLessThan(1_000);
+  // The issue's figure, for every answer (before issue 13 the stalls were 4–25 s).
+  expect(slowest).toBeLessThan(HEALTH_WITHIN_MS);
 }
 
 describe('the server under big uploads', () => {

@@ -34,7 +34,7 @@ import {
   trackOf,
 } from './runs.service.ts';
 import { uploadGuards, type StorageLocals } from './upload-guards.ts';
-import { receiveUploads, receivedFiles, uploadsTempDir } from './upload-to-disk.ts';
+import { receiveUploads, receivedFiles, removeReceivedFiles, uploadsTempDir } from './upload-to-disk.ts';
 
 /** Files per upload request; a whole history goes through the bulk import instead. */
 const MAX_FILES_PER_UPLOAD = 20;
@@ -74,6 +74,8 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
         storageQuotaBytes: config.storageQuotaBytes,
         importDuplicates: duplicates === 'import',
       });
+      // Gone before the answer, so whoever reads it finds nothing of the upload left behind.
+      await removeReceivedFiles(req);
       // The coaches hear of it once per upload batch (the page sends a request per file): queued, not sent here.
       await recordUploadNotice(
         actor.id,

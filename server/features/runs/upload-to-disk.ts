@@ -96,14 +96,19 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
   };
 }
 
-/** Removes a request's temporary files once its answer has gone (or the client went away). */
+/** Removes the temporary files of a request now; safe to call twice. */
+export async function removeReceivedFiles(req: Request): Promise<void> {
+  const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+  await Promise.all(
+    files.map((file) =>
+      rm(file.path, { force: true }).catch((err: unknown) => logger.warn({ err, file: file.path }, 'removing an upload failed')),
+    ),
+  );
+}
+
+/** Removes a request's temporary files once its answer has gone (or the client went away), whatever happened before. */
 function removeWhenDone(req: Request, res: Parameters<RequestHandler>[1]): void {
-  res.once('close', () => {
-    const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    for (const file of files) {
-      rm(file.path, { force: true }).catch((err: unknown) => logger.warn({ err, file: file.path }, 'removing an upload failed'));
-    }
-  });
+  res.once('close', () => void removeReceivedFiles(req));
 }
 
 /**
