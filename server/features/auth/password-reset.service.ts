@@ -1,11 +1,10 @@
-import { createHash, randomBytes } from 'node:crypto';
 import type { AppConfig } from '../../config.ts';
 import { db } from '../../lib/db.ts';
-import { AppError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { findUserByEmail } from '../users/users.repository.ts';
 import { hashPassword } from './auth.service.ts';
+import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
 import { endSessionsOf } from './sessions.service.ts';
 
 /** Reset links work once, for an hour. */
@@ -13,7 +12,15 @@ export const RESET_LINK_MINUTES = 60;
 /** Reset e-mails one address can be sent per hour; more requests are answered the same and send nothing. */
 export const RESET_MAILS_PER_ADDRESS_PER_HOUR = 3;
 
-const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+const RESET_LINK: EmailedTokenKind = {
+  prefix: 'rst_',
+  invalid: {
+    code: 'invalid-reset-link',
+    message: 'This reset link is not valid. Check that you copied the whole link, or ask for a new one.',
+  },
+  used: { code: 'reset-link-used', message: 'This reset link has already been used. Ask for a new one if you need it.' },
+  expired: { code: 'reset-link-expired', message: 'This reset link has expired. Ask for a new one.' },
+};
 
 /**
  * Sends a reset link when the address belongs to an account. It runs after the request has been
@@ -31,11 +38,11 @@ export async function requestPasswordReset(email: string, mailer: Mailer, config
     logger.info({ user: user.id }, 'reset e-mail not sent: the hourly limit for this address is reached');
     return;
   }
-  const token = 'rst_' + randomBytes(32).toString('base64url');
+  const { token, tokenHash } = newEmailedToken(RESET_LINK);
   const link = `${config.publicUrl}/reset-password/${token}`;
   await db('password_resets').insert({
     user_id: user.id,
-    token_hash: hashToken(token),
+    token_hash: tokenHash,
     created_at: now,
     expires_at: new Date(now.getTime() + RESET_LINK_MINUTES * 60_000),
   });
@@ -53,25 +60,13 @@ export async function requestPasswordReset(email: string, mailer: Mailer, config
 
 /** Sets the new password if the link is genuine, unused and unexpired; the link is used up either way it succeeds. */
 export async function resetPassword(token: string, password: string, config: AppConfig, now = new Date()): Promise<void> {
-  const row = /^rst_[A-Za-z0-9_-]{43}$/.test(token)
-    ? await db('password_resets')
-        .where({ token_hash: hashToken(token) })
-        .first()
-    : undefined;
-  if (!row)
-    throw new AppError(
-      400,
-      'invalid-reset-link',
-      'This reset link is not valid. Check that you copied the whole link, or ask for a new one.',
-    );
-  if (row.used_at)
-    throw new AppError(410, 'reset-link-used', 'This reset link has already been used. Ask for a new one if you need it.');
-  if (row.expires_at <= now) throw new AppError(410, 'reset-link-expired', 'This reset link has expired. Ask for a new one.');
+  const row = await usableEmailedToken(RESET_LINK, token, now, (tokenHash) =>
+    db('password_resets').where({ token_hash: tokenHash }).first(),
+  );
   const passwordHash = await hashPassword(password, config);
   await db.transaction(async (trx) => {
     const claimed = await trx('password_resets').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
-    if (!claimed)
-      throw new AppError(410, 'reset-link-used', 'This reset link has already been used. Ask for a new one if you need it.');
+    if (!claimed) throw linkUsedError(RESET_LINK);
     await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, updated_at: now });
     // A new password ends every script token and every session opened under the old one (issue 13 #3),
     // and every other reset link still outstanding (#10): whoever held one must not undo this reset.

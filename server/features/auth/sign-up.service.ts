@@ -1,4 +1,3 @@
-import { createHash, randomBytes } from 'node:crypto';
 import type { RegisterInput, SignUpConfirmed } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { db, type UserRow } from '../../lib/db.ts';
@@ -8,13 +7,13 @@ import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { invitationVouchesFor } from '../squads/squads.service.ts';
 import { findUserByEmail, insertUser, toUser } from '../users/users.repository.ts';
 import { hashPassword } from './auth.service.ts';
+import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
 
 /** Sign-up links work once, for a day. */
 export const SIGN_UP_LINK_HOURS = 24;
 /** E-mails one address can be sent through the sign-up form per hour (links and "someone tried" notices). */
 export const SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR = 3;
 
-const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
 const HOUR_MS = 3_600_000;
 
 /**
@@ -84,10 +83,10 @@ export async function requestSignUp(
     return;
   }
 
-  const token = 'sgn_' + randomBytes(32).toString('base64url');
+  const { token, tokenHash } = newEmailedToken(SIGN_UP_LINK);
   await db('pending_signups').insert({
     id,
-    token_hash: hashToken(token),
+    token_hash: tokenHash,
     email: input.email,
     name: input.name,
     role: input.role,
@@ -109,27 +108,27 @@ export async function requestSignUp(
   });
 }
 
-const LINK_USED = 'This link has already been used, so your account exists. Sign in with your e-mail and password.';
+const SIGN_UP_LINK: EmailedTokenKind = {
+  prefix: 'sgn_',
+  invalid: {
+    code: 'invalid-sign-up-link',
+    message: 'This sign-up link is not valid. Check that you copied the whole link, or sign up again.',
+  },
+  used: {
+    code: 'sign-up-link-used',
+    message: 'This link has already been used, so your account exists. Sign in with your e-mail and password.',
+  },
+  expired: { code: 'sign-up-link-expired', message: 'This sign-up link has expired. Please sign up again.' },
+};
 
 /** Makes the account of a genuine, unused, unexpired sign-up link, with the id the sign-up was answered with. */
 export async function confirmSignUp(token: string, now = new Date()) {
-  const row = /^sgn_[A-Za-z0-9_-]{43}$/.test(token)
-    ? await db('pending_signups')
-        .where({ token_hash: hashToken(token) })
-        .first()
-    : undefined;
-  if (!row)
-    throw new AppError(
-      400,
-      'invalid-sign-up-link',
-      'This sign-up link is not valid. Check that you copied the whole link, or sign up again.',
-    );
-  if (row.used_at) throw new AppError(410, 'sign-up-link-used', LINK_USED);
-  if (row.expires_at <= now)
-    throw new AppError(410, 'sign-up-link-expired', 'This sign-up link has expired. Please sign up again.');
+  const row = await usableEmailedToken(SIGN_UP_LINK, token, now, (tokenHash) =>
+    db('pending_signups').where({ token_hash: tokenHash }).first(),
+  );
   const user = await db.transaction(async (trx) => {
     const claimed = await trx('pending_signups').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
-    if (!claimed) throw new AppError(410, 'sign-up-link-used', LINK_USED);
+    if (!claimed) throw linkUsedError(SIGN_UP_LINK);
     // 409 with a sentence when the address got an account meanwhile (two links used one after the other).
     return insertUser({ id: row.id, email: row.email, passwordHash: row.password_hash, name: row.name, role: row.role }, trx);
   });
