@@ -1,7 +1,8 @@
 import type { Column, ReactTable, Row, RowData } from '@tanstack/react-table';
-import { Fragment, useId, useState, type ReactNode } from 'react';
+import { Fragment, useId, type ReactNode } from 'react';
 import { cn } from '../../lib/cn.ts';
 import type { SortableTableFeatures } from '../../lib/table.ts';
+import { MoreButtonCell, MoreHeaderCell, RowDetailsRow, useOpenRows } from './table-row-details.tsx';
 
 type DataTableProps<TData extends RowData> = {
   table: ReactTable<SortableTableFeatures, TData>;
@@ -51,7 +52,7 @@ export function DataTable<TData extends RowData>({
   rowLabel,
   rowNote,
 }: DataTableProps<TData>) {
-  const [open, setOpen] = useState<ReadonlySet<string>>(new Set());
+  const open = useOpenRows();
   const baseId = useId();
   const columns = table.getAllLeafColumns();
   const responsive = columns.some((c) => c.columnDef.meta?.primary);
@@ -61,15 +62,6 @@ export function DataTable<TData extends RowData>({
   const sortable = columns.filter((c) => c.getCanSort());
   const sortedColumn = sortable.find((c) => c.getIsSorted());
   const sorting = sortedColumn && { id: sortedColumn.id, desc: sortedColumn.getIsSorted() === 'desc' };
-
-  function toggle(id: string) {
-    setOpen((current) => {
-      const next = new Set(current);
-      if (next.has(id)) next.delete(id);
-      else next.add(id);
-      return next;
-    });
-  }
 
   return (
     <div className="flex flex-col gap-2">
@@ -135,18 +127,14 @@ export function DataTable<TData extends RowData>({
                     </th>
                   );
                 })}
-                {responsive && (
-                  <th scope="col" className="w-11 sm:hidden">
-                    <span className="sr-only">More</span>
-                  </th>
-                )}
+                {responsive && <MoreHeaderCell />}
               </tr>
             ))}
           </thead>
           <tbody>
             {table.getRowModel().rows.map((row, index) => {
               const note = rowNote?.(row);
-              const expanded = open.has(row.id);
+              const expanded = open.isOpen(row.id);
               const detailsId = `${baseId}-${row.id}`;
               const hidden = row.getAllCells().filter((cell) => !isPrimary(cell.column));
               return (
@@ -180,35 +168,26 @@ export function DataTable<TData extends RowData>({
                       );
                     })}
                     {responsive && (
-                      <td className="w-11 py-0 text-right sm:hidden">
-                        <button
-                          type="button"
-                          aria-expanded={expanded}
-                          aria-controls={detailsId}
-                          aria-label={`All figures: ${rowLabel?.(row) ?? `row ${index + 1}`}`}
-                          onClick={() => toggle(row.id)}
-                          className="inline-flex size-11 items-center justify-center rounded-md text-teal hover:bg-teal-wash"
-                        >
-                          <span aria-hidden="true">{expanded ? '▴' : '▾'}</span>
-                        </button>
-                      </td>
+                      <MoreButtonCell
+                        expanded={expanded}
+                        controls={detailsId}
+                        rowName={rowLabel?.(row) ?? `row ${index + 1}`}
+                        onToggle={() => open.toggle(row.id)}
+                      />
                     )}
                   </tr>
                   {responsive && expanded && (
-                    <tr id={detailsId} className={cn('border-line sm:hidden', !note && 'border-b last:border-0')}>
-                      <td colSpan={phoneColumns} className="pb-2">
-                        <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 pl-2">
-                          {hidden.map((cell) => (
-                            <Fragment key={cell.id}>
-                              <dt className="text-ink-muted">{columnLabel(cell.column)}</dt>
-                              <dd className="tabular-nums">
-                                <table.FlexRender cell={cell} />
-                              </dd>
-                            </Fragment>
-                          ))}
-                        </dl>
-                      </td>
-                    </tr>
+                    <RowDetailsRow
+                      id={detailsId}
+                      colSpan={phoneColumns}
+                      className={cn(!note && 'border-b last:border-0')}
+                      valueClassName="tabular-nums"
+                      items={hidden.map((cell) => ({
+                        key: cell.id,
+                        label: columnLabel(cell.column),
+                        value: <table.FlexRender cell={cell} />,
+                      }))}
+                    />
                   )}
                   {note && (
                     <tr className="border-b border-line last:border-0">

@@ -1,5 +1,6 @@
-import { Fragment, useId, useState, type ReactNode } from 'react';
+import { Fragment, useId, type ReactNode } from 'react';
 import { cn } from '../../lib/cn.ts';
+import { MoreButtonCell, MoreHeaderCell, RowDetailsRow, useOpenRows } from './table-row-details.tsx';
 
 export type TableColumn<T> = {
   id: string;
@@ -32,22 +33,13 @@ type ResponsiveTableProps<T> = {
  * shows and header words may wrap, so the table fits its card instead of being cut off.
  */
 export function ResponsiveTable<T>({ caption, columns, rows, rowKey, rowLabel, className }: ResponsiveTableProps<T>) {
-  const [open, setOpen] = useState<ReadonlySet<string>>(new Set());
+  const open = useOpenRows();
   const baseId = useId();
   const responsive = columns.some((c) => c.primary);
   const isPrimary = (c: TableColumn<T>) => !responsive || c.primary === true;
   const hideOnPhone = (c: TableColumn<T>) => (isPrimary(c) ? undefined : 'hidden sm:table-cell print:table-cell');
   const phoneColumns = columns.filter(isPrimary).length + (responsive ? 1 : 0);
   const labelOf = (c: TableColumn<T>) => c.label ?? (typeof c.header === 'string' ? c.header : c.id);
-
-  function toggle(key: string) {
-    setOpen((current) => {
-      const next = new Set(current);
-      if (next.has(key)) next.delete(key);
-      else next.add(key);
-      return next;
-    });
-  }
 
   return (
     <table className={cn('w-full text-sm tabular-nums', className)}>
@@ -67,17 +59,13 @@ export function ResponsiveTable<T>({ caption, columns, rows, rowKey, rowLabel, c
               {c.header}
             </th>
           ))}
-          {responsive && (
-            <th scope="col" className="w-11 sm:hidden print:hidden">
-              <span className="sr-only">More</span>
-            </th>
-          )}
+          {responsive && <MoreHeaderCell className="print:hidden" />}
         </tr>
       </thead>
       <tbody>
         {rows.map((row, index) => {
           const key = rowKey(row, index);
-          const expanded = open.has(key);
+          const expanded = open.isOpen(key);
           const detailsId = `${baseId}-${index}`;
           return (
             <Fragment key={key}>
@@ -101,35 +89,24 @@ export function ResponsiveTable<T>({ caption, columns, rows, rowKey, rowLabel, c
                   );
                 })}
                 {responsive && (
-                  <td className="w-11 py-0 text-right sm:hidden print:hidden">
-                    <button
-                      type="button"
-                      aria-expanded={expanded}
-                      aria-controls={detailsId}
-                      aria-label={`All figures: ${rowLabel?.(row, index) ?? `row ${index + 1}`}`}
-                      onClick={() => toggle(key)}
-                      className="inline-flex size-11 items-center justify-center rounded-md text-teal hover:bg-teal-wash"
-                    >
-                      <span aria-hidden="true">{expanded ? '▴' : '▾'}</span>
-                    </button>
-                  </td>
+                  <MoreButtonCell
+                    className="print:hidden"
+                    expanded={expanded}
+                    controls={detailsId}
+                    rowName={rowLabel?.(row, index) ?? `row ${index + 1}`}
+                    onToggle={() => open.toggle(key)}
+                  />
                 )}
               </tr>
               {responsive && expanded && (
-                <tr id={detailsId} className="border-b border-line last:border-0 sm:hidden print:hidden">
-                  <td colSpan={phoneColumns} className="pb-2">
-                    <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-0.5 pl-2">
-                      {columns
-                        .filter((c) => !isPrimary(c))
-                        .map((c) => (
-                          <Fragment key={c.id}>
-                            <dt className="text-ink-muted">{labelOf(c)}</dt>
-                            <dd>{c.cell(row, index)}</dd>
-                          </Fragment>
-                        ))}
-                    </dl>
-                  </td>
-                </tr>
+                <RowDetailsRow
+                  id={detailsId}
+                  colSpan={phoneColumns}
+                  className="border-b last:border-0 print:hidden"
+                  items={columns
+                    .filter((c) => !isPrimary(c))
+                    .map((c) => ({ key: c.id, label: labelOf(c), value: c.cell(row, index) }))}
+                />
               )}
             </Fragment>
           );
