@@ -16,6 +16,16 @@ export default defineConfig({
     projects: [
       { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
       {
+        // Components below the browser (Testing Library in happy-dom): forms' logic, with the network faked at fetch.
+        extends: true,
+        test: {
+          name: 'client',
+          include: ['tests/client/**/*.test.tsx'],
+          environment: 'happy-dom',
+          setupFiles: ['tests/client/setup.ts'],
+        },
+      },
+      {
         extends: true,
         test: {
           name: 'api',

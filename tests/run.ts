@@ -19,6 +19,8 @@ import {
 
 const LAYERS = ['unit', 'api', 'e2e'] as const;
 type Layer = (typeof LAYERS)[number];
+/** The Vitest projects (vite.config.ts) each layer runs: component tests run with the unit tests. */
+const PROJECTS: Record<Layer, string[]> = { unit: ['unit', 'client'], api: ['api'], e2e: ['e2e'] };
 const requested = process.argv.slice(2).filter((a): a is Layer => (LAYERS as readonly string[]).includes(a));
 // Anything else narrows the files, e.g. `npm run test:e2e -- plan-check`.
 const fileFilters = process.argv.slice(2).filter((a) => !(LAYERS as readonly string[]).includes(a));
@@ -89,7 +91,14 @@ try {
     console.log(`\n▶ ${layer} tests`);
     const vitest = spawnSync(
       bin('vitest'),
-      ['run', '--project', layer, '--reporter=default', '--reporter=json', `--outputFile=${outputFile}`, ...fileFilters],
+      [
+        'run',
+        ...PROJECTS[layer].flatMap((p) => ['--project', p]),
+        '--reporter=default',
+        '--reporter=json',
+        `--outputFile=${outputFile}`,
+        ...fileFilters,
+      ],
       {
         cwd: ROOT,
         stdio: 'inherit',
