@@ -117,6 +117,65 @@ describe('the same run in two files (issue #14)', () => {
   }, 60_000);
 });
 
+describe('the same run in two files uploaded at the same instant (issue #14)', () => {
+  it('two different files of one run sent at once: one run is stored and the other upload is answered "same run"', async () => {
+    const app = freshApp();
+    const { user, auth } = await signedIn(app);
+    const start = Date.UTC(2026, 10, 3, 6, 30);
+    // One run written twice with other bytes: another name, 2 s later, 1 % longer (the same run by
+    // SAME_RUN_START_S and SAME_RUN_DISTANCE_SHARE), both 1 s files so each is parsed in its own worker.
+    const gpx = (name: string, shiftS: number, speed: number) =>
+      Buffer.from(
+        writeGpx(name, [
+          generateLakeRun({
+            start_t: start + shiftS * 1000,
+            phases: [{ kind: 'run', duration_s: 1800, speed_mps: speed }],
+            seed: 5,
+          }).points,
+        ]),
+      );
+    // Make "the same instant" certain: this transaction holds the runner's row, so storing either
+    // upload (its rows reference the runner) waits until it ends. Both uploads are let through once
+    // both are waiting on it, directly or behind the other: without a lock around the same-run check,
+    // each would have checked before the other stored anything, and both would be stored.
+    const holder = await db.transaction();
+    await holder('users').where({ id: user.id }).forUpdate().select('id');
+    const holderPid = (await holder.raw('select pg_backend_pid() as pid')).rows[0].pid as number;
+    const uploads = Promise.all([
+      request(app)
+        .post('/api/runs')
+        .set(auth)
+        .attach('files', gpx('Morning', 0, 3), 'a.gpx'),
+      request(app)
+        .post('/api/runs')
+        .set(auth)
+        .attach('files', gpx('Morning run', 2, 3.03), 'b.gpx'),
+    ]);
+    const waitingBehindHolder = async () => {
+      const { rows } = await db.raw(
+        `select count(*)::int as n from pg_stat_activity w
+          where w.wait_event_type = 'Lock'
+            and (? = any(pg_blocking_pids(w.pid))
+                 or exists (select 1 from pg_stat_activity x
+                             where ? = any(pg_blocking_pids(x.pid)) and x.pid = any(pg_blocking_pids(w.pid))))`,
+        [holderPid, holderPid],
+      );
+      return rows[0].n as number;
+    };
+    await expect.poll(waitingBehindHolder, { timeout: 45_000, interval: 50 }).toBe(2);
+    await holder.commit();
+    const [a, b] = await uploads;
+    expect([a.status, b.status].sort()).toEqual([201, 422]);
+    const [stored, refused] = a.status === 201 ? [a, b] : [b, a];
+    expect(stored.body.imported).toHaveLength(1);
+    expect(refused.body.imported).toEqual([]);
+    expect(refused.body.duplicates).toEqual([
+      { file: refused === a ? 'a.gpx' : 'b.gpx', runId: stored.body.imported[0].id, reason: 'same run', activity: null },
+    ]);
+    expect(await counts(user.id)).toEqual({ runs: 1, files: 1 });
+  }, 90_000);
+});
+
 describe('times that go backwards (issue #14)', () => {
   it('a TCX whose track, once its backwards point is left out, is 1 s beside 13.68 km of laps is refused with a sentence; nothing is stored', async () => {
     const app = freshApp();

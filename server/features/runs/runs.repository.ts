@@ -7,6 +7,7 @@ import {
   type RunSplitRow,
   type SourceFileRow,
 } from '../../lib/db.ts';
+import type { Knex } from 'knex';
 import { insertInChunks } from '../../lib/insert-in-chunks.ts';
 import type { ListRunsQuery, RunListItem, RunListOrder, RunListSort } from '../../../shared/runs/schemas.ts';
 
@@ -60,6 +61,16 @@ export async function findActivityIndexesOfSourceFile(sourceFileId: string, trx:
     .where({ source_file_id: sourceFileId })
     .select('activity_index');
   return rows.map((r) => r.activity_index);
+}
+
+/**
+ * Serialises one runner's imports from the same-run check to the commit (a transaction-scoped
+ * advisory lock keyed by the user id, released at commit or rollback): another upload of the same run
+ * waits here and then sees this one's run. Taken before the storage lock (`lockStorageOf`), always in
+ * that order.
+ */
+export async function lockRunsOf(userId: string, trx: Knex.Transaction): Promise<void> {
+  await trx.raw("select pg_advisory_xact_lock(hashtextextended('pacewright-runs:' || ?, 0))", [userId]);
 }
 
 /** The runner's runs starting within `windowMs` of `startT` (ms): the candidates for the same run twice. */

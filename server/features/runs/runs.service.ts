@@ -41,6 +41,7 @@ import {
   insertRunWhole,
   insertSourceFile,
   listRunsOf,
+  lockRunsOf,
   renameRun,
   toRunListItem,
 } from './runs.repository.ts';
@@ -100,6 +101,13 @@ async function computeRuns(
   }
 }
 
+/** The same file was stored by another upload while this one was being read. */
+class StoredMeanwhile extends Error {
+  constructor() {
+    super('stored meanwhile');
+  }
+}
+
 /** A file that does not fit in the user's storage quota (checked under the user's storage lock). */
 class OverQuota extends Error {
   constructor(readonly used: number) {
@@ -141,33 +149,6 @@ export async function importFiles(
       continue;
     }
     const records = computed.records;
-    // The same run in another file: each activity on its own (start within 5 s, distance within 2 %).
-    const keep: RunRecord[] = [];
-    for (const [i, record] of records.entries()) {
-      if (present.has(record.run.activity_index)) continue;
-      const mine = { started_at_t: new Date(record.run.started_at).getTime(), distance_m: record.run.distance_m };
-      const stored = options.importDuplicates
-        ? undefined
-        : (await findRunsStartingNear(user.id, mine.started_at_t, SAME_RUN_START_S * 1000)).find((r) =>
-            isSameRun(mine, { started_at_t: r.started_at.getTime(), distance_m: r.distance_m }),
-          );
-      if (stored)
-        result.duplicates.push({
-          file: file.name,
-          runId: stored.id,
-          reason: 'same run',
-          activity: records.length > 1 ? i + 1 : null,
-        });
-      else keep.push(record);
-    }
-    if (keep.length === 0) {
-      // With "import anyway", only activities of this very file already stored are left out.
-      if (existing) {
-        const run = await findFirstRunOfSourceFile(existing.id);
-        if (run) result.duplicates.push(sameFile(file.name, run.id));
-      }
-      continue;
-    }
     const size = sizeOf(file);
     const storageKey = existing?.storage_key ?? `${user.id}/${sha256}`;
     // The track blob crossed from the worker as a Uint8Array.
@@ -183,12 +164,34 @@ export async function importFiles(
       );
     };
     try {
-      const rows = await db.transaction(async (trx) => {
+      const outcome = await db.transaction(async (trx) => {
+        // The same-run check and the insert are one step per runner: two different files of one run
+        // uploaded at the same instant (two requests, two compute workers) are checked one after the
+        // other, and the second sees the first's committed run (lockRunsOf waits for its commit).
+        await lockRunsOf(user.id, trx);
+        // The same bytes stored meanwhile by another upload (it held the lock first): the same file.
+        if (!existing && (await findSourceFileBySha(user.id, sha256, trx))) throw new StoredMeanwhile();
+        // The same run in another file: each activity on its own (start within 5 s, distance within 2 %).
+        const sameRun: ImportResult['duplicates'] = [];
+        const keep: RunRecord[] = [];
+        for (const [i, record] of records.entries()) {
+          if (present.has(record.run.activity_index)) continue;
+          const mine = { started_at_t: new Date(record.run.started_at).getTime(), distance_m: record.run.distance_m };
+          const stored = options.importDuplicates
+            ? undefined
+            : (await findRunsStartingNear(user.id, mine.started_at_t, SAME_RUN_START_S * 1000, trx)).find((r) =>
+                isSameRun(mine, { started_at_t: r.started_at.getTime(), distance_m: r.distance_m }),
+              );
+          if (stored)
+            sameRun.push({ file: file.name, runId: stored.id, reason: 'same run', activity: records.length > 1 ? i + 1 : null });
+          else keep.push(record);
+        }
         const inserted: RunRow[] = [];
+        if (keep.length === 0) return { inserted, sameRun };
         if (existing) {
           // The original is stored already and referenced by its other runs: no new storage is used.
           for (const record of keep) inserted.push(await insertRecord(record, existing.id, trx));
-          return inserted;
+          return { inserted, sameRun };
         }
         if (options.storageQuotaBytes !== undefined) {
           await lockStorageOf(user.id, trx);
@@ -211,15 +214,24 @@ export async function importFiles(
         // The shared lock keeps the orphan sweeper off this file until the rows are committed.
         await holdOriginalFilesSharedLock(trx);
         await store.put(storageKey, 'data' in file ? file.data : await readFile(file.path));
-        return inserted;
+        return { inserted, sameRun };
       });
-      result.imported.push(...rows.map((r) => ({ ...toRunListItem(r), file: file.name })));
+      result.duplicates.push(...outcome.sameRun);
+      if (outcome.inserted.length === 0) {
+        // With "import anyway", only activities of this very file already stored are left out.
+        if (existing) {
+          const run = await findFirstRunOfSourceFile(existing.id);
+          if (run) result.duplicates.push(sameFile(file.name, run.id));
+        }
+        continue;
+      }
+      result.imported.push(...outcome.inserted.map((r) => ({ ...toRunListItem(r), file: file.name })));
     } catch (err) {
       if (err instanceof OverQuota) {
         result.rejected.push({ file: file.name, error: overQuotaReason(err.used, size, options.storageQuotaBytes!) });
         continue;
       }
-      if (isUniqueViolation(err)) {
+      if (err instanceof StoredMeanwhile || isUniqueViolation(err)) {
         const again = await findSourceFileBySha(user.id, sha256);
         const run = again && (await findFirstRunOfSourceFile(again.id));
         if (run) result.duplicates.push(sameFile(file.name, run.id));
