@@ -24,7 +24,7 @@ function read<T>(key: string): T | null {
  * Never holds a password. `restored` says the form opened from a draft, so the page can say so.
  */
 export function useDraft<T>(key: string, initial: () => T) {
-  const [restored] = useState(() => read<T>(key) !== null);
+  const [restored, setRestored] = useState(() => read<T>(key) !== null);
   const [value, setValue] = useState<T>(() => read<T>(key) ?? initial());
   const dirty = useRef(false);
 
@@ -51,5 +51,15 @@ export function useDraft<T>(key: string, initial: () => T) {
     }
   }, [key]);
 
-  return { value, update, clear, restored };
+  /** Drops the draft and puts the form back to `fresh` (e.g. the saved copy), without storing it again. */
+  const discard = useCallback(
+    (fresh: T) => {
+      clear();
+      setRestored(false);
+      setValue(fresh);
+    },
+    [clear],
+  );
+
+  return { value, update, clear, discard, restored };
 }

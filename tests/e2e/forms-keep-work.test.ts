@@ -126,3 +126,110 @@ describe('fuel taken on the run page', () => {
     await page.close();
   });
 });
+
+describe('the fuel plan form', () => {
+  it('answers each field in the words of its label, keeps a draft over a reload, and a refused save keeps everything with the answer at the field', async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    await page.setViewportSize({ width: 375, height: 812 });
+    await page.goto(`${server.url}/sign-in`);
+    await signIn(page, runner.email, runner.password);
+    await page.waitForURL(/\/log$/);
+    const suffix = Date.now().toString(36);
+    const { item: gel } = await call<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
+      name: `plan gel ${suffix}`,
+      carbohydrate_g: 22,
+      sodium_mg: 40,
+      caffeine_mg: 0,
+      fluid_ml: 0,
+    });
+    await page.goto(`${server.url}/goal-race/fuel`);
+    const form = page.getByRole('form', { name: 'Fuel plan inputs' });
+    await form.waitFor();
+
+    // Checked where typed, once the field is left, in the words of its label (the runner's unit is mi).
+    await form.getByLabel('Body mass (kg)').fill('sixty');
+    await form.getByLabel(/^Easy pace/).fill('9.30');
+    await form.getByLabel('Start time of day (optional, HH:MM)').click();
+    const massProblem = form.getByText('Write the body mass in kg, e.g. 62.');
+    await expect.poll(() => massProblem.count()).toBe(1);
+    await expect.poll(() => form.getByText('Write the easy pace as m:ss per mi, e.g. 9:30.').count()).toBe(1);
+    // The message is tied to its field (read out with it), not listed at the bottom in internal names.
+    expect(await form.getByLabel('Body mass (kg)').getAttribute('aria-invalid')).toBe('true');
+    expect(await form.getByRole('textbox', { name: 'Body mass (kg)' }).getAttribute('aria-describedby')).toContain(
+      (await massProblem.getAttribute('id')) ?? 'no id',
+    );
+    expect(await form.getByText(/body mass kg|s per km|seconds/).count()).toBe(0);
+    await form.getByLabel('Body mass (kg)').fill('58');
+    await form.getByLabel(/^Easy pace/).fill('9:30');
+    await expect.poll(() => massProblem.count()).toBe(0);
+
+    // A new intake's picker starts empty; saving without a choice is answered at the picker.
+    await form.getByRole('button', { name: 'Add an intake' }).click();
+    const what = form.getByLabel(/^What, intake \d+/).last();
+    expect(await what.inputValue()).toBe('');
+    await form.getByRole('button', { name: 'Save and compute the schedule' }).click();
+    await expect.poll(() => form.getByText('Choose an item or a bottle for this intake.').count()).toBe(1);
+    await expect.poll(() => form.getByText(/^Not saved yet: 2 fields need a fix, see the messages beside them/).count()).toBe(1);
+    await what.selectOption({ label: `plan gel ${suffix}` });
+    await form
+      .getByLabel(/^Every \(mi\), intake \d+/)
+      .last()
+      .fill('5');
+    const intakes = await form.getByLabel(/^What, intake \d+/).count();
+
+    // A reload keeps all of it.
+    await page.reload();
+    await form.waitFor();
+    await expect.poll(() => form.getByText(/^Restored what you entered earlier on this device/).count()).toBe(1);
+    expect(await form.getByLabel('Body mass (kg)').inputValue()).toBe('58');
+    expect(await form.getByLabel(/^Easy pace/).inputValue()).toBe('9:30');
+    expect(await form.getByLabel(/^What, intake \d+/).count()).toBe(intakes);
+    expect(
+      await form
+        .getByLabel(/^What, intake \d+/)
+        .last()
+        .inputValue(),
+    ).toBe(`item:${gel.id}`);
+    expect(
+      await form
+        .getByLabel(/^Every \(mi\), intake \d+/)
+        .last()
+        .inputValue(),
+    ).toBe('5');
+
+    // The gel is deleted elsewhere: the server refuses, its answer sits at that intake's picker, nothing is lost.
+    await call(page, 'DELETE', `/api/fuel-items/${gel.id}`);
+    await form.getByRole('button', { name: 'Save and compute the schedule' }).click();
+    await expect.poll(() => form.getByText(/^Not saved: see the messages beside the fields\./).count()).toBe(1);
+    const answer = form.getByText('There is no fuel item with this id.');
+    await expect.poll(() => answer.count()).toBe(1);
+    expect(
+      await form
+        .getByLabel(/^What, intake \d+/)
+        .last()
+        .getAttribute('aria-describedby'),
+    ).toBe(await answer.getAttribute('id'));
+    await screenshot(page, 'fuel-plan-refused-375');
+    expect(await form.getByLabel('Body mass (kg)').inputValue()).toBe('58');
+    expect(await form.getByLabel(/^Easy pace/).inputValue()).toBe('9:30');
+    expect(
+      await form
+        .getByLabel(/^Every \(mi\), intake \d+/)
+        .last()
+        .inputValue(),
+    ).toBe('5');
+
+    // Removing that intake and saving works, and the draft is gone.
+    await form.getByRole('button', { name: `Remove intake ${intakes}` }).click();
+    await form.getByRole('button', { name: 'Save and compute the schedule' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Fuel plan saved.' }).count()).toBe(1);
+    const stored = await page.evaluate(() =>
+      Object.keys(localStorage).filter((k) => k.startsWith('pacewright:draft:fuel-plan:')),
+    );
+    expect(stored).toEqual([]);
+    const saved = await call<{ fuel_plan: { body_mass_kg: number } }>(page, 'GET', '/api/me/goal-race/fuel-plan');
+    expect(saved.fuel_plan.body_mass_kg).toBe(58);
+    await page.close();
+  });
+});

@@ -114,6 +114,7 @@ function FuelPlanPage({ owner, runnerId, heading, subject, durationFrom, printHr
               plan={plan}
               items={items.data}
               unit={profile.unit}
+              userId={profile.id}
               defaultBodyMass={profile.weight_kg}
               durationFrom={durationFrom}
             />

@@ -1,38 +1,33 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type FocusEvent, type FormEvent } from 'react';
 import type { Bottle, IntakeRule } from '../../../../shared/fuel/schedule.ts';
-import { FuelPlanInputSchema, type FuelItem, type FuelPlanInput } from '../../../../shared/fuel/schemas.ts';
+import type { FuelItem } from '../../../../shared/fuel/schemas.ts';
 import { mlToUsFlOz, proposeTargets, type FuelTargets } from '../../../../shared/fuel/targets.ts';
-import { formatDuration, formatPace, paceKmToMile, paceMileToKm } from '../../../../shared/tracks/format.ts';
+import { formatDuration, formatPace, paceKmToMile } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { CONTROL_CLASSES, TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
+import { useDraft } from '../../../lib/use-draft.ts';
 import type { FuelPlanOwner } from '../api/fuel-keys.ts';
 import { useSaveFuelPlan } from '../api/save-fuel-plan.ts';
 import type { FuelPlan } from '../api/types.ts';
+import { bottleMix, formatAmount, formatTimeFromStart, parseRunTime, toMl, type VolumeUnit } from '../utils/fuel-format.ts';
 import {
-  bottleMix,
-  formatAmount,
-  formatTimeFromStart,
-  parsePace,
-  parseRunTime,
-  readNumber,
-  splitList,
-  toMl,
-  type VolumeUnit,
-} from '../utils/fuel-format.ts';
+  checkPlanDraft,
+  problemsFromServer,
+  TARGET_KEYS,
+  TARGET_WORDS,
+  type BottleDraft,
+  type IntakeDraft,
+  type PlanDraft as Draft,
+  type PlanProblems,
+  type TargetDraft,
+  type TargetKey,
+  type WhenType,
+} from '../utils/fuel-plan-draft.ts';
 
-const TARGET_KEYS = ['carbohydrate', 'fluid', 'sodium'] as const;
-type TargetKey = (typeof TARGET_KEYS)[number];
-const TARGET_WORDS: Record<TargetKey, { name: string; unit: string }> = {
-  carbohydrate: { name: 'Carbohydrate', unit: 'g/h' },
-  fluid: { name: 'Fluid', unit: 'ml/h' },
-  sodium: { name: 'Sodium', unit: 'mg/h' },
-};
-
-type WhenType = IntakeRule['when']['type'];
 const WHEN_WORDS: Record<WhenType, string> = {
   every_distance: 'every so many mi or km',
   every_time: 'every so many minutes',
@@ -40,34 +35,14 @@ const WHEN_WORDS: Record<WhenType, string> = {
   at_times: 'at given times',
 };
 
-type IntakeDraft = {
-  key: number;
-  /** `item:<id>` or `bottle:<name>`. */
-  what: string;
-  servings: string;
-  ml: string;
-  when: WhenType;
-  every: string;
-  unit: Unit;
-  first: string;
-  at: string;
-};
-type ContentDraft = { key: number; itemId: string; servings: string };
-type BottleDraft = { key: number; name: string; volume: string; volumeUnit: VolumeUnit; contents: ContentDraft[] };
-type TargetDraft = { own: boolean; low: string; high: string };
-type Draft = {
-  bodyMass: string;
-  duration: string;
-  easyPace: string;
-  startClock: string;
-  sweat: string;
-  targets: Record<TargetKey, TargetDraft>;
-  bottles: BottleDraft[];
-  intakes: IntakeDraft[];
-};
-
 let nextKey = 1;
 const newKey = () => nextKey++;
+
+/** Rows restored from a draft keep their keys; new ones count on from above them. */
+function reserveKeys(d: Draft): void {
+  const keys = [...d.bottles.flatMap((b) => [b.key, ...b.contents.map((c) => c.key)]), ...d.intakes.map((r) => r.key)];
+  nextKey = Math.max(nextKey, ...keys.map((k) => k + 1));
+}
 
 const str = (n: number | null | undefined) => (n === null || n === undefined ? '' : String(n));
 
@@ -127,64 +102,10 @@ function initialDraft(plan: FuelPlan | null, unit: Unit, defaultBodyMass: number
   };
 }
 
-/** Reads the draft into the API's input; text that does not read as a number becomes NaN so the schema names it. */
-function toInput(d: Draft, unit: Unit): unknown {
-  const num = (t: string) => readNumber(t);
-  const time = (t: string) => (t.trim() === '' ? undefined : (parseRunTime(t) ?? Number.NaN));
-  const pace = d.easyPace.trim() === '' ? undefined : (parsePace(d.easyPace) ?? Number.NaN);
-  const targets: Record<string, { low: number | undefined; high: number | undefined }> = {};
-  for (const k of TARGET_KEYS) {
-    const t = d.targets[k];
-    if (t.own) targets[k] = { low: num(t.low), high: num(t.high) };
-  }
-  return {
-    body_mass_kg: num(d.bodyMass),
-    expected_duration_s: time(d.duration),
-    easy_pace_s_per_km: pace === undefined || Number.isNaN(pace) ? pace : unit === 'mi' ? paceMileToKm(pace) : pace,
-    start_clock: d.startClock.trim() === '' ? null : d.startClock.trim(),
-    sweat_l_per_h: num(d.sweat),
-    targets: Object.keys(targets).length > 0 ? targets : undefined,
-    bottles: d.bottles.map((b) => {
-      const v = num(b.volume);
-      return {
-        id: b.name.trim(),
-        volume_ml: v === undefined || Number.isNaN(v) ? v : Math.round(toMl(v, b.volumeUnit) * 10) / 10,
-        contents: b.contents.map((c) => ({ item_id: c.itemId, servings: num(c.servings) })),
-      };
-    }),
-    intakes: d.intakes.map((r) => {
-      const isBottle = r.what.startsWith('bottle:');
-      const what = isBottle
-        ? { bottle: r.what.slice('bottle:'.length), ml: num(r.ml) }
-        : { item_id: r.what.slice('item:'.length) || undefined, servings: num(r.servings) };
-      const list = splitList(r.at);
-      const when =
-        r.when === 'every_distance'
-          ? { type: r.when, every: num(r.every), unit: r.unit, first: num(r.first) }
-          : r.when === 'every_time'
-            ? { type: r.when, every_s: (num(r.every) ?? Number.NaN) * 60, first_s: time(r.first) }
-            : r.when === 'at_distances'
-              ? { type: r.when, unit: r.unit, at: list.map(Number) }
-              : { type: r.when, at_s: list.map((t) => parseRunTime(t) ?? Number.NaN) };
-      return { ...what, when };
-    }),
-  };
-}
-
-type Issue = { field: string; message: string };
-
-/** "intakes.0.when.every" → "intake 1, every". */
-function fieldWords(field: string): string {
-  return field
-    .replace(/^intakes\.(\d+)/, (_, i: string) => `intake ${Number(i) + 1}`)
-    .replace(/^bottles\.(\d+)/, (_, i: string) => `bottle ${Number(i) + 1}`)
-    .replace(/contents\.(\d+)/, (_, i: string) => `item ${Number(i) + 1}`)
-    .replace(/\./g, ', ')
-    .replace(/_/g, ' ');
-}
-
 type FuelPlanFormProps = {
   owner: FuelPlanOwner;
+  /** The signed-in user: the draft is kept per user and per plan on this device. */
+  userId: string;
   plan: FuelPlan | null;
   items: readonly FuelItem[];
   unit: Unit;
@@ -193,16 +114,70 @@ type FuelPlanFormProps = {
   durationFrom: string;
 };
 
-/** The inputs of a fuel plan; saving sends them and the server answers with the computed schedule. */
-export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durationFrom }: FuelPlanFormProps) {
-  const [draft, setDraft] = useState<Draft>(() => initialDraft(plan, unit, defaultBodyMass));
-  const [issues, setIssues] = useState<Issue[]>([]);
+const NO_PROBLEMS: PlanProblems = { fields: {}, general: [] };
+
+const problemId = (name: string) => `fuel-plan-${name.replace(/\./g, '-')}-problem`;
+
+/** Problems of the form as a whole, under its alert. */
+function ProblemList({ problems }: { problems: readonly string[] }) {
+  if (problems.length === 0) return null;
+  return problems.map((p) => (
+    <span key={p} className="mt-1 block">
+      {p}
+    </span>
+  ));
+}
+
+/** Focuses the first control, in page order, whose name has a problem. */
+function focusFirst(form: HTMLFormElement, names: readonly string[]): void {
+  const control = Array.from(form.elements).find((el): el is HTMLInputElement => names.includes((el as HTMLInputElement).name));
+  control?.focus();
+}
+
+/**
+ * The inputs of a fuel plan; saving sends them and the server answers with the computed schedule. Each field is
+ * checked once it has been left (and all of them on saving) with the schema the server uses, the message beside
+ * the field in the words of its label; the server's answers go back to the fields they name; what is typed is
+ * kept on this device until it is saved, so neither a refused save nor a reload loses it.
+ */
+export function FuelPlanForm({ owner, userId, plan, items, unit, defaultBodyMass, durationFrom }: FuelPlanFormProps) {
+  const stored = useDraft<Draft>(`fuel-plan:${userId}:${owner.kind === 'plan' ? owner.planId : 'goal'}`, () =>
+    initialDraft(plan, unit, defaultBodyMass),
+  );
+  const draft = stored.value;
+  useState(() => reserveKeys(draft));
+  const [touched, setTouched] = useState<ReadonlySet<string>>(new Set());
+  const [submitted, setSubmitted] = useState(false);
+  const [server, setServer] = useState<PlanProblems>(NO_PROBLEMS);
   const [saved, setSaved] = useState(false);
   const save = useSaveFuelPlan(owner);
 
+  const check = checkPlanDraft(draft, unit);
+  /** The message beside a control: the server's answer, else the check once the field was left or a save tried. */
+  const problem = (name: string): string | undefined =>
+    server.fields[name] ?? (submitted || touched.has(name) ? check.fields[name] : undefined);
+  /** A compact control's name and its link to the message under its row. */
+  const control = (name: string) =>
+    problem(name) ? { name, 'aria-invalid': true as const, 'aria-describedby': problemId(name) } : { name };
+  /** The messages of a row's compact controls, under the row (a grid row keeps its controls aligned). */
+  const rowProblems = (names: readonly string[]) =>
+    names.map((name) => {
+      const message = problem(name);
+      return message ? (
+        <p key={name} id={problemId(name)} className="text-sm font-semibold text-tartan">
+          {message}
+        </p>
+      ) : null;
+    });
+
   const set = (patch: Partial<Draft>) => {
     setSaved(false);
-    setDraft((d) => ({ ...d, ...patch }));
+    stored.update((d) => ({ ...d, ...patch }));
+  };
+  /** Removing a row renumbers the rows after it, so the server's answers no longer name the right ones. */
+  const remove = (patch: Partial<Draft>) => {
+    setServer(NO_PROBLEMS);
+    set(patch);
   };
   const setIntake = (key: number, patch: Partial<IntakeDraft>) =>
     set({ intakes: draft.intakes.map((r) => (r.key === key ? { ...r, ...patch } : r)) });
@@ -222,19 +197,41 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
     });
   }
 
-  function onSubmit(event: FormEvent) {
+  function onLeave(event: FocusEvent<HTMLFormElement>) {
+    const name = (event.target as Element).getAttribute('name');
+    if (name && !touched.has(name)) setTouched(new Set(touched).add(name));
+  }
+
+  function onEdit(event: FormEvent<HTMLFormElement>) {
+    const name = (event.target as Element).getAttribute('name');
+    if (name && name in server.fields)
+      setServer(({ fields: { [name]: _answered, ...rest }, general }) => ({ fields: rest, general }));
+  }
+
+  function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
+    const form = event.currentTarget;
     setSaved(false);
-    const parsed = FuelPlanInputSchema.safeParse(toInput(draft, unit));
-    if (!parsed.success) {
-      setIssues(parsed.error.issues.map((i) => ({ field: i.path.join('.'), message: i.message })));
+    setSubmitted(true);
+    setServer(NO_PROBLEMS);
+    save.reset();
+    if (!check.input) {
+      focusFirst(form, Object.keys(check.fields));
       return;
     }
-    setIssues([]);
-    save.mutate(parsed.data as FuelPlanInput, {
-      onSuccess: () => setSaved(true),
+    save.mutate(check.input, {
+      onSuccess: () => {
+        stored.clear();
+        setSubmitted(false);
+        setTouched(new Set());
+        setSaved(true);
+      },
+      // A refusal keeps everything on screen (and in the draft) and puts the answer at the fields it names.
       onError: (error) => {
-        if (isApiError(error) && error.fieldIssues.length > 0) setIssues(error.fieldIssues);
+        setSubmitted(false);
+        const answered = isApiError(error) ? problemsFromServer(error.fieldIssues, draft, unit) : NO_PROBLEMS;
+        setServer(answered);
+        focusFirst(form, Object.keys(answered.fields));
       },
     });
   }
@@ -247,21 +244,50 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
   ));
   const small = cn(CONTROL_CLASSES, 'w-full px-2 py-1.5 text-sm');
   const label = 'text-sm font-semibold';
+  const marked = Object.keys(check.fields).length;
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="Fuel plan inputs" className="flex flex-col gap-5">
+    <form
+      onSubmit={onSubmit}
+      onBlur={onLeave}
+      onChange={onEdit}
+      noValidate
+      aria-label="Fuel plan inputs"
+      className="flex flex-col gap-5"
+    >
+      {stored.restored && !saved && (
+        <div className="flex flex-col gap-2">
+          <FormAlert tone="success">Restored what you entered earlier on this device; it is not saved yet.</FormAlert>
+          <div>
+            <Button
+              variant="quiet"
+              onClick={() => {
+                setServer(NO_PROBLEMS);
+                setSubmitted(false);
+                stored.discard(initialDraft(plan, unit, defaultBodyMass));
+              }}
+            >
+              {plan ? 'Start again from the saved plan' : 'Start again from empty'}
+            </Button>
+          </div>
+        </div>
+      )}
       <fieldset className="grid grid-cols-1 gap-3 sm:grid-cols-2">
         <legend className="mb-2 font-semibold">The run</legend>
         <TextField
           label="Body mass (kg)"
+          name="body_mass_kg"
           inputMode="decimal"
           value={draft.bodyMass}
+          error={problem('body_mass_kg')}
           onChange={(e) => set({ bodyMass: e.target.value })}
           hint="For the meal figures and caffeine per kg."
         />
         <TextField
           label="Expected duration (optional, h:mm:ss)"
+          name="expected_duration_s"
           value={draft.duration}
+          error={problem('expected_duration_s')}
           onChange={(e) => set({ duration: e.target.value })}
           placeholder={plan ? formatDuration(plan.expected_duration_s) : '2:30:00'}
           hint={
@@ -272,21 +298,27 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
         />
         <TextField
           label={`Easy pace (m:ss per ${unit}, where needed)`}
+          name="easy_pace_s_per_km"
           value={draft.easyPace}
+          error={problem('easy_pace_s_per_km')}
           onChange={(e) => set({ easyPace: e.target.value })}
           placeholder={unit === 'mi' ? '9:30' : '5:55'}
           hint="Times the parts that have an effort or heart-rate target instead of a pace."
         />
         <TextField
           label="Start time of day (optional, HH:MM)"
+          name="start_clock"
           value={draft.startClock}
+          error={problem('start_clock')}
           onChange={(e) => set({ startClock: e.target.value })}
           placeholder="07:30"
         />
         <TextField
           label="Sweat rate (optional, L/h)"
+          name="sweat_l_per_h"
           inputMode="decimal"
           value={draft.sweat}
+          error={problem('sweat_l_per_h')}
           onChange={(e) => set({ sweat: e.target.value })}
           hint="From weighing before and after a run: it narrows the fluid range."
         />
@@ -345,12 +377,16 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                 <div className="mt-2 grid grid-cols-2 gap-2">
                   <TextField
                     label={`${words.name} low (${words.unit})`}
+                    name={`targets.${k}.low`}
+                    error={problem(`targets.${k}.low`)}
                     inputMode="decimal"
                     value={t.low}
                     onChange={(e) => set({ targets: { ...draft.targets, [k]: { ...t, low: e.target.value } } })}
                   />
                   <TextField
                     label={`${words.name} high (${words.unit})`}
+                    name={`targets.${k}.high`}
+                    error={problem(`targets.${k}.high`)}
                     inputMode="decimal"
                     value={t.high}
                     onChange={(e) => set({ targets: { ...draft.targets, [k]: { ...t, high: e.target.value } } })}
@@ -384,12 +420,18 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
               <div className="grid grid-cols-[1fr_1fr_auto] items-end gap-2">
                 <label className="flex flex-col gap-1">
                   <span className={label}>Name, bottle {n}</span>
-                  <input className={small} value={b.name} onChange={(e) => setBottle(b.key, { name: e.target.value })} />
+                  <input
+                    className={small}
+                    {...control(`bottles.${bi}.id`)}
+                    value={b.name}
+                    onChange={(e) => setBottle(b.key, { name: e.target.value })}
+                  />
                 </label>
                 <label className="flex flex-col gap-1">
                   <span className={label}>Volume, bottle {n}</span>
                   <input
                     className={small}
+                    {...control(`bottles.${bi}.volume_ml`)}
                     inputMode="decimal"
                     value={b.volume}
                     onChange={(e) => setBottle(b.key, { volume: e.target.value })}
@@ -407,50 +449,62 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                   </select>
                 </label>
               </div>
+              {rowProblems([`bottles.${bi}.id`, `bottles.${bi}.volume_ml`])}
               {b.contents.map((c, ci) => (
-                <div key={c.key} className="grid grid-cols-[1fr_6rem_auto] items-end gap-2">
-                  <label className="flex flex-col gap-1">
-                    <span className={label}>
-                      Mixed in, bottle {n} item {ci + 1}
-                    </span>
-                    <select
-                      className={small}
-                      value={c.itemId}
-                      onChange={(e) =>
-                        setBottle(b.key, {
-                          contents: b.contents.map((x) => (x.key === c.key ? { ...x, itemId: e.target.value } : x)),
+                <div key={c.key} className="flex flex-col gap-1">
+                  <div className="grid grid-cols-[1fr_6rem_auto] items-end gap-2">
+                    <label className="flex flex-col gap-1">
+                      <span className={label}>
+                        Mixed in, bottle {n} item {ci + 1}
+                      </span>
+                      <select
+                        className={small}
+                        {...control(`bottles.${bi}.contents.${ci}.item_id`)}
+                        value={c.itemId}
+                        onChange={(e) =>
+                          setBottle(b.key, {
+                            contents: b.contents.map((x) => (x.key === c.key ? { ...x, itemId: e.target.value } : x)),
+                          })
+                        }
+                      >
+                        <option value="">Choose an item</option>
+                        {items.map((i) => (
+                          <option key={i.id} value={i.id}>
+                            {i.name}
+                          </option>
+                        ))}
+                      </select>
+                    </label>
+                    <label className="flex flex-col gap-1">
+                      <span className={label}>Servings</span>
+                      <input
+                        className={small}
+                        {...control(`bottles.${bi}.contents.${ci}.servings`)}
+                        inputMode="decimal"
+                        value={c.servings}
+                        aria-label={`Servings, bottle ${n} item ${ci + 1}`}
+                        onChange={(e) =>
+                          setBottle(b.key, {
+                            contents: b.contents.map((x) => (x.key === c.key ? { ...x, servings: e.target.value } : x)),
+                          })
+                        }
+                      />
+                    </label>
+                    <Button
+                      variant="quiet"
+                      aria-label={`Remove item ${ci + 1} from bottle ${n}`}
+                      onClick={() =>
+                        remove({
+                          bottles: draft.bottles.map((x) =>
+                            x.key === b.key ? { ...x, contents: x.contents.filter((y) => y.key !== c.key) } : x,
+                          ),
                         })
                       }
                     >
-                      <option value="">Choose an item</option>
-                      {items.map((i) => (
-                        <option key={i.id} value={i.id}>
-                          {i.name}
-                        </option>
-                      ))}
-                    </select>
-                  </label>
-                  <label className="flex flex-col gap-1">
-                    <span className={label}>Servings</span>
-                    <input
-                      className={small}
-                      inputMode="decimal"
-                      value={c.servings}
-                      aria-label={`Servings, bottle ${n} item ${ci + 1}`}
-                      onChange={(e) =>
-                        setBottle(b.key, {
-                          contents: b.contents.map((x) => (x.key === c.key ? { ...x, servings: e.target.value } : x)),
-                        })
-                      }
-                    />
-                  </label>
-                  <Button
-                    variant="quiet"
-                    aria-label={`Remove item ${ci + 1} from bottle ${n}`}
-                    onClick={() => setBottle(b.key, { contents: b.contents.filter((x) => x.key !== c.key) })}
-                  >
-                    Remove
-                  </Button>
+                      Remove
+                    </Button>
+                  </div>
+                  {rowProblems([`bottles.${bi}.contents.${ci}.item_id`, `bottles.${bi}.contents.${ci}.servings`])}
                 </div>
               ))}
               <p className="text-sm tabular-nums" aria-live="polite">
@@ -475,7 +529,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                 >
                   Mix in an item
                 </Button>
-                <Button variant="quiet" onClick={() => set({ bottles: draft.bottles.filter((x) => x.key !== b.key) })}>
+                <Button variant="quiet" onClick={() => remove({ bottles: draft.bottles.filter((x) => x.key !== b.key) })}>
                   Remove bottle {n}
                 </Button>
               </div>
@@ -523,7 +577,12 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
             >
               <label className="col-span-2 flex flex-col gap-1">
                 <span className={label}>What, intake {n}</span>
-                <select className={small} value={r.what} onChange={(e) => setIntake(r.key, { what: e.target.value })}>
+                <select
+                  className={small}
+                  {...control(`intakes.${ri}.what`)}
+                  value={r.what}
+                  onChange={(e) => setIntake(r.key, { what: e.target.value })}
+                >
                   <option value="">Choose an item or a bottle</option>
                   {itemOptions}
                   {draft.bottles
@@ -540,6 +599,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                   <span className={label}>Ml each, intake {n}</span>
                   <input
                     className={small}
+                    {...control(`intakes.${ri}.ml`)}
                     inputMode="decimal"
                     value={r.ml}
                     onChange={(e) => setIntake(r.key, { ml: e.target.value })}
@@ -550,6 +610,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                   <span className={label}>Servings, intake {n}</span>
                   <input
                     className={small}
+                    {...control(`intakes.${ri}.servings`)}
                     inputMode="decimal"
                     value={r.servings}
                     onChange={(e) => setIntake(r.key, { servings: e.target.value })}
@@ -578,6 +639,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                     </span>
                     <input
                       className={small}
+                      {...control(`intakes.${ri}.when.every`)}
                       inputMode="decimal"
                       value={r.every}
                       onChange={(e) => setIntake(r.key, { every: e.target.value })}
@@ -587,7 +649,12 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                     <span className={label}>
                       First at ({r.when === 'every_time' ? 'h:mm' : r.unit}, optional), intake {n}
                     </span>
-                    <input className={small} value={r.first} onChange={(e) => setIntake(r.key, { first: e.target.value })} />
+                    <input
+                      className={small}
+                      {...control(`intakes.${ri}.when.first`)}
+                      value={r.first}
+                      onChange={(e) => setIntake(r.key, { first: e.target.value })}
+                    />
                   </label>
                 </>
               )}
@@ -598,6 +665,7 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                   </span>
                   <input
                     className={small}
+                    {...control(`intakes.${ri}.when.at`)}
                     value={r.at}
                     placeholder={r.when === 'at_times' ? '0:40, 1:20' : '4.5, 9, 13.5'}
                     onChange={(e) => setIntake(r.key, { at: e.target.value })}
@@ -613,9 +681,12 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
                   </select>
                 </label>
               )}
-              <Button variant="quiet" onClick={() => set({ intakes: draft.intakes.filter((x) => x.key !== r.key) })}>
+              <Button variant="quiet" onClick={() => remove({ intakes: draft.intakes.filter((x) => x.key !== r.key) })}>
                 Remove intake {n}
               </Button>
+              <div className="col-span-2 flex flex-col gap-1 empty:hidden sm:col-span-4">
+                {rowProblems(['what', 'servings', 'ml', 'when.every', 'when.first', 'when.at'].map((f) => `intakes.${ri}.${f}`))}
+              </div>
             </div>
           );
         })}
@@ -624,7 +695,8 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
             variant="secondary"
             onClick={() =>
               set({
-                intakes: [...draft.intakes, { ...intakeDraft(null, unit), what: items[0] ? `item:${items[0].id}` : '' }],
+                // The picker starts empty: nothing goes into the plan that the user did not choose.
+                intakes: [...draft.intakes, intakeDraft(null, unit)],
               })
             }
           >
@@ -633,20 +705,26 @@ export function FuelPlanForm({ owner, plan, items, unit, defaultBodyMass, durati
         </div>
       </fieldset>
 
-      {issues.length > 0 && (
+      {submitted && (marked > 0 || check.general.length > 0) && (
         <FormAlert>
-          The plan cannot be saved yet:
-          <ul className="mt-1 list-disc pl-5">
-            {issues.map((i) => (
-              <li key={`${i.field}-${i.message}`}>
-                {i.field ? `${fieldWords(i.field)}: ` : ''}
-                {i.message}
-              </li>
-            ))}
-          </ul>
+          Not saved yet
+          {marked === 1 && ': one field needs a fix, see the message beside it'}
+          {marked > 1 && `: ${marked} fields need a fix, see the messages beside them`}.
+          <ProblemList problems={check.general} />
         </FormAlert>
       )}
-      {save.error && issues.length === 0 && <FormAlert>{save.error.message}</FormAlert>}
+      {save.error && (
+        <FormAlert>
+          Not saved:{' '}
+          {Object.keys(server.fields).length > 0
+            ? 'see the messages beside the fields.'
+            : server.general.length > 0
+              ? ''
+              : save.error.message}{' '}
+          Everything you entered is still here.
+          <ProblemList problems={server.general} />
+        </FormAlert>
+      )}
       {saved && <FormAlert tone="success">Fuel plan saved. The schedule below is up to date.</FormAlert>}
       <div>
         <Button type="submit" disabled={save.isPending}>
