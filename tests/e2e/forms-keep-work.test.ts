@@ -129,21 +129,18 @@ describe('fuel taken on the run page', () => {
 
 describe('the fuel plan form', () => {
   it('answers each field in the words of its label, keeps a draft over a reload, and a refused save keeps everything with the answer at the field', async () => {
-    await browser.context.clearCookies();
-    const page = await browser.context.newPage();
-    await page.setViewportSize({ width: 375, height: 812 });
-    await page.goto(`${server.url}/sign-in`);
-    await signIn(page, runner.email, runner.password);
+    const page = await session.browser.context.newPage();
+    await signInThroughPage(page, session.server.url, runner, { width: 375, height: 812 });
     await page.waitForURL(/\/log$/);
     const suffix = Date.now().toString(36);
-    const { item: gel } = await call<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
+    const { item: gel } = await callApi<{ item: { id: string } }>(page, 'POST', '/api/fuel-items', {
       name: `plan gel ${suffix}`,
       carbohydrate_g: 22,
       sodium_mg: 40,
       caffeine_mg: 0,
       fluid_ml: 0,
     });
-    await page.goto(`${server.url}/goal-race/fuel`);
+    await page.goto(`${session.server.url}/goal-race/fuel`);
     const form = page.getByRole('form', { name: 'Fuel plan inputs' });
     await form.waitFor();
 
@@ -199,7 +196,7 @@ describe('the fuel plan form', () => {
     ).toBe('5');
 
     // The gel is deleted elsewhere: the server refuses, its answer sits at that intake's picker, nothing is lost.
-    await call(page, 'DELETE', `/api/fuel-items/${gel.id}`);
+    await callApi(page, 'DELETE', `/api/fuel-items/${gel.id}`);
     await form.getByRole('button', { name: 'Save and compute the schedule' }).click();
     await expect.poll(() => form.getByText(/^Not saved: see the messages beside the fields\./).count()).toBe(1);
     const answer = form.getByText('There is no fuel item with this id.');
@@ -228,7 +225,7 @@ describe('the fuel plan form', () => {
       Object.keys(localStorage).filter((k) => k.startsWith('pacewright:draft:fuel-plan:')),
     );
     expect(stored).toEqual([]);
-    const saved = await call<{ fuel_plan: { body_mass_kg: number } }>(page, 'GET', '/api/me/goal-race/fuel-plan');
+    const saved = await callApi<{ fuel_plan: { body_mass_kg: number } }>(page, 'GET', '/api/me/goal-race/fuel-plan');
     expect(saved.fuel_plan.body_mass_kg).toBe(58);
     await page.close();
   });
