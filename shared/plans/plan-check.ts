@@ -1,4 +1,4 @@
-import { isClosingRecovery } from './expand.ts';
+import { isClosingRecovery } from './closing-recovery.ts';
 import type { ExpandedPart, ResolvedTarget } from './types.ts';
 
 /**

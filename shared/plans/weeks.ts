@@ -1,5 +1,6 @@
 import { isIsoDate, weekStart } from '../weeks/weeks.ts';
-import { expandParts, isClosingRecovery } from './expand.ts';
+import { isClosingRecovery } from './closing-recovery.ts';
+import { expandParts } from './expand.ts';
 import type { PlanItem } from './types.ts';
 
 export { addDays, weekDates } from '../weeks/weeks.ts';

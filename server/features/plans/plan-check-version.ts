@@ -2,11 +2,11 @@ import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 
 /**
- * The code that turns a run's series and its plan's resolved parts into a result. It imports no other
- * code today (only types); a module it starts importing at run time belongs here too
+ * The code that turns a run's series and its plan's resolved parts into a result: the plan check and the
+ * one module it imports at run time. A module it starts importing at run time belongs here too
  * (tests/unit/server/plans/plan-check-version.test.ts checks that).
  */
-export const PLAN_CHECK_SOURCES = ['shared/plans/plan-check.ts'] as const;
+export const PLAN_CHECK_SOURCES = ['shared/plans/plan-check.ts', 'shared/plans/closing-recovery.ts'] as const;
 
 function hashSources(root: URL): string | null {
   try {

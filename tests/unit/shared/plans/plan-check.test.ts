@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { expandParts, isClosingRecovery, resolveTargets } from '../../../../shared/plans/expand.ts';
+import { isClosingRecovery } from '../../../../shared/plans/closing-recovery.ts';
+import { expandParts, resolveTargets } from '../../../../shared/plans/expand.ts';
 import {
   checkRunAgainstPlan,
   judgePart,
