@@ -3,6 +3,10 @@
 # trust auth (loopback only). Works as root (runs server as the 'postgres' OS user)
 # and as a non-root user (runs as that user). Idempotent.
 # Usage: db/pg.sh start [db ...] | stop | status | url [db] | destroy
+#        db/pg.sh replica start | stop | status | url [db] | promote | destroy
+# Replica mode: a streaming read replica of the cluster above (pg_basebackup -R -X stream), on REPLICA_PORT
+# (default PGPORT+10), data under REPLICA_BASE (default <the cluster's folder>-replica). initdb's defaults
+# already allow replication from 127.0.0.1 (trust), wal_level=replica and max_wal_senders=10.
 set -euo pipefail
 
 PROJECT_DIR="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -45,9 +49,9 @@ fi
 # (pg_ctl status/stop trust the PID alone; after a kill or a machine restart it can
 # belong to an unrelated process, which pg_ctl stop would then signal.)
 is_running() {
-  local stat
-  [ -f "$PGDATA/postmaster.pid" ] || return 1
-  stat="$(cat "/proc/$(head -n1 "$PGDATA/postmaster.pid")/stat" 2>/dev/null)" || return 1
+  local stat data="${1:-$PGDATA}"
+  [ -f "$data/postmaster.pid" ] || return 1
+  stat="$(cat "/proc/$(head -n1 "$data/postmaster.pid")/stat" 2>/dev/null)" || return 1
   case "$stat" in *"(postgres) "[RSD]*) return 0 ;; *) return 1 ;; esac
 }
 
@@ -89,11 +93,50 @@ do_stop() {
   echo "pg.sh: stopped"
 }
 
+REPLICA_PORT="${REPLICA_PORT:-$((PGPORT + 10))}"
+REPLICA_BASE="${REPLICA_BASE:-$PGBASE-replica}"
+REPLICA_DATA="$REPLICA_BASE/data"
+
+do_replica() {
+  case "${1:-}" in
+    start)
+      is_running || { echo "pg.sh: start the primary first (db/pg.sh start)" >&2; exit 1; }
+      install -d -m 700 -o "$RUNAS" "$REPLICA_BASE"
+      if [ ! -s "$REPLICA_DATA/PG_VERSION" ]; then
+        rm -rf "$REPLICA_DATA"   # leftovers of an interrupted copy
+        # -R writes primary_conninfo and standby.signal; -X stream copies the WAL needed to start.
+        as_pg "$PGBIN/pg_basebackup" -h 127.0.0.1 -p "$PGPORT" -U postgres -D "$REPLICA_DATA" -R -X stream -c fast \
+          >"$REPLICA_BASE/basebackup.log" 2>&1 || { cat "$REPLICA_BASE/basebackup.log" >&2; exit 1; }
+      fi
+      if ! is_running "$REPLICA_DATA"; then
+        rm -f "$REPLICA_DATA/postmaster.pid"
+        as_pg "$PGBIN/pg_ctl" -D "$REPLICA_DATA" -l "$REPLICA_BASE/postgres.log" -o "-p $REPLICA_PORT" -w -t 60 start >/dev/null \
+          || { tail -n 20 "$REPLICA_BASE/postgres.log" >&2; exit 1; }
+      fi
+      echo "pg.sh: replica of 127.0.0.1:$PGPORT running on 127.0.0.1:$REPLICA_PORT (data $REPLICA_DATA)"
+      ;;
+    stop)
+      if is_running "$REPLICA_DATA"; then as_pg "$PGBIN/pg_ctl" -D "$REPLICA_DATA" -m fast -w stop >/dev/null; fi
+      echo "pg.sh: replica stopped"
+      ;;
+    status) if is_running "$REPLICA_DATA"; then echo running; else echo stopped; exit 3; fi ;;
+    url) echo "postgres://postgres@127.0.0.1:$REPLICA_PORT/${2:-$DEFAULT_DB}" ;;
+    # The replica becomes a primary of its own (it stops following; the app then reads the primary again).
+    promote) as_pg "$PGBIN/pg_ctl" -D "$REPLICA_DATA" -w promote >/dev/null; echo "pg.sh: replica promoted" ;;
+    destroy)
+      if is_running "$REPLICA_DATA"; then as_pg "$PGBIN/pg_ctl" -D "$REPLICA_DATA" -m fast -w stop >/dev/null; fi
+      rm -rf "$REPLICA_BASE"; echo "pg.sh: removed $REPLICA_BASE"
+      ;;
+    *) echo "usage: $0 replica start|stop|status|url [db]|promote|destroy" >&2; exit 2 ;;
+  esac
+}
+
 case "${1:-}" in
+  replica) shift; do_replica "$@" ;;
   start) shift; do_start "$@" ;;
   stop) do_stop ;;
   status) if is_running; then echo running; else echo stopped; exit 3; fi ;;
   url) echo "postgres://postgres@127.0.0.1:$PGPORT/${2:-$DEFAULT_DB}" ;;
   destroy) do_stop; rm -rf "$PGBASE"; echo "pg.sh: removed $PGBASE" ;;
-  *) echo "usage: $0 start [db ...]|stop|status|url [db]|destroy" >&2; exit 2 ;;
+  *) echo "usage: $0 start [db ...]|stop|status|url [db]|destroy|replica …" >&2; exit 2 ;;
 esac

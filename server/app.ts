@@ -31,6 +31,7 @@ import { errorHandler, notFoundHandler } from './lib/error-handler.ts';
 import { loggableUrl, logger } from './lib/logger.ts';
 import { createSmtpMailer, type Mailer } from './lib/mailer.ts';
 import { csrfProtection } from './lib/session.ts';
+import { rememberWritePositions } from './lib/read-replica.ts';
 import { createFsStore, type FileStore } from './lib/storage.ts';
 
 export interface AppDeps {
@@ -101,6 +102,8 @@ export function createApp({
   const api = express.Router();
   api.use(csrfProtection(config));
   api.use(authenticate(config));
+  // With a read replica: a user's writes are remembered so their next reads see them (read-your-writes).
+  api.use(rememberWritePositions());
   api.get('/openapi.json', (_req, res) => {
     res.json(openApi);
   });

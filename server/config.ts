@@ -8,6 +8,11 @@ export interface AppConfig {
   port: number;
   host: string;
   databaseUrl: string;
+  /**
+   * A streaming read replica (DATABASE_REPLICA_URL) for the read-only pages, or null; server/lib/read-replica.ts.
+   * `maxLagMs` (DATABASE_REPLICA_MAX_LAG_MS): past this lag every read goes to the primary.
+   */
+  replica: { url: string; maxLagMs: number } | null;
   dataDir: string;
   jwtSecret: string;
   sessionDays: number;
@@ -64,6 +69,9 @@ export function defaultComputeThreads(env: NodeJS.ProcessEnv = process.env): num
   return Math.max(1, Math.min(4, availableParallelism() - 1));
 }
 
+/** How far behind the primary (in time) the read replica may be and still serve reads: 2 s. */
+export const DEFAULT_REPLICA_MAX_LAG_MS = 2_000;
+
 const WEAK_SECRETS = new Set(['', 'secret', 'changeme', 'change-me', 'dev', 'development']);
 
 export class ConfigError extends Error {}
@@ -85,6 +93,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   if (!/^\d+$/.test(quotaMb) || Number(quotaMb) < 1) {
     throw new ConfigError(`STORAGE_QUOTA_MB must be a whole number of megabytes (1 or more), not "${quotaMb}".`);
   }
+  const maxLag = env.DATABASE_REPLICA_MAX_LAG_MS || String(DEFAULT_REPLICA_MAX_LAG_MS);
+  if (!/^\d+$/.test(maxLag) || Number(maxLag) < 1) {
+    throw new ConfigError(`DATABASE_REPLICA_MAX_LAG_MS must be a whole number of milliseconds (1 or more), not "${maxLag}".`);
+  }
   const port = Number(env.PORT ?? 3000);
   const host = env.HOST ?? '127.0.0.1';
   return {
@@ -92,6 +104,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     port,
     host,
     databaseUrl: databaseUrlFromEnv(env),
+    replica: env.DATABASE_REPLICA_URL ? { url: env.DATABASE_REPLICA_URL, maxLagMs: Number(maxLag) } : null,
     dataDir: path.resolve(env.DATA_DIR ?? '.data'),
     // Outside production a per-process random secret: sessions simply end on restart.
     jwtSecret: secret || randomBytes(32).toString('hex'),

@@ -78,6 +78,9 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     databaseUrl: config.databaseUrl,
     storageQuotaBytes: config.storageQuotaBytes,
   });
+  // DATABASE_REPLICA_URL: read-only pages read a streaming replica while it keeps up (server/lib/read-replica.ts).
+  const { startReadReplica, stopReadReplica } = await import('./lib/read-replica.ts');
+  await startReadReplica(config);
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on('error', reject);
@@ -117,6 +120,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
       await catcher?.close();
       await fake?.close();
       await reconcile?.stop();
+      await stopReadReplica();
       await db.destroy();
     },
   };

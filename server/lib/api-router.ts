@@ -2,6 +2,7 @@ import { Router, type RequestHandler } from 'express';
 import type { z } from 'zod';
 import type { Permission } from '../../shared/auth/permissions.ts';
 import { authorize } from './authorize.ts';
+import { replicaReads } from './read-replica.ts';
 import { validate } from './validate.ts';
 
 type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
@@ -22,6 +23,11 @@ export interface RouteSpec {
   status?: number;
   /** Middleware that runs before validation, e.g. a rate limiter. */
   before?: RequestHandler[];
+  /**
+   * `replica`: a read-only page whose `readDb()` reads a streaming read replica may serve (server/lib/read-replica.ts).
+   * Writes in its handler (marking notes read, storing results) still go to the primary through `db`.
+   */
+  reads?: 'replica';
 }
 
 export interface ApiRouter {
@@ -39,7 +45,13 @@ export function createApiRouter(): ApiRouter {
     specs,
     route(spec, handler) {
       specs.push(spec);
-      router[spec.method](spec.path, ...(spec.before ?? []), authorize(spec.access), validate(spec), handler);
+      router[spec.method](
+        spec.path,
+        ...(spec.before ?? []),
+        authorize(spec.access),
+        validate(spec),
+        spec.reads === 'replica' ? replicaReads(handler) : handler,
+      );
     },
   };
 }

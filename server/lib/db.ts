@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
 import knexFactory, { type Knex } from 'knex';
 import pg from 'pg';
 import { knexConfig } from '../../db/knexfile.ts';
@@ -32,6 +33,8 @@ export interface UserRow {
   sex: 'male' | 'female' | null;
   created_at: Date;
   updated_at: Date;
+  /** The primary's WAL insert position after this user's last write (read-your-writes, server/lib/read-replica.ts). */
+  last_write_lsn: string | null;
 }
 
 export interface ApiTokenRow {
@@ -546,6 +549,20 @@ export const db: Knex = knexFactory({
 });
 
 export type Db = Knex | Knex.Transaction;
+
+/**
+ * The read replica's Knex while a request the replica may serve runs (server/lib/read-replica.ts sets it);
+ * absent otherwise.
+ */
+export const replicaReadContext = new AsyncLocalStorage<Knex>();
+
+/**
+ * Knex for a read that a streaming read replica may serve: the replica inside a request routed to it
+ * (`reads: 'replica'` on the route), else the primary. Only for plain reads; writes always use `db`.
+ */
+export function readDb(): Knex {
+  return replicaReadContext.getStore() ?? db;
+}
 
 /** PostgreSQL's SQLSTATE for a unique violation. */
 export const PG_UNIQUE_VIOLATION = '23505';

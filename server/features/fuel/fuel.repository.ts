@@ -1,4 +1,4 @@
-import { db, type Db, type FuelItemRow, type FuelPlanRow, type FuelTakenRow, type RunCheckinRow } from '../../lib/db.ts';
+import { db, type Db, type FuelItemRow, type FuelPlanRow, type FuelTakenRow, type RunCheckinRow, readDb } from '../../lib/db.ts';
 import type { FuelItem, FuelItemInput, FuelItemPatch } from '../../../shared/fuel/schemas.ts';
 import type { FuelTargets } from '../../../shared/fuel/targets.ts';
 import type { TakenEntry } from '../../../shared/fuel/taken.ts';
@@ -94,7 +94,7 @@ export async function findFuelTaken(runId: string, trx: Db = db): Promise<FuelTa
   return trx('fuel_taken').where({ run_id: runId }).first();
 }
 
-export async function findFuelTakenOf(runIds: readonly string[], trx: Db = db): Promise<FuelTakenRow[]> {
+export async function findFuelTakenOf(runIds: readonly string[], trx: Db = readDb()): Promise<FuelTakenRow[]> {
   if (runIds.length === 0) return [];
   return trx('fuel_taken').whereIn('run_id', runIds);
 }
@@ -116,7 +116,7 @@ export async function findRunCheckin(runId: string, trx: Db = db): Promise<RunCh
   return trx('run_checkins').where({ run_id: runId }).first();
 }
 
-export async function findRunCheckinsOf(runIds: readonly string[], trx: Db = db): Promise<RunCheckinRow[]> {
+export async function findRunCheckinsOf(runIds: readonly string[], trx: Db = readDb()): Promise<RunCheckinRow[]> {
   if (runIds.length === 0) return [];
   return trx('run_checkins').whereIn('run_id', runIds);
 }

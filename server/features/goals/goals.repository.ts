@@ -1,4 +1,4 @@
-import { db, type Db, type GoalRaceRow, type RaceResultRow } from '../../lib/db.ts';
+import { db, type Db, type GoalRaceRow, type RaceResultRow, readDb } from '../../lib/db.ts';
 import type { GoalRace, GoalRaceInput, RaceResult, RaceResultInput } from '../../../shared/goals/schemas.ts';
 
 export function toGoalRace(row: GoalRaceRow): GoalRace {
@@ -19,7 +19,7 @@ export async function findGoalRace(userId: string, trx: Db = db): Promise<GoalRa
   return trx('goal_races').where({ user_id: userId }).first();
 }
 
-export async function findGoalRacesOf(userIds: readonly string[], trx: Db = db): Promise<GoalRaceRow[]> {
+export async function findGoalRacesOf(userIds: readonly string[], trx: Db = readDb()): Promise<GoalRaceRow[]> {
   if (userIds.length === 0) return [];
   return trx('goal_races').whereIn('user_id', userIds);
 }
@@ -42,7 +42,7 @@ export async function listRaceResults(userId: string, trx: Db = db): Promise<Rac
 }
 
 /** Race results of several runners, newest first (as `listRaceResults` gives one runner's). */
-export async function listRaceResultsOf(userIds: readonly string[], trx: Db = db): Promise<RaceResultRow[]> {
+export async function listRaceResultsOf(userIds: readonly string[], trx: Db = readDb()): Promise<RaceResultRow[]> {
   if (userIds.length === 0) return [];
   return trx('race_results').whereIn('user_id', userIds).orderBy('date', 'desc');
 }

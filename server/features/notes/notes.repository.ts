@@ -1,4 +1,4 @@
-import { db, type Db } from '../../lib/db.ts';
+import { db, type Db, readDb } from '../../lib/db.ts';
 
 /** At most this many unread notes are listed in `GET /api/me/unread` (the count covers all of them). */
 export const UNREAD_ITEMS_MAX = 100;
@@ -48,7 +48,7 @@ export async function listUnreadNotes(userId: string, limit = UNREAD_ITEMS_MAX, 
 }
 
 /** Of `noteIds`, those `userId` has opened. */
-export async function findReadNoteIds(userId: string, noteIds: readonly string[], trx: Db = db): Promise<Set<string>> {
+export async function findReadNoteIds(userId: string, noteIds: readonly string[], trx: Db = readDb()): Promise<Set<string>> {
   if (noteIds.length === 0) return new Set();
   const rows = await trx('note_reads').where('user_id', userId).whereIn('note_id', noteIds).select('note_id');
   return new Set(rows.map((r) => r.note_id));

@@ -1,6 +1,6 @@
-import { db, type Db, type PlanCheckResultRow } from '../../lib/db.ts';
+import { db, type Db, type PlanCheckResultRow, readDb } from '../../lib/db.ts';
 
-export async function findPlanCheckResults(runIds: readonly string[], trx: Db = db): Promise<PlanCheckResultRow[]> {
+export async function findPlanCheckResults(runIds: readonly string[], trx: Db = readDb()): Promise<PlanCheckResultRow[]> {
   if (runIds.length === 0) return [];
   return trx('plan_check_results').whereIn('run_id', runIds);
 }

@@ -1,4 +1,4 @@
-import { db, type Db, type RunPlanLinkRow, type SessionPlanRow } from '../../lib/db.ts';
+import { db, type Db, type RunPlanLinkRow, type SessionPlanRow, readDb } from '../../lib/db.ts';
 import { formatShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 
@@ -84,7 +84,12 @@ export async function listPlans(
 }
 
 /** Several runners' plans between two dates (inclusive), in the order `listPlans` gives one runner's. */
-export async function listPlansOf(runnerIds: readonly string[], from: string, to: string, trx: Db = db): Promise<NamedPlanRow[]> {
+export async function listPlansOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = readDb(),
+): Promise<NamedPlanRow[]> {
   if (runnerIds.length === 0) return [];
   return namedPlans(trx)
     .whereIn('session_plans.runner_id', runnerIds)
@@ -131,7 +136,7 @@ export async function findPlansForRuns(
   ids: readonly string[],
   runnerIds: readonly string[],
   dates: readonly string[],
-  trx: Db = db,
+  trx: Db = readDb(),
 ): Promise<SessionPlanRow[]> {
   if (ids.length === 0 && (runnerIds.length === 0 || dates.length === 0)) return [];
   return namedPlans(trx)
@@ -144,7 +149,7 @@ export async function findPlansForRuns(
     .orderBy(PLAN_ORDER);
 }
 
-export async function findRunPlanLinks(runIds: readonly string[], trx: Db = db): Promise<RunPlanLinkRow[]> {
+export async function findRunPlanLinks(runIds: readonly string[], trx: Db = readDb()): Promise<RunPlanLinkRow[]> {
   if (runIds.length === 0) return [];
   return trx('run_plan_links').whereIn('run_id', runIds);
 }

@@ -7,6 +7,7 @@ import {
   type PlanBatchRow,
   type PlanChangeRow,
   type SessionPlanRow,
+  readDb,
 } from '../../lib/db.ts';
 import type { DayMark, LibrarySession, PlanChange } from '../../../shared/plans/prescribe-schemas.ts';
 import { formatShorthand } from '../../../shared/plans/shorthand.ts';
@@ -248,7 +249,7 @@ export async function listDayMarksOf(
   runnerIds: readonly string[],
   from: string,
   to: string,
-  trx: Db = db,
+  trx: Db = readDb(),
 ): Promise<DayMarkRow[]> {
   if (runnerIds.length === 0) return [];
   return trx('day_marks').whereIn('runner_id', runnerIds).andWhere('date', '>=', from).andWhere('date', '<=', to).orderBy('date');

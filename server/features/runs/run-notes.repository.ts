@@ -1,4 +1,4 @@
-import { db, type Db, type NoteConcern } from '../../lib/db.ts';
+import { db, type Db, type NoteConcern, readDb } from '../../lib/db.ts';
 import type { RunNote } from '../../../shared/runs/schemas.ts';
 
 interface NoteWithAuthor {
@@ -58,7 +58,7 @@ export async function listRunNotes(runId: string, trx: Db = db): Promise<RunNote
 }
 
 /** Notes on several runs, oldest first. */
-export async function listRunNotesOf(runIds: readonly string[], trx: Db = db): Promise<RunNote[]> {
+export async function listRunNotesOf(runIds: readonly string[], trx: Db = readDb()): Promise<RunNote[]> {
   if (runIds.length === 0) return [];
   return (await notesWithAuthors(trx).whereIn('run_notes.run_id', runIds).orderBy('run_notes.created_at', 'asc')).map(toRunNote);
 }

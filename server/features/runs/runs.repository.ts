@@ -6,6 +6,7 @@ import {
   type RunRow,
   type RunSplitRow,
   type SourceFileRow,
+  readDb,
 } from '../../lib/db.ts';
 import type { Knex } from 'knex';
 import { insertInChunks } from '../../lib/insert-in-chunks.ts';
@@ -122,7 +123,7 @@ export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, chi
   return row as RunRow;
 }
 
-export async function findRunById(id: string, trx: Db = db): Promise<RunRow | undefined> {
+export async function findRunById(id: string, trx: Db = readDb()): Promise<RunRow | undefined> {
   return trx('runs').where({ id }).first();
 }
 
@@ -149,7 +150,7 @@ function fromJsonRow<T>(row: Record<string, unknown>, dates: readonly string[], 
  * A run with its splits, device laps and fastest sections, read in one round trip (the run page), in
  * the orders `findRunParts` gives.
  */
-export async function findRunWithParts(id: string, trx: Db = db) {
+export async function findRunWithParts(id: string, trx: Db = readDb()) {
   const row = (await trx('runs')
     .where({ id })
     .first(
@@ -189,7 +190,7 @@ export async function findRunLaps(runId: string, trx: Db = db): Promise<RunLapRo
   return trx('run_laps').where({ run_id: runId }).orderBy('lap_index');
 }
 
-export async function findRunTrack(runId: string, trx: Db = db) {
+export async function findRunTrack(runId: string, trx: Db = readDb()) {
   return trx('run_tracks').where({ run_id: runId }).first();
 }
 
@@ -222,7 +223,7 @@ function runListOrderBy(sort: RunListSort, order: RunListOrder): string {
 export async function listRunsOf(
   userId: string,
   query: ListRunsQuery,
-  trx: Db = db,
+  trx: Db = readDb(),
 ): Promise<{ rows: RunListRow[]; total: number }> {
   const matching = () => {
     const q = trx('runs').where({ user_id: userId });

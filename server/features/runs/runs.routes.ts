@@ -103,6 +103,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
     {
       method: 'get',
       path: '/runs',
+      reads: 'replica',
       tag: 'runs',
       summary:
         'List runs, paged, newest first unless sort (date|distance|duration|pace) and order (asc|desc) say otherwise; optionally between local dates (from/to) and for a squad runner (runner_id)',
@@ -119,6 +120,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
     {
       method: 'get',
       path: '/runs/:id',
+      reads: 'replica',
       tag: 'runs',
       summary: 'A run: summary, splits per mile and per km, device laps, fastest sections',
       access: 'own-data',

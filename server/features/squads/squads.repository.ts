@@ -1,7 +1,7 @@
-import { db, type Db, type SquadRow } from '../../lib/db.ts';
+import { db, type Db, type SquadRow, readDb } from '../../lib/db.ts';
 
 /** Ids of the coaches of every squad the runner belongs to now. */
-export async function findCoachIdsOfRunner(runnerId: string, trx: Db = db): Promise<string[]> {
+export async function findCoachIdsOfRunner(runnerId: string, trx: Db = readDb()): Promise<string[]> {
   const rows = await trx('squad_members')
     .join('squads', 'squads.id', 'squad_members.squad_id')
     .where('squad_members.runner_id', runnerId)
@@ -14,7 +14,7 @@ export async function insertSquad(coachId: string, name: string, trx: Db = db) {
   return row!;
 }
 
-export async function findSquadById(id: string, trx: Db = db) {
+export async function findSquadById(id: string, trx: Db = readDb()) {
   return trx('squads').where({ id }).first();
 }
 
@@ -26,7 +26,7 @@ export async function listSquadsOfUser(userId: string, trx: Db = db): Promise<Sq
     .orderBy('created_at');
 }
 
-export async function listMembers(squadId: string, trx: Db = db) {
+export async function listMembers(squadId: string, trx: Db = readDb()) {
   return trx('squad_members')
     .join('users', 'users.id', 'squad_members.runner_id')
     .where('squad_members.squad_id', squadId)

@@ -1,4 +1,4 @@
-import { db, isUniqueViolation, type Db, type UserRow } from '../../lib/db.ts';
+import { db, isUniqueViolation, type Db, type UserRow, readDb } from '../../lib/db.ts';
 import { ConflictError } from '../../lib/errors.ts';
 import type { AdminUser, Profile, Role, UpdateProfileInput, User } from '../../../shared/users/schemas.ts';
 
@@ -28,11 +28,11 @@ export function toAdminUser(row: UserRow): AdminUser {
   return { ...toUser(row), created_at: row.created_at.toISOString() };
 }
 
-export async function findUserById(id: string, trx: Db = db): Promise<UserRow | undefined> {
+export async function findUserById(id: string, trx: Db = readDb()): Promise<UserRow | undefined> {
   return trx('users').where({ id }).first();
 }
 
-export async function findUsersByIds(ids: readonly string[], trx: Db = db): Promise<UserRow[]> {
+export async function findUsersByIds(ids: readonly string[], trx: Db = readDb()): Promise<UserRow[]> {
   if (ids.length === 0) return [];
   return trx('users').whereIn('id', ids);
 }

@@ -1,4 +1,4 @@
-import { db, type Db, type NoteConcern } from '../../lib/db.ts';
+import { db, type Db, type NoteConcern, readDb } from '../../lib/db.ts';
 import { RUN_LIST_COLUMNS, type RunListRow } from '../runs/runs.repository.ts';
 
 /** The run's TRIMP stored at import (`details.trimp.trimp`), null without heart rate. */
@@ -17,7 +17,7 @@ export async function listRunLoadsOf(
   runnerIds: readonly string[],
   from: string,
   to: string,
-  trx: Db = db,
+  trx: Db = readDb(),
 ): Promise<RunLoadRow[]> {
   if (runnerIds.length === 0) return [];
   return (
@@ -37,7 +37,7 @@ export async function listRunItemsOf(
   runnerIds: readonly string[],
   from: string,
   to: string,
-  trx: Db = db,
+  trx: Db = readDb(),
 ): Promise<Array<RunListRow & { user_id: string; trimp: number | null }>> {
   if (runnerIds.length === 0) return [];
   return (
@@ -53,7 +53,7 @@ export async function listRunItemsOf(
 }
 
 /** Each runner's latest upload time (runners without runs are left out). */
-export async function lastUploadsOf(runnerIds: readonly string[], trx: Db = db): Promise<Map<string, Date>> {
+export async function lastUploadsOf(runnerIds: readonly string[], trx: Db = readDb()): Promise<Map<string, Date>> {
   if (runnerIds.length === 0) return new Map();
   // One backward step on runs (user_id, created_at) per runner, rather than reading all their runs.
   const { rows } = await trx.raw<{ rows: Array<{ user_id: string; last: Date | null }> }>(
@@ -64,7 +64,7 @@ export async function lastUploadsOf(runnerIds: readonly string[], trx: Db = db):
 }
 
 /** Reviews of several runners' weeks (each runner's own week start is among `weekStarts`). */
-export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts: readonly string[], trx: Db = db) {
+export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts: readonly string[], trx: Db = readDb()) {
   if (runnerIds.length === 0) return [];
   return trx('week_reviews')
     .join('users', 'users.id', 'week_reviews.coach_id')
@@ -80,7 +80,7 @@ export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts
     .orderBy('week_reviews.reviewed_at');
 }
 
-export async function listWeekNotes(runnerId: string, weekStart: string, trx: Db = db) {
+export async function listWeekNotes(runnerId: string, weekStart: string, trx: Db = readDb()) {
   return trx('week_notes')
     .join('users', 'users.id', 'week_notes.author_id')
     .where('week_notes.runner_id', runnerId)

@@ -30,6 +30,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/runners/:id/week',
+      reads: 'replica',
       tag: 'weeks',
       summary: 'One runner’s week (start = any date in it): plans and runs with verdicts, totals, load, flags, notes',
       access: 'own-data',
@@ -102,6 +103,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/squads/:id/overview',
+      reads: 'replica',
       tag: 'weeks',
       summary: 'One row per squad runner for a week: planned and run, sessions, flags, last upload, reviewed, 12-week volume',
       access: 'squads:manage',
