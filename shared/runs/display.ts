@@ -1,4 +1,5 @@
 import type { CleaningReport, SplitUnit } from '../tracks/types.ts';
+import { MAX_SMOOTHED_INTERVAL_S } from '../tracks/position-smoother.ts';
 import { UNIT_METRES } from '../units.ts';
 
 /**
@@ -99,13 +100,16 @@ export function describeDistanceMeasure(
   if (report.source === 'device') return 'The watch’s own distance was used (no smoothing).';
   if (report.source === 'none') return 'The file has no positions and no device distance.';
   const jitter = report.jitter_m === null ? '' : `${report.jitter_m.toFixed(2)} m of jitter per point`;
-  if (!report.smoothed) {
-    const sparse = report.median_interval_s !== null && report.median_interval_s > 2;
-    const why = sparse ? `points ${Math.round(report.median_interval_s!)} s apart` : `positions clean, ${jitter}`;
-    return `Measured point to point, no smoothing (${why}).`;
-  }
   const change = report.distance_m - report.raw_distance_m;
   const share = report.raw_distance_m > 0 ? (Math.abs(change) / report.raw_distance_m) * 100 : 0;
   const amount = `${formatDistance(Math.abs(change), unit)} ${unit} (${share.toFixed(1)} %)`;
+  if (!report.smoothed) {
+    const sparse = report.median_interval_s !== null && report.median_interval_s > MAX_SMOOTHED_INTERVAL_S;
+    const apart = `points ${Math.round(report.median_interval_s!)} s apart`;
+    // Sparse tracks are measured along the curve through their points (shared/tracks/README.md).
+    if (sparse && share >= 0.05)
+      return `Measured along a smooth curve through the points, no smoothing (${apart}): the distance is ${amount} longer than the point-to-point sum of ${formatDistance(report.raw_distance_m, unit)} ${unit}.`;
+    return `Measured point to point, no smoothing (${sparse ? apart : `positions clean, ${jitter}`}).`;
+  }
   return `Noisy positions (${jitter}) were smoothed before measuring: the distance is ${amount} ${change <= 0 ? 'shorter' : 'longer'} than the point-to-point sum of ${formatDistance(report.raw_distance_m, unit)} ${unit}.`;
 }

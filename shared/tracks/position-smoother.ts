@@ -42,6 +42,11 @@ export const MIN_JITTER_M = 0.03;
  * excess is already four times smaller than at 1 s, and third differences start to hold real motion.
  */
 export const MAX_SMOOTHED_INTERVAL_S = 1.5;
+/**
+ * The least measurement noise (m per axis) the smoother assumes for a sparse track: GPX stores
+ * positions to 1e-7° (about 1 cm), and a receiver's own filtering leaves more.
+ */
+export const SPARSE_FLOOR_JITTER_M = 0.05;
 /** Intervals longer than this (s) end a smoothing stretch, like a new segment. */
 export const SMOOTHING_GAP_S = 10;
 /** At most this many third differences are used to measure the jitter (evenly spread over the run). */
@@ -153,11 +158,12 @@ export function smoothPositions(
   segmentStart: ArrayLike<number>,
   sigmaM: number,
   q = ACCELERATION_DENSITY,
-): { lat: Float64Array; lon: Float64Array } {
+): SmoothedPositions {
   const n = t.length;
   const outLat = new Float64Array(n);
   const outLon = new Float64Array(n);
-  if (n === 0) return { lat: outLat, lon: outLon };
+  const sv = new Float64Array(2 * n);
+  if (n === 0) return { lat: outLat, lon: outLon, east_mps: new Float64Array(0), north_mps: new Float64Array(0) };
   const lat0 = lat[0] as number;
   const lon0 = lon[0] as number;
   const scale = metresPerDegree(lat0);
@@ -177,14 +183,26 @@ export function smoothPositions(
   for (let i = 1; i <= n; i++) {
     const ends = i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
     if (!ends) continue;
-    smoothStretch(t, x, y, sx, sy, start, i, r, q);
+    smoothStretch(t, x, y, sx, sy, sv, start, i, r, q);
     start = i;
   }
+  const eastMps = new Float64Array(n);
+  const northMps = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     outLat[i] = lat0 + (sy[i] as number) / scale.north;
     outLon[i] = lon0 + (sx[i] as number) / scale.east;
+    eastMps[i] = sv[2 * i] as number;
+    northMps[i] = sv[2 * i + 1] as number;
   }
-  return { lat: outLat, lon: outLon };
+  return { lat: outLat, lon: outLon, east_mps: eastMps, north_mps: northMps };
+}
+
+export interface SmoothedPositions {
+  lat: Float64Array;
+  lon: Float64Array;
+  /** Smoothed velocity east and north, m/s (the second half of each smoothed state). */
+  east_mps: Float64Array;
+  north_mps: Float64Array;
 }
 
 /** Filter and smooth points [from, to) of both axes; the covariances are shared by the axes. */
@@ -194,6 +212,7 @@ function smoothStretch(
   y: Float64Array,
   sx: Float64Array,
   sy: Float64Array,
+  sv: Float64Array,
   from: number,
   to: number,
   r: number,
@@ -204,6 +223,14 @@ function smoothStretch(
     for (let i = from; i < to; i++) {
       sx[i] = x[i] as number;
       sy[i] = y[i] as number;
+    }
+    // Two points: the straight line between them at constant speed; one point: standing.
+    if (len === 2) {
+      const dt = ((t[from + 1] as number) - (t[from] as number)) / 1000;
+      const vx = ((x[from + 1] as number) - (x[from] as number)) / dt;
+      const vy = ((y[from + 1] as number) - (y[from] as number)) / dt;
+      sv[2 * from] = sv[2 * from + 2] = vx;
+      sv[2 * from + 1] = sv[2 * from + 3] = vy;
     }
     return;
   }
@@ -266,6 +293,8 @@ function smoothStretch(
   let yVel = fy[2 * len - 1] as number;
   sx[to - 1] = xPos;
   sy[to - 1] = yPos;
+  sv[2 * (to - 1)] = xVel;
+  sv[2 * (to - 1) + 1] = yVel;
   for (let k = len - 2; k >= 0; k--) {
     const dt = ((t[from + k + 1] as number) - (t[from + k] as number)) / 1000;
     const p00 = fP[3 * k] as number;
@@ -297,6 +326,8 @@ function smoothStretch(
     yVel = (fy[2 * k + 1] as number) + c10 * dyp + c11 * dyv;
     sx[from + k] = xPos;
     sy[from + k] = yPos;
+    sv[2 * (from + k)] = xVel;
+    sv[2 * (from + k) + 1] = yVel;
   }
 }
 
@@ -358,6 +389,85 @@ export function arcFactors(
     if (Number.isNaN(a) || Number.isNaN(b) || a > MAX_ARC_ANGLE || b > MAX_ARC_ANGLE) continue;
     const half = (a + b) / 4;
     if (half > 1e-4) factors[i] = half / Math.sin(half);
+  }
+  return factors;
+}
+
+/** Gauss–Legendre nodes and weights on [0, 1], five points: exact for polynomials up to degree 9. */
+const GL_NODES = [0.04691007703066802, 0.23076534494715845, 0.5, 0.7692346550528415, 0.9530899229693319];
+const GL_WEIGHTS = [0.11846344252809454, 0.23931433524968324, 0.28444444444444444, 0.23931433524968324, 0.11846344252809454];
+
+/**
+ * Length of the cubic Hermite curve from (x0, y0) with velocity (vx0, vy0) to (x1, y1) with velocity
+ * (vx1, vy1) over `dt` seconds, m: ∫|p′(s)| ds over s ∈ [0, 1] by five-point Gauss–Legendre.
+ */
+export function hermiteLength(
+  dt: number,
+  x0: number,
+  y0: number,
+  vx0: number,
+  vy0: number,
+  x1: number,
+  y1: number,
+  vx1: number,
+  vy1: number,
+): number {
+  let length = 0;
+  for (let k = 0; k < 5; k++) {
+    const s = GL_NODES[k] as number;
+    // Derivatives of the Hermite basis h00, h10, h01, h11 with respect to s.
+    const d00 = 6 * s * s - 6 * s;
+    const d10 = (3 * s * s - 4 * s + 1) * dt;
+    const d11 = (3 * s * s - 2 * s) * dt;
+    const dx = d00 * (x0 - x1) + d10 * vx0 + d11 * vx1;
+    const dy = d00 * (y0 - y1) + d10 * vy0 + d11 * vy1;
+    length += (GL_WEIGHTS[k] as number) * Math.hypot(dx, dy);
+  }
+  return length;
+}
+
+/**
+ * Factor by which each step's chord (interval i, from point i − 1 to i) falls short of the path
+ * between the two smoothed states. Under the white-noise-acceleration prior the estimate of the
+ * path between two sample times, given the smoothed position and velocity at both, is the cubic
+ * Hermite curve through them (Barfoot, Tong & Särkkä 2014, "Batch continuous-time trajectory
+ * estimation as exactly sparse Gaussian process regression", Robotics: Science and Systems X:
+ * interpolation under the constant-velocity prior); its length over the chord's is the factor.
+ * Intervals that are not moving, cross a segment break or a smoothing gap get 1 (a straight line:
+ * nothing is known between their ends).
+ */
+export function curveFactors(
+  t: ArrayLike<number>,
+  smooth: SmoothedPositions,
+  segmentStart: ArrayLike<number>,
+  moving: ArrayLike<number>,
+): Float64Array {
+  const n = t.length;
+  const factors = new Float64Array(n).fill(1);
+  if (n < 2) return factors;
+  const { north, east } = metresPerDegree(smooth.lat[0] as number);
+  for (let i = 1; i < n; i++) {
+    const dt = ((t[i] as number) - (t[i - 1] as number)) / 1000;
+    if (!moving[i] || segmentStart[i] || dt > SMOOTHING_GAP_S) continue;
+    let dLon = (smooth.lon[i] as number) - (smooth.lon[i - 1] as number);
+    if (dLon > 180) dLon -= 360;
+    else if (dLon < -180) dLon += 360;
+    const x1 = dLon * east;
+    const y1 = ((smooth.lat[i] as number) - (smooth.lat[i - 1] as number)) * north;
+    const chord = Math.hypot(x1, y1);
+    if (chord < 1e-6) continue;
+    const curve = hermiteLength(
+      dt,
+      0,
+      0,
+      smooth.east_mps[i - 1] as number,
+      smooth.north_mps[i - 1] as number,
+      x1,
+      y1,
+      smooth.east_mps[i] as number,
+      smooth.north_mps[i] as number,
+    );
+    factors[i] = curve / chord;
   }
   return factors;
 }

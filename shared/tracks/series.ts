@@ -8,7 +8,16 @@ import {
 } from './elevation.ts';
 import { geodesicDistance } from './geodesy.ts';
 import type { PointColumns } from './point-columns.ts';
-import { arcFactors, localDistance, measureJitter, shouldSmooth, smoothPositions } from './position-smoother.ts';
+import {
+  arcFactors,
+  curveFactors,
+  localDistance,
+  MAX_SMOOTHED_INTERVAL_S,
+  measureJitter,
+  shouldSmooth,
+  smoothPositions,
+  SPARSE_FLOOR_JITTER_M,
+} from './position-smoother.ts';
 import type { CleanTrack, DistanceReport, DistanceSource, TrackSeries } from './types.ts';
 
 /**
@@ -149,7 +158,14 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       const displacement = (a: number, b: number): number =>
         approxDistance(lat[a] as number, lon[a] as number, lat[b] as number, lon[b] as number);
       classifyMoving(t, segmentOf, displacement, moving);
-      const bends = arcFactors(t, lat, lon, segmentBreak, moving);
+      // Sparse track (points 2 s or more apart): chords cut bends by metres, so each step's chord is
+      // lengthened to the curve the smoother's states give between its ends (position-smoother.ts,
+      // `curveFactors`; the smoother's noise is the measured jitter, so noise is not taken for bends);
+      // the chords stay the raw ones (smoothing 5 s steps with a jitter that holds real turns cut them).
+      // Dense clean tracks keep the chord-to-arc factor through their turns.
+      const sparse = jitter.median_interval_s > MAX_SMOOTHED_INTERVAL_S;
+      const curve = sparse ? smoothPositions(t, lat, lon, segmentBreak, Math.max(jitter.sigma_m, SPARSE_FLOOR_JITTER_M)) : null;
+      const bends = curve ? curveFactors(t, curve, segmentBreak, moving) : arcFactors(t, lat, lon, segmentBreak, moving);
       let raw = 0;
       for (let i = 1; i < n; i++) {
         const chord = moving[i]

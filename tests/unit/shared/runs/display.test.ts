@@ -108,6 +108,12 @@ describe('describeDistanceMeasure', () => {
     expect(
       describeDistanceMeasure({ ...base, median_interval_s: 5, smoothed: false, raw_distance_m: 5000, distance_m: 5000 }, 'mi'),
     ).toBe('Measured point to point, no smoothing (points 5 s apart).');
+    // A sparse track measured along the curve through its points says how much the curve added.
+    expect(
+      describeDistanceMeasure({ ...base, median_interval_s: 5, smoothed: false, raw_distance_m: 5000, distance_m: 5010 }, 'km'),
+    ).toBe(
+      'Measured along a smooth curve through the points, no smoothing (points 5 s apart): the distance is 0.01 km (0.2 %) longer than the point-to-point sum of 5.00 km.',
+    );
     expect(describeDistanceMeasure({ ...base, source: 'device', smoothed: false, raw_distance_m: 1, distance_m: 1 }, 'mi')).toBe(
       'The watch’s own distance was used (no smoothing).',
     );

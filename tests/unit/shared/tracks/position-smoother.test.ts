@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { geodesicDistance } from '../../../../shared/tracks/geodesy.ts';
 import {
   arcFactors,
+  curveFactors,
+  hermiteLength,
   localDistance,
   measureJitter,
   metresPerDegree,
@@ -72,7 +74,12 @@ describe('measureJitter', () => {
  * dynamics xₖ₊₁ − F xₖ ~ N(0, Q) with Q = q[[Δt³/3, Δt²/2], [Δt²/2, Δt]] (Bar-Shalom et al. 2001,
  * §6.2.2), measurements zₖ − xₖ ~ N(0, r).
  */
-function batchSmooth(t: number[], z: number[], r: number, q: number): number[] {
+function batchSmooth(t: number[], z: number[], r: number, q: number, measured?: boolean[]): number[] {
+  return batchStates(t, z, r, q, measured).map(([position]) => position);
+}
+
+/** The batch solution's states [position, velocity]; `measured[k]` false leaves point k without a measurement. */
+function batchStates(t: number[], z: number[], r: number, q: number, measured?: boolean[]): Array<[number, number]> {
   const n = z.length;
   const m = 2 * n;
   const A = Array.from({ length: m }, () => new Array<number>(m).fill(0));
@@ -81,8 +88,10 @@ function batchSmooth(t: number[], z: number[], r: number, q: number): number[] {
   b[0]! += z[0]! / r;
   A[1]![1]! += 1 / 100;
   for (let k = 1; k < n; k++) {
-    A[2 * k]![2 * k]! += 1 / r;
-    b[2 * k]! += z[k]! / r;
+    if (measured?.[k] !== false) {
+      A[2 * k]![2 * k]! += 1 / r;
+      b[2 * k]! += z[k]! / r;
+    }
     const dt = (t[k]! - t[k - 1]!) / 1000;
     const q00 = (q * dt ** 3) / 3;
     const q01 = (q * dt ** 2) / 2;
@@ -120,7 +129,7 @@ function batchSmooth(t: number[], z: number[], r: number, q: number): number[] {
     for (let j = row + 1; j < m; j++) s -= A[row]![j]! * x[j]!;
     x[row] = s / A[row]![row]!;
   }
-  return Array.from({ length: n }, (_, k) => x[2 * k]!);
+  return Array.from({ length: n }, (_, k): [number, number] => [x[2 * k]!, x[2 * k + 1]!]);
 }
 
 describe('smoothPositions', () => {
@@ -185,5 +194,78 @@ describe('arcFactors', () => {
     expect([...arcFactors(line.t, line.lat, line.lon, line.segment, new Uint8Array(10).fill(1))].every((f) => f === 1)).toBe(
       true,
     );
+  });
+});
+
+describe('curveFactors and hermiteLength', () => {
+  it('between two sample times the model estimate is the cubic Hermite curve of the smoothed states at both (Barfoot, Tong & Särkkä 2014)', () => {
+    // Batch maximum-likelihood solution with one time (6.5 s) that has no measurement: its estimate is
+    // the interpolation the model makes between 6 s and 7 s. It must equal the cubic Hermite curve
+    // through the states at 6 s and 7 s, which is what curveFactors measures.
+    const random = createPrng(21);
+    const t = [0, 1000, 2000, 3000, 4000, 5000, 6000, 6500, 7000, 8000, 9000, 10000];
+    const z = t.map((ms) => 2 * (ms / 1000) + 0.15 * (ms / 1000) ** 2 + 0.5 * gaussian(random));
+    const measured = t.map((ms) => ms !== 6500);
+    const states = batchStates(t, z, 0.25, 0.05, measured);
+    const [p0, v0] = states[6]!;
+    const [p1, v1] = states[8]!;
+    const s = 0.5;
+    const dt = 1;
+    const hermite =
+      (2 * s ** 3 - 3 * s ** 2 + 1) * p0 +
+      (s ** 3 - 2 * s ** 2 + s) * dt * v0 +
+      (-2 * s ** 3 + 3 * s ** 2) * p1 +
+      (s ** 3 - s ** 2) * dt * v1;
+    expect(states[7]![0]).toBeCloseTo(hermite, 9);
+  });
+
+  it('hermiteLength: a straight line at constant speed is its chord; a quarter circle is close to its arc', () => {
+    expect(hermiteLength(5, 0, 0, 3, 0, 15, 0, 3, 0)).toBeCloseTo(15, 9);
+    // Quarter circle of radius 10 m run in 5 s: arc 15.708 m; the cubic Hermite curve is within 0.1 %.
+    const v = (Math.PI * 10) / 2 / 5;
+    expect(hermiteLength(5, 10, 0, 0, v, 0, 10, -v, 0) / ((Math.PI * 10) / 2) - 1).toBeLessThan(0.001);
+  });
+
+  it('gives back the arc that 5 s chords cut on the bend of a 400 m track, and nothing on a straight', () => {
+    // Clean 5 s points on a circle of 36.8 m radius at 3 m/s: each chord is 0.7 % short of its arc.
+    const radius = 36.8;
+    const speed = 3;
+    const scale = metresPerDegree(46);
+    const n = 30;
+    const t = Array.from({ length: n }, (_, i) => i * 5000);
+    const angle = (i: number) => (i * 5 * speed) / radius;
+    const lat = t.map((_, i) => 46 + (radius * Math.sin(angle(i))) / scale.north);
+    const lon = t.map((_, i) => 7 + (radius * Math.cos(angle(i))) / scale.east);
+    const segment = new Uint8Array(n);
+    const moving = new Uint8Array(n).fill(1);
+    moving[0] = 0;
+    const smooth = smoothPositions(t, lat, lon, segment, 0.05);
+    const factors = curveFactors(t, smooth, segment, moving);
+    let chords = 0;
+    let curve = 0;
+    // Away from the ends (where the curve has no neighbour on one side).
+    for (let i = 5; i < n - 5; i++) {
+      const chord = localDistance(smooth.lat[i - 1]!, smooth.lon[i - 1]!, smooth.lat[i]!, smooth.lon[i]!);
+      chords += chord;
+      curve += chord * factors[i]!;
+    }
+    const arc = (n - 10) * 5 * speed;
+    expect(1 - chords / arc).toBeGreaterThan(0.006);
+    expect(Math.abs(curve / arc - 1)).toBeLessThan(0.0005);
+    const line = straight(40, 3, 0);
+    const lineSmooth = smoothPositions(
+      line.t.map((x) => x * 5),
+      line.lat,
+      line.lon,
+      line.segment,
+      0.05,
+    );
+    const lineFactors = curveFactors(
+      line.t.map((x) => x * 5),
+      lineSmooth,
+      line.segment,
+      new Uint8Array(40).fill(1),
+    );
+    for (let i = 1; i < 40; i++) expect(lineFactors[i]).toBeCloseTo(1, 6);
   });
 });
