@@ -91,7 +91,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   const sweeper = startOrphanSweeper({ store, dataDir: config.dataDir, graceSeconds: config.orphanGraceSeconds });
   // A runner hears of a coach's changes once per editing burst (server/features/plans/README.md).
   const { startPlanNoticeSweeper } = await import('./features/plans/plan-notices.ts');
-  const planNotices = startPlanNoticeSweeper(mailer, config.publicUrl);
+  const planNotices = startPlanNoticeSweeper(mailer, config);
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   fake?.setDeliver(async (payload, signature) => {

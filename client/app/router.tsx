@@ -42,6 +42,7 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: paths.invite.path, lazy: page(() => import('./routes/public/invite.tsx')) },
             { path: paths.resetPassword.path, lazy: page(() => import('./routes/public/reset-password.tsx')) },
             { path: paths.signUpConfirm.path, lazy: page(() => import('./routes/public/sign-up-confirm.tsx')) },
+            { path: paths.noticesOff.path, lazy: page(() => import('./routes/public/notices-off.tsx')) },
           ],
         },
         { path: paths.devOutbox.path, lazy: page(() => import('./routes/dev/outbox.tsx')) },

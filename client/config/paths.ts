@@ -24,6 +24,8 @@ export const paths = {
   },
   forgotPassword: { path: '/forgot-password', getHref: () => '/forgot-password' },
   resetPassword: { path: '/reset-password/:token', getHref: (token: string) => `/reset-password/${encodeURIComponent(token)}` },
+  /** The unsubscribe link at the bottom of every notice e-mail (the server builds the same address). */
+  noticesOff: { path: '/notices/off/:token', getHref: (token: string) => `/notices/off/${encodeURIComponent(token)}` },
   invite: { path: '/invite/:token', getHref: (token: string) => `/invite/${encodeURIComponent(token)}` },
   devOutbox: { path: '/dev/outbox', getHref: () => '/dev/outbox' },
   log: {

@@ -32,10 +32,10 @@ export function batchDueAt(kind: BatchedNoticeKind, createdAt: readonly Date[]):
 }
 
 /**
- * A check-in soreness from this step up (of 1–5) alerts the coach at once: our choice, the top two
- * steps of the scale, the same step the digest and week review count as high soreness.
+ * A check-in soreness from this step up (of 1–5) is high: it alerts the coach at once, and the
+ * digest and week review count it (our choice: the top two steps of the scale).
  */
-export const HIGH_SORENESS_ALERT = 4;
+export const HIGH_SORENESS = 4;
 
 /** Failed sends are tried again after 1, 2, 4, 8 minutes; after NOTICE_MAX_ATTEMPTS the batch is given up (and logged). */
 export const NOTICE_MAX_ATTEMPTS = 5;

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { PLAN_NOTICE_QUIET_MINUTES } from '../plans/plan-notice.ts';
 import type { Role } from '../users/schemas.ts';
 
 /**
@@ -54,7 +55,7 @@ export const NOTICE_KIND_INFO: Record<NoticeKind, NoticeKindInfo> = {
   plan_change: {
     roles: ['runner'],
     label: 'My coach changes my plan',
-    hint: 'One e-mail per round of changes.',
+    hint: `One e-mail once your coach has finished a round of changes (${PLAN_NOTICE_QUIET_MINUTES} minutes after the last one), listing them.`,
     column: 'notify_on_plan_change',
   },
 };

@@ -14,16 +14,24 @@ import { testConfig } from '../support/test-app.ts';
 // clock, so nothing waits for the 10 quiet minutes to pass.
 
 const PUBLIC_URL = 'http://pacewright.test';
+/** The app and the sweep share one config, so the sweep's signed unsubscribe links verify in the app. */
+const CONFIG = testConfig({ publicUrl: PUBLIC_URL });
 let catcher: MailCatcher;
 let mailer: Mailer;
 beforeAll(async () => ({ catcher, mailer } = await startTestMail()));
 afterAll(async () => catcher.close());
 
 type App = ReturnType<typeof createApp>;
-const appWithMail = (): App => createApp({ config: testConfig({ publicUrl: PUBLIC_URL }), mailer });
+const appWithMail = (): App => createApp({ config: CONFIG, mailer });
 
 const outbox = async (app: App) =>
-  (await request(app).get('/api/dev/outbox')).body.messages as Array<{ to: string; subject: string; text: string; html: string }>;
+  (await request(app).get('/api/dev/outbox')).body.messages as Array<{
+    to: string;
+    subject: string;
+    text: string;
+    html: string;
+    headers: Record<string, string>;
+  }>;
 
 async function person(app: App, role: 'runner' | 'coach', name: string, email: string) {
   const { user, password } = await createUser({ role, name, email });
@@ -69,12 +77,12 @@ describe('the e-mail per editing burst', () => {
     // The runner's own change needs no notice and is not listed.
     await request(app).post('/api/plans').set(runner.auth).send({ date: '2027-01-06', text: '6 mi easy' });
 
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, await afterLastChange(runner.id, 0))).toBe(0);
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, await afterLastChange(runner.id, 9.9))).toBe(0);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 0))).toBe(0);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 9.9))).toBe(0);
     expect(await outbox(app)).toEqual([]);
 
     const quiet = await afterLastChange(runner.id, 10);
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, quiet)).toBe(1);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, quiet)).toBe(1);
     const messages = await outbox(app);
     expect(messages).toHaveLength(1);
     const [notice] = messages;
@@ -87,11 +95,11 @@ describe('the e-mail per editing burst', () => {
       '- Added for Sun 10 Jan: 5 mi easy.',
     ]);
     expect(notice!.text).toContain(`${PUBLIC_URL}/plan?week=2027-01-04`);
-    expect(notice!.text).toContain('turn these notices off on your profile page');
+    expect(notice!.text).toMatch(new RegExp(`Turn these e-mails off: ${PUBLIC_URL}/notices/off/uns_[A-Za-z0-9_-]+\\n`));
     expect(notice!.html).toContain('Open your plan');
 
     // Sent once: the next sweeps find nothing new.
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, await afterLastChange(runner.id, 30))).toBe(0);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 30))).toBe(0);
     expect(await outbox(app)).toHaveLength(1);
     expect(await db('plan_changes').where({ runner_id: runner.id }).whereNull('noticed_at')).toEqual([]);
   });
@@ -104,11 +112,11 @@ describe('the e-mail per editing burst', () => {
     expect(off.body.profile.notify_on_plan_change).toBe(false);
     await threeCoachEdits(app, coach, runner.id);
 
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, await afterLastChange(runner.id, 11))).toBe(0);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 11))).toBe(0);
     expect(await outbox(app)).toEqual([]);
 
     await request(app).patch('/api/me').set(runner.auth).send({ notify_on_plan_change: true });
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, await afterLastChange(runner.id, 20))).toBe(0);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 20))).toBe(0);
     expect(await outbox(app)).toEqual([]);
   });
 
@@ -122,7 +130,7 @@ describe('the e-mail per editing burst', () => {
     await db('plan_changes')
       .where({ id: first!.id })
       .update({ created_at: new Date(now.getTime() - 60 * 60_000) });
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, now)).toBe(1);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, now)).toBe(1);
     expect((await outbox(app)).map((m) => m.subject)).toEqual(['Dana Coach changed 2 sessions in your week of 4 Jan']);
   });
 
@@ -134,9 +142,54 @@ describe('the e-mail per editing burst', () => {
     const broken: Mailer = {
       send: () => Promise.reject(new Error('the mail server is away')),
     };
-    expect(await sendPlanChangeNotices(broken, PUBLIC_URL, later)).toBe(0);
+    expect(await sendPlanChangeNotices(broken, CONFIG, later)).toBe(0);
     expect(await db('plan_changes').where({ runner_id: runner.id }).whereNull('noticed_at')).toHaveLength(3);
-    expect(await sendPlanChangeNotices(mailer, PUBLIC_URL, later)).toBe(1);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, later)).toBe(1);
+    expect(await outbox(app)).toHaveLength(1);
+  });
+
+  it('carries the one-click unsubscribe (RFC 8058); its POST, without sign-in, turns off the plan-change e-mail and nothing else', async () => {
+    const app = appWithMail();
+    const { coach, runner } = await squadOf(app);
+    await threeCoachEdits(app, coach, runner.id);
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 10))).toBe(1);
+    const [notice] = await outbox(app);
+    // RFC 8058 §3.1: both headers, the first an HTTPS-or-HTTP URI in angle brackets.
+    expect(notice!.headers['list-unsubscribe-post']).toBe('List-Unsubscribe=One-Click');
+    const target = new URL(/^<(.+)>$/.exec(notice!.headers['list-unsubscribe']!)![1]!);
+    expect(target.origin).toBe(PUBLIC_URL);
+    expect(target.pathname).toMatch(/^\/api\/notices\/unsubscribe\/uns_[A-Za-z0-9_-]+$/);
+
+    const switchesOf = () =>
+      db('users')
+        .where({ id: runner.id })
+        .first(
+          'notify_on_import',
+          'notify_on_note',
+          'notify_on_pain_alert',
+          'notify_on_squad_leave',
+          'notify_on_digest',
+          'notify_on_plan_change',
+        );
+    const before = await switchesOf();
+    expect(before).toEqual({
+      notify_on_import: true,
+      notify_on_note: true,
+      notify_on_pain_alert: true,
+      notify_on_squad_leave: true,
+      notify_on_digest: true,
+      notify_on_plan_change: true,
+    });
+    // What a mail program sends: form-encoded, no cookie, no token.
+    const off = await request(app).post(target.pathname).type('form').send('List-Unsubscribe=One-Click');
+    expect(off.status).toBe(200);
+    expect(off.body).toEqual({ kind: 'plan_change', label: 'My coach changes my plan', on: false });
+    expect(await switchesOf()).toEqual({ ...before, notify_on_plan_change: false });
+    expect((await request(app).get('/api/me/notices').set(runner.auth)).body.switches.plan_change).toBe(false);
+
+    // The next round of changes sends nothing.
+    await request(app).post('/api/plans').set(coach.auth).send({ runner_id: runner.id, date: '2027-01-11', text: '4 mi easy' });
+    expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 11))).toBe(0);
     expect(await outbox(app)).toHaveLength(1);
   });
 });

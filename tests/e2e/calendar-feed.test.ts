@@ -157,13 +157,15 @@ describe('The calendar feed on the profile', () => {
     await phone.goto(`${server.url}/profile`);
     await feedCycle(phone, TITLE, week.wednesday, 'calendar-feed-runner-375');
 
-    const notices = phone.getByRole('checkbox', { name: 'E-mail me when my coach changes my plan' });
+    const notices = phone.getByRole('checkbox', { name: 'My coach changes my plan' });
     expect(await notices.isChecked()).toBe(true);
     await notices.uncheck();
-    await expect.poll(() => phone.getByRole('status').filter({ hasText: 'Plan change notices are off.' }).count(), WAIT).toBe(1);
+    await expect
+      .poll(() => phone.getByRole('status').filter({ hasText: 'Off: no more of these e-mails.' }).count(), WAIT)
+      .toBe(1);
     expect((await db('users').where({ id: ivyId }).first('notify_on_plan_change'))!.notify_on_plan_change).toBe(false);
     await notices.check();
-    await expect.poll(() => phone.getByRole('status').filter({ hasText: 'Plan change notices are on.' }).count(), WAIT).toBe(1);
+    await expect.poll(() => phone.getByRole('status').filter({ hasText: 'On: these e-mails are sent.' }).count(), WAIT).toBe(1);
     expect(ivyErrors).toEqual([]);
     await phone.close();
 
@@ -172,7 +174,7 @@ describe('The calendar feed on the profile', () => {
     const deskErrors = watchErrors(desk);
     await feedCycle(desk, `${ivy.name}: ${TITLE}`, week.wednesday, 'calendar-feed-coach-1280');
     // A coach has no coach: the plan-change switch is a runner's only.
-    expect(await desk.getByRole('checkbox', { name: 'E-mail me when my coach changes my plan' }).count()).toBe(0);
+    expect(await desk.getByRole('checkbox', { name: 'My coach changes my plan' }).count()).toBe(0);
     expect(deskErrors).toEqual([]);
     await desk.close();
   });

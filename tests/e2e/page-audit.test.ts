@@ -76,6 +76,7 @@ const PAGES: Record<Role, AuditedPage[]> = {
     { name: 'forgot-password', path: '/forgot-password' },
     { name: 'reset-password', path: '/reset-password/not-a-real-token' },
     { name: 'invitation', path: '/invite/not-a-real-token' },
+    { name: 'notices-off', path: '/notices/off/not-a-real-token' },
     { name: 'not-found', path: '/no-such-page' },
   ],
   runner: [

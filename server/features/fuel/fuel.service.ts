@@ -25,7 +25,7 @@ import { proposeTargets, type FuelTarget, type FuelTargets } from '../../../shar
 import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import type { FuelPlanRow, RunCheckinRow, RunRow } from '../../lib/db.ts';
-import { HIGH_SORENESS_ALERT } from '../../../shared/notices/batching.ts';
+import { HIGH_SORENESS } from '../../../shared/notices/batching.ts';
 import { AppError, ForbiddenError, NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { recordSorenessAlert, type NoticeDeps } from '../notices/notices.service.ts';
@@ -449,7 +449,7 @@ export async function putCheckin(actor: Actor, runId: string, input: CheckinInpu
     }),
   );
   // Told once when soreness rises to 4–5, not again on each later edit of the same check-in.
-  const rose = (input.soreness ?? 0) >= HIGH_SORENESS_ALERT && (before?.soreness ?? 0) < HIGH_SORENESS_ALERT;
+  const rose = (input.soreness ?? 0) >= HIGH_SORENESS && (before?.soreness ?? 0) < HIGH_SORENESS;
   if (rose)
     await recordSorenessAlert(actor.id, run, input.soreness!, notices).catch((err: unknown) =>
       logger.error({ err, run: run.id }, 'recording a soreness alert failed'),

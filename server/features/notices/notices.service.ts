@@ -328,7 +328,12 @@ function noteHref(n: NoteForNotice, readerIsRunner: boolean): string {
 // ── The message itself ───────────────────────────────────────────────────────
 
 /** The address a mail program POSTs to (RFC 8058) and the page a person opens from the footer. */
-export function unsubscribeLinks(config: AppConfig, userId: string, kind: NoticeKind, now: Date) {
+export function unsubscribeLinks(
+  config: Pick<AppConfig, 'publicUrl' | 'jwtSecret'>,
+  userId: string,
+  kind: NoticeKind,
+  now: Date,
+) {
   const token = signUnsubscribeToken(config.jwtSecret, { userId, kind, issuedAt: now });
   return { oneClick: `${config.publicUrl}/api/notices/unsubscribe/${token}`, page: `${config.publicUrl}/notices/off/${token}` };
 }
@@ -337,7 +342,12 @@ export function unsubscribeLinks(config: AppConfig, userId: string, kind: Notice
  * The List-Unsubscribe pair of RFC 8058 §3.1: a mail program offers "unsubscribe" and POSTs
  * `List-Unsubscribe=One-Click` to the address, which turns off this kind of notice only.
  */
-export function unsubscribeHeaders(config: AppConfig, userId: string, kind: NoticeKind, now: Date): Record<string, string> {
+export function unsubscribeHeaders(
+  config: Pick<AppConfig, 'publicUrl' | 'jwtSecret'>,
+  userId: string,
+  kind: NoticeKind,
+  now: Date,
+): Record<string, string> {
   return {
     'List-Unsubscribe': `<${unsubscribeLinks(config, userId, kind, now).oneClick}>`,
     'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click',

@@ -1,15 +1,22 @@
 import { planChangeNotice, PLAN_NOTICE_QUIET_MINUTES } from '../../../shared/plans/plan-notice.ts';
+import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
+import type { AppConfig } from '../../config.ts';
 import { db, type PlanChangeRow } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
+import { unsubscribeHeaders, unsubscribeLinks } from '../notices/notices.service.ts';
 
 /**
  * The e-mail per editing burst (issue 15). A coach's changes are recorded with `noticed_at` empty
  * (plan-changes.service.ts); the sweep below sends each runner one message once nobody has changed
  * their plan for the quiet window, listing every change, and marks them noticed in the same
  * transaction. A runner who turned notices off gets nothing, and their changes are marked noticed
- * so turning it back on never sends an old backlog.
+ * so turning it back on never sends an old backlog. Like every notice (issue 16), the e-mail carries
+ * the RFC 8058 one-click unsubscribe headers for its kind, `plan_change`, and a link to the page.
  */
+
+/** What the e-mail's links need: the public address, and the secret that signs unsubscribe links. */
+export type PlanNoticeConfig = Pick<AppConfig, 'publicUrl' | 'jwtSecret'>;
 
 const QUIET_MS = PLAN_NOTICE_QUIET_MINUTES * 60_000;
 /** A coach editing without a pause for this long still gets the runner a message (then a new burst starts). */
@@ -40,7 +47,12 @@ async function findRunnersDue(now: Date): Promise<string[]> {
  * runner turned notices off. Rows are locked (SKIP LOCKED), so two server processes never send the
  * same burst twice; a failed send rolls back and the next sweep tries again.
  */
-async function noticeRunner(runnerId: string, mailer: Mailer, publicUrl: string, now: Date): Promise<'sent' | 'off' | 'skipped'> {
+async function noticeRunner(
+  runnerId: string,
+  mailer: Mailer,
+  config: PlanNoticeConfig,
+  now: Date,
+): Promise<'sent' | 'off' | 'skipped'> {
   return db.transaction(async (trx) => {
     const changes = await trx('plan_changes')
       .where({ runner_id: runnerId })
@@ -69,24 +81,26 @@ async function noticeRunner(runnerId: string, mailer: Mailer, publicUrl: string,
       .update({ noticed_at: now });
     if (!runner?.notify_on_plan_change) return 'off';
     const notice = planChangeNotice(changes, runner.week_starts_on);
-    const link = `${publicUrl}/plan?week=${notice.first_week}`;
-    const off = 'You can turn these notices off on your profile page.';
+    const link = `${config.publicUrl}/plan?week=${notice.first_week}`;
+    const offPage = unsubscribeLinks(config, runnerId, 'plan_change', now).page;
+    const off = `You get this e-mail because “${NOTICE_KIND_INFO.plan_change.label}” is on in your profile. Turn these e-mails off: ${offPage}`;
     await mailer.send({
       to: runner.email,
       subject: notice.subject,
-      text: `${notice.intro}\n\n${notice.lines.join('\n')}\n\nOpen your plan: ${link}\n\n${off}\n`,
+      text: `${notice.intro}\n\n${notice.lines.join('\n')}\n\nOpen your plan: ${link}\n\n--\n${off}\n`,
       html: htmlMessage(notice.intro, [...notice.lines, off], { href: link, label: 'Open your plan' }),
+      headers: unsubscribeHeaders(config, runnerId, 'plan_change', now),
     });
     return 'sent';
   });
 }
 
 /** One sweep: every finished burst at `now` gets its notice. Returns how many messages were sent. */
-export async function sendPlanChangeNotices(mailer: Mailer, publicUrl: string, now = new Date()): Promise<number> {
+export async function sendPlanChangeNotices(mailer: Mailer, config: PlanNoticeConfig, now = new Date()): Promise<number> {
   let sent = 0;
   for (const runnerId of await findRunnersDue(now)) {
     try {
-      if ((await noticeRunner(runnerId, mailer, publicUrl, now)) === 'sent') sent += 1;
+      if ((await noticeRunner(runnerId, mailer, config, now)) === 'sent') sent += 1;
     } catch (err) {
       logger.warn({ err, runner: runnerId }, 'could not send a plan change notice; the next sweep tries again');
     }
@@ -99,14 +113,18 @@ export interface PlanNoticeSweeper {
 }
 
 /** Runs the sweep every minute in the background (server start); never keeps the process alive on its own. */
-export function startPlanNoticeSweeper(mailer: Mailer, publicUrl: string, everyMs = PLAN_NOTICE_SWEEP_MS): PlanNoticeSweeper {
+export function startPlanNoticeSweeper(
+  mailer: Mailer,
+  config: PlanNoticeConfig,
+  everyMs = PLAN_NOTICE_SWEEP_MS,
+): PlanNoticeSweeper {
   let stopped = false;
   let timer: NodeJS.Timeout | undefined;
   let running: Promise<unknown> = Promise.resolve();
   const schedule = () => {
     if (stopped) return;
     timer = setTimeout(() => {
-      running = sendPlanChangeNotices(mailer, publicUrl)
+      running = sendPlanChangeNotices(mailer, config)
         .catch((err: unknown) => logger.error({ err }, 'the plan notice sweep failed; it will be tried again'))
         .finally(schedule);
     }, everyMs);

@@ -10,6 +10,7 @@ import type { PartCheck } from '../../../shared/plans/plan-check.ts';
 import type { TakenEntry } from '../../../shared/fuel/taken.ts';
 import type { RunnerWeek, WeekFuelTaken } from '../../../shared/weeks/week-answer.ts';
 import { repsLine, verdictReason } from '../../../shared/weeks/verdict-reason.ts';
+import { HIGH_SORENESS } from '../../../shared/notices/batching.ts';
 import { longRunPlanId, summariseWeek, type WeekPlan, type WeekRun } from '../../../shared/weeks/week-review.ts';
 import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
 import type { FuelTakenRow, NoteConcern, SessionPlanRow, UserRow } from '../../lib/db.ts';
@@ -357,9 +358,6 @@ export async function setWeekReviewed(actor: Actor, runnerId: string, start: str
 
 /** One squad runner's row of the overview: the answer's schema is `SquadOverviewRowSchema` in shared/weeks. */
 export type OverviewRow = SquadOverviewRow;
-
-/** Soreness from this value up (on the 1–5 scale) is "high": the coach hears of it (common practice, our choice). */
-export const HIGH_SORENESS = 4;
 
 function missedKeySessions(week: RunnerWeek): number {
   let missed = 0;

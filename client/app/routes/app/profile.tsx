@@ -20,8 +20,8 @@ import { RaceResultsCard } from '../../../features/goals/components/race-results
 import { OutboxLink } from '../../../features/outbox/components/outbox-link.tsx';
 import { planCheckKeys } from '../../../features/plan-check/api/plan-check-keys.ts';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
-import { ImportNoticeToggle } from '../../../features/profile/components/import-notice-toggle.tsx';
-import { PlanNoticeToggle } from '../../../features/profile/components/plan-notice-toggle.tsx';
+import { noticeSwitchesQueryOptions } from '../../../features/profile/api/notice-switches.ts';
+import { NoticeSwitchesCard } from '../../../features/profile/components/notice-switches-card.tsx';
 import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
 import { WeekAndLoadForm } from '../../../features/profile/components/week-and-load-form.tsx';
@@ -35,6 +35,7 @@ export const createLoader = (queryClient: QueryClient) => async () => {
     queryClient.prefetchQuery(raceResultsQueryOptions()),
     queryClient.prefetchQuery(myCoachesQueryOptions()),
     queryClient.prefetchQuery(calendarFeedQueryOptions()),
+    queryClient.prefetchQuery(noticeSwitchesQueryOptions()),
   ]);
   return null;
 };
@@ -78,17 +79,8 @@ export default function ProfileRoute() {
           <WeekAndLoadForm />
         </Card>
         {profile.role === 'runner' && <CoachesCard myId={profile.id} />}
-        {profile.role === 'runner' && (
-          <Card title="Plan notices" description="E-mail when your coach writes or changes sessions on your plan.">
-            <PlanNoticeToggle />
-          </Card>
-        )}
         {profile.role === 'runner' && <MyFeesCard />}
-        {profile.role === 'coach' && (
-          <Card title="Notices" description="E-mail about your squads besides the weekly digest.">
-            <ImportNoticeToggle />
-          </Card>
-        )}
+        <NoticeSwitchesCard role={profile.role} />
         <CalendarFeedCard isCoach={profile.role === 'coach'} />
         <PasswordAndSessionsCard />
         <ApiTokensCard />
