@@ -230,3 +230,63 @@ describe('the fuel plan form', () => {
     await page.close();
   });
 });
+
+describe('the session editor', () => {
+  it('checks the date where typed, reopens with its draft after a reload, and a refused save keeps everything with the answer at the field', async () => {
+    const page = await session.browser.context.newPage();
+    await signInThroughPage(page, session.server.url, runner, { width: 375, height: 812 });
+    await page.waitForURL(/\/log$/);
+    const suffix = Date.now().toString(36);
+    await page.goto(`${session.server.url}/plan?week=2027-06-07`);
+    await page.getByRole('button', { name: 'New session', exact: true }).click();
+    const editor = page.getByRole('form', { name: 'New session', exact: true });
+    await editor.waitFor();
+
+    // The date is checked once it is left, with the server's schema, in words.
+    const date = editor.getByLabel('Date', { exact: true });
+    await date.fill('1850-06-09');
+    await editor.getByLabel('Title (optional)').click();
+    const outOfRange = editor.getByText('Pick a date between 1 January 1900 and 31 December 2100.');
+    await expect.poll(() => outOfRange.count()).toBe(1);
+    expect(await date.getAttribute('aria-invalid')).toBe('true');
+    await date.fill('2027-06-09');
+    await expect.poll(() => outOfRange.count()).toBe(0);
+
+    // A title with an invisible control character (pasted from somewhere) passes here; the server refuses it.
+    await editor.getByLabel('Title (optional)').fill(`Hill repeats ${suffix}\u0007`);
+    await editor.getByLabel('Session in shorthand').fill('2 mi easy, 6 x 1 min @ 5K w/ 2 min jog');
+    await editor.getByLabel('Notes (optional)').fill('Grass loop by the water tower.');
+    await expect.poll(() => page.url()).toMatch(/[?&]new=/);
+
+    // A reload reopens the editor with all of it.
+    await page.reload();
+    await editor.waitFor();
+    await expect.poll(() => editor.getByText(/^Restored what you entered earlier on this device/).count()).toBe(1);
+    expect(await date.inputValue()).toBe('2027-06-09');
+    expect(await editor.getByLabel('Title (optional)').inputValue()).toBe(`Hill repeats ${suffix}\u0007`);
+    expect(await editor.getByLabel('Session in shorthand').inputValue()).toBe('2 mi easy, 6 x 1 min @ 5K w/ 2 min jog');
+    expect(await editor.getByLabel('Notes (optional)').inputValue()).toBe('Grass loop by the water tower.');
+
+    // The server's answer sits under the title, in words; nothing typed is lost.
+    await editor.getByRole('button', { name: 'Save session' }).click();
+    const answer = editor.getByText(/^This text holds an invisible control character/);
+    await expect.poll(() => answer.count()).toBe(1);
+    await expect.poll(() => editor.getByText(/^Not saved: see the messages beside the fields\./).count()).toBe(1);
+    expect(await editor.getByLabel('Title (optional)').getAttribute('aria-describedby')).toContain(
+      (await answer.getAttribute('id')) ?? 'no id',
+    );
+    await screenshot(page, 'session-editor-refused-375');
+    expect(await editor.getByLabel('Notes (optional)').inputValue()).toBe('Grass loop by the water tower.');
+    expect(await editor.getByLabel('Session in shorthand').inputValue()).toBe('2 mi easy, 6 x 1 min @ 5K w/ 2 min jog');
+
+    // Retyping the title clears the answer; the save goes through, the draft and the address entry go.
+    await editor.getByLabel('Title (optional)').fill(`Hill repeats ${suffix}`);
+    await expect.poll(() => answer.count()).toBe(0);
+    await editor.getByRole('button', { name: 'Save session' }).click();
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Session added.' }).count()).toBe(1);
+    const stored = await page.evaluate(() => Object.keys(localStorage).filter((k) => k.startsWith('pacewright:draft:session:')));
+    expect(stored).toEqual([]);
+    expect(page.url()).not.toMatch(/[?&](new|edit)=/);
+    await page.close();
+  });
+});

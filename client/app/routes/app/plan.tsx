@@ -89,6 +89,15 @@ function weekTitle(monday: string): string {
 
 type EditorState = { plan: Plan | null; date: string; key: number };
 
+/** The session editor named in the address (`?edit=<plan id>`, `?new=<date>`): a reload reopens it, with its draft. */
+function editorFromSearch(search: URLSearchParams, plans: readonly Plan[]): EditorState | null {
+  const edit = search.get('edit');
+  const plan = edit ? plans.find((p) => p.id === edit) : undefined;
+  if (plan) return { plan, date: plan.date, key: 1 };
+  const date = parseIsoDate(search.get('new'));
+  return date ? { plan: null, date, key: 1 } : null;
+}
+
 type Status = { text: string; link?: { to: string; label: string }; range: string; undo?: () => void };
 
 export default function PlanRoute() {
@@ -103,7 +112,7 @@ function RunnerPlan({ runnerId }: { runnerId: string }) {
 
 function PlanPage({ runner }: { runner: { id: string; name: string; pace_tolerance: number } | null }) {
   const runnerId = runner?.id;
-  const [search] = useSearchParams();
+  const [search, setSearch] = useSearchParams();
   const profile = useProfile();
   const today = todayIn(profile.time_zone);
   const range = readView(search, today);
@@ -140,7 +149,21 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
   const copyWeek = useCopyWeek();
   const undoBatch = useUndoBatch();
   const move = useUpdatePlan();
-  const [editor, setEditor] = useState<EditorState | null>(null);
+  const [editor, setEditor] = useState<EditorState | null>(() => editorFromSearch(search, plans));
+  /** Names the open editor in the address (replacing the entry, so Back still leaves the page). */
+  const showEditor = (next: { plan: Plan | null; date: string } | null) => {
+    setSearch(
+      (current) => {
+        const params = new URLSearchParams(current);
+        params.delete('edit');
+        params.delete('new');
+        if (next) params.set(next.plan ? 'edit' : 'new', next.plan ? next.plan.id : next.date);
+        return params;
+      },
+      { replace: true, preventScrollReset: true },
+    );
+    setEditor((e) => (next ? { ...next, key: (e?.key ?? 0) + 1 } : null));
+  };
   const [status, setStatus] = useState<Status | null>(null);
   const [copyAsk, setCopyAsk] = useState<string | null>(null);
   const [markDate, setMarkDate] = useState<string | null>(null);
@@ -182,11 +205,11 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
 
   const open = (plan: Plan | null, date: string) => {
     setStatus(null);
-    setEditor((e) => ({ plan, date, key: (e?.key ?? 0) + 1 }));
+    showEditor({ plan, date });
   };
 
   function onDone(plan: Plan | null, message: string) {
-    setEditor(null);
+    showEditor(null);
     void refreshChecks();
     const outside = plan && (plan.date < range.from || plan.date > range.to);
     setStatus({
@@ -291,8 +314,9 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
             key={editor.key}
             plan={editor.plan}
             date={editor.date}
+            userId={me?.id ?? ''}
             runnerId={runnerId}
-            onClose={() => setEditor(null)}
+            onClose={() => showEditor(null)}
             onDone={onDone}
           />
         )}

@@ -9,6 +9,10 @@ type ShorthandFieldProps = {
   /** `parseShorthand(value)`, done by the caller on every keystroke. */
   result: ShorthandResult;
   inputRef?: Ref<HTMLInputElement>;
+  /** The form's name for the field (the API's). */
+  name?: string;
+  /** A problem found beyond the reading (the server's answer, a length limit), shown under the field. */
+  problem?: string;
 };
 
 export const SHORTHAND_EXAMPLE = '2 mi warm-up, 6 x 800 m @ 2:55-3:00 w/ 400 m jog, 2 mi cool-down';
@@ -18,9 +22,10 @@ export const SHORTHAND_EXAMPLE = '2 mi warm-up, 6 x 800 m @ 2:55-3:00 w/ 400 m j
  * parser and the text again with the character at fault marked (a caret under the end when
  * something is missing there).
  */
-export function ShorthandField({ value, onChange, result, inputRef }: ShorthandFieldProps) {
+export function ShorthandField({ value, onChange, result, inputRef, name, problem }: ShorthandFieldProps) {
   const id = useId();
   const error = !result.ok && value.trim() !== '' ? result.error : null;
+  const problemId = `${id}-problem`;
   const hintId = `${id}-hint`;
   const errorId = `${id}-error`;
   return (
@@ -31,14 +36,15 @@ export function ShorthandField({ value, onChange, result, inputRef }: ShorthandF
       <input
         ref={inputRef}
         id={id}
+        name={name}
         type="text"
         value={value}
         onChange={(e) => onChange(e.target.value)}
         spellCheck={false}
         autoComplete="off"
         placeholder={SHORTHAND_EXAMPLE}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${errorId} ${hintId}` : hintId}
+        aria-invalid={error || problem ? true : undefined}
+        aria-describedby={[error && errorId, problem && problemId, hintId].filter(Boolean).join(' ')}
         className={cn(CONTROL_CLASSES, 'w-full px-3 py-2 font-mono text-sm')}
       />
       {error ? (
@@ -52,6 +58,11 @@ export function ShorthandField({ value, onChange, result, inputRef }: ShorthandF
           <MarkedText text={value} position={error.position} />
         </div>
       ) : null}
+      {problem && !error && (
+        <p id={problemId} className="text-sm font-semibold text-tartan">
+          {problem}
+        </p>
+      )}
       <p id={hintId} className="text-sm text-ink-muted">
         Parts separated by commas: an amount (2 mi, 800 m, 45 min), a kind (warm-up, easy, steady, tempo, goal pace, rep, jog,
         cool-down, strides) and a target after @ (7:05/mi, 2:55-3:00 for the rep's distance, a race effort such as MP, HMP, 10K or
