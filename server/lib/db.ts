@@ -85,9 +85,9 @@ export interface RunRow {
   local_date: string;
   local_time: string;
   time_zone: string;
-  time_zone_source: string;
+  time_zone_source: 'start position' | 'profile';
   distance_m: number;
-  distance_source: string;
+  distance_source: 'device' | 'geodesic' | 'none';
   elapsed_s: number;
   moving_s: number;
   ascent_m: number | null;

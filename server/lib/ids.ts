@@ -7,3 +7,8 @@ export function parseIdParam(value: string | string[] | undefined): string {
   if (typeof value !== 'string' || !UUID.test(value)) throw new NotFoundError();
   return value.toLowerCase();
 }
+
+/** A path token (an e-mailed or calendar link's secret): the text as given; the service decides whether it names anything. */
+export function readTokenParam(value: string | string[] | undefined): string {
+  return typeof value === 'string' ? value : '';
+}

@@ -6,20 +6,22 @@ import { toFieldIssues } from '../../shared/api/field-issues.ts';
 import { controlCharacterIssues } from '../../shared/api/text.ts';
 
 interface Schemas {
-  params?: z.ZodType;
   query?: z.ZodType;
   body?: z.ZodType;
+  /** Readers of path parameters; each throws its own error (a malformed id is simply not found). */
+  params?: Record<string, (value: string | string[] | undefined) => unknown>;
 }
 
 /**
- * Validates the request against shared zod schemas and replaces body/params with the parsed values. Any string
+ * Validates the request against shared zod schemas and replaces body with the parsed value. Any string
  * holding a control character is refused first (`controlCharacterIssues`), field by field.
- * (query is read-only in Express 5, so parsed query lands in res.locals.query).
+ * (query is read-only in Express 5, so parsed query lands in res.locals.query). Path parameters are
+ * read last, after the query and body passed, so a bad body stays a 400 whatever the path says.
  */
 export function validate(schemas: Schemas): RequestHandler {
   return (req, res, next) => {
     const problems: FieldIssue[] = [];
-    for (const part of ['params', 'query', 'body'] as const) {
+    for (const part of ['query', 'body'] as const) {
       const schema = schemas[part];
       if (!schema) continue;
       const input: unknown = part === 'body' ? (req.body ?? {}) : req[part];
@@ -35,12 +37,16 @@ export function validate(schemas: Schemas): RequestHandler {
         continue;
       }
       if (part === 'query') res.locals.query = result.data;
-      else if (part === 'params') res.locals.params = result.data;
       else req.body = result.data;
     }
     if (problems.length > 0) {
       const first = problems[0]!;
       throw new ValidationError(problems.length === 1 ? first.message : 'Some fields need attention.', problems);
+    }
+    if (schemas.params) {
+      const read: Record<string, unknown> = {};
+      for (const [name, reader] of Object.entries(schemas.params)) read[name] = reader(req.params[name]);
+      req.params = read as typeof req.params;
     }
     next();
   };

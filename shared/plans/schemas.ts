@@ -3,7 +3,7 @@ import { calendarDateSchema } from '../api/calendar-date.ts';
 import { countExpandedParts } from './expand.ts';
 import { parseShorthand } from './shorthand.ts';
 import { DISTANCE_UNITS, PACE_PERS, PART_KINDS, PLAN_LIMITS, RELATIVE_PACE_REFS } from './types.ts';
-import type { Part, PlanItem, Repeat } from './types.ts';
+import type { ExpandedPart, Part, PlanItem, Repeat } from './types.ts';
 
 const L = PLAN_LIMITS;
 
@@ -43,7 +43,7 @@ const DurationAmountSchema = z
   })
   .strict();
 
-const AmountSchema = z.discriminatedUnion('type', [DistanceAmountSchema, DurationAmountSchema], {
+export const AmountSchema = z.discriminatedUnion('type', [DistanceAmountSchema, DurationAmountSchema], {
   error: 'An amount is a distance or a time.',
 });
 
@@ -59,7 +59,7 @@ const HeartRateSchema = z
   .min(L.minHeartRate, 'A heart rate is from 30 to 240 bpm.')
   .max(L.maxHeartRate, 'A heart rate is from 30 to 240 bpm.');
 
-const TargetSchema = z.discriminatedUnion(
+export const TargetSchema = z.discriminatedUnion(
   'type',
   [
     z.object({ type: z.literal('pace'), fast_s_per_km: PaceSchema, slow_s_per_km: PaceSchema, per: z.enum(PACE_PERS) }).strict(),
@@ -166,6 +166,28 @@ export const ShorthandTextSchema = z
 /** `POST /api/plans/parse` */
 export const ParsePlanInputSchema = z.object({ text: z.string({ error: 'Write the session as text.' }) }).strict();
 
+/** One part of a plan with its repeats unrolled (shared/plans/expand.ts). */
+export const ExpandedPartSchema = z.object({
+  type: z.literal('part'),
+  kind: z.enum(PART_KINDS),
+  amount: AmountSchema,
+  target: TargetSchema,
+  /** 0-based position in the expanded list. */
+  index: z.number(),
+  /** 0-based index of the plan item it came from. */
+  item_index: z.number(),
+  /** Set when it came from a repeat: round 1…rounds, and its 0-based step within the round. */
+  repeat: z.object({ round: z.number(), rounds: z.number(), step: z.number() }).nullable(),
+});
+
+/** `POST /api/plans/parse`: the items, their expanded list and the canonical text. */
+export const ParsedPlanSchema = z.object({
+  parts: z.array(PlanItemSchema),
+  expanded: z.array(ExpandedPartSchema),
+  text: z.string(),
+});
+export type ParsedPlan = z.infer<typeof ParsedPlanSchema>;
+
 function oneWayOfWriting(plan: { text?: string | undefined; parts?: unknown }, ctx: z.RefinementCtx, required: boolean): void {
   if (plan.text !== undefined && plan.parts !== undefined) {
     ctx.addIssue({
@@ -232,4 +254,5 @@ type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
 const PART_MATCHES: Same<z.infer<typeof PartSchema>, Part> = true;
 const REPEAT_MATCHES: Same<z.infer<typeof RepeatSchema>, Repeat> = true;
 const ITEM_MATCHES: Same<z.infer<typeof PlanItemSchema>, PlanItem> = true;
-void [PART_MATCHES, REPEAT_MATCHES, ITEM_MATCHES];
+const EXPANDED_MATCHES: Same<z.infer<typeof ExpandedPartSchema>, ExpandedPart> = true;
+void [PART_MATCHES, REPEAT_MATCHES, ITEM_MATCHES, EXPANDED_MATCHES];

@@ -10,3 +10,6 @@ export function originalContentType(format: string, firstBytes: Uint8Array): str
   if (format === 'gpx') return 'application/gpx+xml';
   return 'application/octet-stream';
 }
+
+/** Every type `originalContentType` can answer: the original-file route declares these in /api/openapi.json. */
+export const ORIGINAL_CONTENT_TYPES = ['application/gpx+xml', 'application/gzip', 'application/octet-stream'] as const;

@@ -17,6 +17,14 @@ export const CreateSquadInputSchema = z
 export const InviteInputSchema = z.object({ email: EmailSchema }).strict();
 
 export const SquadSchema = z.object({ id: z.string(), name: z.string() });
+export type Squad = z.infer<typeof SquadSchema>;
+
+/** `GET /api/me/coaches`: a coach who can read the runner's data, and the squad that gives them access. */
+export const CoachAccessSchema = z.object({
+  squad: SquadSchema,
+  coach: z.object({ id: z.string(), name: z.string(), email: z.string() }),
+});
+export type CoachAccess = z.infer<typeof CoachAccessSchema>;
 
 export const InvitationSchema = z.object({ id: z.string(), email: z.string(), expires_at: z.string() });
 

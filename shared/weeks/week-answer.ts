@@ -4,6 +4,7 @@
  * tests/unit/client/week-review-fields.test.ts walks these shapes and fails when one is not shown.
  */
 import { z } from 'zod';
+import { AmountsSchema } from '../fuel/answers.ts';
 import { RunListItemSchema } from '../runs/schemas.ts';
 
 export const SessionVerdictSchema = z.enum(['as planned', 'partly', 'missed', 'unplanned']);
@@ -31,17 +32,19 @@ export const WeekNoteSchema = z.object({
   unread: z.boolean(),
 });
 
+/** `POST /api/runners/:id/weeks/:start/notes`: the note just written. */
+export const AddedWeekNoteSchema = z.object({
+  id: z.string(),
+  text: z.string(),
+  concern: z.enum(['pain', 'illness']).nullable(),
+});
+export type AddedWeekNote = z.infer<typeof AddedWeekNoteSchema>;
+
 /** Fuel taken on the run against its fuel plan, with how the stomach and energy felt (1–5). */
-export const WeekFuelTakenSchema = z.object({
+export const WeekFuelTakenSchema = AmountsSchema.extend({
   entries: z.number(),
-  carbohydrate_g: z.number(),
-  fluid_ml: z.number(),
-  sodium_mg: z.number(),
-  caffeine_mg: z.number(),
   /** The fuel plan's totals, when the run rehearsed one. */
-  planned: z
-    .object({ carbohydrate_g: z.number(), fluid_ml: z.number(), sodium_mg: z.number(), caffeine_mg: z.number() })
-    .nullable(),
+  planned: AmountsSchema.nullable(),
   stomach: z.number().nullable(),
   energy: z.number().nullable(),
   notes: z.string(),

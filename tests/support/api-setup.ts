@@ -1,6 +1,8 @@
-import { afterAll, beforeAll, beforeEach } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach } from 'vitest';
 import { runComputeJob, stopComputePool, warmComputePool } from '../../server/features/compute/compute-pool.ts';
+import { checkAnswersWith, type AnswerMismatch } from '../../server/lib/api-router.ts';
 import { db } from '../../server/lib/db.ts';
+import { answersChecked } from './answers-checked.ts';
 
 // The compute pool's first thread loads its code (a few seconds on a busy machine) before any test
 // runs, as a server does at start, so no test's own time limit pays for it.
@@ -24,4 +26,21 @@ beforeEach(async () => {
 afterAll(async () => {
   await stopComputePool();
   await db.destroy();
+});
+
+// Every 2xx answer of the API suite is checked against its route's declaration (server/lib/api-router.ts):
+// a JSON body that does not parse with the answer schema, a file of an undeclared type or a body on a 204
+// fails the test that caused it.
+const mismatches: AnswerMismatch[] = [];
+checkAnswersWith((mismatch) => {
+  if (mismatch) mismatches.push(mismatch);
+  else answersChecked.count++;
+});
+
+afterEach(() => {
+  const found = mismatches.splice(0);
+  if (found.length > 0)
+    throw new Error(
+      `Answers that do not match their declared schema:\n${found.map((m) => `${m.route}: ${m.problem}`).join('\n')}`,
+    );
 });

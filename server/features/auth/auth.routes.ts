@@ -24,7 +24,7 @@ import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor, requireCookieSession, type AuthLocals } from '../../lib/authorize.ts';
 import { AppError } from '../../lib/errors.ts';
-import { parseIdParam } from '../../lib/ids.ts';
+import { parseIdParam, readTokenParam } from '../../lib/ids.ts';
 import { issueApiToken, listTokensOf, revokeToken } from '../tokens/tokens.service.ts';
 import { toUser } from '../users/users.repository.ts';
 import { changePassword, checkCredentials } from './auth.service.ts';
@@ -94,12 +94,13 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       tag: 'auth',
       summary: 'Finish signing up with the e-mailed link: makes the account and signs in; 400 forged, 410 used or expired',
       access: 'public',
+      params: { token: readTokenParam },
       response: SignUpConfirmedSchema,
       status: 201,
       before: [addressLimiter],
     },
     async (req, res) => {
-      const { row, answer } = await confirmSignUp(typeof req.params.token === 'string' ? req.params.token : '');
+      const { row, answer } = await confirmSignUp(req.params.token);
       await startSession(res, row.id, config);
       res.status(201).json(answer);
     },
@@ -241,10 +242,11 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       tag: 'auth',
       summary: 'Revoke one of your API tokens',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await revokeToken(requireActor(res).id, parseIdParam(req.params.id));
+      await revokeToken(requireActor(res).id, req.params.id);
       res.status(204).end();
     },
   );
@@ -277,12 +279,13 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       tag: 'auth',
       summary: 'Choose a new password with a reset link; 400 forged, 410 used or expired',
       access: 'public',
+      params: { token: readTokenParam },
       body: PasswordResetInputSchema,
       status: 204,
       before: [addressLimiter],
     },
     async (req, res) => {
-      await resetPassword(typeof req.params.token === 'string' ? req.params.token : '', req.body.password, config);
+      await resetPassword(req.params.token, req.body.password, config);
       res.status(204).end();
     },
   );

@@ -1,3 +1,5 @@
+import { readTokenParam } from '../../lib/ids.ts';
+import { ICALENDAR } from '../../../shared/api/media-types.ts';
 import { CalendarFeedSchema, CalendarFeedStatusSchema } from '../../../shared/plans/prescribe-schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
@@ -56,12 +58,14 @@ export function createCalendarRouter(config: AppConfig) {
     {
       method: 'get',
       path: '/calendar/:token',
+      file: [ICALENDAR],
       tag: 'calendar',
       summary: 'The calendar feed (text/calendar, no sign-in: the address is the secret); revoked or made up → 404',
       access: 'public',
+      params: { token: readTokenParam },
     },
     async (req, res) => {
-      const body = await renderCalendarFeed(String(req.params.token), config.publicUrl);
+      const body = await renderCalendarFeed(req.params.token, config.publicUrl);
       res.type('text/calendar; charset=utf-8').set('Cache-Control', 'private, no-store').send(body);
     },
   );

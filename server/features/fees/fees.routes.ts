@@ -1,3 +1,4 @@
+import { CSV } from '../../../shared/api/media-types.ts';
 import type { Request } from 'express';
 import type Stripe from 'stripe';
 import { z } from 'zod';
@@ -50,10 +51,11 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       tag: 'fees',
       summary: 'The squad’s fee (its coach and its runners)',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: FeeAnswerSchema,
     },
     async (req, res) => {
-      res.json({ fee: await getSquadFee(requireActor(res), parseIdParam(req.params.id)) });
+      res.json({ fee: await getSquadFee(requireActor(res), req.params.id) });
     },
   );
 
@@ -64,11 +66,12 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       tag: 'fees',
       summary: 'Set the squad’s fee: none, monthly (optional first-month discount) or a one-off block of N weeks',
       access: 'squads:manage',
+      params: { id: parseIdParam },
       body: FeeInputSchema,
       response: FeeAnswerSchema,
     },
     async (req, res) => {
-      res.json({ fee: await setSquadFee(requireActor(res), parseIdParam(req.params.id), req.body, stripe) });
+      res.json({ fee: await setSquadFee(requireActor(res), req.params.id, req.body, stripe) });
     },
   );
 
@@ -79,11 +82,12 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       tag: 'fees',
       summary: 'Start paying the squad’s fee: the payment service’s hosted checkout page (a runner of the squad)',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: UrlAnswerSchema,
       status: 201,
     },
     async (req, res) => {
-      res.status(201).json(await startCheckout(requireActor(res), parseIdParam(req.params.id), stripe, appUrlOf(req, config)));
+      res.status(201).json(await startCheckout(requireActor(res), req.params.id, stripe, appUrlOf(req, config)));
     },
   );
 
@@ -94,10 +98,11 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       tag: 'fees',
       summary: 'Stop a monthly fee at the end of the paid period (the runner)',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await cancelAtPeriodEnd(requireActor(res), parseIdParam(req.params.id), stripe);
+      await cancelAtPeriodEnd(requireActor(res), req.params.id, stripe);
       res.status(204).end();
     },
   );
@@ -138,10 +143,11 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       tag: 'fees',
       summary: 'Who has paid through which date, who is due or overdue, cancelled or waived; totals per month (the coach)',
       access: 'squads:manage',
+      params: { id: parseIdParam },
       response: BillingAnswerSchema,
     },
     async (req, res) => {
-      const { squadName: _name, ...billing } = await squadBilling(requireActor(res), parseIdParam(req.params.id));
+      const { squadName: _name, ...billing } = await squadBilling(requireActor(res), req.params.id);
       res.json(billing);
     },
   );
@@ -150,12 +156,14 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
     {
       method: 'get',
       path: '/squads/:id/billing.csv',
+      file: [CSV],
       tag: 'fees',
       summary: 'The billing view as CSV: one row per runner',
       access: 'squads:manage',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      const billing = await squadBilling(requireActor(res), parseIdParam(req.params.id));
+      const billing = await squadBilling(requireActor(res), req.params.id);
       const rows = billing.members.map((m) => {
         const byCurrency = new Map<string, number>();
         for (const r of m.receipts) byCurrency.set(r.currency, (byCurrency.get(r.currency) ?? 0) + r.amount_minor);
@@ -196,11 +204,12 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       tag: 'fees',
       summary: 'Waive (or stop waiving) a runner’s fee (the coach)',
       access: 'squads:manage',
+      params: { id: parseIdParam, runnerId: parseIdParam },
       body: WaiverInputSchema,
       response: z.object({ waived: z.boolean() }),
     },
     async (req, res) => {
-      await setWaiver(requireActor(res), parseIdParam(req.params.id), parseIdParam(req.params.runnerId), req.body.waived);
+      await setWaiver(requireActor(res), req.params.id, req.params.runnerId, req.body.waived);
       res.json({ waived: req.body.waived });
     },
   );

@@ -1,3 +1,9 @@
+import {
+  CheckinViewSchema,
+  FuelPlanAnswerSchema,
+  FuelTakenViewSchema,
+  SavedFuelPlanAnswerSchema,
+} from '../../../shared/fuel/answers.ts';
 import { z } from 'zod';
 import {
   CheckinInputSchema,
@@ -30,7 +36,6 @@ import {
 } from './fuel.service.ts';
 
 const RunnerQuerySchema = z.object({ runner_id: z.uuid({ error: 'Not a runner id.' }).optional() });
-type RunnerQuery = z.infer<typeof RunnerQuerySchema>;
 
 export function createFuelRouter(mailer: Mailer, config: AppConfig) {
   const api = createApiRouter();
@@ -47,7 +52,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     },
     async (_req, res) => {
       const actor = requireActor(res);
-      const { runner_id: runnerId = actor.id } = res.locals.query as RunnerQuery;
+      const { runner_id: runnerId = actor.id } = res.locals.query;
       res.json({ items: await listItemsOf(actor, runnerId) });
     },
   );
@@ -75,11 +80,12 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
       tag: 'fuel',
       summary: 'Change one of your fuel items',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: FuelItemPatchSchema,
       response: z.object({ item: FuelItemSchema }),
     },
     async (req, res) => {
-      res.json({ item: await changeItem(requireActor(res), parseIdParam(req.params.id), req.body) });
+      res.json({ item: await changeItem(requireActor(res), req.params.id, req.body) });
     },
   );
 
@@ -90,10 +96,11 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
       tag: 'fuel',
       summary: 'Delete one of your fuel items',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await removeItem(requireActor(res), parseIdParam(req.params.id));
+      await removeItem(requireActor(res), req.params.id);
       res.status(204).end();
     },
   );
@@ -102,13 +109,15 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/plans/:id/fuel-plan',
+      response: FuelPlanAnswerSchema,
       tag: 'fuel',
       summary:
         'A session plan’s fuel plan: schedule by mile, km and clock, hourly totals vs targets with sources, meals, cautions',
       access: 'own-data',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      res.json({ fuel_plan: await getPlanFuelPlan(requireActor(res), parseIdParam(req.params.id)) });
+      res.json({ fuel_plan: await getPlanFuelPlan(requireActor(res), req.params.id) });
     },
   );
 
@@ -116,13 +125,15 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'put',
       path: '/plans/:id/fuel-plan',
+      response: SavedFuelPlanAnswerSchema,
       tag: 'fuel',
       summary: 'Set a session plan’s fuel plan (the runner or their coach); computes and stores the schedule',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: FuelPlanInputSchema,
     },
     async (req, res) => {
-      res.json({ fuel_plan: await putPlanFuelPlan(requireActor(res), parseIdParam(req.params.id), req.body) });
+      res.json({ fuel_plan: await putPlanFuelPlan(requireActor(res), req.params.id, req.body) });
     },
   );
 
@@ -133,10 +144,11 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
       tag: 'fuel',
       summary: 'Remove a session plan’s fuel plan',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await removePlanFuelPlan(requireActor(res), parseIdParam(req.params.id));
+      await removePlanFuelPlan(requireActor(res), req.params.id);
       res.status(204).end();
     },
   );
@@ -145,6 +157,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/me/goal-race/fuel-plan',
+      response: FuelPlanAnswerSchema,
       tag: 'fuel',
       summary: 'The goal race’s fuel plan (yours, or a squad runner’s with runner_id)',
       access: 'own-data',
@@ -152,7 +165,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     },
     async (_req, res) => {
       const actor = requireActor(res);
-      const { runner_id: runnerId = actor.id } = res.locals.query as RunnerQuery;
+      const { runner_id: runnerId = actor.id } = res.locals.query;
       res.json({ fuel_plan: await getGoalFuelPlan(actor, runnerId) });
     },
   );
@@ -161,6 +174,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'put',
       path: '/me/goal-race/fuel-plan',
+      response: SavedFuelPlanAnswerSchema,
       tag: 'fuel',
       summary: 'Set the goal race’s fuel plan, timed by the goal time (a coach adds runner_id)',
       access: 'own-data',
@@ -169,7 +183,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     },
     async (req, res) => {
       const actor = requireActor(res);
-      const { runner_id: runnerId = actor.id } = res.locals.query as RunnerQuery;
+      const { runner_id: runnerId = actor.id } = res.locals.query;
       res.json({ fuel_plan: await putGoalFuelPlan(actor, runnerId, req.body) });
     },
   );
@@ -186,7 +200,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     },
     async (_req, res) => {
       const actor = requireActor(res);
-      const { runner_id: runnerId = actor.id } = res.locals.query as RunnerQuery;
+      const { runner_id: runnerId = actor.id } = res.locals.query;
       await removeGoalFuelPlan(actor, runnerId);
       res.status(204).end();
     },
@@ -196,12 +210,14 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/runs/:id/fuel-taken',
+      response: FuelTakenViewSchema,
       tag: 'fuel',
       summary: 'What was taken on a run, how it went, and planned vs taken per hour when the run’s plan has a fuel plan',
       access: 'own-data',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      res.json(await getFuelTaken(requireActor(res), parseIdParam(req.params.id)));
+      res.json(await getFuelTaken(requireActor(res), req.params.id));
     },
   );
 
@@ -209,13 +225,15 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'put',
       path: '/runs/:id/fuel-taken',
+      response: FuelTakenViewSchema,
       tag: 'fuel',
       summary: 'Record what you took on your run (items with servings and times, water) and stomach and energy 1–5',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: FuelTakenInputSchema,
     },
     async (req, res) => {
-      res.json(await putFuelTaken(requireActor(res), parseIdParam(req.params.id), req.body));
+      res.json(await putFuelTaken(requireActor(res), req.params.id, req.body));
     },
   );
 
@@ -223,12 +241,14 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/runs/:id/checkin',
+      response: CheckinViewSchema,
       tag: 'fuel',
       summary: 'The after-run check-in: sleep, soreness, mood, recovery work; cold-water immersion with its caution',
       access: 'own-data',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      res.json(await getCheckin(requireActor(res), parseIdParam(req.params.id)));
+      res.json(await getCheckin(requireActor(res), req.params.id));
     },
   );
 
@@ -236,13 +256,15 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'put',
       path: '/runs/:id/checkin',
+      response: CheckinViewSchema,
       tag: 'fuel',
       summary: 'Record your after-run check-in',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: CheckinInputSchema,
     },
     async (req, res) => {
-      res.json(await putCheckin(requireActor(res), parseIdParam(req.params.id), req.body, { mailer, config }));
+      res.json(await putCheckin(requireActor(res), req.params.id, req.body, { mailer, config }));
     },
   );
 

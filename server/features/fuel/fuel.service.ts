@@ -1,6 +1,7 @@
+import type { CheckinView, FuelPlan, FuelTakenView } from '../../../shared/fuel/answers.ts';
 import type { Actor } from '../../../shared/auth/permissions.ts';
-import { CAUTIONS, cautionsFor, coldWaterNotes, type Caution, type CautionTopic } from '../../../shared/fuel/cautions.ts';
-import { mealPlan, type MealPlan } from '../../../shared/fuel/meals.ts';
+import { CAUTIONS, cautionsFor, coldWaterNotes, type CautionTopic } from '../../../shared/fuel/cautions.ts';
+import { mealPlan } from '../../../shared/fuel/meals.ts';
 import {
   buildSchedule,
   courseFromPlanItems,
@@ -15,12 +16,7 @@ import {
   type IntakeRule,
 } from '../../../shared/fuel/schedule.ts';
 import type { CheckinInput, FuelItemInput, FuelItemPatch, FuelPlanInput, FuelTakenInput } from '../../../shared/fuel/schemas.ts';
-import {
-  comparePlannedWithTaken,
-  resolveTakenEntries,
-  type PlannedVsTaken,
-  type TakenEntry,
-} from '../../../shared/fuel/taken.ts';
+import { comparePlannedWithTaken, resolveTakenEntries, type TakenEntry } from '../../../shared/fuel/taken.ts';
 import { proposeTargets, type FuelTarget, type FuelTargets } from '../../../shared/fuel/targets.ts';
 import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
@@ -86,33 +82,6 @@ interface StoredSchedule {
   schedule: FuelSchedule;
 }
 
-export interface FuelPlanView {
-  id: string;
-  runner_id: string;
-  author_id: string | null;
-  plan_id: string | null;
-  goal_race: boolean;
-  body_mass_kg: number;
-  easy_pace_s_per_km: number | null;
-  expected_duration_s: number;
-  expected_duration_given: boolean;
-  expected_distance_m: number;
-  start_clock: string | null;
-  sweat_l_per_h: number | null;
-  targets: FuelTargets;
-  proposed_targets: FuelTargets;
-  intakes: IntakeRule[];
-  bottles: Bottle[];
-  items: FuelItemFacts[];
-  course: Course;
-  schedule: FuelSchedule;
-  meals: MealPlan;
-  cautions: Caution[];
-  /** The session plan or goal race changed after this fuel plan was computed: save it again to refresh. */
-  source_changed: boolean;
-  updated_at: string;
-}
-
 function asBadInput(err: unknown): never {
   if (err instanceof FuelPlanError) {
     if (err.field) throw new ValidationError(err.message, [{ field: err.field, message: err.message }]);
@@ -142,7 +111,7 @@ function cautionTopics(schedule: FuelSchedule, items: readonly FuelItemFacts[]):
   return topics;
 }
 
-function present(row: FuelPlanRow, sourceUpdatedAt: Date | null): FuelPlanView {
+function present(row: FuelPlanRow, sourceUpdatedAt: Date | null): FuelPlan {
   const intakes = row.intakes as StoredIntakes;
   const stored = row.schedule as StoredSchedule;
   return {
@@ -235,13 +204,13 @@ async function readablePlan(actor: Actor, planId: string) {
   return plan;
 }
 
-export async function getPlanFuelPlan(actor: Actor, planId: string): Promise<FuelPlanView | null> {
+export async function getPlanFuelPlan(actor: Actor, planId: string): Promise<FuelPlan | null> {
   const plan = await readablePlan(actor, planId);
   const row = await findFuelPlan({ plan_id: plan.id });
   return row ? present(row, plan.updated_at) : null;
 }
 
-export async function putPlanFuelPlan(actor: Actor, planId: string, input: FuelPlanInput): Promise<FuelPlanView> {
+export async function putPlanFuelPlan(actor: Actor, planId: string, input: FuelPlanInput): Promise<FuelPlan> {
   const plan = await readablePlan(actor, planId);
   await assertCanPlanFor(actor, plan.runner_id);
   const [goal, results] = await Promise.all([findGoalRace(plan.runner_id), listRaceResults(plan.runner_id)]);
@@ -266,13 +235,13 @@ export async function removePlanFuelPlan(actor: Actor, planId: string): Promise<
   if (!(await deleteFuelPlan({ plan_id: plan.id }))) throw new NotFoundError('This plan has no fuel plan.');
 }
 
-export async function getGoalFuelPlan(actor: Actor, runnerId: string): Promise<FuelPlanView | null> {
+export async function getGoalFuelPlan(actor: Actor, runnerId: string): Promise<FuelPlan | null> {
   await assertCanReadRunner(actor, runnerId);
   const [goal, row] = await Promise.all([findGoalRace(runnerId), findFuelPlan({ goal_race_user_id: runnerId })]);
   return row && goal ? present(row, goal.updated_at) : null;
 }
 
-export async function putGoalFuelPlan(actor: Actor, runnerId: string, input: FuelPlanInput): Promise<FuelPlanView> {
+export async function putGoalFuelPlan(actor: Actor, runnerId: string, input: FuelPlanInput): Promise<FuelPlan> {
   await assertCanPlanFor(actor, runnerId);
   const goal = await findGoalRace(runnerId);
   if (!goal) throw new AppError(422, 'no-goal-race', 'Set a goal race first: its distance and goal time time the fuel plan.');
@@ -325,19 +294,6 @@ export async function plannedFuelTotalsOf(run: Pick<RunRow, 'id' | 'user_id' | '
   return { carbohydrate_g, fluid_ml, sodium_mg, caffeine_mg };
 }
 
-export interface FuelTakenView {
-  fuel_taken: {
-    run_id: string;
-    entries: TakenEntry[];
-    stomach: number | null;
-    energy: number | null;
-    notes: string;
-    updated_at: string;
-  } | null;
-  planned_vs_taken: (PlannedVsTaken & { fuel_plan_id: string }) | null;
-  cautions: Caution[];
-}
-
 async function fuelTakenView(run: RunRow): Promise<FuelTakenView> {
   const [row, plan] = await Promise.all([findFuelTaken(run.id), fuelPlanOfRun(run)]);
   const entries = (row?.entries ?? []) as TakenEntry[];
@@ -384,21 +340,6 @@ export async function putFuelTaken(actor: Actor, runId: string, input: FuelTaken
   }
   await upsertFuelTaken(run.id, { entries: resolved.entries, stomach: input.stomach, energy: input.energy, notes: input.notes });
   return fuelTakenView(run);
-}
-
-export interface CheckinView {
-  checkin: {
-    run_id: string;
-    sleep_hours: number | null;
-    soreness: number | null;
-    mood: number | null;
-    walking_minutes: number | null;
-    mobility_minutes: number | null;
-    cold_water: { water_temp_c: number; minutes: number; notes: string[] } | null;
-    notes: string;
-    updated_at: string;
-  } | null;
-  cautions: Caution[];
 }
 
 function checkinView(row: RunCheckinRow | undefined): CheckinView {

@@ -33,7 +33,7 @@ export function createGoalsRouter() {
     },
     async (_req, res) => {
       const actor = requireActor(res);
-      const { runner_id: runnerId = actor.id } = res.locals.query as z.infer<typeof RunnerQuerySchema>;
+      const { runner_id: runnerId = actor.id } = res.locals.query;
       await assertCanReadRunner(actor, runnerId);
       const row = await findGoalRace(runnerId);
       res.json({ goal_race: row ? toGoalRace(row) : null });
@@ -75,7 +75,7 @@ export function createGoalsRouter() {
     },
     async (_req, res) => {
       const actor = requireActor(res);
-      const { runner_id: runnerId = actor.id } = res.locals.query as z.infer<typeof RunnerQuerySchema>;
+      const { runner_id: runnerId = actor.id } = res.locals.query;
       await assertCanReadRunner(actor, runnerId);
       res.json({ results: (await listRaceResults(runnerId)).map(toRaceResult) });
     },
@@ -104,10 +104,11 @@ export function createGoalsRouter() {
       tag: 'goals',
       summary: 'Delete one of your race results',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      if (!(await deleteRaceResult(requireActor(res).id, parseIdParam(req.params.id))))
+      if (!(await deleteRaceResult(requireActor(res).id, req.params.id)))
         throw new NotFoundError('There is no such race result.');
       res.status(204).end();
     },

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { HealthSchema } from '../../../shared/api/health.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { isDatabaseUp } from '../../lib/db.ts';
 
@@ -11,7 +11,7 @@ export function createHealthRouter() {
       tag: 'service',
       summary: 'Is the service and its database up? 200 when yes, 503 when the database is down',
       access: 'public',
-      response: z.object({ ok: z.boolean(), db: z.enum(['up', 'down']) }),
+      response: HealthSchema,
     },
     async (_req, res) => {
       const up = await isDatabaseUp();

@@ -1,3 +1,4 @@
+import { ZIP } from '../../../shared/api/media-types.ts';
 import { mkdirSync } from 'node:fs';
 import { randomUUID } from 'node:crypto';
 import multer from 'multer';
@@ -100,10 +101,11 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
       tag: 'history',
       summary: 'Progress of a bulk import: status, files done of total, imported, duplicates, rejected with reasons',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: ImportProgressSchema,
     },
     async (req, res) => {
-      res.json(await getImportProgress(requireActor(res), parseIdParam(req.params.id)));
+      res.json(await getImportProgress(requireActor(res), req.params.id));
     },
   );
 
@@ -111,6 +113,7 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
     {
       method: 'get',
       path: '/me/export',
+      file: [ZIP],
       tag: 'history',
       summary:
         'Everything of the signed-in user as a streamed .zip: original files, runs.csv, splits-mi.csv, splits-km.csv, plans, fuel, notes, profile, races',

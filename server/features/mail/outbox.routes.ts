@@ -1,19 +1,9 @@
 import { z } from 'zod';
+import { CaughtMessageSchema } from '../../../shared/api/outbox.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { listCaughtMessages } from './outbox.repository.ts';
-
-const MessageSchema = z.object({
-  id: z.string(),
-  to: z.string(),
-  subject: z.string(),
-  text: z.string(),
-  html: z.string(),
-  /** Lower-case header names to values, e.g. `list-unsubscribe` (api-contract.md). */
-  headers: z.record(z.string(), z.string()),
-  sent_at: z.string(),
-});
 
 export function createOutboxRouter(config: AppConfig) {
   const api = createApiRouter();
@@ -24,7 +14,7 @@ export function createOutboxRouter(config: AppConfig) {
       tag: 'development',
       summary: 'Messages caught by the local mail catcher, newest first (404 in production)',
       access: 'public',
-      response: z.object({ messages: z.array(MessageSchema) }),
+      response: z.object({ messages: z.array(CaughtMessageSchema) }),
     },
     async (_req, res) => {
       // Development only: the catcher holds every message the app sends, links and all.

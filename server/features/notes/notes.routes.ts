@@ -28,10 +28,11 @@ export function createNotesRouter() {
       tag: 'notes',
       summary: 'Mark a note (on a run or a week) you may read as opened',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await markNoteRead(requireActor(res), parseIdParam(req.params.id));
+      await markNoteRead(requireActor(res), req.params.id);
       res.status(204).end();
     },
   );

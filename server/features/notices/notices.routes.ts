@@ -1,3 +1,4 @@
+import { readTokenParam } from '../../lib/ids.ts';
 import express, { type RequestHandler } from 'express';
 import multer from 'multer';
 import {
@@ -11,8 +12,6 @@ import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { BadRequestError } from '../../lib/errors.ts';
 import { changeNoticeSwitches, describeUnsubscribeLink, noticeSwitchesOf, unsubscribeByLink } from './unsubscribe.service.ts';
-
-const tokenOf = (value: string | string[] | undefined) => (typeof value === 'string' ? value : '');
 
 /**
  * RFC 8058 §3.2: the one-click body is `application/x-www-form-urlencoded` or `multipart/form-data`;
@@ -66,10 +65,11 @@ export function createNoticesRouter(config: AppConfig) {
       tag: 'notices',
       summary: 'What an unsubscribe link switches off and whether it is on now (no sign-in; the link is signed)',
       access: 'public',
+      params: { token: readTokenParam },
       response: UnsubscribeAnswerSchema,
     },
     async (req, res) => {
-      res.json(await describeUnsubscribeLink(tokenOf(req.params.token), config));
+      res.json(await describeUnsubscribeLink(req.params.token, config));
     },
   );
 
@@ -80,12 +80,13 @@ export function createNoticesRouter(config: AppConfig) {
       tag: 'notices',
       summary: 'One-click unsubscribe (RFC 8058): body List-Unsubscribe=One-Click turns off exactly the kind the link names',
       access: 'public',
+      params: { token: readTokenParam },
       body: OneClickUnsubscribeBodySchema,
       response: UnsubscribeAnswerSchema,
       before: oneClickBody,
     },
     async (req, res) => {
-      res.json(await unsubscribeByLink(tokenOf(req.params.token), config));
+      res.json(await unsubscribeByLink(req.params.token, config));
     },
   );
 

@@ -38,6 +38,18 @@ const ERROR_RESPONSES = {
   429: 'Too many attempts',
 } as const;
 
+/** The success answer: a JSON schema, a file's media types, or no content (204). */
+function successResponse(spec: RouteSpec): JsonSchema {
+  if (spec.response)
+    return { description: 'Success', content: { 'application/json': { schema: toJsonSchema(spec.response, 'output') } } };
+  if (spec.file)
+    return {
+      description: 'A file',
+      content: Object.fromEntries(spec.file.map((type) => [type, { schema: { type: 'string', format: 'binary' } }])),
+    };
+  return { description: 'No content' };
+}
+
 /** Builds the OpenAPI 3.1 document from the routes' own zod schemas, so it cannot drift from validation. */
 export function buildOpenApiDocument(specs: RouteSpec[], version: string): JsonSchema {
   const paths: Record<string, Record<string, unknown>> = {};
@@ -54,11 +66,7 @@ export function buildOpenApiDocument(specs: RouteSpec[], version: string): JsonS
       ...(spec.query ? queryParameters(spec.query) : []),
     ];
     const status = String(spec.status ?? 200);
-    const responses: Record<string, unknown> = {
-      [status]: spec.response
-        ? { description: 'Success', content: { 'application/json': { schema: toJsonSchema(spec.response, 'output') } } }
-        : { description: 'Success' },
-    };
+    const responses: Record<string, unknown> = { [status]: successResponse(spec) };
     for (const [code, description] of Object.entries(ERROR_RESPONSES)) {
       responses[code] = { description, content: { 'application/json': { schema: errorSchema } } };
     }

@@ -1,7 +1,9 @@
+import { CSV } from '../../../shared/api/media-types.ts';
 import { z } from 'zod';
 import {
   CreatePlanInputSchema,
   ParsePlanInputSchema,
+  ParsedPlanSchema,
   PlanDateSchema,
   PlanSchema,
   UpdatePlanInputSchema,
@@ -43,6 +45,7 @@ export function createPlansRouter(config: AppConfig) {
     {
       method: 'post',
       path: '/plans/parse',
+      response: ParsedPlanSchema,
       tag: 'plans',
       summary: 'Parse session shorthand: 200 with parts, or 400 with details {position, expected}',
       access: 'own-data',
@@ -80,7 +83,7 @@ export function createPlansRouter(config: AppConfig) {
       response: z.object({ plans: z.array(PlanSchema) }),
     },
     async (_req, res) => {
-      res.json({ plans: await listPlansFor(requireActor(res), res.locals.query as z.infer<typeof ListPlansQuerySchema>) });
+      res.json({ plans: await listPlansFor(requireActor(res), res.locals.query) });
     },
   );
 
@@ -91,10 +94,11 @@ export function createPlansRouter(config: AppConfig) {
       tag: 'plans',
       summary: 'One session plan',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: z.object({ plan: PlanSchema }),
     },
     async (req, res) => {
-      res.json({ plan: await getPlan(requireActor(res), parseIdParam(req.params.id)) });
+      res.json({ plan: await getPlan(requireActor(res), req.params.id) });
     },
   );
 
@@ -105,18 +109,27 @@ export function createPlansRouter(config: AppConfig) {
       tag: 'plans',
       summary: 'Change a plan: move it to another date, retitle it, rewrite it',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: UpdatePlanInputSchema,
       response: z.object({ plan: PlanSchema }),
     },
     async (req, res) => {
-      res.json({ plan: await changePlan(requireActor(res), parseIdParam(req.params.id), req.body) });
+      res.json({ plan: await changePlan(requireActor(res), req.params.id, req.body) });
     },
   );
 
   api.route(
-    { method: 'delete', path: '/plans/:id', tag: 'plans', summary: 'Delete a plan', access: 'own-data', status: 204 },
+    {
+      method: 'delete',
+      path: '/plans/:id',
+      tag: 'plans',
+      summary: 'Delete a plan',
+      access: 'own-data',
+      params: { id: parseIdParam },
+      status: 204,
+    },
     async (req, res) => {
-      await removePlan(requireActor(res), parseIdParam(req.params.id));
+      await removePlan(requireActor(res), req.params.id);
       res.status(204).end();
     },
   );
@@ -128,17 +141,26 @@ export function createPlansRouter(config: AppConfig) {
       tag: 'plans',
       summary: 'The run against its session plan, part by part, with verdicts',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: PlanCheckAnswerSchema,
     },
     async (req, res) => {
-      res.json(await planCheckOfRun(requireActor(res), parseIdParam(req.params.id)));
+      res.json(await planCheckOfRun(requireActor(res), req.params.id));
     },
   );
 
   api.route(
-    { method: 'get', path: '/runs/:id/plan-check.csv', tag: 'plans', summary: 'The plan check as CSV', access: 'own-data' },
+    {
+      method: 'get',
+      path: '/runs/:id/plan-check.csv',
+      file: [CSV],
+      tag: 'plans',
+      summary: 'The plan check as CSV',
+      access: 'own-data',
+      params: { id: parseIdParam },
+    },
     async (req, res) => {
-      const check = await planCheckOfRun(requireActor(res), parseIdParam(req.params.id));
+      const check = await planCheckOfRun(requireActor(res), req.params.id);
       res.type('text/csv; charset=utf-8').attachment('plan-check.csv').send(planCheckToCsv(check.parts));
     },
   );
@@ -150,11 +172,12 @@ export function createPlansRouter(config: AppConfig) {
       tag: 'plans',
       summary: 'Link your run to one of your plans (plan_id), to none (null), or back to the same-day plan ("auto")',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: LinkPlanInputSchema,
       status: 204,
     },
     async (req, res) => {
-      await linkRunToPlan(requireActor(res), parseIdParam(req.params.id), req.body.plan_id);
+      await linkRunToPlan(requireActor(res), req.params.id, req.body.plan_id);
       res.status(204).end();
     },
   );
@@ -166,6 +189,7 @@ export function createPlansRouter(config: AppConfig) {
       tag: 'plans',
       summary: 'Set how far from the target pace still counts as on pace (the runner or their coach)',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: z.object({ pace_tolerance: PaceToleranceSchema }).strict(),
       response: z.object({ pace_tolerance: z.number() }),
       // Each change makes every stored plan check of the runner stale, to be recomputed on the next read.
@@ -180,7 +204,7 @@ export function createPlansRouter(config: AppConfig) {
     },
     async (req, res) => {
       res.json({
-        pace_tolerance: await setPaceTolerance(requireActor(res), parseIdParam(req.params.id), req.body.pace_tolerance),
+        pace_tolerance: await setPaceTolerance(requireActor(res), req.params.id, req.body.pace_tolerance),
       });
     },
   );

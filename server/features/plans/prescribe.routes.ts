@@ -88,10 +88,11 @@ export function createPrescribeRouter() {
       tag: 'plans',
       summary: 'Undo a copied week or an applied library session (its author, within 24 hours)',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await undoBatch(requireActor(res), parseIdParam(req.params.id));
+      await undoBatch(requireActor(res), req.params.id);
       res.status(204).end();
     },
   );
@@ -103,10 +104,11 @@ export function createPrescribeRouter() {
       tag: 'plans',
       summary: 'Who changed a session, when and what, newest first',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: z.object({ changes: z.array(PlanChangeSchema) }),
     },
     async (req, res) => {
-      res.json({ changes: await listChangesOfPlan(requireActor(res), parseIdParam(req.params.id)) });
+      res.json({ changes: await listChangesOfPlan(requireActor(res), req.params.id) });
     },
   );
 
@@ -147,11 +149,12 @@ export function createPrescribeRouter() {
       tag: 'library',
       summary: 'Rename or rewrite a library session',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: UpdateLibrarySessionInputSchema,
       response: z.object({ session: LibrarySessionSchema }),
     },
     async (req, res) => {
-      res.json({ session: await changeLibrarySession(requireActor(res), parseIdParam(req.params.id), req.body) });
+      res.json({ session: await changeLibrarySession(requireActor(res), req.params.id, req.body) });
     },
   );
 
@@ -162,10 +165,11 @@ export function createPrescribeRouter() {
       tag: 'library',
       summary: 'Delete a library session',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await removeLibrarySession(requireActor(res), parseIdParam(req.params.id));
+      await removeLibrarySession(requireActor(res), req.params.id);
       res.status(204).end();
     },
   );
@@ -181,7 +185,7 @@ export function createPrescribeRouter() {
       response: z.object({ day_marks: z.array(DayMarkSchema) }),
     },
     async (_req, res) => {
-      res.json({ day_marks: await listDayMarks(requireActor(res), res.locals.query as z.infer<typeof DayMarksQuerySchema>) });
+      res.json({ day_marks: await listDayMarks(requireActor(res), res.locals.query) });
     },
   );
 
@@ -192,11 +196,12 @@ export function createPrescribeRouter() {
       tag: 'plans',
       summary: 'Mark a day rest, ill, injured or cross-training (minutes, note); a coach adds runner_id',
       access: 'own-data',
+      params: { date: parseDateParam },
       body: PutDayMarkInputSchema,
       response: z.object({ day_mark: DayMarkSchema }),
     },
     async (req, res) => {
-      res.json({ day_mark: await putDayMark(requireActor(res), parseDateParam(req.params.date), req.body) });
+      res.json({ day_mark: await putDayMark(requireActor(res), req.params.date, req.body) });
     },
   );
 
@@ -207,12 +212,13 @@ export function createPrescribeRouter() {
       tag: 'plans',
       summary: 'Remove a day mark (?runner_id= for a squad runner)',
       access: 'own-data',
+      params: { date: parseDateParam },
       query: RunnerQuerySchema,
       status: 204,
     },
     async (req, res) => {
-      const query = res.locals.query as z.infer<typeof RunnerQuerySchema>;
-      await removeDayMark(requireActor(res), parseDateParam(req.params.date), query.runner_id);
+      const query = res.locals.query;
+      await removeDayMark(requireActor(res), req.params.date, query.runner_id);
       res.status(204).end();
     },
   );
@@ -224,10 +230,11 @@ export function createPrescribeRouter() {
       tag: 'plans',
       summary: 'A runner’s name, unit and plan-check tolerance (the runner, their coaches, admins)',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: z.object({ runner: RunnerSummarySchema }),
     },
     async (req, res) => {
-      res.json({ runner: await runnerSummary(requireActor(res), parseIdParam(req.params.id)) });
+      res.json({ runner: await runnerSummary(requireActor(res), req.params.id) });
     },
   );
 

@@ -1,3 +1,6 @@
+import { RunDetailSchema, RunPageSchema, RunTrackSchema } from '../../../shared/runs/types.ts';
+import { ORIGINAL_CONTENT_TYPES } from '../../../shared/runs/original-download.ts';
+import { CSV } from '../../../shared/api/media-types.ts';
 import { z } from 'zod';
 import {
   ImportResultSchema,
@@ -9,7 +12,6 @@ import {
   SplitsCsvQuerySchema,
   UploadRunsQuerySchema,
   StorageUsageSchema,
-  type ListRunsQuery,
 } from '../../../shared/runs/schemas.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
@@ -69,7 +71,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       const files = receivedFiles(req);
       if (files.length === 0) throw new BadRequestError('Choose at least one .gpx or .tcx file to upload.', 'no-files');
       const actor = requireActor(res);
-      const { duplicates } = res.locals.query as z.infer<typeof UploadRunsQuerySchema>;
+      const { duplicates } = res.locals.query;
       const result = await importFiles(actor, files, store, {
         storageQuotaBytes: config.storageQuotaBytes,
         importDuplicates: duplicates === 'import',
@@ -109,10 +111,10 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
         'List runs, paged, newest first unless sort (date|distance|duration|pace) and order (asc|desc) say otherwise; optionally between local dates (from/to) and for a squad runner (runner_id)',
       access: 'own-data',
       query: ListRunsQuerySchema,
-      response: z.object({ runs: z.array(RunListItemSchema), total: z.number(), page: z.number(), per_page: z.number() }),
+      response: RunPageSchema,
     },
     async (_req, res) => {
-      res.json(await listRuns(requireActor(res), res.locals.query as ListRunsQuery));
+      res.json(await listRuns(requireActor(res), res.locals.query));
     },
   );
 
@@ -121,12 +123,14 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       method: 'get',
       path: '/runs/:id',
       reads: 'replica',
+      response: RunDetailSchema,
       tag: 'runs',
       summary: 'A run: summary, splits per mile and per km, device laps, fastest sections',
       access: 'own-data',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      res.json(await describeRun(requireActor(res), parseIdParam(req.params.id)));
+      res.json(await describeRun(requireActor(res), req.params.id));
     },
   );
 
@@ -134,14 +138,16 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
     {
       method: 'get',
       path: '/runs/:id/splits.csv',
+      file: [CSV],
       tag: 'runs',
       summary: 'Splits as CSV (unit=mi|km): split,unit,distance,elapsed_s,moving_s,pace,avg_hr,max_hr,elev_gain_m,elev_loss_m,…',
       access: 'own-data',
+      params: { id: parseIdParam },
       query: SplitsCsvQuerySchema,
     },
     async (req, res) => {
-      const { unit } = res.locals.query as z.infer<typeof SplitsCsvQuerySchema>;
-      const { csv, filename } = await splitsCsvOf(requireActor(res), parseIdParam(req.params.id), unit);
+      const { unit } = res.locals.query;
+      const { csv, filename } = await splitsCsvOf(requireActor(res), req.params.id, unit);
       res.type('text/csv; charset=utf-8').attachment(filename).send(csv);
     },
   );
@@ -150,12 +156,14 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
     {
       method: 'get',
       path: '/runs/:id/track',
+      response: RunTrackSchema,
       tag: 'runs',
       summary: 'The run’s series (time, distance, position, elevation, heart rate), thinned for charts',
       access: 'own-data',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      res.json(await trackOf(requireActor(res), parseIdParam(req.params.id)));
+      res.json(await trackOf(requireActor(res), req.params.id));
     },
   );
 
@@ -163,12 +171,14 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
     {
       method: 'get',
       path: '/runs/:id/original',
+      file: ORIGINAL_CONTENT_TYPES,
       tag: 'runs',
       summary: 'The original uploaded file, byte for byte',
       access: 'own-data',
+      params: { id: parseIdParam },
     },
     async (req, res) => {
-      const file = await originalFileOf(requireActor(res), parseIdParam(req.params.id), store);
+      const file = await originalFileOf(requireActor(res), req.params.id, store);
       // attachment() would set the type from the name's extension; the type comes from the bytes instead.
       res.attachment(file.name).set('Content-Type', file.contentType).set('X-Content-Type-Options', 'nosniff').send(file.data);
     },
@@ -181,12 +191,13 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       tag: 'runs',
       summary: 'Rename a run, or change its kind (run, ride or hike)',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: RenameRunInputSchema,
       response: z.object({ run: RunListItemSchema }),
     },
     async (req, res) => {
       res.json({
-        run: await renameOwnRun(requireActor(res), parseIdParam(req.params.id), { name: req.body.name, kind: req.body.kind }),
+        run: await renameOwnRun(requireActor(res), req.params.id, { name: req.body.name, kind: req.body.kind }),
       });
     },
   );
@@ -198,10 +209,11 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       tag: 'runs',
       summary: 'Delete a run (and its original file when no other run came from it)',
       access: 'own-data',
+      params: { id: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await deleteOwnRun(requireActor(res), parseIdParam(req.params.id), store);
+      await deleteOwnRun(requireActor(res), req.params.id, store);
       res.status(204).end();
     },
   );
@@ -213,10 +225,11 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       tag: 'runs',
       summary: 'Notes on a run, oldest first (the runner and their coaches)',
       access: 'own-data',
+      params: { id: parseIdParam },
       response: z.object({ notes: z.array(RunNoteSchema) }),
     },
     async (req, res) => {
-      res.json({ notes: await notesOf(requireActor(res), parseIdParam(req.params.id)) });
+      res.json({ notes: await notesOf(requireActor(res), req.params.id) });
     },
   );
 
@@ -227,13 +240,14 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       tag: 'runs',
       summary: 'Write a note on a run',
       access: 'own-data',
+      params: { id: parseIdParam },
       body: NewRunNoteInputSchema,
       response: z.object({ note: RunNoteSchema }),
       status: 201,
     },
     async (req, res) => {
       res.status(201).json({
-        note: await addNote(requireActor(res), parseIdParam(req.params.id), req.body.text, req.body.concern ?? null, {
+        note: await addNote(requireActor(res), req.params.id, req.body.text, req.body.concern ?? null, {
           mailer,
           config,
         }),

@@ -1,3 +1,4 @@
+import type { RunDetail } from '../../../shared/runs/types.ts';
 import { runFileName } from '../../../shared/runs/file-names.ts';
 import { METRES_PER_MILE } from '../../../shared/units.ts';
 import type { ActivityKind } from '../../../shared/runs/activity-kind.ts';
@@ -332,7 +333,8 @@ export async function describeRun(actor: Actor, runId: string) {
       started_at: f.start_at.toISOString(),
       start_distance_m: f.start_distance_m,
     })),
-    details: run.details,
+    // Stored JSON written at import (see above); the API tests parse every answer against RunDetailSchema.
+    details: run.details as RunDetail['details'],
   };
 }
 
@@ -398,10 +400,11 @@ export async function trackOf(actor: Actor, runId: string, maxPoints = 2000) {
   return {
     points: row.point_count,
     step,
-    t: pick(columns.t),
-    d: pick(columns.d),
-    lat: pick(columns.lat),
-    lon: pick(columns.lon),
+    // Time, distance and position columns are written for every run at import (NaN where unknown).
+    t: pick(columns.t) ?? [],
+    d: pick(columns.d) ?? [],
+    lat: pick(columns.lat) ?? [],
+    lon: pick(columns.lon) ?? [],
     ele: pick(columns.ele),
     hr: pick(columns.hr),
   };

@@ -5,12 +5,13 @@ import {
   InvitationSchema,
   InviteInputSchema,
   SquadDetailSchema,
+  CoachAccessSchema,
   SquadSchema,
 } from '../../../shared/squads/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
-import { parseIdParam } from '../../lib/ids.ts';
+import { parseIdParam, readTokenParam } from '../../lib/ids.ts';
 import type { Mailer } from '../../lib/mailer.ts';
 import {
   acceptInvitation,
@@ -22,8 +23,6 @@ import {
   removeFromSquad,
   withdrawInvitation,
 } from './squads.service.ts';
-
-const tokenOf = (value: string | string[] | undefined) => (typeof value === 'string' ? value : '');
 
 export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
   const api = createApiRouter();
@@ -65,14 +64,13 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'Invite a runner by e-mail: a single-use link valid 14 days',
       access: 'squads:manage',
+      params: { id: parseIdParam },
       body: InviteInputSchema,
       response: z.object({ invitation: InvitationSchema }),
       status: 201,
     },
     async (req, res) => {
-      res
-        .status(201)
-        .json({ invitation: await inviteRunner(requireActor(res), parseIdParam(req.params.id), req.body.email, mailer, config) });
+      res.status(201).json({ invitation: await inviteRunner(requireActor(res), req.params.id, req.body.email, mailer, config) });
     },
   );
 
@@ -83,10 +81,11 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'Withdraw an open invitation',
       access: 'squads:manage',
+      params: { id: parseIdParam, invitationId: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await withdrawInvitation(requireActor(res), parseIdParam(req.params.id), parseIdParam(req.params.invitationId));
+      await withdrawInvitation(requireActor(res), req.params.id, req.params.invitationId);
       res.status(204).end();
     },
   );
@@ -98,10 +97,11 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'Remove a runner (the coach) or leave the squad (the runner, with their own id)',
       access: 'own-data',
+      params: { id: parseIdParam, runnerId: parseIdParam },
       status: 204,
     },
     async (req, res) => {
-      await removeFromSquad(requireActor(res), parseIdParam(req.params.id), parseIdParam(req.params.runnerId), {
+      await removeFromSquad(requireActor(res), req.params.id, req.params.runnerId, {
         mailer,
         config,
       });
@@ -116,10 +116,11 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'What an invitation is for (squad, coach, status), for the invite page',
       access: 'public',
+      params: { token: readTokenParam },
       response: InvitationPreviewSchema,
     },
     async (req, res) => {
-      res.json(await previewInvitation(tokenOf(req.params.token)));
+      res.json(await previewInvitation(req.params.token));
     },
   );
 
@@ -130,10 +131,11 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'Accept an invitation (signed in as a runner); 410 when used, withdrawn or expired',
       access: 'own-data',
+      params: { token: readTokenParam },
       response: z.object({ squad: SquadSchema }),
     },
     async (req, res) => {
-      res.json({ squad: await acceptInvitation(requireActor(res), tokenOf(req.params.token)) });
+      res.json({ squad: await acceptInvitation(requireActor(res), req.params.token) });
     },
   );
 
@@ -144,11 +146,7 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'The coaches who can read your data, and the squads that give them access',
       access: 'own-data',
-      response: z.object({
-        coaches: z.array(
-          z.object({ squad: SquadSchema, coach: z.object({ id: z.string(), name: z.string(), email: z.string() }) }),
-        ),
-      }),
+      response: z.object({ coaches: z.array(CoachAccessSchema) }),
     },
     async (_req, res) => {
       res.json({ coaches: await coachesOf(requireActor(res)) });

@@ -6,9 +6,7 @@ import {
   EquivalentsResponseSchema,
   PacesQuerySchema,
   PacesResponseSchema,
-  type EquivalentsQuery,
   type EquivalentsResponse,
-  type PacesQuery,
   type PacesResponse,
 } from '../../../shared/race/schemas.ts';
 import { trainingRanges } from '../../../shared/race/training-ranges.ts';
@@ -30,7 +28,7 @@ export function createToolsRouter() {
       response: EquivalentsResponseSchema,
     },
     (_req, res) => {
-      const { distance_m, time_s } = res.locals.query as EquivalentsQuery;
+      const { distance_m, time_s } = res.locals.query;
       const body: EquivalentsResponse = { equivalents: raceEquivalents(distance_m, time_s) };
       res.json(body);
     },
@@ -48,7 +46,7 @@ export function createToolsRouter() {
       response: PacesResponseSchema,
     },
     (_req, res) => {
-      const { distance_m, time_s, unit, negative_split_s, include } = res.locals.query as PacesQuery;
+      const { distance_m, time_s, unit, negative_split_s, include } = res.locals.query;
       const body: PacesResponse = {
         distance_m,
         time_s,

@@ -66,11 +66,12 @@ export function createUsersRouter() {
       tag: 'admin',
       summary: "Change a user's role (admins)",
       access: 'users:manage',
+      params: { id: parseIdParam },
       body: ChangeRoleInputSchema,
       response: z.object({ user: UserSchema }),
     },
     async (req, res) => {
-      res.json({ user: await changeRole(parseIdParam(req.params.id), req.body.role) });
+      res.json({ user: await changeRole(req.params.id, req.body.role) });
     },
   );
 

@@ -1,8 +1,9 @@
+import { CSV } from '../../../shared/api/media-types.ts';
 import { z } from 'zod';
 import { NewRunNoteInputSchema } from '../../../shared/runs/schemas.ts';
 import { overviewToCsv, weekToCsv } from '../../../shared/weeks/csv.ts';
 import { calendarDateSchema } from '../../../shared/api/calendar-date.ts';
-import { RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
+import { AddedWeekNoteSchema, RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
 import { DigestReceiptSchema, SquadOverviewSchema } from '../../../shared/weeks/squad-overview.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
@@ -34,12 +35,13 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       tag: 'weeks',
       summary: 'One runner’s week (start = any date in it): plans and runs with verdicts, totals, load, flags, notes',
       access: 'own-data',
+      params: { id: parseIdParam },
       query: WeekQuerySchema,
       response: RunnerWeekSchema,
     },
     async (req, res) => {
-      const { start } = res.locals.query as z.infer<typeof WeekQuerySchema>;
-      res.json(await buildRunnerWeek(requireActor(res), parseIdParam(req.params.id), start));
+      const { start } = res.locals.query;
+      res.json(await buildRunnerWeek(requireActor(res), req.params.id, start));
     },
   );
 
@@ -47,14 +49,16 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/runners/:id/week.csv',
+      file: [CSV],
       tag: 'weeks',
       summary: 'The week as CSV',
       access: 'own-data',
+      params: { id: parseIdParam },
       query: WeekQuerySchema,
     },
     async (req, res) => {
-      const { start } = res.locals.query as z.infer<typeof WeekQuerySchema>;
-      const week = await buildRunnerWeek(requireActor(res), parseIdParam(req.params.id), start);
+      const { start } = res.locals.query;
+      const week = await buildRunnerWeek(requireActor(res), req.params.id, start);
       res.type('text/csv; charset=utf-8').attachment(`week-${week.start}.csv`).send(weekToCsv(week.days));
     },
   );
@@ -63,22 +67,20 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'post',
       path: '/runners/:id/weeks/:start/notes',
+      response: z.object({ note: AddedWeekNoteSchema }),
       tag: 'weeks',
       summary: 'Write a note on a week (the runner or their coach)',
       access: 'own-data',
+      params: { id: parseIdParam, start: weekParam },
       body: NewRunNoteInputSchema,
       status: 201,
     },
     async (req, res) => {
       res.status(201).json({
-        note: await addWeekNote(
-          requireActor(res),
-          parseIdParam(req.params.id),
-          weekParam(req.params.start),
-          req.body.text,
-          req.body.concern ?? null,
-          { mailer, config },
-        ),
+        note: await addWeekNote(requireActor(res), req.params.id, req.params.start, req.body.text, req.body.concern ?? null, {
+          mailer,
+          config,
+        }),
       });
     },
   );
@@ -90,11 +92,12 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       tag: 'weeks',
       summary: 'Mark the week reviewed (reviewed: true) or not (false) — the runner’s coach',
       access: 'squads:manage',
+      params: { id: parseIdParam, start: weekParam },
       body: z.object({ reviewed: z.boolean({ error: 'Say reviewed: true or false.' }) }).strict(),
       status: 204,
     },
     async (req, res) => {
-      await setWeekReviewed(requireActor(res), parseIdParam(req.params.id), weekParam(req.params.start), req.body.reviewed);
+      await setWeekReviewed(requireActor(res), req.params.id, req.params.start, req.body.reviewed);
       res.status(204).end();
     },
   );
@@ -107,12 +110,13 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       tag: 'weeks',
       summary: 'One row per squad runner for a week: planned and run, sessions, flags, last upload, reviewed, 12-week volume',
       access: 'squads:manage',
+      params: { id: parseIdParam },
       query: OverviewQuerySchema,
       response: SquadOverviewSchema,
     },
     async (req, res) => {
-      const { week } = res.locals.query as z.infer<typeof OverviewQuerySchema>;
-      res.json(await buildSquadOverview(requireActor(res), parseIdParam(req.params.id), week));
+      const { week } = res.locals.query;
+      res.json(await buildSquadOverview(requireActor(res), req.params.id, week));
     },
   );
 
@@ -120,14 +124,16 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'get',
       path: '/squads/:id/overview.csv',
+      file: [CSV],
       tag: 'weeks',
       summary: 'The squad overview as CSV',
       access: 'squads:manage',
+      params: { id: parseIdParam },
       query: OverviewQuerySchema,
     },
     async (req, res) => {
-      const { week } = res.locals.query as z.infer<typeof OverviewQuerySchema>;
-      const overview = await buildSquadOverview(requireActor(res), parseIdParam(req.params.id), week);
+      const { week } = res.locals.query;
+      const overview = await buildSquadOverview(requireActor(res), req.params.id, week);
       res
         .type('text/csv; charset=utf-8')
         .attachment(`squad-${overview.rows[0]?.start ?? 'week'}.csv`)
@@ -142,11 +148,12 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
       tag: 'weeks',
       summary: 'E-mail the weekly digest of this squad to its coach now',
       access: 'squads:manage',
+      params: { id: parseIdParam },
       body: z.object({ week: DateSchema.optional() }).strict(),
       response: DigestReceiptSchema,
     },
     async (req, res) => {
-      res.json(await sendSquadDigest(requireActor(res), parseIdParam(req.params.id), req.body.week, mailer, config));
+      res.json(await sendSquadDigest(requireActor(res), req.params.id, req.body.week, mailer, config));
     },
   );
 

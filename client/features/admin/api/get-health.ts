@@ -1,8 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Health } from '../../../../shared/api/health.ts';
 import { api, isApiError } from '../../../lib/api-client.ts';
 import { adminKeys } from './admin-keys.ts';
 
-export type Health = { ok: boolean; db: 'up' | 'down' };
+export type { Health };
 
 export const HEALTH_REFRESH_MS = 30_000;
 

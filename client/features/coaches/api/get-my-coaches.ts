@@ -1,11 +1,9 @@
+import type { CoachAccess } from '../../../../shared/squads/schemas.ts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { coachKeys } from './coach-keys.ts';
 
-export type CoachAccess = {
-  squad: { id: string; name: string };
-  coach: { id: string; name: string; email: string };
-};
+export type { CoachAccess };
 
 /** The coaches who can read the signed-in runner's data, one entry per squad that gives them access. */
 export async function getMyCoaches(): Promise<CoachAccess[]> {

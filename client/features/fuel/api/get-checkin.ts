@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
-import type { CheckinView } from './types.ts';
+import type { CheckinView } from '../../../../shared/fuel/answers.ts';
 
 /** The after-run check-in of a run (sleep, soreness, mood, recovery work), with the cold-water caution when used. */
 export async function getCheckin(runId: string): Promise<CheckinView> {

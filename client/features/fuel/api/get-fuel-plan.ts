@@ -1,7 +1,7 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys, type FuelPlanOwner } from './fuel-keys.ts';
-import type { FuelPlan } from './types.ts';
+import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 
 /** The API path of a fuel plan. */
 export function fuelPlanPath(owner: FuelPlanOwner): string {

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
-import type { FuelTakenView } from './types.ts';
+import type { FuelTakenView } from '../../../../shared/fuel/answers.ts';
 
 /** What was taken on a run, and planned vs taken per hour when the run's session or race has a fuel plan. */
 export async function getFuelTaken(runId: string): Promise<FuelTakenView> {

@@ -3,7 +3,7 @@ import type { Plan } from '../../../../shared/plans/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
 import { fuelPlanQueryOptions } from './get-fuel-plan.ts';
-import type { FuelPlan } from './types.ts';
+import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 
 /** The session plans on one date (the candidates for the fuel plan a run rehearsed). */
 export async function getSessionsOn(date: string): Promise<Plan[]> {

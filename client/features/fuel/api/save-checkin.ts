@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { CheckinInput } from '../../../../shared/fuel/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
-import type { CheckinView } from './types.ts';
+import type { CheckinView } from '../../../../shared/fuel/answers.ts';
 
 export async function saveCheckin(runId: string, input: CheckinInput): Promise<CheckinView> {
   return api.put<CheckinView>(`/runs/${encodeURIComponent(runId)}/checkin`, input);

@@ -3,7 +3,7 @@ import type { FuelPlanInput } from '../../../../shared/fuel/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys, type FuelPlanOwner } from './fuel-keys.ts';
 import { fuelPlanPath } from './get-fuel-plan.ts';
-import type { FuelPlan } from './types.ts';
+import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 
 /** Saves the inputs; the server computes the schedule, hourly totals, meals and cautions and returns them. */
 export async function saveFuelPlan(owner: FuelPlanOwner, input: FuelPlanInput): Promise<FuelPlan> {

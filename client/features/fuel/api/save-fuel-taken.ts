@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { FuelTakenInput } from '../../../../shared/fuel/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
-import type { FuelTakenView } from './types.ts';
+import type { FuelTakenView } from '../../../../shared/fuel/answers.ts';
 
 export async function saveFuelTaken(runId: string, input: FuelTakenInput): Promise<FuelTakenView> {
   return api.put<FuelTakenView>(`/runs/${encodeURIComponent(runId)}/fuel-taken`, input);

@@ -9,7 +9,7 @@ import { cn } from '../../../lib/cn.ts';
 import { useDraft } from '../../../lib/use-draft.ts';
 import { useCheckin } from '../api/get-checkin.ts';
 import { useSaveCheckin } from '../api/save-checkin.ts';
-import type { CheckinView } from '../api/types.ts';
+import type { CheckinView } from '../../../../shared/fuel/answers.ts';
 import { readNumber } from '../utils/fuel-format.ts';
 import { FuelCautions } from './fuel-cautions.tsx';
 

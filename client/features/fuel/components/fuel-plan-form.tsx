@@ -12,7 +12,7 @@ import { cn } from '../../../lib/cn.ts';
 import { useDraft } from '../../../lib/use-draft.ts';
 import type { FuelPlanOwner } from '../api/fuel-keys.ts';
 import { useSaveFuelPlan } from '../api/save-fuel-plan.ts';
-import type { FuelPlan } from '../api/types.ts';
+import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 import { bottleMix, formatAmount, formatTimeFromStart, parseRunTime, toMl, type VolumeUnit } from '../utils/fuel-format.ts';
 import {
   checkPlanDraft,

@@ -5,7 +5,7 @@ import type { Unit } from '../../../../shared/users/schemas.ts';
 import { Card } from '../../../components/ui/card.tsx';
 import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import type { FuelPlan } from '../api/types.ts';
+import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 import { formatAmount } from '../utils/fuel-format.ts';
 import { FuelCautions } from './fuel-cautions.tsx';
 import { FuelHours } from './fuel-hours.tsx';

@@ -1,7 +1,7 @@
 import { formatDistance } from '../../../../shared/runs/display.ts';
 import { formatDuration } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
-import type { FuelPlan } from '../api/types.ts';
+import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 import { formatAmount } from '../utils/fuel-format.ts';
 import { FuelCautions } from './fuel-cautions.tsx';
 import { FuelHours } from './fuel-hours.tsx';

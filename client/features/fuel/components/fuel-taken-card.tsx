@@ -16,7 +16,7 @@ import { fuelItemsQueryOptions } from '../api/get-fuel-items.ts';
 import { useFuelTaken } from '../api/get-fuel-taken.ts';
 import { useRunFuelPlan } from '../api/get-run-fuel-plan.ts';
 import { useSaveFuelTaken } from '../api/save-fuel-taken.ts';
-import type { FuelPlan, FuelTakenView } from '../api/types.ts';
+import type { FuelPlan, FuelTakenView } from '../../../../shared/fuel/answers.ts';
 import { formatAmount, formatTimeFromStart, parseRunTime, readNumber } from '../utils/fuel-format.ts';
 import { FuelCautions } from './fuel-cautions.tsx';
 

@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Squad } from '../../../../shared/squads/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { invitationKeys } from './invitation-keys.ts';
 
-export type JoinedSquad = { id: string; name: string };
+export type JoinedSquad = Squad;
 
 export async function acceptInvitation(token: string): Promise<JoinedSquad> {
   const { squad } = await api.post<{ squad: JoinedSquad }>(`/invitations/${encodeURIComponent(token)}/accept`);

@@ -1,8 +1,9 @@
+import type { CaughtMessage } from '../../../../shared/api/outbox.ts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { outboxKeys } from './outbox-keys.ts';
 
-export type CaughtMessage = { id: string; to: string; subject: string; text: string; html: string; sent_at: string };
+export type { CaughtMessage };
 
 /** Messages the local mail catcher holds, newest first; the API answers 404 in production. */
 export async function getOutbox(): Promise<CaughtMessage[]> {

@@ -31,7 +31,7 @@ export function LapsTable({ laps, unit }: { laps: RunLap[]; unit: Unit }) {
   const data = laps.map((lap) => ({
     ...lap,
     unit,
-    pace_s: lap.distance_m && lap.distance_m > 0 ? pacePerUnit(lap.total_time_s / (lap.distance_m / 1000), unit) : null,
+    pace_s: lap.distance_m && lap.distance_m > 0 ? pacePerUnit((lap.total_time_s ?? 0) / (lap.distance_m / 1000), unit) : null,
   }));
   const table = useTable({ features: sortableTableFeatures, columns: COLUMNS, data });
   return (
