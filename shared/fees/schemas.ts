@@ -171,3 +171,7 @@ export const DevCompleteInputSchema = z
   .strict();
 
 export const DevCompleteAnswerSchema = z.object({ outcome: z.enum(['paid', 'declined']), message: z.string() });
+
+/** `PUT /api/squads/:id/members/:runnerId/fee-waiver`: whether the runner's fee is waived now. */
+export const FeeWaiverAnswerSchema = z.object({ waived: z.boolean() });
+export type FeeWaiverAnswer = z.infer<typeof FeeWaiverAnswerSchema>;

@@ -213,3 +213,7 @@ export type CalendarFeed = z.infer<typeof CalendarFeedSchema>;
 /** `GET /api/me/calendar`: whether the feed is on and since when (the address itself is never shown again). */
 export const CalendarFeedStatusSchema = z.object({ on: z.boolean(), since: z.string().nullable() });
 export type CalendarFeedStatus = z.infer<typeof CalendarFeedStatusSchema>;
+
+/** `PUT /api/runners/:id/pace-tolerance`: the tolerance now stored, seconds per km. */
+export const PaceToleranceAnswerSchema = z.object({ pace_tolerance: z.number() });
+export type PaceToleranceAnswer = z.infer<typeof PaceToleranceAnswerSchema>;

@@ -9,6 +9,7 @@ import {
   DevCompleteAnswerSchema,
   DevCompleteInputSchema,
   FeeAnswerSchema,
+  FeeWaiverAnswerSchema,
   FeeInputSchema,
   MyFeesAnswerSchema,
   UrlAnswerSchema,
@@ -206,7 +207,7 @@ export function createFeesRouter(config: AppConfig, stripe: Stripe | null) {
       access: 'squads:manage',
       params: { id: parseIdParam, runnerId: parseIdParam },
       body: WaiverInputSchema,
-      response: z.object({ waived: z.boolean() }),
+      response: FeeWaiverAnswerSchema,
     },
     async (req, res) => {
       await setWaiver(requireActor(res), req.params.id, req.params.runnerId, req.body.waived);

@@ -9,6 +9,7 @@ import {
   UpdatePlanInputSchema,
 } from '../../../shared/plans/schemas.ts';
 import { PaceToleranceSchema } from '../../../shared/users/schemas.ts';
+import { PaceToleranceAnswerSchema } from '../../../shared/plans/prescribe-schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { authorize, requireActor } from '../../lib/authorize.ts';
@@ -191,7 +192,7 @@ export function createPlansRouter(config: AppConfig) {
       access: 'own-data',
       params: { id: parseIdParam },
       body: z.object({ pace_tolerance: PaceToleranceSchema }).strict(),
-      response: z.object({ pace_tolerance: z.number() }),
+      response: PaceToleranceAnswerSchema,
       // Each change makes every stored plan check of the runner stale, to be recomputed on the next read.
       before: [
         authorize('own-data'),

@@ -1,6 +1,13 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
-import type { BillingAnswer, Fee, FeeInput, MyFeesAnswerSchema, UrlAnswerSchema } from '../../../../shared/fees/schemas.ts';
+import type {
+  BillingAnswer,
+  Fee,
+  FeeInput,
+  FeeWaiverAnswer,
+  MyFeesAnswerSchema,
+  UrlAnswerSchema,
+} from '../../../../shared/fees/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 
 export const feeKeys = {
@@ -32,7 +39,7 @@ export function useSetWaiver(squadId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ runnerId, waived }: { runnerId: string; waived: boolean }) =>
-      api.put<{ waived: boolean }>(`${squadPath(squadId)}/members/${encodeURIComponent(runnerId)}/fee-waiver`, { waived }),
+      api.put<FeeWaiverAnswer>(`${squadPath(squadId)}/members/${encodeURIComponent(runnerId)}/fee-waiver`, { waived }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: feeKeys.billing(squadId) }),
   });
 }

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
-import type { RunnerSummary } from '../../../../shared/plans/prescribe-schemas.ts';
+import type { PaceToleranceAnswer, RunnerSummary } from '../../../../shared/plans/prescribe-schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
@@ -17,7 +17,7 @@ export function useRunnerSummary(runnerId: string): RunnerSummary {
 
 /** The runner or their coach sets the plan-check tolerance (a share: 0.02 = ±2 %). */
 export async function setPaceTolerance({ runnerId, pace_tolerance }: { runnerId: string; pace_tolerance: number }) {
-  return api.put<{ pace_tolerance: number }>(`/runners/${encodeURIComponent(runnerId)}/pace-tolerance`, { pace_tolerance });
+  return api.put<PaceToleranceAnswer>(`/runners/${encodeURIComponent(runnerId)}/pace-tolerance`, { pace_tolerance });
 }
 
 export function useSetPaceTolerance() {

@@ -1,15 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { PaceToleranceAnswer } from '../../../../shared/plans/prescribe-schemas.ts';
 import type { Profile } from '../../../../shared/users/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { profileKeys } from './profile-keys.ts';
 
 export async function updatePaceTolerance({ runnerId, paceTolerance }: { runnerId: string; paceTolerance: number }) {
-  const { pace_tolerance } = await api.put<{ pace_tolerance: number }>(
-    `/runners/${encodeURIComponent(runnerId)}/pace-tolerance`,
-    {
-      pace_tolerance: paceTolerance,
-    },
-  );
+  const { pace_tolerance } = await api.put<PaceToleranceAnswer>(`/runners/${encodeURIComponent(runnerId)}/pace-tolerance`, {
+    pace_tolerance: paceTolerance,
+  });
   return pace_tolerance;
 }
 
