@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { parseClockTime } from '../race/clock-time.ts';
 import { HALF_MARATHON_M, MARATHON_M } from '../units.ts';
 import { GoalRaceInputSchema, RaceResultInputSchema, type GoalRaceInput, type RaceResultInput } from './schemas.ts';
+import { goalRaceTenseProblem, raceResultTenseProblem } from './tense.ts';
 
 /**
  * The profile's goal race and race result forms: a distance picked from a list (or typed in metres)
@@ -113,3 +114,19 @@ export const RaceResultFormSchema = RaceFormFieldsSchema.transform((fields, ctx)
   const input = { ...(name ? { name } : {}), date: fields.date ?? '', distance_m, time_s: time };
   return checkWith(RaceResultInputSchema, input, refused, fields.distance_m === CUSTOM_RACE_DISTANCE, ctx);
 });
+
+/** The goal race form checked as the server does, today included: a date already past is refused at the date field. */
+export function goalRaceFormFor(today: string) {
+  return GoalRaceFormSchema.superRefine((input, ctx) => {
+    const problem = goalRaceTenseProblem(input.date, today);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem, path: ['date'] });
+  });
+}
+
+/** The race result form checked as the server does, today included: a date still to come is refused at the date field. */
+export function raceResultFormFor(today: string) {
+  return RaceResultFormSchema.superRefine((input, ctx) => {
+    const problem = raceResultTenseProblem(input.date, today);
+    if (problem) ctx.addIssue({ code: 'custom', message: problem, path: ['date'] });
+  });
+}

@@ -12,6 +12,8 @@ import { buildWorld, freshApp, type App, type World } from '../support/test-worl
 interface Row {
   /** Sends the request with `date` wherever the route takes a date. */
   send: (app: App, w: World, date: string) => request.Test | Promise<request.Response>;
+  /** The edge of the range this route accepts, when only one fits its tense (a goal race is still to come, a result run). */
+  edges?: string[];
 }
 
 const ROWS: Record<string, Row> = {
@@ -22,6 +24,7 @@ const ROWS: Record<string, Row> = {
         .put('/api/me/goal-race')
         .set(w.runner.auth)
         .send({ name: 'Autumn marathon', date: d, distance_m: 42_195, goal_time_s: 3 * 3600 }),
+    edges: ['2100-12-31'],
   },
   'POST /api/me/race-results': {
     send: (app, w, d) =>
@@ -29,6 +32,7 @@ const ROWS: Record<string, Row> = {
         .post('/api/me/race-results')
         .set(w.runner.auth)
         .send({ date: d, distance_m: 10_000, time_s: 45 * 60 }),
+    edges: ['1900-01-01'],
   },
   'POST /api/plans/copy-week': {
     send: (app, w, d) =>
@@ -138,7 +142,7 @@ describe('dates outside 1900–2100 (issue 13 #13)', () => {
       }
       expect(await databaseFingerprint()).toEqual(before);
       // The edges of the range are accepted: it is the date that was refused, nothing else.
-      for (const date of ['1900-01-01', '2100-12-31']) {
+      for (const date of ROWS[key]!.edges ?? ['1900-01-01', '2100-12-31']) {
         const res = await ROWS[key]!.send(app, world, date);
         expect([date, res.status]).toEqual([date, expect.toSatisfy((s: number) => s >= 200 && s < 300)]);
       }

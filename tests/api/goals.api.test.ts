@@ -1,6 +1,8 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { db } from '../../server/lib/db.ts';
+import { GOAL_RACE_IN_THE_PAST, RACE_RESULT_IN_THE_FUTURE } from '../../shared/goals/tense.ts';
+import { localDateTime } from '../../shared/runs/local-time.ts';
 import { createUser } from '../support/factories.ts';
 import { testApp } from '../support/test-app.ts';
 
@@ -64,5 +66,49 @@ describe('race results', () => {
     expect((await request(app).delete(`/api/me/race-results/${added.body.result.id}`).set(other.auth)).status).toBe(404);
     expect((await request(app).delete(`/api/me/race-results/${added.body.result.id}`).set(auth)).status).toBe(204);
     expect(await db('race_results').count({ n: '*' }).first()).toEqual({ n: '1' });
+  });
+});
+
+describe('dates in the right tense (issue 17)', () => {
+  // Today is read in the runner's profile time zone. Pacific/Kiritimati is UTC+14 all year (IANA tzdata),
+  // so its date is ahead of UTC's for ten hours of every day and never behind it.
+  const ZONE = 'Pacific/Kiritimati';
+  const dayOf = (offsetDays: number) => localDateTime(Date.now() + offsetDays * 86_400_000, ZONE).date;
+
+  it('refuses a goal race already past in the runner’s time zone, in words, and takes today', async () => {
+    const app = testApp();
+    const { auth, user } = await bearerFor(app);
+    await db('users').where({ id: user.id }).update({ time_zone: ZONE });
+    for (const date of ['2020-06-14', dayOf(-1)]) {
+      const res = await request(app)
+        .put('/api/me/goal-race')
+        .set(auth)
+        .send({ ...GOAL, date });
+      expect([date, res.status]).toEqual([date, 400]);
+      expect(res.body.details).toEqual([{ field: 'date', message: GOAL_RACE_IN_THE_PAST }]);
+    }
+    expect(await db('goal_races').count({ n: '*' }).first()).toEqual({ n: '0' });
+    const today = await request(app)
+      .put('/api/me/goal-race')
+      .set(auth)
+      .send({ ...GOAL, date: dayOf(0) });
+    expect(today.status).toBe(200);
+  });
+
+  it('refuses a race result still to come in the runner’s time zone, in words, and takes today', async () => {
+    const app = testApp();
+    const { auth, user } = await bearerFor(app);
+    await db('users').where({ id: user.id }).update({ time_zone: ZONE });
+    for (const date of ['2030-06-14', dayOf(1)]) {
+      const res = await request(app).post('/api/me/race-results').set(auth).send({ date, distance_m: 10000, time_s: 2400 });
+      expect([date, res.status]).toEqual([date, 400]);
+      expect(res.body.details).toEqual([{ field: 'date', message: RACE_RESULT_IN_THE_FUTURE }]);
+    }
+    expect(await db('race_results').count({ n: '*' }).first()).toEqual({ n: '0' });
+    const today = await request(app)
+      .post('/api/me/race-results')
+      .set(auth)
+      .send({ date: dayOf(0), distance_m: 10000, time_s: 2400 });
+    expect(today.status).toBe(201);
   });
 });

@@ -5,16 +5,8 @@ import { requireActor } from '../../lib/authorize.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import { assertCanReadRunner } from '../squads/runner-access.ts';
-import {
-  deleteGoalRace,
-  deleteRaceResult,
-  findGoalRace,
-  insertRaceResult,
-  listRaceResults,
-  toGoalRace,
-  toRaceResult,
-  upsertGoalRace,
-} from './goals.repository.ts';
+import { deleteGoalRace, deleteRaceResult, findGoalRace, listRaceResults, toGoalRace, toRaceResult } from './goals.repository.ts';
+import { addRaceResult, setGoalRace } from './goals.service.ts';
 
 const RunnerQuerySchema = z.object({ runner_id: z.uuid({ error: 'Not a runner id.' }).optional() });
 
@@ -45,13 +37,13 @@ export function createGoalsRouter() {
       method: 'put',
       path: '/me/goal-race',
       tag: 'goals',
-      summary: 'Set your goal race: name, date, distance and goal time',
+      summary: 'Set your goal race: name, date (today or later), distance and goal time',
       access: 'own-data',
       body: GoalRaceInputSchema,
       response: z.object({ goal_race: GoalRaceSchema }),
     },
     async (req, res) => {
-      res.json({ goal_race: toGoalRace(await upsertGoalRace(requireActor(res).id, req.body)) });
+      res.json({ goal_race: toGoalRace(await setGoalRace(requireActor(res), req.body)) });
     },
   );
 
@@ -86,14 +78,14 @@ export function createGoalsRouter() {
       method: 'post',
       path: '/me/race-results',
       tag: 'goals',
-      summary: 'Add a race result: date, distance, time',
+      summary: 'Add a race result: date (today or earlier), distance, time',
       access: 'own-data',
       body: RaceResultInputSchema,
       response: z.object({ result: RaceResultSchema }),
       status: 201,
     },
     async (req, res) => {
-      res.status(201).json({ result: toRaceResult(await insertRaceResult(requireActor(res).id, req.body)) });
+      res.status(201).json({ result: toRaceResult(await addRaceResult(requireActor(res), req.body)) });
     },
   );
 

@@ -25,7 +25,7 @@ import { NoticeSwitchesCard } from '../../../features/profile/components/notice-
 import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
 import { WeekAndLoadForm } from '../../../features/profile/components/week-and-load-form.tsx';
-import { formatDate } from '../../../lib/format.ts';
+import { formatDate, todayIn } from '../../../lib/format.ts';
 
 export const createLoader = (queryClient: QueryClient) => async () => {
   // prefetch, not ensure: a failing list shows its error in its card, not instead of the page.
@@ -67,8 +67,8 @@ export default function ProfileRoute() {
           {/* The name also shows in the profile menu, which reads the session user. */}
           <ProfileForm onSaved={() => queryClient.invalidateQueries({ queryKey: authKeys.me() })} />
         </Card>
-        <GoalRaceCard unit={profile.unit} onChanged={refreshPlanChecks} />
-        <RaceResultsCard unit={profile.unit} onChanged={refreshPlanChecks} />
+        <GoalRaceCard unit={profile.unit} today={todayIn(profile.time_zone)} onChanged={refreshPlanChecks} />
+        <RaceResultsCard unit={profile.unit} today={todayIn(profile.time_zone)} onChanged={refreshPlanChecks} />
         <Card
           title="Plan check tolerance"
           description="How far from a session plan’s target pace a part may be and still count as on pace. You or your coach can change it."

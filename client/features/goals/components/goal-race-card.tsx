@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { formatRaceTime, GoalRaceFormSchema } from '../../../../shared/goals/forms.ts';
+import { formatRaceTime, goalRaceFormFor } from '../../../../shared/goals/forms.ts';
 import type { GoalRace } from '../../../../shared/goals/schemas.ts';
 import { describeDistance } from '../../../../shared/race/distances.ts';
 import { formatLocalDate } from '../../../../shared/runs/display.ts';
@@ -17,12 +17,14 @@ import { RaceFields, readRaceFields } from './race-fields.tsx';
 
 type GoalRaceCardProps = {
   unit: Unit;
+  /** Today in the profile's time zone: a goal race is on this day or later. */
+  today: string;
   /** Called after the goal race is saved or cleared (race paces in plans follow it). */
   onChanged?: () => void;
 };
 
 /** The race the runner trains for: set, change or clear it. */
-export function GoalRaceCard({ unit, onChanged }: GoalRaceCardProps) {
+export function GoalRaceCard({ unit, today, onChanged }: GoalRaceCardProps) {
   const goal = useGoalRace();
   const save = useSaveGoalRace();
   const clear = useClearGoalRace();
@@ -53,6 +55,7 @@ export function GoalRaceCard({ unit, onChanged }: GoalRaceCardProps) {
           <GoalRaceForm
             key={goal.data ? 'set' : 'none'}
             goal={goal.data}
+            today={today}
             save={save}
             onSaved={() => {
               setConfirmingClear(false);
@@ -103,13 +106,14 @@ export function GoalRaceCard({ unit, onChanged }: GoalRaceCardProps) {
 
 type GoalRaceFormProps = {
   goal: GoalRace | null;
+  today: string;
   save: ReturnType<typeof useSaveGoalRace>;
   onSaved: () => void;
 };
 
-function GoalRaceForm({ goal, save, onSaved }: GoalRaceFormProps) {
+function GoalRaceForm({ goal, today, save, onSaved }: GoalRaceFormProps) {
   const { onSubmit, fieldErrors, formError } = useSchemaForm({
-    schema: GoalRaceFormSchema,
+    schema: goalRaceFormFor(today),
     mutation: save,
     readValues: readRaceFields,
     onSuccess: onSaved,
@@ -129,7 +133,7 @@ function GoalRaceForm({ goal, save, onSaved }: GoalRaceFormProps) {
         placeholder="e.g. Lakeside Marathon"
         error={fieldErrors.name}
       />
-      <TextField label="Race date" name="date" type="date" defaultValue={goal?.date ?? ''} error={fieldErrors.date} />
+      <TextField label="Race date" name="date" type="date" min={today} defaultValue={goal?.date ?? ''} error={fieldErrors.date} />
       <RaceFields
         defaultDistanceM={goal?.distance_m}
         defaultTime={goal ? formatRaceTime(goal.goal_time_s) : undefined}

@@ -1,5 +1,5 @@
 import { useRef, useState } from 'react';
-import { formatRaceTime, RaceResultFormSchema } from '../../../../shared/goals/forms.ts';
+import { formatRaceTime, raceResultFormFor } from '../../../../shared/goals/forms.ts';
 import type { RaceResult } from '../../../../shared/goals/schemas.ts';
 import { describeDistance } from '../../../../shared/race/distances.ts';
 import { formatLocalDate } from '../../../../shared/runs/display.ts';
@@ -17,12 +17,14 @@ import { RaceFields, readRaceFields } from './race-fields.tsx';
 
 type RaceResultsCardProps = {
   unit: Unit;
+  /** Today in the profile's time zone: a race result is on this day or earlier. */
+  today: string;
   /** Called after a result is added or deleted (race paces in plans follow the most recent one). */
   onChanged?: () => void;
 };
 
 /** Races run: the most recent of the last six months sets the race paces of plans. */
-export function RaceResultsCard({ unit, onChanged }: RaceResultsCardProps) {
+export function RaceResultsCard({ unit, today, onChanged }: RaceResultsCardProps) {
   const add = useAddRaceResult();
   const [formKey, setFormKey] = useState(0);
   return (
@@ -36,6 +38,7 @@ export function RaceResultsCard({ unit, onChanged }: RaceResultsCardProps) {
           <h3 className="mb-2 font-semibold">Add a result</h3>
           <RaceResultForm
             key={formKey}
+            today={today}
             add={add}
             onAdded={() => {
               // A fresh form for the next result; the mutation (and its "added" note) lives here.
@@ -54,7 +57,7 @@ export function RaceResultsCard({ unit, onChanged }: RaceResultsCardProps) {
   );
 }
 
-function ResultList({ unit, onChanged }: RaceResultsCardProps) {
+function ResultList({ unit, onChanged }: Omit<RaceResultsCardProps, 'today'>) {
   const { data: results, isPending, error } = useRaceResults();
   const remove = useDeleteRaceResult();
   const [confirmingId, setConfirmingId] = useState<string | null>(null);
@@ -145,11 +148,11 @@ function ResultList({ unit, onChanged }: RaceResultsCardProps) {
   );
 }
 
-type RaceResultFormProps = { add: ReturnType<typeof useAddRaceResult>; onAdded: () => void };
+type RaceResultFormProps = { today: string; add: ReturnType<typeof useAddRaceResult>; onAdded: () => void };
 
-function RaceResultForm({ add, onAdded }: RaceResultFormProps) {
+function RaceResultForm({ today, add, onAdded }: RaceResultFormProps) {
   const { onSubmit, fieldErrors, formError } = useSchemaForm({
-    schema: RaceResultFormSchema,
+    schema: raceResultFormFor(today),
     mutation: add,
     readValues: readRaceFields,
     onSuccess: onAdded,
@@ -162,7 +165,7 @@ function RaceResultForm({ add, onAdded }: RaceResultFormProps) {
         </div>
       )}
       <TextField label="Race name" name="name" autoComplete="off" hint="Optional." error={fieldErrors.name} />
-      <TextField label="Race date" name="date" type="date" error={fieldErrors.date} />
+      <TextField label="Race date" name="date" type="date" max={today} error={fieldErrors.date} />
       <RaceFields timeName="time_s" timeLabel="Finish time" errors={fieldErrors} />
       <div className="sm:col-span-2">
         <Button type="submit" disabled={add.isPending}>

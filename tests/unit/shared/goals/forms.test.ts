@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { toFieldErrors, toFieldIssues } from '../../../../shared/api/field-issues.ts';
-import { distanceChoiceFor, formatRaceTime, GoalRaceFormSchema, RaceResultFormSchema } from '../../../../shared/goals/forms.ts';
+import {
+  distanceChoiceFor,
+  formatRaceTime,
+  goalRaceFormFor,
+  GoalRaceFormSchema,
+  raceResultFormFor,
+  RaceResultFormSchema,
+} from '../../../../shared/goals/forms.ts';
+import { GOAL_RACE_IN_THE_PAST, RACE_RESULT_IN_THE_FUTURE } from '../../../../shared/goals/tense.ts';
 
 const errorsOf = (result: { success: boolean; error?: unknown }) =>
   result.success ? {} : toFieldErrors(toFieldIssues(result.error as Parameters<typeof toFieldIssues>[0]));
@@ -111,5 +119,23 @@ describe('distanceChoiceFor / formatRaceTime', () => {
     [5099.6, '1:25:00'],
   ])('%d s → %s', (seconds, text) => {
     expect(formatRaceTime(seconds)).toBe(text);
+  });
+});
+
+describe('the race forms with today (issue 17: dates in the right tense)', () => {
+  const fields = { name: 'Lakeside Marathon', distance_m: 'marathon', goal_time_s: '3:05:00', time_s: '3:05:00' };
+
+  it('refuses a goal race before today at the date field, and takes today', () => {
+    const past = goalRaceFormFor('2026-12-05').safeParse({ ...fields, date: '2020-06-14' });
+    expect(past.success).toBe(false);
+    expect(past.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['date', GOAL_RACE_IN_THE_PAST]]);
+    expect(goalRaceFormFor('2026-12-05').safeParse({ ...fields, date: '2026-12-05' }).success).toBe(true);
+  });
+
+  it('refuses a race result after today at the date field, and takes today', () => {
+    const future = raceResultFormFor('2026-12-05').safeParse({ ...fields, date: '2030-06-14' });
+    expect(future.success).toBe(false);
+    expect(future.error?.issues.map((i) => [i.path.join('.'), i.message])).toEqual([['date', RACE_RESULT_IN_THE_FUTURE]]);
+    expect(raceResultFormFor('2026-12-05').safeParse({ ...fields, date: '2026-12-05' }).success).toBe(true);
   });
 });
