@@ -3,8 +3,17 @@ import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { MAX_ARCHIVE_UPLOAD_BYTES } from '../shared/history/archive-rules.ts';
 
+/**
+ * What a process does (README "Scaling out"): `all` serves HTTP and runs the background jobs (one
+ * process, the default); `web` serves HTTP only; `worker` runs the jobs only (`npm run worker`).
+ */
+export type ProcessRole = 'all' | 'web' | 'worker';
+export const PROCESS_ROLES: readonly ProcessRole[] = ['all', 'web', 'worker'];
+
 export interface AppConfig {
   env: 'production' | 'development' | 'test';
+  /** ROLE: whether this process serves HTTP, runs the background jobs, or both. */
+  role: ProcessRole;
   port: number;
   host: string;
   databaseUrl: string;
@@ -97,10 +106,17 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   if (!/^\d+$/.test(maxLag) || Number(maxLag) < 1) {
     throw new ConfigError(`DATABASE_REPLICA_MAX_LAG_MS must be a whole number of milliseconds (1 or more), not "${maxLag}".`);
   }
+  const role = (env.ROLE || 'all').toLowerCase();
+  if (!(PROCESS_ROLES as readonly string[]).includes(role)) {
+    throw new ConfigError(
+      `ROLE must be one of ${PROCESS_ROLES.join(', ')} (web: HTTP only, worker: background jobs only), not "${env.ROLE}".`,
+    );
+  }
   const port = Number(env.PORT ?? 3000);
   const host = env.HOST ?? '127.0.0.1';
   return {
     env: mode,
+    role: role as ProcessRole,
     port,
     host,
     databaseUrl: databaseUrlFromEnv(env),

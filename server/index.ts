@@ -29,23 +29,43 @@ function logStrayRejections(): void {
   process.on('unhandledRejection', (reason) => logger.error({ err: reason }, 'a background task failed; the server carries on'));
 }
 
-/** Starts the web server (config from the environment). Only this module calls `listen`. */
-export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise<RunningServer> {
-  const config = loadConfig(env);
-  logStrayRejections();
-  // Imported after the config check so a bad production config fails before any connection is made.
-  const { createApp } = await import('./app.ts');
-  const { db } = await import('./lib/db.ts');
+/** What every role builds from the configuration: file store, outgoing mail, the payment client. */
+async function startServices(config: AppConfig, env: NodeJS.ProcessEnv) {
   const { createStoreFromEnv } = await import('./lib/storage.ts');
   const store = await createStoreFromEnv(config.dataDir, env);
   // Development and tests: catch outgoing mail on loopback and show it at /api/dev/outbox.
   const { startMailCatcher } = await import('./features/mail/mail-catcher.ts');
-  const catcher = !config.smtpUrl && config.env !== 'production' ? await startMailCatcher(config.mailCatcherPort) : null;
+  const wantsCatcher = !config.smtpUrl && config.env !== 'production';
+  const catcher = wantsCatcher
+    ? await startMailCatcher(config.mailCatcherPort).catch((err: unknown) => {
+        // A worker beside `npm start` on one machine: the web process's catcher on that port takes its mail.
+        if (config.role === 'worker' && (err as { code?: unknown }).code === 'EADDRINUSE') return null;
+        throw err;
+      })
+    : null;
   const mailConfig = catcher ? { ...config, mailCatcherPort: catcher.port } : config;
   const { createSmtpMailer } = await import('./lib/mailer.ts');
-  // Parsing, analysis and plan checks run in worker threads (server/features/runs/README.md).
+  const mailer = createSmtpMailer(mailConfig);
+  // Parsing, analysis and plan checks run in worker threads (server/features/runs/README.md): web
+  // processes for single uploads and reads, workers for bulk imports.
   const { configureComputePool, stopComputePool } = await import('./features/compute/compute-pool.ts');
   configureComputePool({ threads: config.computeThreads });
+  return { store, catcher, mailer, stopComputePool };
+}
+
+/**
+ * Starts the web server (config from the environment). Only this module calls `listen`. With ROLE=all
+ * (the default) it also runs the background jobs; with ROLE=web it runs none (README "Scaling out").
+ */
+export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise<RunningServer> {
+  const config = loadConfig(env);
+  if (config.role === 'worker')
+    throw new ConfigError('ROLE=worker serves no HTTP: start it with `npm run worker` (or startWorker).');
+  logStrayRejections();
+  // Imported after the config check so a bad production config fails before any connection is made.
+  const { createApp } = await import('./app.ts');
+  const { db } = await import('./lib/db.ts');
+  const { store, catcher, mailer, stopComputePool } = await startServices(config, env);
   // Development and tests: the local fake of the payment service on loopback, unless PAYMENTS_URL names one.
   // Imported only here and only outside production, so a production server never loads it.
   const fake =
@@ -57,7 +77,6 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   if (fake) config.payments.url = fake.url;
   const { createPaymentsClient } = await import('./features/fees/payments-client.ts');
   const payments = createPaymentsClient(config);
-  const mailer = createSmtpMailer(mailConfig);
   const app = createApp({
     config,
     store,
@@ -65,33 +84,15 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     payments,
     clientDir: path.join(ROOT, 'dist/client'),
   });
-  const { startReconcileJob } = await import('./features/fees/reconcile-job.ts');
-  const reconcile = payments ? await startReconcileJob(payments, config.databaseUrl) : null;
-  // Batched notices (uploads, notes) go out when due.
-  const { startNoticeSweeper } = await import('./features/notices/notice-sweeper.ts');
-  const notices = startNoticeSweeper({ mailer, config });
-  // Bulk imports run in the background through a pg-boss queue in the same database.
-  const { startImportWorker, stopImportWorker } = await import('./features/history/import-queue.ts');
-  await startImportWorker(store, {
-    dataDir: config.dataDir,
-    maxEntryBytes: config.uploadMaxFileBytes,
-    databaseUrl: config.databaseUrl,
-    storageQuotaBytes: config.storageQuotaBytes,
-  });
   // DATABASE_REPLICA_URL: read-only pages read a streaming replica while it keeps up (server/lib/read-replica.ts).
   const { startReadReplica, stopReadReplica } = await import('./lib/read-replica.ts');
   await startReadReplica(config);
+  const { startBackgroundJobs } = await import('./features/jobs/background-jobs.ts');
+  const jobs = config.role === 'all' ? await startBackgroundJobs({ config, store, mailer, payments }) : null;
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on('error', reject);
   });
-  // Files left by a crash (an original stored just before the process died, an old archive) are
-  // swept in the background now and hourly; listening never waits for it.
-  const { startOrphanSweeper } = await import('./features/runs/orphan-sweeper.ts');
-  const sweeper = startOrphanSweeper({ store, dataDir: config.dataDir, graceSeconds: config.orphanGraceSeconds });
-  // A runner hears of a coach's changes once per editing burst (server/features/plans/README.md).
-  const { startPlanNoticeSweeper } = await import('./features/plans/plan-notices.ts');
-  const planNotices = startPlanNoticeSweeper(mailer, config);
   const address = server.address();
   const port = typeof address === 'object' && address ? address.port : config.port;
   fake?.setDeliver(async (payload, signature) => {
@@ -102,25 +103,60 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
     });
     return answer.status;
   });
+  logger.info(
+    { role: config.role, jobs: jobs?.names ?? [] },
+    jobs ? 'background jobs are running in this process' : 'background jobs are off in this process (ROLE=web)',
+  );
+  const { sendDueNotices } = await import('./features/notices/notices.service.ts');
+  const { stopImportSender } = await import('./features/history/import-queue.ts');
   return {
     server,
     config,
     url: `http://${config.host}:${port}`,
-    sweepNotices: (now) => notices.sweepNow(now),
+    sweepNotices: (now) => sendDueNotices({ mailer, config }, now ?? new Date()),
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();
       // Mail still being sent for answers already given (sign-up, reset requests).
       await afterAnswerSettled();
-      await sweeper.stop();
-      await planNotices.stop();
-      await notices.stop();
-      await stopImportWorker();
+      await jobs?.stop();
+      await stopImportSender();
       await stopComputePool();
       await catcher?.close();
       await fake?.close();
-      await reconcile?.stop();
       await stopReadReplica();
+      await db.destroy();
+    },
+  };
+}
+
+export interface RunningWorker {
+  config: AppConfig;
+  jobs: string[];
+  close(): Promise<void>;
+}
+
+/**
+ * Starts a worker (`npm run worker`): the background jobs and no HTTP. Any number of workers and web
+ * processes may share one database. Outside production without PAYMENTS_URL there is no payment
+ * service to compare with (each web process's local fake is its own), so the nightly reconcile is off.
+ */
+export async function startWorker(env: NodeJS.ProcessEnv = process.env): Promise<RunningWorker> {
+  const config = loadConfig({ ...env, ROLE: 'worker' });
+  logStrayRejections();
+  const { db } = await import('./lib/db.ts');
+  const { store, catcher, mailer, stopComputePool } = await startServices(config, env);
+  const { createPaymentsClient } = await import('./features/fees/payments-client.ts');
+  const payments = createPaymentsClient(config);
+  const { startBackgroundJobs } = await import('./features/jobs/background-jobs.ts');
+  const jobs = await startBackgroundJobs({ config, store, mailer, payments });
+  return {
+    config,
+    jobs: jobs.names,
+    async close() {
+      await jobs.stop();
+      await stopComputePool();
+      await catcher?.close();
       await db.destroy();
     },
   };
@@ -129,8 +165,10 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
 const isEntryPoint = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
 if (isEntryPoint) {
   try {
-    const running = await startServer();
-    logger.info(`Pacewright is listening on ${running.url}`);
+    const worker = loadConfig().role === 'worker';
+    const running = worker ? await startWorker() : await startServer();
+    if ('url' in running) logger.info(`Pacewright is listening on ${running.url}`);
+    else logger.info({ jobs: running.jobs }, 'Pacewright worker is running (no HTTP)');
     const stop = () => void running.close().then(() => process.exit(0));
     process.on('SIGINT', stop);
     process.on('SIGTERM', stop);

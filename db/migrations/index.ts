@@ -17,6 +17,7 @@ import * as m20261205102000 from './20261205102000_pending_signups.ts';
 import * as m20261205103000 from './20261205103000_activity_kind.ts';
 import * as m20261205105000 from './20261205105000_notices.ts';
 import * as m20261205107000 from './20261205107000_coach_fees.ts';
+import * as m20261205116000 from './20261205116000_import_claimed_by.ts';
 import * as m20261205117000 from './20261205117000_write_positions.ts';
 
 interface Migration {
@@ -44,6 +45,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261205103000_activity_kind': m20261205103000,
   '20261205105000_notices': m20261205105000,
   '20261205107000_coach_fees': m20261205107000,
+  '20261205116000_import_claimed_by': m20261205116000,
   '20261205117000_write_positions': m20261205117000,
 };
 

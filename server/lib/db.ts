@@ -438,6 +438,8 @@ export interface ImportFileRow {
   name: string;
   status: 'pending' | 'working' | 'imported' | 'duplicate' | 'rejected';
   claimed_at: Date | null;
+  /** The process (`host:pid`) that claimed the file last. */
+  claimed_by: string | null;
   result: unknown;
 }
 

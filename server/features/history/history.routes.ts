@@ -87,7 +87,7 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
         {
           dataDir: config.dataDir,
           maxEntryBytes: config.uploadMaxFileBytes,
-          enqueue: (id) => enqueueImport(id, config.databaseUrl),
+          enqueue: (id, openFiles) => enqueueImport(id, config.databaseUrl, openFiles),
         },
       );
       res.status(202).json({ import: created });

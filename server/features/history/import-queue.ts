@@ -27,29 +27,66 @@ interface ImportJob {
   importId: string;
 }
 
+/** The queue as the workers see it: supervised (expired jobs retried, old ones archived). */
 let boss: Promise<PgBoss> | null = null;
+/** Only for sending, in a process that runs no jobs (ROLE=web): no supervision, no schedules. */
+let sender: Promise<PgBoss> | null = null;
 let workerIds: string[] = [];
 let stopping = false;
 
-function startBoss(databaseUrl: string): Promise<PgBoss> {
-  boss ??= (async () => {
-    const instance = new PgBoss({ connectionString: databaseUrl, max: 4, application_name: 'pacewright-imports' });
+function openBoss(databaseUrl: string, works: boolean): Promise<PgBoss> {
+  return (async () => {
+    const instance = new PgBoss({
+      connectionString: databaseUrl,
+      max: works ? 4 : 2,
+      application_name: works ? 'pacewright-imports' : 'pacewright-imports-sender',
+      supervise: works,
+      schedule: works,
+    });
     instance.on('error', (err) => logger.error({ err }, 'the import queue reported an error'));
     await instance.start();
     // A job that runs longer than expireIn is retried elsewhere; claims in import_files keep that harmless.
     await instance.createQueue(QUEUE, { name: QUEUE, retryLimit: 3, retryDelay: 30, expireInSeconds: 4 * 3600 });
     return instance;
-  })().catch((err: unknown) => {
+  })();
+}
+
+function startBoss(databaseUrl: string): Promise<PgBoss> {
+  boss ??= openBoss(databaseUrl, true).catch((err: unknown) => {
     boss = null;
     throw err;
   });
   return boss;
 }
 
-/** Queues an import for the workers (of this or any other process using the same database). */
-export async function enqueueImport(importId: string, databaseUrl = databaseUrlFromEnv()): Promise<void> {
-  const instance = await startBoss(databaseUrl);
-  await instance.send(QUEUE, { importId } satisfies ImportJob);
+function startSender(databaseUrl: string): Promise<PgBoss> {
+  sender ??= openBoss(databaseUrl, false).catch((err: unknown) => {
+    sender = null;
+    throw err;
+  });
+  return sender;
+}
+
+/** Files per queued job of one import, and the most jobs one import gets (common practice: a few, not one per file). */
+const FILES_PER_JOB = 50;
+const MOST_JOBS_PER_IMPORT = 4;
+
+/**
+ * How many jobs an import of `openFiles` files is queued as: one per FILES_PER_JOB files, up to
+ * MOST_JOBS_PER_IMPORT, so a large archive is shared by every worker free for it (each job claims
+ * files one by one in import_files, so the jobs of one import never import a file twice).
+ */
+export function jobsForImport(openFiles: number): number {
+  return Math.min(MOST_JOBS_PER_IMPORT, Math.max(1, Math.ceil(openFiles / FILES_PER_JOB)));
+}
+
+/**
+ * Queues an import for the workers (of this or any other process using the same database). A process
+ * that works on imports itself sends through its own queue and wakes its idle workers at once.
+ */
+export async function enqueueImport(importId: string, databaseUrl = databaseUrlFromEnv(), openFiles = 1): Promise<void> {
+  const instance = await (boss ?? startSender(databaseUrl));
+  for (let i = 0; i < jobsForImport(openFiles); i++) await instance.send(QUEUE, { importId } satisfies ImportJob);
   for (const id of workerIds) instance.notifyWorker(id);
 }
 
@@ -119,4 +156,12 @@ export async function stopImportWorker(): Promise<void> {
   boss = null;
   workerIds = [];
   if (current) await (await current).stop({ graceful: true, wait: true, timeout: 60_000 });
+  await stopImportSender();
+}
+
+/** Closes the send-only queue of a process that runs no jobs (its shutdown). */
+export async function stopImportSender(): Promise<void> {
+  const current = sender;
+  sender = null;
+  if (current) await (await current).stop({ graceful: true, wait: true, timeout: 10_000 });
 }

@@ -1,5 +1,6 @@
 import { db, type Db, type ImportFileRow, type ImportRow } from '../../lib/db.ts';
 import type { ImportProgress } from '../../../shared/history/schemas.ts';
+import { PROCESS_LABEL } from '../../lib/process-label.ts';
 
 export function toImportProgress(row: ImportRow): ImportProgress {
   return {
@@ -122,7 +123,7 @@ export async function claimFile(importId: string, position: number, leaseSeconds
           w.where('status', 'working').andWhereRaw('claimed_at < now() - make_interval(secs => ?)', [leaseSeconds]),
         ),
     )
-    .update({ status: 'working', claimed_at: trx.fn.now() })
+    .update({ status: 'working', claimed_at: trx.fn.now(), claimed_by: PROCESS_LABEL })
     .returning('position');
   return rows.length > 0;
 }

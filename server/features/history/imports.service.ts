@@ -139,12 +139,14 @@ export async function inspectArchive(file: string, maxEntryBytes: number): Promi
 export async function createImport(
   actor: Actor,
   upload: { file: string; name: string },
-  options: { dataDir: string; maxEntryBytes: number; enqueue: (importId: string) => Promise<void> },
+  options: { dataDir: string; maxEntryBytes: number; enqueue: (importId: string, openFiles: number) => Promise<void> },
 ): Promise<{ id: string }> {
   const id = randomUUID();
   const target = archivePath(options.dataDir, id);
+  let openFiles: number;
   try {
     const files = await inspectArchive(upload.file, options.maxEntryBytes);
+    openFiles = files.filter((f) => f.skipReason === null).length;
     await mkdir(importsDir(options.dataDir), { recursive: true });
     await rename(upload.file, target);
     await db.transaction((trx) => insertImport({ id, userId: actor.id, archiveName: upload.name, files }, trx));
@@ -154,7 +156,7 @@ export async function createImport(
     throw err;
   }
   // The archive and its rows are safe; if queueing fails now, the worker's start-up sweep picks it up.
-  await options.enqueue(id).catch((err: unknown) => logger.error({ err, importId: id }, 'queueing an import failed'));
+  await options.enqueue(id, openFiles).catch((err: unknown) => logger.error({ err, importId: id }, 'queueing an import failed'));
   return { id };
 }
 
@@ -227,6 +229,8 @@ export async function processImport(importId: string, deps: ImportWorkDeps): Pro
   try {
     zip = await openZip(archivePath(deps.dataDir, importId));
   } catch (err) {
+    // Another job of this import (in any worker) finished it and removed the archive meanwhile.
+    if ((await findImportById(importId))?.status === 'done') return;
     logger.error({ err, importId }, 'an import archive could not be opened');
     await markImportFailed(importId, row.archive_name, 'The uploaded archive is no longer readable; please upload it again.');
     return;
