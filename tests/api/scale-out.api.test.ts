@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { db } from '../../server/lib/db.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
-import { startAppProcess, waitUntil, type AppProcess } from '../support/app-processes.ts';
+import { bearerFor, startAppProcess, waitUntil, type AppProcess } from '../support/server-process.ts';
 import { createUser } from '../support/factories.ts';
 import { buildZip } from '../support/zip-builder.ts';
 
@@ -46,16 +46,6 @@ function gpxFile(index: number): { name: string; data: Buffer } {
     name: `season/run-${String(index).padStart(3, '0')}.gpx`,
     data: Buffer.from(writeGpx(`Shore loop ${index}`, [run.points])),
   };
-}
-
-async function bearerFor(url: string, email: string, password: string): Promise<string> {
-  const res = await fetch(`${url}/api/auth/token`, {
-    method: 'POST',
-    headers: { 'Content-Type': 'application/json' },
-    body: JSON.stringify({ email, password }),
-  });
-  expect(res.status).toBe(200);
-  return `Bearer ${((await res.json()) as { token: string }).token}`;
 }
 
 interface Progress {
