@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { importFiles, type UploadedFile } from '../../server/features/runs/runs.service.ts';
+import { importFiles, type UploadedFile } from '../../server/features/runs/index.ts';
 import type { UserRow } from '../../server/lib/db.ts';
 import type { FileStore } from '../../server/lib/storage.ts';
 import { generateLakeRun, longRunPhases, type Phase, type SyntheticOptions } from '../../shared/tracks/synthetic.ts';

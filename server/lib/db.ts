@@ -566,6 +566,14 @@ export function readDb(): Knex {
   return replicaReadContext.getStore() ?? db;
 }
 
+/**
+ * A unit of work across repository calls: a service opens it and hands `trx` to each repository
+ * function, so the queries themselves stay in repositories (only they, this file and db/ use Knex).
+ */
+export function inTransaction<T>(work: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+  return db.transaction(work);
+}
+
 /** PostgreSQL's SQLSTATE for a unique violation. */
 export const PG_UNIQUE_VIOLATION = '23505';
 

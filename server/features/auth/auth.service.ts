@@ -1,8 +1,8 @@
 import bcrypt from 'bcryptjs';
 import type { AppConfig } from '../../config.ts';
-import { db, type UserRow } from '../../lib/db.ts';
+import { inTransaction, db, type UserRow } from '../../lib/db.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
-import { findUserByEmail } from '../users/users.repository.ts';
+import { findUserByEmail } from '../users/index.ts';
 import type { LoginInput } from '../../../shared/auth/schemas.ts';
 import { limitPasswordCheck } from './credential-limiter.ts';
 import { endSessionsOf } from './sessions.service.ts';
@@ -78,7 +78,7 @@ export async function changePassword(
     'That is not your current password, so it was not changed.',
   );
   const passwordHash = await hashPassword(input.new_password, config);
-  await db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     await trx('users').where({ id: user.id }).update({ password_hash: passwordHash, updated_at: new Date() });
     await endSessionsOf(user.id, { keep: sessionId, trx });
     await trx('api_tokens').where({ user_id: user.id }).delete();

@@ -4,7 +4,7 @@ import type { AppConfig } from '../../config.ts';
 import type { AuthLocals } from '../../lib/authorize.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
 import { verifySession } from '../../lib/session.ts';
-import { resolveApiTokenUser } from '../tokens/tokens.service.ts';
+import { resolveApiTokenUser } from '../tokens/index.ts';
 import { findSessionUser } from './sessions.repository.ts';
 import { clearSessionCookie } from './sessions.service.ts';
 

@@ -1,8 +1,8 @@
 import type { AppConfig } from '../../config.ts';
-import { db } from '../../lib/db.ts';
+import { inTransaction, db } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
-import { findUserByEmail } from '../users/users.repository.ts';
+import { findUserByEmail } from '../users/index.ts';
 import { hashPassword } from './auth.service.ts';
 import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
 import { endSessionsOf } from './sessions.service.ts';
@@ -64,7 +64,7 @@ export async function resetPassword(token: string, password: string, config: App
     db('password_resets').where({ token_hash: tokenHash }).first(),
   );
   const passwordHash = await hashPassword(password, config);
-  await db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     const claimed = await trx('password_resets').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
     if (!claimed) throw linkUsedError(RESET_LINK);
     await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, updated_at: now });

@@ -1,11 +1,11 @@
 import type { RegisterInput, SignUpConfirmed } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
-import { db, type UserRow } from '../../lib/db.ts';
+import { inTransaction, db, type UserRow } from '../../lib/db.ts';
 import { AppError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
-import { invitationVouchesFor } from '../squads/squads.service.ts';
-import { findUserByEmail, insertUser, toUser } from '../users/users.repository.ts';
+import { invitationVouchesFor } from '../squads/index.ts';
+import { findUserByEmail, insertUser, toUser } from '../users/index.ts';
 import { hashPassword } from './auth.service.ts';
 import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
 
@@ -126,7 +126,7 @@ export async function confirmSignUp(token: string, now = new Date()) {
   const row = await usableEmailedToken(SIGN_UP_LINK, token, now, (tokenHash) =>
     db('pending_signups').where({ token_hash: tokenHash }).first(),
   );
-  const user = await db.transaction(async (trx) => {
+  const user = await inTransaction(async (trx) => {
     const claimed = await trx('pending_signups').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
     if (!claimed) throw linkUsedError(SIGN_UP_LINK);
     // 409 with a sentence when the address got an account meanwhile (two links used one after the other).

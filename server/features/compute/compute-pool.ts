@@ -1,8 +1,8 @@
 import { Piscina } from 'piscina';
 import { defaultComputeThreads } from '../../config.ts';
 import { AppError } from '../../lib/errors.ts';
-import type { PlanCheckComputeInput, PlanCheckComputeOutput } from '../plans/plan-check-compute.ts';
-import type { ImportComputeInput, ImportComputeOutput } from '../runs/import-compute.ts';
+import type { PlanCheckComputeInput, PlanCheckComputeOutput } from '../plans/worker.ts';
+import type { ImportComputeInput, ImportComputeOutput } from '../runs/worker.ts';
 import type { ComputeTask } from './compute-worker.ts';
 
 /**

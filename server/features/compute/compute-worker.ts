@@ -3,8 +3,8 @@
  * computation and file reads happen here: no database, no network.
  */
 import { setPriority } from 'node:os';
-import { computePlanCheck, type PlanCheckComputeInput } from '../plans/plan-check-compute.ts';
-import { computeImport, type ImportComputeInput } from '../runs/import-compute.ts';
+import { computePlanCheck, type PlanCheckComputeInput } from '../plans/worker.ts';
+import { computeImport, type ImportComputeInput } from '../runs/worker.ts';
 
 /**
  * Niceness of a compute thread. On Linux a thread's nice value is its own (setpriority(2), "BUGS"),

@@ -24,11 +24,11 @@ import type { FuelPlanRow, RunCheckinRow, RunRow } from '../../lib/db.ts';
 import { HIGH_SORENESS } from '../../../shared/notices/batching.ts';
 import { AppError, ForbiddenError, NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
-import { recordSorenessAlert, type NoticeDeps } from '../notices/notices.service.ts';
-import { findGoalRace, listRaceResults } from '../goals/goals.repository.ts';
-import { findFirstPlanOnDate, findPlanById, findRunPlanLink } from '../plans/plans.repository.ts';
-import { getReadableRun } from '../runs/runs.service.ts';
-import { assertCanPlanFor, assertCanReadRunner } from '../squads/runner-access.ts';
+import { recordSorenessAlert, type NoticeDeps } from '../notices/index.ts';
+import { findGoalRace, listRaceResults } from '../goals/index.ts';
+import { findFirstPlanOnDate, findPlanById, findRunPlanLink } from '../plans/index.ts';
+import { getReadableRun } from '../runs/index.ts';
+import { assertCanPlanFor, assertCanReadRunner } from '../squads/index.ts';
 import {
   deleteFuelItem,
   deleteFuelPlan,

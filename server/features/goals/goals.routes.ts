@@ -4,7 +4,7 @@ import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
-import { assertCanReadRunner } from '../squads/runner-access.ts';
+import { assertCanReadRunner } from '../squads/index.ts';
 import { deleteGoalRace, deleteRaceResult, findGoalRace, listRaceResults, toGoalRace, toRaceResult } from './goals.repository.ts';
 import { addRaceResult, setGoalRace } from './goals.service.ts';
 

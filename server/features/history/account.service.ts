@@ -1,11 +1,11 @@
 import { rm } from 'node:fs/promises';
-import { db, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type UserRow } from '../../lib/db.ts';
 import type { AppConfig } from '../../config.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { deleteUserEverywhere } from './account.repository.ts';
 import { archivePath } from './imports.service.ts';
-import { confirmOwnPassword } from '../auth/auth.service.ts';
+import { confirmOwnPassword } from '../auth/index.ts';
 
 /**
  * Deletes the account of `user` after checking their password: every row (see
@@ -22,7 +22,7 @@ export async function deleteAccount(
   // The credential limiter counts wrong passwords here like at sign-in (issue 13 #6).
   await confirmOwnPassword(user, password, config, address, 'That password does not match your account, so nothing was deleted.');
   const dataDir = config.dataDir;
-  const remains = await db.transaction((trx) => deleteUserEverywhere(user.id, user.email, trx));
+  const remains = await inTransaction((trx) => deleteUserEverywhere(user.id, user.email, trx));
   // After the commit: a failed file deletion leaves an unreachable file (logged), never a run without its file.
   const removals = [
     ...remains.storageKeys.map((key) =>

@@ -13,10 +13,10 @@ import type { SplitUnit } from '../../../shared/tracks/types.ts';
 import type { RunRow, UserRow } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { findGoalRace, listRaceResults, toGoalRace, toRaceResult } from '../goals/goals.repository.ts';
-import { toPlan } from '../plans/plans.repository.ts';
-import { toSplit } from '../runs/runs.service.ts';
-import { toProfile } from '../users/users.repository.ts';
+import { findGoalRace, listRaceResults, toGoalRace, toRaceResult } from '../goals/index.ts';
+import { toPlan } from '../plans/index.ts';
+import { toSplit } from '../runs/index.ts';
+import { toProfile } from '../users/index.ts';
 import {
   findSplitsOfRuns,
   listPlansOfRunner,

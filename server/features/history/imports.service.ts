@@ -11,13 +11,13 @@ import {
   entrySkipReason,
 } from '../../../shared/history/archive-rules.ts';
 import type { ImportProgress } from '../../../shared/history/schemas.ts';
-import { db } from '../../lib/db.ts';
+import { inTransaction } from '../../lib/db.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { importFiles } from '../runs/runs.service.ts';
-import { recordUploadNotice } from '../notices/notices.service.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { importFiles } from '../runs/index.ts';
+import { recordUploadNotice } from '../notices/index.ts';
+import { findUserById } from '../users/index.ts';
 import {
   claimFile,
   completeFile,
@@ -149,7 +149,7 @@ export async function createImport(
     openFiles = files.filter((f) => f.skipReason === null).length;
     await mkdir(importsDir(options.dataDir), { recursive: true });
     await rename(upload.file, target);
-    await db.transaction((trx) => insertImport({ id, userId: actor.id, archiveName: upload.name, files }, trx));
+    await inTransaction((trx) => insertImport({ id, userId: actor.id, archiveName: upload.name, files }, trx));
   } catch (err) {
     await rm(upload.file, { force: true });
     await rm(target, { force: true });
@@ -196,7 +196,7 @@ function outcomeOf(result: Awaited<ReturnType<typeof importFiles>>): FileOutcome
  * start finishes without opening the archive).
  */
 async function finish(importId: string, dataDir: string): Promise<void> {
-  const finished = await db.transaction(async (trx) => {
+  const finished = await inTransaction(async (trx) => {
     if (!(await finishImportIfComplete(importId, trx))) return false;
     await rm(archivePath(dataDir, importId), { force: true });
     return true;
@@ -237,7 +237,7 @@ export async function processImport(importId: string, deps: ImportWorkDeps): Pro
   }
 
   const record = async (position: number, name: string, outcome: FileOutcome) => {
-    const updated = await db.transaction((trx) => completeFile(importId, position, name, outcome, trx));
+    const updated = await inTransaction((trx) => completeFile(importId, position, name, outcome, trx));
     if (updated && updated.done >= updated.total) await finish(importId, deps.dataDir);
   };
   const importOne = async (position: number, name: string, data: Buffer) => {

@@ -1,7 +1,7 @@
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import type { UnreadAnswer } from '../../../shared/notes/schemas.ts';
 import { NotFoundError } from '../../lib/errors.ts';
-import { assertCanReadRunner } from '../squads/runner-access.ts';
+import { assertCanReadRunner } from '../squads/index.ts';
 import { findNoteById, insertNoteReads, listUnreadNotes } from './notes.repository.ts';
 
 const NO_NOTE = 'There is no note with this id that you can read.';

@@ -11,12 +11,12 @@ import {
 } from '../../../shared/notices/messages.ts';
 import { formatLocalDate } from '../../../shared/runs/display.ts';
 import type { AppConfig } from '../../config.ts';
-import { db, type Db, type NoticeRow, type UserRow } from '../../lib/db.ts';
+import { inTransaction, db, type Db, type NoticeRow, type UserRow } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { escapeHtml, type Mailer, type OutgoingMail } from '../../lib/mailer.ts';
-import { findReadNoteIds } from '../notes/notes.repository.ts';
-import { findCoachIdsOfRunner } from '../squads/squads.repository.ts';
-import { findUserById, findUsersByIds } from '../users/users.repository.ts';
+import { findReadNoteIds } from '../notes/index.ts';
+import { findCoachIdsOfRunner } from '../squads/index.ts';
+import { findUserById, findUsersByIds } from '../users/index.ts';
 import {
   claimBatch,
   delayNotices,
@@ -175,7 +175,7 @@ export async function sendDueNotices(
       batchDueAt(b.kind, b.created_at) <= now && (!only || (only.kind === b.kind && only.recipients.includes(b.recipient_id))),
   );
   for (const batch of batches) {
-    await db.transaction(async (trx) => {
+    await inTransaction(async (trx) => {
       const rows = await claimBatch(trx, batch);
       if (rows.length === 0) return;
       const ids = rows.map((r) => r.id);

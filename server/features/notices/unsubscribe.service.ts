@@ -2,7 +2,7 @@ import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
 import type { NoticeSwitches, UnsubscribeAnswer, UpdateNoticeSwitchesInput } from '../../../shared/notices/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { findUserById } from '../users/index.ts';
 import { findSwitchChangedAt, toNoticeSwitches, updateNoticeSwitches } from './notices.repository.ts';
 import { readUnsubscribeToken } from './unsubscribe-token.ts';
 

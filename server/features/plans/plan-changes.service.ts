@@ -3,7 +3,7 @@ import { describePlanAddedOrDeleted, describePlanChange, type PlanFields } from 
 import { formatShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import type { Db, SessionPlanRow } from '../../lib/db.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { findUserById } from '../users/index.ts';
 import { insertPlanChanges } from './prescribe.repository.ts';
 
 export type PlanChangeEntry =

@@ -1,7 +1,7 @@
 import { checkRunAgainstPlan, type CheckLap, type CheckedPart, type PlanCheckResult } from '../../../shared/plans/plan-check.ts';
 import { isDatabaseUnavailable } from '../../lib/database-errors.ts';
-import { workerDatabase } from '../compute/worker-db.ts';
-import { decodeColumns } from '../runs/track-blob.ts';
+import { workerDatabase } from '../compute/worker.ts';
+import { decodeColumns } from '../runs/worker.ts';
 
 /** What one plan check needs: the resolved parts, where the run's stored track is, and its device laps. */
 export interface PlanCheckComputeInput {

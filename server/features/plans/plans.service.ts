@@ -9,15 +9,15 @@ import { formatShorthand, normaliseItems, parseShorthand } from '../../../shared
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import { databaseUrlFromEnv } from '../../config.ts';
 import { DatabaseUnavailableError } from '../../lib/database-errors.ts';
-import { db, type GoalRaceRow, type RunRow, type SessionPlanRow, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type GoalRaceRow, type RunRow, type SessionPlanRow, type UserRow } from '../../lib/db.ts';
 import { recordPlanChanges } from './plan-changes.service.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
-import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
-import { computePlanCheckJob } from '../compute/compute-pool.ts';
-import { getReadableRun, loadRunLaps } from '../runs/runs.service.ts';
-import { assertCanPlanFor, assertCanReadRunner } from '../squads/runner-access.ts';
-import { findUsersByIds, updateUserProfile } from '../users/users.repository.ts';
+import { findGoalRacesOf, listRaceResultsOf } from '../goals/index.ts';
+import { computePlanCheckJob } from '../compute/index.ts';
+import { getReadableRun, loadRunLaps } from '../runs/index.ts';
+import { assertCanPlanFor, assertCanReadRunner } from '../squads/index.ts';
+import { findUsersByIds, updateUserProfile } from '../users/index.ts';
 import { repBlocks } from '../../../shared/plans/rep-blocks.ts';
 import type { PlanCheckAnswer } from '../../../shared/plans/plan-check-answer.ts';
 import { findPlanCheckResults, savePlanCheckResults } from './plan-check-results.repository.ts';
@@ -62,7 +62,7 @@ export async function createPlan(actor: Actor, input: CreatePlanInput): Promise<
   const runnerId = input.runner_id ?? actor.id;
   await assertCanPlanFor(actor, runnerId);
   const items = itemsOf(input)!;
-  const row = await db.transaction(async (trx) => {
+  const row = await inTransaction(async (trx) => {
     const created = await insertPlan(
       {
         runnerId,
@@ -105,7 +105,7 @@ export async function changePlan(actor: Actor, id: string, changes: UpdatePlanIn
   const row = await readablePlan(actor, id);
   await assertCanPlanFor(actor, row.runner_id);
   const items = itemsOf(changes);
-  const updated = await db.transaction(async (trx) => {
+  const updated = await inTransaction(async (trx) => {
     const after = await updatePlan(id, { date: changes.date, title: changes.title, notes: changes.notes, items }, actor.id, trx);
     await recordPlanChanges(actor, [{ kind: 'changed', before: row, after }], trx);
     return after;
@@ -116,7 +116,7 @@ export async function changePlan(actor: Actor, id: string, changes: UpdatePlanIn
 export async function removePlan(actor: Actor, id: string): Promise<void> {
   const row = await readablePlan(actor, id);
   await assertCanPlanFor(actor, row.runner_id);
-  await db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     await deletePlan(id, trx);
     await recordPlanChanges(actor, [{ kind: 'deleted', before: row }], trx);
   });

@@ -10,10 +10,10 @@ import { MAX_LIBRARY_SESSIONS } from '../../../shared/plans/prescribe-schemas.ts
 import { formatShorthand, normaliseItems } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import { addDays } from '../../../shared/weeks/weeks.ts';
-import { db, isUniqueViolation, type Db, type SessionPlanRow } from '../../lib/db.ts';
+import { inTransaction, isUniqueViolation, type Db, type SessionPlanRow } from '../../lib/db.ts';
 import { AppError, BadRequestError, ConflictError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
-import { assertCanPlanFor, assertCanReadRunner } from '../squads/runner-access.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { assertCanPlanFor, assertCanReadRunner } from '../squads/index.ts';
+import { findUserById } from '../users/index.ts';
 import { recordPlanChanges, type PlanChangeEntry } from './plan-changes.service.ts';
 import { deletePlan, findPlanById, insertPlan, listPlans, toPlan, type StoredPlan } from './plans.repository.ts';
 import { parsePlanText } from './plans.service.ts';
@@ -75,7 +75,7 @@ export async function copyWeek(actor: Actor, input: CopyWeekInput) {
   await assertCanPlanFor(actor, runnerId);
   const shift = Math.round((Date.parse(input.to_start) - Date.parse(input.from_start)) / 86_400_000);
   const toEnd = addDays(input.to_start, 6);
-  return db.transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     await lockRunners([runnerId], trx);
     const source = await listPlans(runnerId, input.from_start, addDays(input.from_start, 6), trx);
     if (source.length === 0) throw new BadRequestError('That week has no sessions to copy.', 'nothing-to-copy');
@@ -174,7 +174,7 @@ async function sessionToApply(
  * resolve from each runner's own goal race wherever the plan is read.
  */
 export async function assignSession(actor: Actor, input: AssignInput) {
-  return db.transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     await assertCanPlanForAll(actor, input.runner_ids, trx);
     const session = await sessionToApply(actor, input, trx);
     await lockRunners(input.runner_ids, trx);
@@ -206,7 +206,7 @@ export async function assignSession(actor: Actor, input: AssignInput) {
  * runner it touched.
  */
 export async function undoBatch(actor: Actor, batchId: string, now = new Date()): Promise<void> {
-  await db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     const batch = await findBatch(actor.id, batchId, trx);
     if (!batch) throw new NotFoundError('There is nothing to undo with this id.');
     if (now.getTime() - batch.created_at.getTime() > UNDO_HOURS * 3_600_000) {

@@ -9,8 +9,8 @@ import {
 } from '../../../shared/runs/orphan-files.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { findImportStatuses } from '../history/imports.repository.ts';
-import { importsDir } from '../history/imports.service.ts';
+import { findImportStatuses } from '../history/index.ts';
+import { importsDir } from '../history/index.ts';
 import { findReferencedStorageKeys, withOriginalFilesExclusiveLock } from './original-files.repository.ts';
 import { uploadsTempDir } from './upload-to-disk.ts';
 

@@ -20,7 +20,7 @@ import { parseIdParam } from '../../lib/ids.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import type { AppConfig } from '../../config.ts';
 import type { Mailer } from '../../lib/mailer.ts';
-import { recordUploadNotice } from '../notices/notices.service.ts';
+import { recordUploadNotice } from '../notices/index.ts';
 import { logger } from '../../lib/logger.ts';
 import {
   addNote,

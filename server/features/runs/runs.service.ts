@@ -11,16 +11,16 @@ import type { ImportResult, ListRunsQuery, StorageUsage } from '../../../shared/
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
 import { overQuotaReason } from '../../../shared/runs/upload-limits.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
-import { db, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
+import { inTransaction, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { ComputeBusyError, ComputeCrashError, ComputeTimeoutError, computeImportJob } from '../compute/compute-pool.ts';
-import { assertCanReadRunner } from '../squads/runner-access.ts';
+import { ComputeBusyError, ComputeCrashError, ComputeTimeoutError, computeImportJob } from '../compute/index.ts';
+import { assertCanReadRunner } from '../squads/index.ts';
 import { decodeColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
-import { findReadNoteIds } from '../notes/notes.repository.ts';
-import { recordNoteNotice, type NoticeDeps } from '../notices/notices.service.ts';
+import { findReadNoteIds } from '../notes/index.ts';
+import { recordNoteNotice, type NoticeDeps } from '../notices/index.ts';
 import {
   findReferencedStorageKeys,
   holdOriginalFilesSharedLock,
@@ -165,7 +165,7 @@ export async function importFiles(
       );
     };
     try {
-      const outcome = await db.transaction(async (trx) => {
+      const outcome = await inTransaction(async (trx) => {
         // The same-run check and the insert are one step per runner: two different files of one run
         // uploaded at the same instant (two requests, two compute workers) are checked one after the
         // other, and the second sees the first's committed run (lockRunsOf waits for its commit).
@@ -360,7 +360,7 @@ export async function renameOwnRun(actor: Actor, runId: string, changes: { name?
 /** Deletes the run and, when no other run came from the same file, the original file too. */
 export async function deleteOwnRun(actor: Actor, runId: string, store: FileStore): Promise<void> {
   const run = await getOwnRun(actor, runId);
-  const orphan = await db.transaction((trx) => deleteRunAndOrphanFile(run, trx));
+  const orphan = await inTransaction((trx) => deleteRunAndOrphanFile(run, trx));
   if (orphan) await deleteOriginalUnlessReferenced(orphan.storage_key, store);
 }
 

@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { AppConfig } from '../../config.ts';
 import { ConflictError, NotFoundError } from '../../lib/errors.ts';
-import { db, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type UserRow } from '../../lib/db.ts';
 import {
   deleteApiToken,
   findLiveApiTokenUser,
@@ -30,7 +30,7 @@ export async function issueApiToken(
 ): Promise<{ token: string; expires_at: string; id: string; name: string }> {
   const token = TOKEN_PREFIX + randomBytes(32).toString('base64url');
   const expiresAt = new Date(now.getTime() + config.apiTokenDays * 24 * 3600 * 1000);
-  const row = await db.transaction(async (trx) => {
+  const row = await inTransaction(async (trx) => {
     // The user's row is locked so two requests at once cannot both take the last place.
     await trx('users').where({ id: userId }).forUpdate().first('id');
     const [{ live }] = (await trx('api_tokens')

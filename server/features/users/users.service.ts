@@ -1,5 +1,5 @@
 import { NOTICE_KIND_INFO, NOTICE_KINDS } from '../../../shared/notices/kinds.ts';
-import { recordSwitchChanges } from '../notices/notices.repository.ts';
+import { recordSwitchChanges } from '../notices/index.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import {
   findUserById,

@@ -1,5 +1,5 @@
 import { db, type Db, type NoteConcern, readDb } from '../../lib/db.ts';
-import { RUN_LIST_COLUMNS, type RunListRow } from '../runs/runs.repository.ts';
+import { RUN_LIST_COLUMNS, type RunListRow } from '../runs/index.ts';
 
 /** The run's TRIMP stored at import (`details.trimp.trimp`), null without heart rate. */
 const TRIMP = "(details->'trimp'->>'trimp')::float8 as trimp";

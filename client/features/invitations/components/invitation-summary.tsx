@@ -1,4 +1,4 @@
-import { describeFee } from '../../fees/components/fee-words.ts';
+import { describeFee } from '../../fees/index.ts';
 import type { InvitationPreview } from '../api/get-invitation.ts';
 
 /** Who invites whom to what, and what joining a squad means for the runner's data. */

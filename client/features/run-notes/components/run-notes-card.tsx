@@ -7,8 +7,8 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { formatDateTime } from '../../../lib/format.ts';
-import { useMarkReadOnOpen } from '../../notes/components/mark-read-on-open.ts';
-import { UnreadDot } from '../../notes/components/unread-dot.tsx';
+import { useMarkReadOnOpen } from '../../notes/index.ts';
+import { UnreadDot } from '../../notes/index.ts';
 import { useAddRunNote } from '../api/add-run-note.ts';
 import { useRunNotes } from '../api/get-run-notes.ts';
 

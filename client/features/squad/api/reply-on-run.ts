@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { addRunNote } from '../../run-notes/api/add-run-note.ts';
-import { runNoteKeys } from '../../run-notes/api/run-note-keys.ts';
+import { addRunNote } from '../../run-notes/index.ts';
+import { runNoteKeys } from '../../run-notes/index.ts';
 import { weekKeys } from './week-keys.ts';
 
 /** A note on a run written from the week review; the week and the run's own notes are read again. */

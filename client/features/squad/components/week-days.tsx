@@ -5,7 +5,7 @@ import type { WeekPlan } from '../../../../shared/weeks/week-review.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { cn } from '../../../lib/cn.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
-import { UnreadDot } from '../../notes/components/unread-dot.tsx';
+import { UnreadDot } from '../../notes/index.ts';
 import { WeekRunEntry } from './week-run-entry.tsx';
 import { formatHoursMinutes } from '../../../lib/format.ts';
 import { formatDay } from '../utils/week-format.ts';

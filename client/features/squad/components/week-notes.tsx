@@ -6,7 +6,7 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { formatDate } from '../../../lib/format.ts';
-import { UnreadDot } from '../../notes/components/unread-dot.tsx';
+import { UnreadDot } from '../../notes/index.ts';
 import { useAddWeekNote } from '../api/add-week-note.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 

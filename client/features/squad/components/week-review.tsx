@@ -5,7 +5,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { formatDate } from '../../../lib/format.ts';
-import { useMarkReadOnOpen } from '../../notes/components/mark-read-on-open.ts';
+import { useMarkReadOnOpen } from '../../notes/index.ts';
 import { runnerWeekCsvHref } from '../api/get-runner-week.ts';
 import { useSetWeekReviewed } from '../api/set-week-reviewed.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';

@@ -9,7 +9,7 @@ import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
 import { formatDate } from '../../../lib/format.ts';
-import { UnreadDot } from '../../notes/components/unread-dot.tsx';
+import { UnreadDot } from '../../notes/index.ts';
 import { useReplyOnRun } from '../api/reply-on-run.ts';
 
 const TIME = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });

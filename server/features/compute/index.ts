@@ -1,0 +1,10 @@
+// The public face of the compute feature: the only file other features (and db/) import.
+// Everything else in this folder is private to it (server/features/README.md).
+
+export {
+  ComputeBusyError,
+  ComputeCrashError,
+  ComputeTimeoutError,
+  computeImportJob,
+  computePlanCheckJob,
+} from './compute-pool.ts';

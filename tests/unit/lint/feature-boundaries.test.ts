@@ -1,0 +1,93 @@
+import { ESLint } from 'eslint';
+import path from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+
+// The feature boundaries of .ci/eslint.config.js (server/features/README.md), run through ESLint's
+// own API on small snippets placed at real paths, so a config change that stops a rule firing fails here.
+
+const ROOT = path.resolve(import.meta.dirname, '../../..');
+let eslint: ESLint;
+
+beforeAll(() => {
+  eslint = new ESLint({ cwd: ROOT, overrideConfigFile: path.join(ROOT, '.ci/eslint.config.js') });
+});
+
+/** The rule ids ESLint reports for `code` as if it were the file at `file` (relative to the repository). */
+async function rulesFiredFor(file: string, code: string): Promise<string[]> {
+  const [result] = await eslint.lintText(code, { filePath: path.join(ROOT, file) });
+  return result!.messages.map((m) => `${m.ruleId ?? 'parse'}: ${m.message}`);
+}
+
+describe('server feature boundaries', { timeout: 60_000 }, () => {
+  it("refuses another feature's repository, and says which face to use", async () => {
+    const fired = await rulesFiredFor(
+      'server/features/weeks/boundary-probe.service.ts',
+      "import { findRunById } from '../runs/runs.repository.ts';\nexport const probe = findRunById;\n",
+    );
+    expect(fired).toHaveLength(1);
+    expect(fired[0]).toMatch(/^import-x\/no-restricted-paths: .*server\/features\/runs\/index\.ts/);
+  });
+
+  it("refuses another feature's service or helper file too, but takes its index.ts", async () => {
+    expect(
+      await rulesFiredFor(
+        'server/features/fuel/boundary-probe.service.ts',
+        "import { getReadableRun } from '../runs/runs.service.ts';\nexport const probe = getReadableRun;\n",
+      ),
+    ).toHaveLength(1);
+    expect(
+      await rulesFiredFor(
+        'server/features/fuel/boundary-probe.service.ts',
+        "import { getReadableRun } from '../runs/index.ts';\nexport const probe = getReadableRun;\n",
+      ),
+    ).toEqual([]);
+  });
+
+  it('refuses server internals in db/ seeds', async () => {
+    const fired = await rulesFiredFor(
+      'db/seeds/boundary-probe.ts',
+      "import { importFiles } from '../../server/features/runs/runs.service.ts';\nexport const probe = importFiles;\n",
+    );
+    expect(fired).toEqual([expect.stringMatching(/^import-x\/no-restricted-paths: /)]);
+  });
+
+  it('refuses the Knex instance and Knex calls in a service, and allows them in a repository', async () => {
+    const code =
+      "import { db } from '../../lib/db.ts';\nexport const probe = (id: string) => db('runs').where({ id }).first();\n";
+    const inService = await rulesFiredFor('server/features/runs/boundary-probe.service.ts', code);
+    expect(inService).toEqual([
+      expect.stringMatching(/^@typescript-eslint\/no-restricted-imports: /),
+      expect.stringMatching(/^no-restricted-syntax: Queries live in a repository/),
+    ]);
+    expect(await rulesFiredFor('server/features/runs/boundary-probe.repository.ts', code)).toEqual([]);
+    // Type imports (rows, the transaction type) and opening a transaction stay allowed in services.
+    expect(
+      await rulesFiredFor(
+        'server/features/runs/boundary-probe.service.ts',
+        "import type { Knex } from 'knex';\nimport { inTransaction, type RunRow } from '../../lib/db.ts';\nexport const probe = (work: (trx: Knex.Transaction) => Promise<RunRow>) => inTransaction(work);\n",
+      ),
+    ).toEqual([]);
+  });
+
+  it('a public face names what it exports: no export *', async () => {
+    const fired = await rulesFiredFor('server/features/goals/index.ts', "export * from './goals.service.ts';\n");
+    expect(fired).toEqual([expect.stringMatching(/^no-restricted-syntax: Name what the feature makes public/)]);
+  });
+});
+
+describe('client feature boundaries', { timeout: 60_000 }, () => {
+  it("refuses another client feature's component file, and takes its index.ts", async () => {
+    expect(
+      await rulesFiredFor(
+        'client/features/squad/components/boundary-probe.tsx',
+        "import { UnreadDot } from '../../notes/components/unread-dot.tsx';\nexport const probe = UnreadDot;\n",
+      ),
+    ).toEqual([expect.stringMatching(/^import-x\/no-restricted-paths: .*client\/features\/notes\/index\.ts/)]);
+    expect(
+      await rulesFiredFor(
+        'client/features/squad/components/boundary-probe.tsx',
+        "import { UnreadDot } from '../../notes/index.ts';\nexport const probe = UnreadDot;\n",
+      ),
+    ).toEqual([]);
+  });
+});
