@@ -3,11 +3,11 @@ import type { Actor } from '../../../shared/auth/permissions.ts';
 import { addDays, billingStatus, lastDayBefore } from '../../../shared/fees/billing-status.ts';
 import { isCurrencyCode } from '../../../shared/fees/currencies.ts';
 import { NO_FEE, type BillingAnswer, type Fee, type FeeInput, type MyFee, type Receipt } from '../../../shared/fees/schemas.ts';
-import { db, type Db, type FeePayerRow, type FeeReceiptRow, type SquadFeeRow } from '../../lib/db.ts';
+import { inTransaction, db, type Db, type FeePayerRow, type FeeReceiptRow, type SquadFeeRow } from '../../lib/db.ts';
 import { AppError, BadRequestError, ConflictError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
-import { findSquadById, listMembers } from '../squads/squads.repository.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { findSquadById, listMembers, squadCoachedBy } from '../squads/index.ts';
+import { findUserById } from '../users/index.ts';
 import {
   findCustomerId,
   findPayer,
@@ -50,11 +50,7 @@ const toReceipt = (r: FeeReceiptRow): Receipt => ({
   period_end: r.period_end,
 });
 
-async function coachedSquad(actor: Actor, squadId: string) {
-  const squad = await findSquadById(squadId);
-  if (!squad || squad.coach_id !== actor.id) throw new NotFoundError('There is no squad of yours with this id.');
-  return squad;
-}
+const coachedSquad = (actor: Actor, squadId: string) => squadCoachedBy(actor, squadId);
 
 async function memberSquad(actor: Actor, squadId: string) {
   const squad = await findSquadById(squadId);
@@ -297,7 +293,7 @@ export async function receiveWebhook(rawBody: unknown, signature: string | undef
   } catch {
     throw BAD_SIGNATURE();
   }
-  return db.transaction(async (trx) => {
+  return inTransaction(async (trx) => {
     // Two deliveries of one event at once: the second waits on the key until the first commits, then skips.
     const fresh = await trx('payment_events')
       .insert({ event_id: event.id, type: event.type, outcome: 'handling' })

@@ -1,6 +1,7 @@
 import { canReadRunnerData, type Actor } from '../../../shared/auth/permissions.ts';
 import { ForbiddenError, NotFoundError } from '../../lib/errors.ts';
-import { findCoachIdsOfRunner } from './squads.repository.ts';
+import type { SquadRow } from '../../lib/db.ts';
+import { findCoachIdsOfRunner, findSquadById } from './squads.repository.ts';
 
 /**
  * Throws 404 unless `actor` may read the data of runner `ownerId` (the rule lives in
@@ -25,4 +26,16 @@ export async function assertCanPlanFor(actor: Actor, runnerId: string): Promise<
   if (canReadRunnerData(actor, runnerId, coachIds))
     throw new ForbiddenError('Only the runner and their coaches write their plans.');
   throw new NotFoundError();
+}
+
+/**
+ * The squad `squadId` when `actor` is its coach: the one squad-owner check (the squad's settings,
+ * invitations, fee, digest and overview all go through it). `adminMayRead` lets an admin through
+ * too, for pages that only read. 404 otherwise, the same for someone else's squad and a made-up id.
+ */
+export async function squadCoachedBy(actor: Actor, squadId: string, { adminMayRead = false } = {}): Promise<SquadRow> {
+  const squad = await findSquadById(squadId);
+  if (!squad || (squad.coach_id !== actor.id && !(adminMayRead && actor.role === 'admin')))
+    throw new NotFoundError('There is no squad of yours with this id.');
+  return squad;
 }

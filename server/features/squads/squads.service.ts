@@ -4,14 +4,15 @@ import { INVITATION_GONE } from '../../../shared/squads/invitation-status.ts';
 import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schemas.ts';
 import { looksLikeLink, NO_LINKS_IN_SQUAD_NAME } from '../../../shared/squads/link-check.ts';
 import type { AppConfig } from '../../config.ts';
-import { db, type InvitationRow } from '../../lib/db.ts';
+import { inTransaction, db, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
-import { findSquadFee } from '../fees/fees.repository.ts';
-import { toFee } from '../fees/fees.service.ts';
-import { recordSquadLeave, type NoticeDeps } from '../notices/notices.service.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { findSquadFee } from '../fees/index.ts';
+import { toFee } from '../fees/index.ts';
+import { recordSquadLeave, type NoticeDeps } from '../notices/index.ts';
+import { findUserById } from '../users/index.ts';
+import { squadCoachedBy } from './runner-access.ts';
 import {
   claimInvitation,
   findInvitationByTokenHash,
@@ -72,11 +73,7 @@ export async function listMySquads(actor: Actor, now = new Date()): Promise<Squa
   );
 }
 
-async function ownSquad(actor: Actor, squadId: string) {
-  const squad = await findSquadById(squadId);
-  if (!squad || squad.coach_id !== actor.id) throw new NotFoundError('There is no squad of yours with this id.');
-  return squad;
-}
+const ownSquad = (actor: Actor, squadId: string) => squadCoachedBy(actor, squadId);
 
 /** Invitations one coach may send in 24 hours (issue 13 #5); a squad of 30 invited in a day is already a big club night. */
 export const INVITATIONS_PER_COACH_PER_DAY = 30;
@@ -127,7 +124,7 @@ export async function inviteRunner(
   const token = 'inv_' + randomBytes(32).toString('base64url');
   const expiresAt = new Date(now.getTime() + INVITATION_DAYS * 86_400_000);
   const link = `${config.publicUrl}/invite/${token}`;
-  const invitation = await db.transaction(async (trx) => {
+  const invitation = await inTransaction(async (trx) => {
     const row = await insertInvitation({ squadId, invitedBy: actor.id, email, tokenHash: hashToken(token), expiresAt }, trx);
     // Sent inside the transaction: if the mail cannot go out, no invitation is left behind.
     const intro = `${coach?.name ?? 'Your coach'} invites you to join the squad "${squad.name}" on Pacewright, a training log for runners and their coaches.`;
@@ -188,7 +185,7 @@ export async function acceptInvitation(actor: Actor & { email: string }, token: 
       'invitation-other-address',
     );
   const squad = (await findSquadById(row.squad_id))!;
-  await db.transaction(async (trx) => {
+  await inTransaction(async (trx) => {
     const claimed = await claimInvitation(row.id, actor.id, now, trx);
     if (!claimed) throw new AppError(410, 'invitation-accepted', INVITATION_GONE.accepted);
     await addMember(squad.id, actor.id, trx);

@@ -4,12 +4,11 @@ import type { Unit } from '../../../shared/users/schemas.ts';
 import type { DigestReceipt } from '../../../shared/weeks/squad-overview.ts';
 import { UNIT_METRES } from '../../../shared/units.ts';
 import type { AppConfig } from '../../config.ts';
-import { NotFoundError } from '../../lib/errors.ts';
 import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
 import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
-import { unsubscribeHeaders, unsubscribeLinks } from '../notices/notices.service.ts';
-import { findSquadById } from '../squads/squads.repository.ts';
-import { findUserById } from '../users/users.repository.ts';
+import { unsubscribeHeaders, unsubscribeLinks } from '../notices/index.ts';
+import { squadCoachedBy } from '../squads/index.ts';
+import { findUserById } from '../users/index.ts';
 import { buildSquadOverview, type OverviewRow } from './weeks.service.ts';
 
 const HEADINGS = {
@@ -59,8 +58,7 @@ export async function sendSquadDigest(
   config: AppConfig,
   now = new Date(),
 ): Promise<DigestReceipt> {
-  const squad = await findSquadById(squadId);
-  if (!squad || squad.coach_id !== actor.id) throw new NotFoundError('There is no squad of yours with this id.');
+  const squad = await squadCoachedBy(actor, squadId);
   const coach = (await findUserById(squad.coach_id))!;
   const overview = await buildSquadOverview(actor, squadId, week, now);
   const groups = groupForDigest(overview.rows);

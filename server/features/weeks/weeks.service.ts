@@ -16,19 +16,19 @@ import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
 import type { FuelTakenRow, NoteConcern, SessionPlanRow, UserRow } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
-import { recordNoteNotice, type NoticeDeps } from '../notices/notices.service.ts';
-import { findFuelTakenOf, findRunCheckinsOf } from '../fuel/fuel.repository.ts';
-import { plannedFuelTotalsOf } from '../fuel/fuel.service.ts';
-import { findReadNoteIds } from '../notes/notes.repository.ts';
-import { listRunNotesOf } from '../runs/run-notes.repository.ts';
-import { findGoalRacesOf, listRaceResultsOf } from '../goals/goals.repository.ts';
-import { listPlansOf } from '../plans/plans.repository.ts';
-import { listDayMarksOf } from '../plans/prescribe.repository.ts';
-import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/plans.service.ts';
-import { toRunListItem } from '../runs/runs.repository.ts';
-import { assertCanReadRunner } from '../squads/runner-access.ts';
-import { findCoachIdsOfRunner, findSquadById, listMembers } from '../squads/squads.repository.ts';
-import { findUserById, findUsersByIds } from '../users/users.repository.ts';
+import { recordNoteNotice, type NoticeDeps } from '../notices/index.ts';
+import { findFuelTakenOf, findRunCheckinsOf } from '../fuel/index.ts';
+import { plannedFuelTotalsOf } from '../fuel/index.ts';
+import { findReadNoteIds } from '../notes/index.ts';
+import { listRunNotesOf } from '../runs/index.ts';
+import { findGoalRacesOf, listRaceResultsOf } from '../goals/index.ts';
+import { listPlansOf } from '../plans/index.ts';
+import { listDayMarksOf } from '../plans/index.ts';
+import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/index.ts';
+import { toRunListItem } from '../runs/index.ts';
+import { assertCanReadRunner, squadCoachedBy } from '../squads/index.ts';
+import { findCoachIdsOfRunner, listMembers } from '../squads/index.ts';
+import { findUserById, findUsersByIds } from '../users/index.ts';
 import {
   deleteWeekReview,
   findWeekReviewsOf,
@@ -376,9 +376,7 @@ export async function buildSquadOverview(
   week: string | undefined,
   now = new Date(),
 ): Promise<SquadOverview> {
-  const squad = await findSquadById(squadId);
-  if (!squad || (squad.coach_id !== actor.id && actor.role !== 'admin'))
-    throw new NotFoundError('There is no squad of yours with this id.');
+  const squad = await squadCoachedBy(actor, squadId, { adminMayRead: true });
   // Every member's data is readable here: the actor coaches this squad or is an admin.
   const members = await listMembers(squadId);
   const users = new Map((await findUsersByIds(members.map((m) => m.id))).map((u) => [u.id, u]));

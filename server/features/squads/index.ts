@@ -1,0 +1,6 @@
+// The public face of the squads feature: the only file other features (and db/) import.
+// Everything else in this folder is private to it (server/features/README.md).
+
+export { assertCanPlanFor, assertCanReadRunner, squadCoachedBy } from './runner-access.ts';
+export { findCoachIdsOfRunner, findSquadById, listMembers } from './squads.repository.ts';
+export { invitationVouchesFor } from './squads.service.ts';
