@@ -4,7 +4,7 @@ import type { AppConfig } from '../../config.ts';
 import { db, type PlanChangeRow } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
-import { unsubscribeHeaders, unsubscribeLinks } from '../notices/notices.service.ts';
+import { unsubscribeHeaders, unsubscribeLinks } from '../notices/index.ts';
 
 /**
  * The e-mail per editing burst (issue 15). A coach's changes are recorded with `noticed_at` empty
