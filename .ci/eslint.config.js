@@ -39,7 +39,8 @@ const featureZones = (side, importers) =>
   featuresOf(side).map((feature) => ({
     target: [
       ...featuresOf(side)
-        .filter((other) => other !== feature)
+        // jobs/ starts every feature's background work (server/features/jobs): a composition root too.
+        .filter((other) => other !== feature && other !== 'jobs')
         .map((other) => `./${side}/features/${other}`),
       ...importers,
     ],
