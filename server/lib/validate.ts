@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import type { z } from 'zod';
 import { ValidationError } from './errors.ts';
 import type { FieldIssue } from '../../shared/api/errors.ts';
@@ -50,4 +50,24 @@ export function validate(schemas: Schemas): RequestHandler {
     }
     next();
   };
+}
+
+/**
+ * The text a multipart upload carries besides its files: its text fields (`req.body`, which no zod schema reads on
+ * the upload routes) and each file's name, which is stored. Refused with the same sentence as any other text field
+ * holding a control character (issue 13 #13); null when all is clean.
+ */
+export function multipartTextProblem(req: Request, fileField: string): ValidationError | null {
+  const files = [...((req.files as Express.Multer.File[] | undefined) ?? []), ...(req.file ? [req.file] : [])];
+  const problems: FieldIssue[] = [
+    ...controlCharacterIssues(req.body ?? {}),
+    // multer decodes names as latin1; browsers send UTF-8 (a NUL or C1 byte is caught either way).
+    ...files.flatMap((file, i) =>
+      controlCharacterIssues(Buffer.from(file.originalname, 'latin1').toString('utf8'), [
+        files.length > 1 ? `${fileField}.${i}.name` : `${fileField}.name`,
+      ]),
+    ),
+  ];
+  if (problems.length === 0) return null;
+  return new ValidationError(problems.length === 1 ? problems[0]!.message : 'Some fields need attention.', problems);
 }

@@ -31,7 +31,9 @@ export function tooManyPointsReason(points: number): string | null {
 export function tooLongReason(durationS: number): string | null {
   if (!(durationS > MAX_TRACK_HOURS * 3600)) return null;
   const hours = Math.floor(durationS / 3600);
-  return `This track lasts ${hours} hours from its first to its last point; one run can last at most ${MAX_TRACK_HOURS} hours. If the watch kept recording between runs, split the file into single runs and upload those.`;
+  const minutes = Math.floor((durationS % 3600) / 60);
+  const lasts = minutes > 0 ? `${hours} hours ${minutes} min` : `more than ${hours} hours`;
+  return `This track lasts ${lasts} from its first to its last point; one run can last at most ${MAX_TRACK_HOURS} hours. If the watch kept recording between runs, split the file into single runs and upload those.`;
 }
 
 /** The track's estimated share of the file: points × the per-point allowance ÷ the file's size, capped at 1. */
@@ -54,6 +56,11 @@ export function tinyTrackShareReason(fileBytes: number, points: number): string 
 /** The answer when an upload would take a runner past their storage quota. */
 export function storageFullReason(usedBytes: number, quotaBytes: number): string {
   return `Your storage is full: ${formatFileSize(usedBytes)} of your ${formatFileSize(quotaBytes)} is used by original files. Delete runs you no longer need to make room; nothing from this upload was stored.`;
+}
+
+/** The answer when an upload, still arriving, grows past what is left of the runner's storage. */
+export function uploadDoesNotFitReason(usedBytes: number, quotaBytes: number): string {
+  return `This upload does not fit in your storage: ${formatFileSize(usedBytes)} of your ${formatFileSize(quotaBytes)} is already used by original files. Delete runs you no longer need to make room; nothing from this upload was stored.`;
 }
 
 /** A file refused because it does not fit in what is left of the runner's storage. */

@@ -19,6 +19,8 @@ export interface LongTrackOptions {
   seed?: number;
   name?: string;
   gzip?: boolean;
+  /** Bytes of XML comment written before the points (a file that is mostly not track). */
+  paddingBytes?: number;
 }
 
 const gpxHead = (name: string) =>
@@ -52,6 +54,9 @@ export async function writeLongGpx(file: string, options: LongTrackOptions): Pro
   const { points, stepS, startMs, seed = 0, name = 'Long loop' } = options;
   async function* lines(): AsyncGenerator<string> {
     yield gpxHead(name);
+    for (let left = options.paddingBytes ?? 0; left > 0; left -= 64 * 1024) {
+      yield `<!--${'x'.repeat(Math.max(0, Math.min(64 * 1024, left) - 8))}-->\n`;
+    }
     yield* trackPointLines(points, stepS, startMs, seed);
     yield GPX_TAIL;
   }

@@ -1,5 +1,6 @@
 import { ZIP } from '../../../shared/api/media-types.ts';
 import { mkdirSync } from 'node:fs';
+import { rm } from 'node:fs/promises';
 import { randomUUID } from 'node:crypto';
 import multer from 'multer';
 import type { RequestHandler } from 'express';
@@ -15,6 +16,7 @@ import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
+import { multipartTextProblem } from '../../lib/validate.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { clearSessionCookie } from '../auth/index.ts';
 import { uploadGuards } from '../runs/index.ts';
@@ -42,7 +44,12 @@ function uploadArchive(dataDir: string, maxBytes: number): RequestHandler {
   return (req, res, next) => {
     requireActor(res);
     upload(req, res, (err: unknown) => {
-      if (!err) return next();
+      if (!err) {
+        const problem = multipartTextProblem(req, 'file');
+        if (!problem) return next();
+        // Refused whole, and nothing of it kept.
+        return void (req.file ? rm(req.file.path, { force: true }) : Promise.resolve()).then(() => next(problem));
+      }
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE')
           return next(

@@ -6,10 +6,11 @@ import { Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import type { Request, RequestHandler } from 'express';
 import multer, { type StorageEngine } from 'multer';
-import { storageFullReason } from '../../../shared/runs/upload-limits.ts';
+import { storageFullReason, uploadDoesNotFitReason } from '../../../shared/runs/upload-limits.ts';
 import { formatFileSize } from '../../../shared/units.ts';
 import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
+import { multipartTextProblem } from '../../lib/validate.ts';
 
 /** An uploaded file as it waits on disk for the import: where, how big, and its SHA-256 (taken while it arrived). */
 export interface ReceivedFile {
@@ -48,7 +49,9 @@ export class RequestTooLargeError extends AppError {
 
 export class StorageFullError extends AppError {
   constructor(usedBytes: number, quotaBytes: number) {
-    super(413, 'storage-full', storageFullReason(usedBytes, quotaBytes), { used_bytes: usedBytes, quota_bytes: quotaBytes });
+    const reason =
+      usedBytes >= quotaBytes ? storageFullReason(usedBytes, quotaBytes) : uploadDoesNotFitReason(usedBytes, quotaBytes);
+    super(413, 'storage-full', reason, { used_bytes: usedBytes, quota_bytes: quotaBytes });
   }
 }
 
@@ -129,7 +132,12 @@ export function receiveUploads(limits: ReceiveLimits): RequestHandler {
     }
     removeWhenDone(req, res);
     upload(req, res, (err: unknown) => {
-      if (!err) return next();
+      if (!err) {
+        const problem = multipartTextProblem(req, 'files');
+        if (!problem) return next();
+        // Refused whole, and nothing of it kept.
+        return void removeReceivedFiles(req).then(() => next(problem));
+      }
       if (err instanceof AppError) return next(err);
       if (err instanceof multer.MulterError) {
         if (err.code === 'LIMIT_FILE_SIZE')
