@@ -1,5 +1,5 @@
 import { createHash, randomUUID } from 'node:crypto';
-import { createWriteStream } from 'node:fs';
+import { createWriteStream, type WriteStream } from 'node:fs';
 import { mkdir, rm } from 'node:fs/promises';
 import path from 'node:path';
 import { Transform } from 'node:stream';
@@ -78,11 +78,20 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
           done(null, chunk);
         },
       });
+      // The part is read through `counter` without handing multer's own stream to `pipeline`: a limit crossed here
+      // must not error that stream, or multer would answer before this file is removed.
+      let out: WriteStream | undefined;
       mkdir(limits.tempDir, { recursive: true })
-        .then(() => pipeline(file.stream, counter, createWriteStream(target)))
+        .then(() => {
+          file.stream.once('error', (err) => counter.destroy(err));
+          file.stream.pipe(counter);
+          return pipeline(counter, (out = createWriteStream(target)));
+        })
         .then(
           () => callback(null, { path: target, size, sha256: hash.digest('hex') } as Partial<Express.Multer.File>),
           async (err: unknown) => {
+            // A stream stopped while still opening creates its file afterwards: remove it only once closed.
+            if (out && !out.closed) await new Promise<void>((resolve) => out!.once('close', () => resolve()));
             await rm(target, { force: true });
             // The rest of this part is read and dropped by busboy; multer then drains the request.
             file.stream.resume();
