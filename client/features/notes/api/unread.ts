@@ -29,6 +29,16 @@ export function useMarkNotesRead() {
     mutationFn: async (ids: readonly string[]) => {
       for (const id of ids) await api.post<void>(`/notes/${encodeURIComponent(id)}/read`);
     },
+    // A count fetched while the page opened (before these were marked) must not land after them: drop
+    // it, take the opened notes out of the count at once, then ask the server again.
+    onSuccess: async (_done, ids) => {
+      await queryClient.cancelQueries({ queryKey: unreadKeys.all });
+      queryClient.setQueryData<UnreadAnswer>(unreadKeys.all, (old) => {
+        if (!old) return old;
+        const items = old.items.filter((i) => !ids.includes(i.id));
+        return { ...old, items, count: Math.max(0, old.count - (old.items.length - items.length)) };
+      });
+    },
     onSettled: () => queryClient.invalidateQueries({ queryKey: unreadKeys.all }),
   });
 }
