@@ -8,9 +8,8 @@
  */
 import bcrypt from 'bcryptjs';
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
-import { randomInt, randomUUID } from 'node:crypto';
+import { randomUUID } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -18,29 +17,13 @@ import knexFactory from 'knex';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest';
 import { knexConfig } from '../../db/knexfile.ts';
+import { freePort } from '../support/own-cluster.ts';
 import { buildZip } from '../support/zip-builder.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const DATABASE = 'pacewright_outage';
 const FIXTURES = path.join(ROOT, 'fixtures/gps-samples');
 const gpsFile = (name: string) => readFileSync(path.join(FIXTURES, name));
-
-/**
- * A port outside Linux's ephemeral range (32768–60999), so no outgoing connection takes it while
- * the cluster is stopped and it can start again on the same port.
- */
-async function freePort(): Promise<number> {
-  for (let attempt = 0; attempt < 20; attempt++) {
-    const port = randomInt(20_000, 30_000);
-    const free = await new Promise<boolean>((resolve) => {
-      const probe = createServer();
-      probe.once('error', () => resolve(false));
-      probe.listen(port, '127.0.0.1', () => probe.close(() => resolve(true)));
-    });
-    if (free) return port;
-  }
-  throw new Error('no free port between 20000 and 30000 for the test cluster');
-}
 
 /** db/pg.sh on a cluster of this test's own: its own folder under /var/tmp and its own port. */
 function ownCluster(port: number) {
