@@ -1,3 +1,4 @@
+import { isClosingRecovery } from '../plans/closing-recovery.ts';
 import { expandParts, resolveTargets } from '../plans/expand.ts';
 import type { ExpandedPart, PlanItem, RacePaces } from '../plans/types.ts';
 import { METRES_PER_KM, METRES_PER_MILE } from '../units.ts';
@@ -121,9 +122,18 @@ export function expectedDurationFromPlan(parts: readonly ExpandedPart[], racePac
   return course(segments);
 }
 
-/** `expectedDurationFromPlan` for a plan's items (unrolls repeats first). */
+/**
+ * `expectedDurationFromPlan` for a plan's items (unrolls repeats first). A recovery after the last rep
+ * is run only when written (`isClosingRecovery`, as the plan check and the weekly volume count it):
+ * "6 x 3 min w/ 90 s jog" is six reps and five jogs.
+ */
 export function courseFromPlanItems(items: readonly PlanItem[], racePaces: RacePaces, easyPaceSPerKm?: number): Course {
-  return expectedDurationFromPlan(expandParts(items), racePaces, easyPaceSPerKm);
+  const parts = expandParts(items);
+  return expectedDurationFromPlan(
+    parts.filter((_, i) => !isClosingRecovery(parts, i)),
+    racePaces,
+    easyPaceSPerKm,
+  );
 }
 
 /** The same course run in `durationS` instead: every stretch's time scaled by one factor (the runner's own estimate). */

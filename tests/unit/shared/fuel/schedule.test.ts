@@ -16,6 +16,7 @@ import {
 import { proposeTargets } from '../../../../shared/fuel/targets.ts';
 import { expandParts } from '../../../../shared/plans/expand.ts';
 import { parseShorthand } from '../../../../shared/plans/shorthand.ts';
+import { plannedVolume } from '../../../../shared/plans/weeks.ts';
 import type { PlanItem } from '../../../../shared/plans/types.ts';
 
 const MILE = 1609.344;
@@ -89,6 +90,20 @@ describe('expectedDurationFromPlan', () => {
     const c = expectedDurationFromPlan(expandParts(items('3 x 1 km @ 4:00/km w/ 2 min jog')), {}, 360);
     expect(c.segments).toHaveLength(6);
     expect(c.duration_s).toBeCloseTo(3 * 240 + 3 * 120, 6);
+  });
+
+  it('leaves out the recovery after the last rep unless it is written, as the plan check and weekly volume do', () => {
+    // 2 mi warm-up at 8:00/mi (960 s), six 3 min reps at 4:00/km, five 90 s jogs at 8:00/mi between them.
+    const c = courseFromPlanItems(items('2 mi easy, 6 x 3 min @ 4:00/km w/ 90 s jog'), {}, EIGHT_PER_MILE);
+    expect(c.segments.map((s) => s.kind).filter((k) => k === 'recovery jog')).toHaveLength(5);
+    expect(c.segments).toHaveLength(1 + 6 + 5);
+    expect(c.duration_s).toBeCloseTo(960 + 6 * 180 + 5 * 90, 6);
+    expect(c.distance_m).toBeCloseTo(2 * MILE + 6 * 750 + (5 * 90 * 1000) / EIGHT_PER_MILE, 6);
+    // Written after the repeat, the last recovery is run: 6 jogs.
+    const written = courseFromPlanItems(items('6 x 3 min @ 4:00/km w/ 90 s jog, 90 s jog'), {}, EIGHT_PER_MILE);
+    expect(written.duration_s).toBeCloseTo(6 * 180 + 6 * 90, 6);
+    // The same count as the weekly planned volume.
+    expect(plannedVolume(items('2 mi easy, 6 x 3 min @ 4:00/km w/ 90 s jog')).duration_s).toBe(6 * 180 + 5 * 90);
   });
 
   it('asks for the easy pace when a part has no pace target', () => {
