@@ -26,7 +26,6 @@ const KNEX_NOT_YET_MOVED = [
   'server/features/notices/notices.service.ts',
   'server/features/plans/plan-notices.ts',
   'server/features/squads/squads.service.ts',
-  'server/features/tokens/tokens.service.ts',
 ];
 
 /**

@@ -54,3 +54,20 @@ export async function deleteApiToken(userId: string, id: string, trx: Db = db): 
   const count = await trx('api_tokens').where({ user_id: userId, id }).delete();
   return count > 0;
 }
+
+/** Locks the owner's user row, so two requests at once cannot both take an account's last token place. */
+export async function lockTokenOwner(userId: string, trx: Db): Promise<void> {
+  await trx('users').where({ id: userId }).forUpdate().first('id');
+}
+
+export async function countLiveApiTokens(userId: string, now: Date, trx: Db = db): Promise<number> {
+  const [{ live }] = (await trx('api_tokens')
+    .where({ user_id: userId })
+    .andWhere('expires_at', '>', now)
+    .count({ live: '*' })) as [{ live: string | number }];
+  return Number(live);
+}
+
+export async function deleteApiTokensOf(userId: string, trx: Db = db): Promise<number> {
+  return trx('api_tokens').where({ user_id: userId }).delete();
+}

@@ -1,12 +1,15 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { AppConfig } from '../../config.ts';
 import { ConflictError, NotFoundError } from '../../lib/errors.ts';
-import { inTransaction, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type Db, type UserRow } from '../../lib/db.ts';
 import {
+  countLiveApiTokens,
   deleteApiToken,
+  deleteApiTokensOf,
   findLiveApiTokenUser,
   insertApiToken,
   listApiTokens,
+  lockTokenOwner,
   markApiTokenUsed,
   toApiToken,
 } from './tokens.repository.ts';
@@ -32,12 +35,8 @@ export async function issueApiToken(
   const expiresAt = new Date(now.getTime() + config.apiTokenDays * 24 * 3600 * 1000);
   const row = await inTransaction(async (trx) => {
     // The user's row is locked so two requests at once cannot both take the last place.
-    await trx('users').where({ id: userId }).forUpdate().first('id');
-    const [{ live }] = (await trx('api_tokens')
-      .where({ user_id: userId })
-      .andWhere('expires_at', '>', now)
-      .count({ live: '*' })) as [{ live: string | number }];
-    if (Number(live) >= MAX_API_TOKENS_PER_USER)
+    await lockTokenOwner(userId, trx);
+    if ((await countLiveApiTokens(userId, now, trx)) >= MAX_API_TOKENS_PER_USER)
       throw new ConflictError(
         `You already have ${MAX_API_TOKENS_PER_USER} API tokens, the most one account can hold. Revoke one you no longer use on your profile page, then create the new one.`,
         'too-many-tokens',
@@ -69,4 +68,9 @@ export async function listTokensOf(userId: string, now = new Date()): Promise<Ap
 
 export async function revokeToken(userId: string, tokenId: string): Promise<void> {
   if (!(await deleteApiToken(userId, tokenId))) throw new NotFoundError('That token does not exist or was already revoked.');
+}
+
+/** Ends every API token of the user (a new password: they were opened under the old one), inside the caller's transaction. */
+export async function endApiTokensOf(userId: string, trx?: Db): Promise<void> {
+  await deleteApiTokensOf(userId, trx);
 }
