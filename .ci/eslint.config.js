@@ -18,10 +18,6 @@ const featuresOf = (side) =>
  * a file leaves it when its last query moves; no new file joins it.
  */
 const KNEX_NOT_YET_MOVED = [
-  'server/features/auth/auth.service.ts',
-  'server/features/auth/credential-limiter.ts',
-  'server/features/auth/password-reset.service.ts',
-  'server/features/auth/sign-up.service.ts',
   'server/features/fees/fees.service.ts',
   'server/features/notices/notices.service.ts',
   'server/features/plans/plan-notices.ts',

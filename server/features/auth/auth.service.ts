@@ -1,10 +1,12 @@
 import bcrypt from 'bcryptjs';
 import type { AppConfig } from '../../config.ts';
-import { inTransaction, db, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type UserRow } from '../../lib/db.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
-import { findUserByEmail } from '../users/index.ts';
+import { endApiTokensOf } from '../tokens/index.ts';
+import { findUserByEmail, setPasswordHash } from '../users/index.ts';
 import type { LoginInput } from '../../../shared/auth/schemas.ts';
 import { limitPasswordCheck } from './credential-limiter.ts';
+import { useUpResetsOf } from './password-resets.repository.ts';
 import { endSessionsOf } from './sessions.service.ts';
 
 const WRONG_CREDENTIALS = 'That e-mail and password do not match an account.';
@@ -29,7 +31,7 @@ export async function hashPassword(password: string, config: AppConfig): Promise
 async function rehashIfOutdated(user: UserRow, password: string, config: AppConfig): Promise<void> {
   if (bcrypt.getRounds(user.password_hash) === config.bcryptCost) return;
   const passwordHash = await hashPassword(password, config);
-  await db('users').where({ id: user.id, password_hash: user.password_hash }).update({ password_hash: passwordHash });
+  await setPasswordHash(user.id, passwordHash, { expected: user.password_hash });
 }
 
 /**
@@ -79,10 +81,10 @@ export async function changePassword(
   );
   const passwordHash = await hashPassword(input.new_password, config);
   await inTransaction(async (trx) => {
-    await trx('users').where({ id: user.id }).update({ password_hash: passwordHash, updated_at: new Date() });
+    await setPasswordHash(user.id, passwordHash, { updatedAt: new Date() }, trx);
     await endSessionsOf(user.id, { keep: sessionId, trx });
-    await trx('api_tokens').where({ user_id: user.id }).delete();
+    await endApiTokensOf(user.id, trx);
     // A reset link asked for before the change must not undo it.
-    await trx('password_resets').where({ user_id: user.id }).whereNull('used_at').update({ used_at: new Date() });
+    await useUpResetsOf(user.id, new Date(), trx);
   });
 }

@@ -1,7 +1,7 @@
 import type { AppConfig } from '../../config.ts';
-import { db } from '../../lib/db.ts';
 import { AppError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
+import { countFailuresSince, deleteFailures, deleteFailuresBefore, insertFailures } from './credential-failures.repository.ts';
 
 /**
  * The one limiter in front of every password check (sign-in, token from a password, password
@@ -32,7 +32,7 @@ const addressKey = (address: string | undefined) => `address:${address ?? 'unkno
 async function pruneOldFailures(windowStart: Date, now: number): Promise<void> {
   if (now - lastPrune < PRUNE_EVERY_MS) return;
   lastPrune = now;
-  await db('credential_failures').where('failed_at', '<', windowStart).delete();
+  await deleteFailuresBefore(windowStart);
 }
 
 function tooMany(minutes: number): AppError {
@@ -54,25 +54,16 @@ export async function limitPasswordCheck<T>(keys: CredentialKeys, config: AppCon
   const account = accountKey(keys.email);
   const address = addressKey(keys.address);
   await pruneOldFailures(windowStart, now).catch((err: unknown) => logger.warn({ err }, 'pruning credential failures failed'));
-  const pending = (await db('credential_failures')
-    .insert([{ key: account }, { key: address }])
-    .returning('id')) as Array<{ id: string }>;
-  const pendingIds = pending.map((row) => row.id);
-  const strikeOut = () => db('credential_failures').whereIn('id', pendingIds).delete();
+  const pendingIds = await insertFailures([account, address]);
+  const strikeOut = () => deleteFailures(pendingIds);
 
-  const counts = (await db('credential_failures')
-    .select('key')
-    .count({ n: '*' })
-    .min({ oldest: 'failed_at' })
-    .whereIn('key', [account, address])
-    .andWhere('failed_at', '>=', windowStart)
-    .groupBy('key')) as Array<{ key: string; n: string | number; oldest: Date }>;
+  const counts = await countFailuresSince([account, address], windowStart);
   const limits: Record<string, number> = { [account]: config.credentialFailuresPerAccount, [address]: config.authRateLimit.max };
-  const over = counts.filter((c) => Number(c.n) > limits[c.key]!);
+  const over = counts.filter((c) => c.n > limits[c.key]!);
   if (over.length > 0) {
     // A refused attempt is not a failure: it never reached a password, so it cannot prolong the wait.
     await strikeOut();
-    const freeAt = Math.max(...over.map((c) => new Date(c.oldest).getTime() + config.authRateLimit.windowMs));
+    const freeAt = Math.max(...over.map((c) => c.oldest.getTime() + config.authRateLimit.windowMs));
     throw tooMany(Math.ceil((freeAt - now) / 60_000));
   }
   let result: T;

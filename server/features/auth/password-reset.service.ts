@@ -1,10 +1,18 @@
 import type { AppConfig } from '../../config.ts';
-import { inTransaction, db } from '../../lib/db.ts';
+import { inTransaction } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
-import { findUserByEmail } from '../users/index.ts';
+import { endApiTokensOf } from '../tokens/index.ts';
+import { findUserByEmail, setPasswordHash } from '../users/index.ts';
 import { hashPassword } from './auth.service.ts';
 import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
+import {
+  claimPasswordReset,
+  countResetsSince,
+  findPasswordResetByHash,
+  insertPasswordReset,
+  useUpResetsOf,
+} from './password-resets.repository.ts';
 import { endSessionsOf } from './sessions.service.ts';
 
 /** Reset links work once, for an hour. */
@@ -30,21 +38,17 @@ const RESET_LINK: EmailedTokenKind = {
 export async function requestPasswordReset(email: string, mailer: Mailer, config: AppConfig, now = new Date()): Promise<void> {
   const user = await findUserByEmail(email);
   if (!user) return;
-  const [{ recent }] = (await db('password_resets')
-    .where({ user_id: user.id })
-    .andWhere('created_at', '>', new Date(now.getTime() - 3_600_000))
-    .count({ recent: '*' })) as [{ recent: string | number }];
-  if (Number(recent) >= RESET_MAILS_PER_ADDRESS_PER_HOUR) {
+  if ((await countResetsSince(user.id, new Date(now.getTime() - 3_600_000))) >= RESET_MAILS_PER_ADDRESS_PER_HOUR) {
     logger.info({ user: user.id }, 'reset e-mail not sent: the hourly limit for this address is reached');
     return;
   }
   const { token, tokenHash } = newEmailedToken(RESET_LINK);
   const link = `${config.publicUrl}/reset-password/${token}`;
-  await db('password_resets').insert({
-    user_id: user.id,
-    token_hash: tokenHash,
-    created_at: now,
-    expires_at: new Date(now.getTime() + RESET_LINK_MINUTES * 60_000),
+  await insertPasswordReset({
+    userId: user.id,
+    tokenHash,
+    createdAt: now,
+    expiresAt: new Date(now.getTime() + RESET_LINK_MINUTES * 60_000),
   });
   const lines = [
     `Someone (we hope you) asked to choose a new password for ${user.email} on Pacewright.`,
@@ -60,18 +64,15 @@ export async function requestPasswordReset(email: string, mailer: Mailer, config
 
 /** Sets the new password if the link is genuine, unused and unexpired; the link is used up either way it succeeds. */
 export async function resetPassword(token: string, password: string, config: AppConfig, now = new Date()): Promise<void> {
-  const row = await usableEmailedToken(RESET_LINK, token, now, (tokenHash) =>
-    db('password_resets').where({ token_hash: tokenHash }).first(),
-  );
+  const row = await usableEmailedToken(RESET_LINK, token, now, (tokenHash) => findPasswordResetByHash(tokenHash));
   const passwordHash = await hashPassword(password, config);
   await inTransaction(async (trx) => {
-    const claimed = await trx('password_resets').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
-    if (!claimed) throw linkUsedError(RESET_LINK);
-    await trx('users').where({ id: row.user_id }).update({ password_hash: passwordHash, updated_at: now });
+    if (!(await claimPasswordReset(row.id, now, trx))) throw linkUsedError(RESET_LINK);
+    await setPasswordHash(row.user_id, passwordHash, { updatedAt: now }, trx);
     // A new password ends every script token and every session opened under the old one (issue 13 #3),
     // and every other reset link still outstanding (#10): whoever held one must not undo this reset.
-    await trx('api_tokens').where({ user_id: row.user_id }).delete();
+    await endApiTokensOf(row.user_id, trx);
     await endSessionsOf(row.user_id, { trx });
-    await trx('password_resets').where({ user_id: row.user_id }).whereNull('used_at').update({ used_at: now });
+    await useUpResetsOf(row.user_id, now, trx);
   });
 }

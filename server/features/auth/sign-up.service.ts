@@ -1,6 +1,6 @@
 import type { RegisterInput, SignUpConfirmed } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
-import { inTransaction, db, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type UserRow } from '../../lib/db.ts';
 import { AppError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
@@ -8,6 +8,14 @@ import { invitationVouchesFor } from '../squads/index.ts';
 import { findUserByEmail, insertUser, toUser } from '../users/index.ts';
 import { hashPassword } from './auth.service.ts';
 import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
+import {
+  claimPendingSignUp,
+  countSignUpMailsSince,
+  deleteSignUpMailsBefore,
+  findPendingSignUpByHash,
+  insertPendingSignUp,
+  insertSignUpNotice,
+} from './sign-ups.repository.ts';
 
 /** Sign-up links work once, for a day. */
 export const SIGN_UP_LINK_HOURS = 24;
@@ -52,23 +60,15 @@ export async function requestSignUp(
   now = new Date(),
 ): Promise<void> {
   // Old rows are only kept for counting; two days is plenty.
-  const stale = new Date(now.getTime() - SIGN_UP_LINK_HOURS * 2 * HOUR_MS);
-  await db('pending_signups').where('created_at', '<', stale).delete();
-  await db('sign_up_notices').where('created_at', '<', stale).delete();
-  const since = new Date(now.getTime() - HOUR_MS);
-  const counts = await Promise.all(
-    (['pending_signups', 'sign_up_notices'] as const).map((table) =>
-      db(table).where({ email: input.email }).andWhere('created_at', '>', since).count({ n: '*' }).first(),
-    ),
-  );
-  if (counts.reduce((sum, c) => sum + Number(c?.n ?? 0), 0) >= SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR) {
+  await deleteSignUpMailsBefore(new Date(now.getTime() - SIGN_UP_LINK_HOURS * 2 * HOUR_MS));
+  if ((await countSignUpMailsSince(input.email, new Date(now.getTime() - HOUR_MS))) >= SIGN_UP_MAILS_PER_ADDRESS_PER_HOUR) {
     logger.info('sign-up e-mail not sent: the hourly limit for this address is reached');
     return;
   }
 
   const owner = await findUserByEmail(input.email);
   if (owner) {
-    await db('sign_up_notices').insert({ email: input.email, created_at: now });
+    await insertSignUpNotice(input.email, now);
     const lines = [
       `Someone tried to create a Pacewright account with ${owner.email}, which already has one. No second account was made and nothing changed.`,
       'If it was you: sign in with your password, or choose a new one with “Forgot your password?” on the sign-in page. If it was not you, there is nothing to do.',
@@ -84,7 +84,7 @@ export async function requestSignUp(
   }
 
   const { token, tokenHash } = newEmailedToken(SIGN_UP_LINK);
-  await db('pending_signups').insert({
+  await insertPendingSignUp({
     id,
     token_hash: tokenHash,
     email: input.email,
@@ -123,12 +123,9 @@ const SIGN_UP_LINK: EmailedTokenKind = {
 
 /** Makes the account of a genuine, unused, unexpired sign-up link, with the id the sign-up was answered with. */
 export async function confirmSignUp(token: string, now = new Date()) {
-  const row = await usableEmailedToken(SIGN_UP_LINK, token, now, (tokenHash) =>
-    db('pending_signups').where({ token_hash: tokenHash }).first(),
-  );
+  const row = await usableEmailedToken(SIGN_UP_LINK, token, now, (tokenHash) => findPendingSignUpByHash(tokenHash));
   const user = await inTransaction(async (trx) => {
-    const claimed = await trx('pending_signups').where({ id: row.id }).whereNull('used_at').update({ used_at: now });
-    if (!claimed) throw linkUsedError(SIGN_UP_LINK);
+    if (!(await claimPendingSignUp(row.id, now, trx))) throw linkUsedError(SIGN_UP_LINK);
     // 409 with a sentence when the address got an account meanwhile (two links used one after the other).
     return insertUser({ id: row.id, email: row.email, passwordHash: row.password_hash, name: row.name, role: row.role }, trx);
   });

@@ -10,3 +10,4 @@ export {
   toUser,
   updateUserProfile,
 } from './users.repository.ts';
+export { setPasswordHash } from './users.service.ts';

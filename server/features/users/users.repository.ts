@@ -86,3 +86,19 @@ export async function updateUserRole(id: string, role: Role, trx: Db = db): Prom
 export async function listUsers(trx: Db = db): Promise<UserRow[]> {
   return trx('users').orderBy('created_at', 'asc');
 }
+
+/**
+ * Stores a new password hash. `expected` makes it conditional on the stored hash (a rehash at
+ * sign-in never undoes a password change made meanwhile); `updatedAt` is left alone when absent.
+ */
+export async function updatePasswordHash(
+  id: string,
+  passwordHash: string,
+  options: { expected?: string; updatedAt?: Date } = {},
+  trx: Db = db,
+): Promise<void> {
+  const where = options.expected === undefined ? { id } : { id, password_hash: options.expected };
+  await trx('users')
+    .where(where)
+    .update({ password_hash: passwordHash, ...(options.updatedAt ? { updated_at: options.updatedAt } : {}) });
+}

@@ -1,5 +1,6 @@
 import { NOTICE_KIND_INFO, NOTICE_KINDS } from '../../../shared/notices/kinds.ts';
 import { recordSwitchChanges } from '../notices/index.ts';
+import type { Db } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import {
   findUserById,
@@ -8,6 +9,7 @@ import {
   toProfile,
   toUser,
   updateUserProfile,
+  updatePasswordHash,
   updateUserRole,
 } from './users.repository.ts';
 import type { AdminUser, Profile, Role, UpdateProfileInput, User } from '../../../shared/users/schemas.ts';
@@ -38,4 +40,17 @@ export async function changeRole(userId: string, role: Role): Promise<User> {
   const row = await updateUserRole(userId, role);
   if (!row) throw new NotFoundError('There is no user with this id.');
   return toUser(row);
+}
+
+/**
+ * Stores a new password hash (auth decides when and checks the password). `expected` makes it
+ * conditional on the stored hash; `updatedAt` stamps the change (a rehash at sign-in leaves it).
+ */
+export async function setPasswordHash(
+  userId: string,
+  passwordHash: string,
+  options: { expected?: string; updatedAt?: Date } = {},
+  trx?: Db,
+): Promise<void> {
+  await updatePasswordHash(userId, passwordHash, options, trx);
 }
