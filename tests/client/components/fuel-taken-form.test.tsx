@@ -68,6 +68,9 @@ describe('Fuel taken on the run page', () => {
     expect(descriptionOf(screen.getByLabelText('Time (h:mm from the start)'))).toBe(
       'Write the time as h:mm from the start, e.g. 1:15.',
     );
+    // A missing or unreadable amount is asked for in the field's own words (not "a number" in the schema's).
+    await addExtra(u, `item:${GEL.id}`, 'one', '0:40');
+    expect(descriptionOf(screen.getByLabelText('Servings'))).toBe('Write the servings as a number, e.g. 1 or 0.5.');
     await addExtra(u, 'water', '2500', '1:20');
     expect(descriptionOf(screen.getByLabelText('Millilitres (ml)'))).toBe('At most 2000 ml at a time.');
     expect(screen.getByText('Nothing yet: tick planned intakes or add what you took.')).toBeTruthy();

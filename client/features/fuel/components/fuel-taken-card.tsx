@@ -92,7 +92,8 @@ function entryPayload(e: EntryDraft) {
 function checkEntry(e: EntryDraft): EntryProblems {
   const problems: EntryProblems = {};
   if (e.time.trim() !== '' && parseRunTime(e.time) === null) problems.time = TIME_WORDS;
-  if (readNumber(e.amount) === null)
+  const amount = readNumber(e.amount);
+  if (amount === undefined || Number.isNaN(amount))
     problems.amount =
       e.kind === 'item' ? 'Write the servings as a number, e.g. 1 or 0.5.' : 'Write the millilitres as a number, e.g. 150.';
   const parsed = FuelTakenInputSchema.safeParse({ entries: [entryPayload(e)], stomach: null, energy: null, notes: '' });
