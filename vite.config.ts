@@ -23,6 +23,8 @@ export default defineConfig({
           include: ['tests/client/**/*.test.tsx'],
           environment: 'happy-dom',
           setupFiles: ['tests/client/setup.ts'],
+          // A form test types and re-renders dozens of times; on a loaded 2-core machine that can pass the 5 s default.
+          testTimeout: 20_000,
         },
       },
       {
