@@ -65,7 +65,7 @@ export const CAUTIONS: Readonly<Record<CautionTopic, Caution>> = {
       'Caffeine affects people very differently and adds up quickly across gels, drinks and coffee. Pacewright shows the ' +
       'total and does not propose a dose: ask your physician what is safe for you, especially with a heart condition, ' +
       'high blood pressure, pregnancy or medication, and try it in training before a race.',
-    source: 'No dose is given: our reference sheet (references.md) carries no published caffeine range.',
+    source: 'No dose is given: none of the published sources we rely on (REFERENCES.md) is used for a caffeine range.',
     last_word: LAST_WORD,
   },
   'cold water': {

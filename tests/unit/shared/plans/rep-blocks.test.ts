@@ -57,7 +57,7 @@ describe('repBlocks', () => {
     expect(block!.first_to_last_s_per_km).toBeCloseTo(-2.5, 6);
   });
 
-  it('the line in km and in miles (1 mi = 1609.344 m exactly, references.md §1)', () => {
+  it('the line in km and in miles (1 mi = 1609.344 m exactly, shared/REFERENCES.md §1)', () => {
     const [block] = repBlocks(planned, checked);
     expect(formatRepBlock(block!, 'km')).toBe(
       '6 × 800 m: 4 of 6 on pace · 3:43 3:41 3:44 – 3:50 3:40 /km · average 3:44 · fastest 3:40, slowest 3:50 · first to last −3 s',

@@ -13,7 +13,7 @@ const lap = (total_time_s: number | null, distance_m: number | null): DeviceLap 
 describe('lapCoverageProblem', () => {
   it('refuses 1 s and 2.7 m of track beside two laps of 2283 s and 6839.97 m (odd-backwards-time.tcx, REFERENCE.tsv)', () => {
     const laps = [lap(2283, 6839.97), lap(2283, 6839.97)];
-    // 13 679.94 m / 1609.344 m per mile (references.md §1) = 8.50 mi; 4566 s = 1:16:06.
+    // 13 679.94 m / 1609.344 m per mile (shared/REFERENCES.md §1) = 8.50 mi; 4566 s = 1:16:06.
     expect(lapCoverageProblem({ elapsed_s: 1, distance_m: 2.7 }, laps, { dropped_backwards: 1 })).toBe(
       'Times in this file go backwards: 1 point earlier than the one before was left out, and the track left covers only 0:01 and 3 m, while its device laps record 1:16:06 and 13.68 km (8.50 mi). Nothing was imported: export the activity from the device again.',
     );
