@@ -21,7 +21,6 @@ const KNEX_NOT_YET_MOVED = [
   'server/features/fees/fees.service.ts',
   'server/features/notices/notices.service.ts',
   'server/features/plans/plan-notices.ts',
-  'server/features/squads/squads.service.ts',
 ];
 
 /**

@@ -39,3 +39,23 @@ export async function claimInvitation(id: string, userId: string, now: Date, trx
 export async function revokeInvitation(squadId: string, id: string, now: Date, trx: Db = db): Promise<boolean> {
   return (await trx('invitations').where({ squad_id: squadId, id }).whereNull('accepted_at').update({ revoked_at: now })) > 0;
 }
+
+/** Invitations the coach sent since `since` (the daily limit per coach). */
+export async function countInvitationsByCoachSince(coachId: string, since: Date, trx: Db = db): Promise<number> {
+  const row = await trx('invitations')
+    .where({ invited_by: coachId })
+    .andWhere('created_at', '>', since)
+    .count({ n: '*' })
+    .first();
+  return Number(row?.n ?? 0);
+}
+
+/** Invitations to the address, from any coach, since `since` (the daily limit per address; case does not count). */
+export async function countInvitationsToAddressSince(email: string, since: Date, trx: Db = db): Promise<number> {
+  const row = await trx('invitations')
+    .whereRaw('lower(email) = lower(?)', [email])
+    .andWhere('created_at', '>', since)
+    .count({ n: '*' })
+    .first();
+  return Number(row?.n ?? 0);
+}

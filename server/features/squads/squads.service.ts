@@ -4,7 +4,7 @@ import { INVITATION_GONE } from '../../../shared/squads/invitation-status.ts';
 import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schemas.ts';
 import { looksLikeLink, NO_LINKS_IN_SQUAD_NAME } from '../../../shared/squads/link-check.ts';
 import type { AppConfig } from '../../config.ts';
-import { inTransaction, db, type InvitationRow } from '../../lib/db.ts';
+import { inTransaction, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
@@ -15,6 +15,8 @@ import { findUserById } from '../users/index.ts';
 import { squadCoachedBy } from './runner-access.ts';
 import {
   claimInvitation,
+  countInvitationsByCoachSince,
+  countInvitationsToAddressSince,
   findInvitationByTokenHash,
   insertInvitation,
   listInvitations,
@@ -83,16 +85,16 @@ export const INVITATIONS_PER_ADDRESS_PER_DAY = 3;
 async function checkInvitationLimits(coachId: string, email: string, now: Date): Promise<void> {
   const since = new Date(now.getTime() - 86_400_000);
   const [byCoach, toAddress] = await Promise.all([
-    db('invitations').where({ invited_by: coachId }).andWhere('created_at', '>', since).count({ n: '*' }).first(),
-    db('invitations').whereRaw('lower(email) = lower(?)', [email]).andWhere('created_at', '>', since).count({ n: '*' }).first(),
+    countInvitationsByCoachSince(coachId, since),
+    countInvitationsToAddressSince(email, since),
   ]);
-  if (Number(byCoach?.n ?? 0) >= INVITATIONS_PER_COACH_PER_DAY)
+  if (byCoach >= INVITATIONS_PER_COACH_PER_DAY)
     throw new AppError(
       429,
       'too-many-invitations',
       `You have sent ${INVITATIONS_PER_COACH_PER_DAY} invitations in the last 24 hours, the most a coach can send in a day. Please send the rest tomorrow.`,
     );
-  if (Number(toAddress?.n ?? 0) >= INVITATIONS_PER_ADDRESS_PER_DAY)
+  if (toAddress >= INVITATIONS_PER_ADDRESS_PER_DAY)
     throw new AppError(
       429,
       'address-invited-enough',
