@@ -169,3 +169,12 @@ export async function findNotesForNotice(noteIds: readonly string[], trx: Db = d
     );
   return [...runNotes, ...weekNotes].sort((a, b) => a.created_at.getTime() - b.created_at.getTime());
 }
+
+/** The runners in every squad the user coaches (whose notes a notice may quote to them). */
+export async function findRunnersCoachedBy(coachId: string, trx: Db = db): Promise<string[]> {
+  const rows = await trx('squads')
+    .join('squad_members', 'squad_members.squad_id', 'squads.id')
+    .where('squads.coach_id', coachId)
+    .distinct<Array<{ runner_id: string }>>('squad_members.runner_id');
+  return rows.map((r) => r.runner_id);
+}

@@ -11,7 +11,7 @@ import {
 } from '../../../shared/notices/messages.ts';
 import { formatLocalDate } from '../../../shared/runs/display.ts';
 import type { AppConfig } from '../../config.ts';
-import { inTransaction, db, type Db, type NoticeRow, type UserRow } from '../../lib/db.ts';
+import { inTransaction, type Db, type NoticeRow, type UserRow } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { escapeHtml, type Mailer, type OutgoingMail } from '../../lib/mailer.ts';
 import { findReadNoteIds } from '../notes/index.ts';
@@ -22,6 +22,7 @@ import {
   delayNotices,
   findAlertedNoteIds,
   findNotesForNotice,
+  findRunnersCoachedBy,
   findRunsForNotice,
   insertNotices,
   listOpenBatches,
@@ -47,7 +48,7 @@ export interface NoticeDeps {
 // ── Recording ────────────────────────────────────────────────────────────────
 
 /** Runs imported by a runner (one upload request, or one archive): queued for each of their coaches. */
-export async function recordUploadNotice(runnerId: string, runIds: readonly string[], trx: Db = db): Promise<void> {
+export async function recordUploadNotice(runnerId: string, runIds: readonly string[], trx?: Db): Promise<void> {
   if (runIds.length === 0) return;
   const coaches = await findCoachIdsOfRunner(runnerId, trx);
   await insertNotices(
@@ -297,14 +298,7 @@ function readableRunnersFor(recipient: UserRow, coached: readonly string[]) {
 }
 
 async function readableRunners(recipient: UserRow, trx: Db) {
-  const rows = await trx('squads')
-    .join('squad_members', 'squad_members.squad_id', 'squads.id')
-    .where('squads.coach_id', recipient.id)
-    .distinct<Array<{ runner_id: string }>>('squad_members.runner_id');
-  return readableRunnersFor(
-    recipient,
-    rows.map((r) => r.runner_id),
-  );
+  return readableRunnersFor(recipient, await findRunnersCoachedBy(recipient.id, trx));
 }
 
 /** At most this many characters of a note are quoted in an e-mail; the rest is on the page. */
