@@ -19,7 +19,6 @@ const featuresOf = (side) =>
  */
 const KNEX_NOT_YET_MOVED = [
   'server/features/fees/fees.service.ts',
-  'server/features/plans/plan-notices.ts',
 ];
 
 /**

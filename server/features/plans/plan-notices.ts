@@ -1,10 +1,12 @@
 import { planChangeNotice, PLAN_NOTICE_QUIET_MINUTES } from '../../../shared/plans/plan-notice.ts';
 import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
 import type { AppConfig } from '../../config.ts';
-import { db, type PlanChangeRow } from '../../lib/db.ts';
+import { inTransaction } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { unsubscribeHeaders, unsubscribeLinks } from '../notices/index.ts';
+import { findUserById } from '../users/index.ts';
+import { findRunnersWithFinishedBursts, lockUnnoticedChangesOf, markChangesNoticed } from './prescribe.repository.ts';
 
 /**
  * The e-mail per editing burst (issue 15). A coach's changes are recorded with `noticed_at` empty
@@ -28,18 +30,12 @@ export const PLAN_NOTICE_SWEEP_MS = 60_000;
 const RUNNERS_PER_SWEEP = 200;
 
 /** Runners whose unnoticed changes form a finished burst at `now`. */
-async function findRunnersDue(now: Date): Promise<string[]> {
-  const rows = await db('plan_changes')
-    .whereNull('noticed_at')
-    .groupBy('runner_id')
-    .havingRaw('max(created_at) <= ? or min(created_at) <= ?', [
-      new Date(now.getTime() - QUIET_MS),
-      new Date(now.getTime() - LONGEST_MS),
-    ])
-    .orderByRaw('min(created_at)')
-    .limit(RUNNERS_PER_SWEEP)
-    .select<Array<{ runner_id: string }>>('runner_id');
-  return rows.map((r) => r.runner_id);
+function findRunnersDue(now: Date): Promise<string[]> {
+  return findRunnersWithFinishedBursts(
+    new Date(now.getTime() - QUIET_MS),
+    new Date(now.getTime() - LONGEST_MS),
+    RUNNERS_PER_SWEEP,
+  );
 }
 
 /**
@@ -53,32 +49,19 @@ async function noticeRunner(
   config: PlanNoticeConfig,
   now: Date,
 ): Promise<'sent' | 'off' | 'skipped'> {
-  return db.transaction(async (trx) => {
-    const changes = await trx('plan_changes')
-      .where({ runner_id: runnerId })
-      .whereNull('noticed_at')
-      .orderBy([{ column: 'created_at' }, { column: 'id' }])
-      .forUpdate()
-      .skipLocked()
-      .select<PlanChangeRow[]>('*');
+  return inTransaction(async (trx) => {
+    const changes = await lockUnnoticedChangesOf(runnerId, trx);
     if (changes.length === 0) return 'skipped';
     // A change made since the runner was picked reopens the burst.
     const last = Math.max(...changes.map((c) => c.created_at.getTime()));
     const first = Math.min(...changes.map((c) => c.created_at.getTime()));
     if (last > now.getTime() - QUIET_MS && first > now.getTime() - LONGEST_MS) return 'skipped';
-    const runner = await trx('users')
-      .where({ id: runnerId })
-      .first<{ email: string; notify_on_plan_change: boolean; week_starts_on: number } | undefined>(
-        'email',
-        'notify_on_plan_change',
-        'week_starts_on',
-      );
-    await trx('plan_changes')
-      .whereIn(
-        'id',
-        changes.map((c) => c.id),
-      )
-      .update({ noticed_at: now });
+    const runner = await findUserById(runnerId, trx);
+    await markChangesNoticed(
+      changes.map((c) => c.id),
+      now,
+      trx,
+    );
     if (!runner?.notify_on_plan_change) return 'off';
     const notice = planChangeNotice(changes, runner.week_starts_on);
     const link = `${config.publicUrl}/plan?week=${notice.first_week}`;

@@ -52,6 +52,37 @@ export async function listUnnoticedChanges(trx: Db = db): Promise<PlanChangeRow[
   return trx('plan_changes').whereNull('noticed_at').orderBy('created_at');
 }
 
+/**
+ * Runners whose unnoticed changes form a finished burst: the last change before `quietSince`, or
+ * the first before `longestSince`; the longest-waiting first, at most `limit`.
+ */
+export async function findRunnersWithFinishedBursts(
+  quietSince: Date,
+  longestSince: Date,
+  limit: number,
+  trx: Db = db,
+): Promise<string[]> {
+  const rows = await trx('plan_changes')
+    .whereNull('noticed_at')
+    .groupBy('runner_id')
+    .havingRaw('max(created_at) <= ? or min(created_at) <= ?', [quietSince, longestSince])
+    .orderByRaw('min(created_at)')
+    .limit(limit)
+    .select<Array<{ runner_id: string }>>('runner_id');
+  return rows.map((r) => r.runner_id);
+}
+
+/** The runner's unnoticed changes in order, locked; rows another process holds are skipped (SKIP LOCKED). */
+export async function lockUnnoticedChangesOf(runnerId: string, trx: Db): Promise<PlanChangeRow[]> {
+  return trx('plan_changes')
+    .where({ runner_id: runnerId })
+    .whereNull('noticed_at')
+    .orderBy([{ column: 'created_at' }, { column: 'id' }])
+    .forUpdate()
+    .skipLocked()
+    .select<PlanChangeRow[]>('*');
+}
+
 export async function markChangesNoticed(ids: readonly string[], at: Date, trx: Db = db): Promise<void> {
   if (ids.length === 0) return;
   await trx('plan_changes').whereIn('id', ids).whereNull('noticed_at').update({ noticed_at: at });
