@@ -18,7 +18,6 @@ const featuresOf = (side) =>
  * a file leaves it when its last query moves; no new file joins it.
  */
 const KNEX_NOT_YET_MOVED = [
-  'server/features/fees/fees.service.ts',
 ];
 
 /**

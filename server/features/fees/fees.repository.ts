@@ -1,4 +1,4 @@
-import { db, type Db, type FeePayerRow, type SquadFeeRow } from '../../lib/db.ts';
+import { db, type Db, type FeePayerRow, type FeeReceiptRow, type SquadFeeRow } from '../../lib/db.ts';
 
 export async function findSquadFee(squadId: string, trx: Db = db): Promise<SquadFeeRow | undefined> {
   return trx('squad_fees').where({ squad_id: squadId }).first();
@@ -88,4 +88,35 @@ export async function monthTotals(squadId: string, trx: Db = db) {
     amount_minor: Number(r.amount_minor),
     payments: Number(r.payments),
   }));
+}
+
+/**
+ * Records a payment event as being handled; false when it was already recorded (a second delivery).
+ * Two deliveries at once: the second waits on the key until the first commits, then gets false.
+ */
+export async function claimPaymentEvent(eventId: string, type: string, trx: Db = db): Promise<boolean> {
+  const fresh = await trx('payment_events')
+    .insert({ event_id: eventId, type, outcome: 'handling' })
+    .onConflict('event_id')
+    .ignore()
+    .returning('event_id');
+  return fresh.length > 0;
+}
+
+export async function setPaymentEventOutcome(eventId: string, outcome: string, trx: Db = db): Promise<void> {
+  await trx('payment_events').where({ event_id: eventId }).update({ outcome });
+}
+
+/** The time of the newest subscription state stored (an older one arriving later changes nothing). */
+export async function setSubscriptionEventAt(squadId: string, runnerId: string, eventAt: string, trx: Db = db): Promise<void> {
+  await trx('fee_payers').where({ squad_id: squadId, runner_id: runnerId }).update({ subscription_event_at: eventAt });
+}
+
+/** A receipt is stored once per payment reference, however often its event arrives. */
+export async function insertReceipt(receipt: Omit<FeeReceiptRow, 'id'>, trx: Db = db): Promise<void> {
+  await trx('fee_receipts').insert(receipt).onConflict('payment_ref').ignore();
+}
+
+export async function listPayersWithSubscription(trx: Db = db): Promise<FeePayerRow[]> {
+  return trx('fee_payers').whereNotNull('subscription_id');
 }

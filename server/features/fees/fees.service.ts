@@ -3,21 +3,26 @@ import type { Actor } from '../../../shared/auth/permissions.ts';
 import { addDays, billingStatus, lastDayBefore } from '../../../shared/fees/billing-status.ts';
 import { isCurrencyCode } from '../../../shared/fees/currencies.ts';
 import { NO_FEE, type BillingAnswer, type Fee, type FeeInput, type MyFee, type Receipt } from '../../../shared/fees/schemas.ts';
-import { inTransaction, db, type Db, type FeePayerRow, type FeeReceiptRow, type SquadFeeRow } from '../../lib/db.ts';
+import { inTransaction, type Db, type FeePayerRow, type FeeReceiptRow, type SquadFeeRow } from '../../lib/db.ts';
 import { AppError, BadRequestError, ConflictError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { findSquadById, listMembers, squadCoachedBy } from '../squads/index.ts';
 import { findUserById } from '../users/index.ts';
 import {
+  claimPaymentEvent,
   findCustomerId,
   findPayer,
   findSquadFee,
+  insertReceipt,
   isMember,
   listPayers,
+  listPayersWithSubscription,
   listReceipts,
   listSquadsWithFeeOfRunner,
   monthTotals,
   saveCustomerId,
+  setPaymentEventOutcome,
+  setSubscriptionEventAt,
   upsertPayer,
   upsertSquadFee,
 } from './fees.repository.ts';
@@ -295,14 +300,9 @@ export async function receiveWebhook(rawBody: unknown, signature: string | undef
   }
   return inTransaction(async (trx) => {
     // Two deliveries of one event at once: the second waits on the key until the first commits, then skips.
-    const fresh = await trx('payment_events')
-      .insert({ event_id: event.id, type: event.type, outcome: 'handling' })
-      .onConflict('event_id')
-      .ignore()
-      .returning('event_id');
-    if (fresh.length === 0) return 'duplicate';
+    if (!(await claimPaymentEvent(event.id, event.type, trx))) return 'duplicate';
     const outcome = await applyEvent(trx, event);
-    await trx('payment_events').where({ event_id: event.id }).update({ outcome });
+    await setPaymentEventOutcome(event.id, outcome, trx);
     if (outcome === 'unknown runner or squad')
       logger.warn({ event: event.id, type: event.type }, 'payment event for an unknown customer, acknowledged');
     return outcome;
@@ -315,10 +315,7 @@ async function ownerOf(trx: Db, metadata: unknown): Promise<{ squadId: string; r
   const squadId = typeof m.squad_id === 'string' && UUID.test(m.squad_id) ? m.squad_id : null;
   const runnerId = typeof m.runner_id === 'string' && UUID.test(m.runner_id) ? m.runner_id : null;
   if (!squadId || !runnerId) return null;
-  const [squad, runner] = await Promise.all([
-    trx('squads').where({ id: squadId }).first(),
-    trx('users').where({ id: runnerId }).first(),
-  ]);
+  const [squad, runner] = await Promise.all([findSquadById(squadId, trx), findUserById(runnerId, trx)]);
   return squad && runner ? { squadId, runnerId } : null;
 }
 
@@ -400,9 +397,7 @@ async function applyEvent(trx: Db, event: Stripe.Event): Promise<string> {
         { subscription_id: String(object.id), cancel_at_period_end: Boolean(object.cancel_at_period_end), ended },
         trx,
       );
-      await trx('fee_payers')
-        .where({ squad_id: owner.squadId, runner_id: owner.runnerId })
-        .update({ subscription_event_at: String(event.created) });
+      await setSubscriptionEventAt(owner.squadId, owner.runnerId, String(event.created), trx);
       return ended ? 'subscription ended' : 'subscription updated';
     }
     case 'invoice.payment_failed':
@@ -415,7 +410,7 @@ async function applyEvent(trx: Db, event: Stripe.Event): Promise<string> {
 async function recordReceipt(trx: Db, receipt: Omit<FeeReceiptRow, 'id'>): Promise<void> {
   if (!Number.isInteger(receipt.amount_minor) || !/^[A-Z]{3}$/.test(receipt.currency))
     throw new BadRequestError('The event carries no valid amount.');
-  await trx('fee_receipts').insert(receipt).onConflict('payment_ref').ignore();
+  await insertReceipt(receipt, trx);
 }
 
 // ---------------------------------------------------------------------------------------------------------------
@@ -431,9 +426,7 @@ export interface ReconcileDifference {
 
 export async function reconcileSubscriptions(stripe: Stripe): Promise<ReconcileDifference[]> {
   const differences: ReconcileDifference[] = [];
-  const ours = new Map<string, FeePayerRow>(
-    (await db('fee_payers').whereNotNull('subscription_id')).map((p) => [p.subscription_id!, p]),
-  );
+  const ours = new Map<string, FeePayerRow>((await listPayersWithSubscription()).map((p) => [p.subscription_id!, p]));
   const seen = new Set<string>();
   for await (const subscription of stripe.subscriptions.list({ status: 'all', limit: 100 })) {
     seen.add(subscription.id);
