@@ -14,13 +14,6 @@ const featuresOf = (side) =>
     .map((entry) => entry.name);
 
 /**
- * Services whose queries have not moved to their repository yet (issue 18). The list only shrinks:
- * a file leaves it when its last query moves; no new file joins it.
- */
-const KNEX_NOT_YET_MOVED = [
-];
-
-/**
  * Feature boundaries (server/features/README.md): a feature is imported by another feature, and by
  * db/, only through its public face, its `index.ts` (and `worker.ts`, what the compute threads load);
  * everything else in its folder (repositories, routes, helpers) is private. The composition roots
@@ -96,13 +89,7 @@ export default tseslint.config(
     // words of its feature and a repository says how it is stored. Services may open a transaction
     // (`inTransaction`) and hand it to repositories; type imports (rows, `Db`) are fine anywhere.
     files: ['server/**/*.ts'],
-    ignores: [
-      'server/**/*.repository.ts',
-      'server/lib/db.ts',
-      'server/lib/read-replica.ts',
-      'server/cli/**',
-      ...KNEX_NOT_YET_MOVED,
-    ],
+    ignores: ['server/**/*.repository.ts', 'server/lib/db.ts', 'server/lib/read-replica.ts', 'server/cli/**'],
     rules: {
       '@typescript-eslint/no-restricted-imports': [
         'error',
