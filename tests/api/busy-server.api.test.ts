@@ -145,6 +145,7 @@ describe('the server under big uploads', () => {
     expectResponsive(samples, idle, 'recomputing four 150 000-point plan checks');
     // Every result was computed again (a new inputs key), so the work really happened while health was asked.
     const computedAfter = await db('plan_check_results').select('run_id', 'inputs_key');
+    expect(computedAfter).toHaveLength(4);
     for (const row of computedAfter) {
       expect(row.inputs_key).not.toBe(computedBefore.find((b) => b.run_id === row.run_id)!.inputs_key);
     }

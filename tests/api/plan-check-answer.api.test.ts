@@ -66,6 +66,7 @@ describe('GET /api/runs/:id/plan-check answer', () => {
       amount: { duration_s: 180 },
     });
     // Even reps on a clean track: each within 1 s/km of 220, first to last within 1 s/km.
+    expect(block.paces_s_per_km).toHaveLength(6);
     for (const pace of block.paces_s_per_km) expect(Math.abs(pace - 220)).toBeLessThan(1);
     expect(Math.abs(block.first_to_last_s_per_km)).toBeLessThan(1);
 

@@ -130,7 +130,9 @@ describe('Tools page', () => {
       .toBe('10K effort (@ 10K)');
     const editorWords = await effort.evaluate((el: HTMLSelectElement) => [...el.options].map((o) => o.textContent ?? ''));
     // Every race effort the plan editor offers is named as on the Tools page.
-    for (const word of editorWords.filter((w) => !w.startsWith('Goal race pace'))) {
+    const effortWords = editorWords.filter((w) => !w.startsWith('Goal race pace'));
+    expect(effortWords.length).toBeGreaterThanOrEqual(4); // MP, HMP, 10K, 5K at least
+    for (const word of effortWords) {
       expect(toolsWords).toContain(word.replace(/ \(@ .*\)$/, ''));
     }
     expect(editorWords).toHaveLength(5);

@@ -81,7 +81,9 @@ describe('trainingRanges: kinds and order', () => {
 describe('race-effort ranges against the race equivalents table', () => {
   it.each(RESULTS)('for a %s, each effort is the table row at its distance, by both models', (_n, d, t) => {
     const table = raceEquivalents(d, t);
-    for (const range of effortRanges(trainingRanges(d, t).ranges)) {
+    const efforts = effortRanges(trainingRanges(d, t).ranges);
+    expect(efforts).toHaveLength(RACE_EFFORTS.length);
+    for (const range of efforts) {
       const row = table.find((r) => r.distance_m === range.distance_m)!;
       const km = range.distance_m / 1000;
       expect(range.riegel.s_per_km).toBe(row.riegel_s / km);
@@ -143,6 +145,7 @@ describe('the shorthand’s race-named paces and the race-effort ranges come fro
     const goal = { date: '2027-04-18', distance_m: MARATHON_M, time_s: 10_800 };
     const paces = racePacesFor(goal, [], '2026-12-01');
     const efforts = effortRanges(trainingRanges(MARATHON_M, 10_800).ranges);
+    expect(efforts.filter((e) => e.shorthand !== null)).toHaveLength(4); // MP, HMP, 10K, 5K
     for (const effort of efforts.filter((e) => e.shorthand !== null))
       expect(paces[effort.shorthand!]).toBe(effort.daniels_gilbert.s_per_km);
   });

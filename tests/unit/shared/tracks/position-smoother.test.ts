@@ -151,6 +151,7 @@ describe('smoothPositions', () => {
     const clean = straight(300, 3.5, 0);
     const same = smoothPositions(clean.t, clean.lat, clean.lon, clean.segment, 0.5);
     // Within 1 cm: only the first seconds move, while the filter learns the speed (its prior is 0 ± 10 m/s).
+    expect(same.lat).toHaveLength(clean.lat.length);
     same.lat.forEach((v, i) => expect(Math.abs(v - clean.lat[i]!) * metresPerDegree(46).north).toBeLessThan(0.01));
     const noisy = straight(1200, 3.5, 0.5, 4);
     const length = (lat: ArrayLike<number>, lon: ArrayLike<number>) => {
