@@ -127,13 +127,19 @@ export default tseslint.config(
   },
   {
     // `.only` would silently narrow CI to one test; `.skip`/`.todo` would let a test stop counting.
-    files: ['tests/**/*.ts'],
+    // Component tests are .tsx; `it.only.each`, `it.concurrent.only` and `describe.skipIf(…)` are caught too.
+    files: ['tests/**/*.ts', 'tests/**/*.tsx'],
     rules: {
       'no-restricted-syntax': [
         'error',
         {
           selector:
-            "CallExpression[callee.type='MemberExpression'][callee.object.name=/^(describe|it|test|bench)$/][callee.property.name=/^(only|skip|skipIf|runIf|todo)$/]",
+            'MemberExpression[object.name=/^(describe|suite|it|test|bench)$/][property.name=/^(only|skip|skipIf|runIf|todo)$/]',
+          message: 'Focused or skipped tests never reach main: every test runs in CI.',
+        },
+        {
+          selector:
+            'MemberExpression[object.object.name=/^(describe|suite|it|test|bench)$/][property.name=/^(only|skip|skipIf|runIf|todo)$/]',
           message: 'Focused or skipped tests never reach main: every test runs in CI.',
         },
       ],
