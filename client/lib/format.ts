@@ -1,5 +1,3 @@
-import { localDateTime } from '../../shared/runs/local-time.ts';
-
 const DATE_FORMAT = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
 
 /** "3 Oct 2026" in the device's time zone. */
@@ -18,14 +16,6 @@ const DATE_TIME_FORMAT = new Intl.DateTimeFormat('en-GB', {
 /** "3 Oct 2026, 07:05" in the device's time zone. */
 export function formatDateTime(iso: string): string {
   return DATE_TIME_FORMAT.format(new Date(iso));
-}
-
-/**
- * Today as `YYYY-MM-DD` in the profile's time zone, not the device's (issue 17): the one "today" of the
- * screens, the same zone the server dates runs in, even when a phone is set to another zone.
- */
-export function todayIn(timeZone: string, now: number = Date.now()): string {
-  return localDateTime(now, timeZone).date;
 }
 
 /** A duration in words rounded to the minute: "4 h 35 min", "4 h", "50 min". */

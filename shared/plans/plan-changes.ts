@@ -3,6 +3,8 @@
  * rewritten") and for the plan's byline ("written by Dana Whitlock · changed Tue").
  */
 
+import { calendarDaysAgo, localDateTime } from '../runs/local-time.ts';
+
 export type PlanChangeKind = 'added' | 'changed' | 'moved' | 'deleted';
 
 /** The fields of a session a change can touch; `text` is the canonical shorthand. */
@@ -52,11 +54,8 @@ export function describePlanAddedOrDeleted(kind: 'added' | 'deleted', plan: Plan
  * the weekday within the last 6 days ("Tue"), else the date ("3 Nov"). The clock is passed in.
  */
 export function formatChangedWhen(at: Date, now: Date, timeZone: string): string {
-  const day = (d: Date) =>
-    new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);
-  const atDay = day(at);
-  const nowDay = day(now);
-  const diff = Math.round((Date.parse(`${nowDay}T00:00:00Z`) - Date.parse(`${atDay}T00:00:00Z`)) / 86_400_000);
+  const atDay = localDateTime(at.getTime(), timeZone).date;
+  const diff = calendarDaysAgo(at.getTime(), timeZone, now.getTime());
   if (diff <= 0) return 'today';
   if (diff === 1) return 'yesterday';
   if (diff < 7) return WEEKDAYS[new Date(`${atDay}T00:00:00Z`).getUTCDay()]!;

@@ -27,3 +27,23 @@ function formatterFor(timeZone: string): Intl.DateTimeFormat {
   }
   return formatter;
 }
+
+/**
+ * Today as `YYYY-MM-DD` in a profile's time zone, not the device's (issue 17): the one "today" of the
+ * screens and the server, the same zone runs are dated in, even when a phone is set to another zone.
+ */
+export function todayIn(timeZone: string, now: number = Date.now()): string {
+  return localDateTime(now, timeZone).date;
+}
+
+const DAY_MS = 86_400_000;
+
+/** Whole calendar days from one `YYYY-MM-DD` to another (negative when `to` is earlier); no time zone involved. */
+export function calendarDaysBetween(from: string, to: string): number {
+  return Math.round((Date.parse(`${to}T00:00:00Z`) - Date.parse(`${from}T00:00:00Z`)) / DAY_MS);
+}
+
+/** How many calendar days ago an instant was, both days read in `timeZone`: 0 today, 1 yesterday. */
+export function calendarDaysAgo(at: number, timeZone: string, now: number = Date.now()): number {
+  return calendarDaysBetween(localDateTime(at, timeZone).date, todayIn(timeZone, now));
+}

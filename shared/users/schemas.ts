@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { canonicalTimeZone } from './time-zones.ts';
 
 /** Roles a user can hold. `admin` is never self-chosen at sign-up. */
 export const ROLES = ['runner', 'coach', 'admin'] as const;
@@ -20,14 +21,9 @@ export const UserSchema = z.object({
 });
 export type User = z.infer<typeof UserSchema>;
 
-/** Time zone names the runtime knows (IANA). Checked with Intl so shared stays free of data files. */
+/** A time zone the profile accepts: a current IANA name, or an outdated one (stored as the current name). */
 export function isKnownTimeZone(name: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en', { timeZone: name });
-    return true;
-  } catch {
-    return false;
-  }
+  return canonicalTimeZone(name) !== null;
 }
 
 export const NameSchema = z
@@ -99,7 +95,9 @@ export const UpdateProfileInputSchema = z
     sex: z.enum(['male', 'female'], { error: 'Choose male, female, or leave it empty.' }).nullable(),
     time_zone: z
       .string({ error: 'Choose a time zone.' })
-      .refine(isKnownTimeZone, 'Choose a time zone from the list, e.g. Europe/Berlin.'),
+      .refine(isKnownTimeZone, 'Choose a time zone from the list, e.g. Europe/Berlin.')
+      // An older client's Asia/Calcutta is stored and answered as Asia/Kolkata (issue 17).
+      .transform((name) => canonicalTimeZone(name) ?? name),
   })
   .partial()
   .refine((p) => p.resting_hr == null || p.max_hr == null || p.resting_hr < p.max_hr, {

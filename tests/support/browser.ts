@@ -9,7 +9,8 @@ export const SCREENSHOT_DIR = path.resolve('test-results/screenshots');
 
 /** Debian's Chromium (never a downloaded browser), headless, with a throwaway profile. */
 export async function launchBrowser(
-  options: { bypassCSP?: boolean; acceptDownloads?: boolean } = {},
+  // `timezoneId` sets the browser's clock zone, to show a page does not take its dates from the device.
+  options: { bypassCSP?: boolean; acceptDownloads?: boolean; timezoneId?: string } = {},
 ): Promise<{ context: BrowserContext; close(): Promise<void> }> {
   const profile = mkdtempSync(path.join(tmpdir(), 'pacewright-e2e-'));
   const context = await chromium.launchPersistentContext(profile, {

@@ -8,6 +8,7 @@ import { heartRateZones, timeInZones } from '../../../shared/tracks/heart-rate.t
 import { seriesPositions } from '../../../shared/tracks/series.ts';
 import type { Split } from '../../../shared/tracks/types.ts';
 import { trimpOfSeries } from '../../../shared/weeks/trimp.ts';
+import { canonicalTimeZone } from '../../../shared/users/time-zones.ts';
 import type { RunRow, RunSplitRow, UserRow } from '../../lib/db.ts';
 import type { ParsedRun } from './parse/parse-track-file.ts';
 import type { RunChildren } from './runs.repository.ts';
@@ -30,7 +31,8 @@ function timeZoneOf(parsed: ParsedRun, fallback: string): { zone: string; source
     try {
       const zone = tzLookup(lat[first]!, lon[first]!);
       // Open sea answers a nautical Etc/GMT±N zone; the runner's own zone is a better guess there.
-      if (!zone.startsWith('Etc/')) return { zone, source: 'start position' };
+      // Stored under its current IANA name, like the profile's (issue 17).
+      if (!zone.startsWith('Etc/')) return { zone: canonicalTimeZone(zone) ?? zone, source: 'start position' };
     } catch {
       // Out-of-range positions were already dropped; keep the profile zone if the lookup still fails.
     }

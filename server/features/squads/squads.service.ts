@@ -1,5 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { Actor } from '../../../shared/auth/permissions.ts';
+import { todayIn } from '../../../shared/runs/local-time.ts';
 import { INVITATION_GONE } from '../../../shared/squads/invitation-status.ts';
 import { INVITATION_DAYS, type SquadDetail } from '../../../shared/squads/schemas.ts';
 import { looksLikeLink, NO_LINKS_IN_SQUAD_NAME } from '../../../shared/squads/link-check.ts';
@@ -207,7 +208,7 @@ export async function removeFromSquad(actor: Actor, squadId: string, runnerId: s
   if (!allowed || !(await removeMember(squadId, runnerId))) throw new NotFoundError('This runner is not in that squad.');
   if (runnerId !== actor.id || runnerId === squad.coach_id) return;
   const runner = await findUserById(runnerId);
-  const leftOn = new Intl.DateTimeFormat('en-CA', { timeZone: runner?.time_zone ?? 'UTC' }).format(now);
+  const leftOn = todayIn(runner?.time_zone ?? 'UTC', now.getTime());
   await recordSquadLeave(squad, { id: runnerId, name: runner?.name ?? 'A runner' }, leftOn, notices).catch((err: unknown) =>
     logger.error({ err, squad: squad.id }, 'recording a squad-leave notice failed'),
   );

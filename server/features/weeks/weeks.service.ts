@@ -5,7 +5,7 @@ import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import { plannedVolume } from '../../../shared/plans/weeks.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 import { EASY_RULE, rangeFromMarathonEffort } from '../../../shared/race/training-ranges.ts';
-import { localDateTime } from '../../../shared/runs/local-time.ts';
+import { todayIn } from '../../../shared/runs/local-time.ts';
 import type { PartCheck } from '../../../shared/plans/plan-check.ts';
 import type { TakenEntry } from '../../../shared/fuel/taken.ts';
 import type { RunnerWeek, WeekFuelTaken } from '../../../shared/weeks/week-answer.ts';
@@ -73,11 +73,6 @@ function weekPlansOf(rows: SessionPlanRow[]): WeekPlan[] {
   return plans.map((p) => ({ ...p, is_long_run: p.id === longRun }));
 }
 
-/** The runner's local date now. */
-function todayOf(runner: UserRow, now: Date): string {
-  return localDateTime(now.getTime(), runner.time_zone).date;
-}
-
 /** The fast end of the runner's easy range, set from their marathon effort: the pace their plans' `@ MP` resolves to. */
 function easyPaceFastest(inputs: RunnerCheckInputs, today: string): number | null {
   const marathonEffort = racePacesFor(inputs.goal, inputs.results, today).MP;
@@ -103,7 +98,7 @@ interface WeekFrame {
 }
 
 function frameOf(runner: UserRow, requestedStart: string | undefined, now: Date): WeekFrame {
-  const today = todayOf(runner, now);
+  const today = todayIn(runner.time_zone, now.getTime());
   const start = weekStart(requestedStart ?? today, runner.week_starts_on);
   const dates = weekDates(start);
   const end = dates[6]!;

@@ -19,7 +19,7 @@ import { useMe } from '../../../features/auth/api/get-me.ts';
 import { HistoryImport } from '../../../features/imports/components/history-import.tsx';
 import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
 import { profileQueryOptions, useProfile } from '../../../features/profile/api/get-profile.ts';
-import { todayIn } from '../../../lib/format.ts';
+import { todayIn } from '../../../../shared/runs/local-time.ts';
 import { MAX_RUNS_PER_PAGE, RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
 import { runKeys } from '../../../features/runs/api/run-keys.ts';
 import { RunUpload } from '../../../features/runs/components/run-upload.tsx';

@@ -33,7 +33,7 @@ import { LibraryCard } from '../../../features/plans/components/library-card.tsx
 import { ToleranceControl } from '../../../features/plans/components/tolerance-control.tsx';
 import { squadsQueryOptions } from '../../../features/squad/api/get-squads.ts';
 import { requireAccess } from '../../guards.ts';
-import { todayIn } from '../../../lib/format.ts';
+import { todayIn } from '../../../../shared/runs/local-time.ts';
 import { MAX_RUNS_PER_PAGE, runsQueryOptions, useRuns } from '../../../features/runs/api/get-runs.ts';
 
 type PlanView =
@@ -114,7 +114,9 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
   const runnerId = runner?.id;
   const [search, setSearch] = useSearchParams();
   const profile = useProfile();
-  const today = todayIn(profile.time_zone);
+  // One clock for the page, read in the profile's time zone: today, and "changed Tue" in the bylines (issue 17).
+  const now = new Date();
+  const today = todayIn(profile.time_zone, now.getTime());
   const range = readView(search, today);
   const me = useMe();
   const isCoach = me?.role === 'coach';
@@ -129,7 +131,6 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
   const planHref = (search?: { view?: 'week' | 'month'; week?: string; month?: string }) =>
     runnerId ? paths.runnerPlan.getHref(runnerId, search) : paths.plan.getHref(search);
   const timeZone = profile.time_zone;
-  const now = new Date();
   const queryClient = useQueryClient();
   // One plan check per run, in the week view only (a month would be dozens of requests). Not
   // suspended: the week shows at once and the verdicts follow.

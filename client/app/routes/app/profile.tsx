@@ -25,7 +25,8 @@ import { NoticeSwitchesCard } from '../../../features/profile/components/notice-
 import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
 import { WeekAndLoadForm } from '../../../features/profile/components/week-and-load-form.tsx';
-import { formatDate, todayIn } from '../../../lib/format.ts';
+import { formatDate } from '../../../lib/format.ts';
+import { todayIn } from '../../../../shared/runs/local-time.ts';
 
 export const createLoader = (queryClient: QueryClient) => async () => {
   // prefetch, not ensure: a failing list shows its error in its card, not instead of the page.

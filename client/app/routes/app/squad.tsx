@@ -13,7 +13,7 @@ import { useMe } from '../../../features/auth/api/get-me.ts';
 import { SquadFeesCard } from '../../../features/fees/components/squad-fees-card.tsx';
 import { NewNotesCard } from '../../../features/notes/components/new-notes-card.tsx';
 import { profileQueryOptions, useProfile } from '../../../features/profile/api/get-profile.ts';
-import { todayIn } from '../../../lib/format.ts';
+import { todayIn } from '../../../../shared/runs/local-time.ts';
 import {
   squadOverviewCsvHref,
   squadOverviewQueryOptions,
@@ -184,7 +184,7 @@ function SquadWeek({ squad, squads, monday, today, onPick }: SquadWeekProps) {
             <SquadOverviewTable
               rows={overview.rows}
               unit={profile.unit}
-              today={today}
+              timeZone={profile.time_zone}
               caption={`${squad.name}, ${formatWeekRange(monday)}: one row per runner`}
             />
           ) : (

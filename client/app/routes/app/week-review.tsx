@@ -38,6 +38,7 @@ export default function WeekReviewRoute() {
       <WeekReview
         week={week}
         unit={profile.unit}
+        timeZone={profile.time_zone}
         meId={me?.id ?? ''}
         viewer="coach"
         weekHref={(date) => paths.weekReview.getHref(runnerId, date ?? week.today)}

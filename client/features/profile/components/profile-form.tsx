@@ -1,4 +1,5 @@
 import { UpdateProfileInputSchema, type Profile } from '../../../../shared/users/schemas.ts';
+import { TIME_ZONES, canonicalTimeZone } from '../../../../shared/users/time-zones.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { SelectField, TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
@@ -6,8 +7,9 @@ import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { useProfile } from '../api/get-profile.ts';
 import { useUpdateProfile } from '../api/update-profile.ts';
 
-const TIME_ZONES = Intl.supportedValuesOf('timeZone');
-const DEVICE_TIME_ZONE = Intl.DateTimeFormat().resolvedOptions().timeZone;
+// The current IANA names (Asia/Kolkata, not Asia/Calcutta): browsers' own Intl list still has outdated ones.
+const DEVICE_ZONE_AS_REPORTED = Intl.DateTimeFormat().resolvedOptions().timeZone;
+const DEVICE_TIME_ZONE = canonicalTimeZone(DEVICE_ZONE_AS_REPORTED) ?? DEVICE_ZONE_AS_REPORTED;
 
 /** Blank clears the value; anything else goes to the schema as a number (NaN gets the schema's message). */
 function readNumber(data: FormData, name: string): number | null {
@@ -35,7 +37,7 @@ export function ProfileForm({ onSaved }: { onSaved?: (profile: Profile) => void 
     readValues: readProfileValues,
     onSuccess: onSaved,
   });
-  // Chromium's list leaves out aliases such as "UTC"; keep a saved zone selectable.
+  // A saved zone outside the list (a fixed offset such as Etc/GMT+5) stays selectable.
   const timeZones = TIME_ZONES.includes(profile.time_zone) ? TIME_ZONES : [profile.time_zone, ...TIME_ZONES];
 
   return (

@@ -13,7 +13,8 @@ import { VolumeSparkline } from './volume-sparkline.tsx';
 type Row = {
   source: OverviewRow;
   unit: Unit;
-  today: string;
+  /** The viewer's profile time zone: "last upload" counts its calendar days. */
+  timeZone: string;
   runner: string;
   planned: number;
   run: number;
@@ -111,7 +112,7 @@ const COLUMNS = helper.columns([
   helper.accessor('last_upload', {
     header: 'Last upload',
     ...number,
-    cell: (info) => formatDaysAgo(info.row.original.source.last_upload, info.row.original.today),
+    cell: (info) => formatDaysAgo(info.row.original.source.last_upload, info.row.original.timeZone),
   }),
   helper.accessor('reviewed', {
     header: 'Reviewed',
@@ -136,14 +137,14 @@ const COLUMNS = helper.columns([
   }),
 ]);
 
-type SquadOverviewTableProps = { rows: OverviewRow[]; unit: Unit; today: string; caption: string };
+type SquadOverviewTableProps = { rows: OverviewRow[]; unit: Unit; timeZone: string; caption: string };
 
 /** One row per runner for the chosen week; every column but the sparkline sorts. */
-export function SquadOverviewTable({ rows, unit, today, caption }: SquadOverviewTableProps) {
+export function SquadOverviewTable({ rows, unit, timeZone, caption }: SquadOverviewTableProps) {
   const data: Row[] = rows.map((source) => ({
     source,
     unit,
-    today,
+    timeZone,
     runner: source.runner.name,
     planned: source.planned_distance_m,
     run: source.run_distance_m,

@@ -20,7 +20,7 @@ function Figure({ label, children, note }: { label: string; children: ReactNode;
 }
 
 /** Planned against run, sessions by verdict, the long run and its share of the week. */
-export function WeekTotals({ week, unit, today }: { week: RunnerWeek; unit: Unit; today: string }) {
+export function WeekTotals({ week, unit, timeZone }: { week: RunnerWeek; unit: Unit; timeZone: string }) {
   const { totals, long_run: longRun } = week;
   const { sessions } = totals;
   const longRunDay = longRun && week.days.find((d) => d.runs.some((r) => r.id === longRun.run_id));
@@ -106,7 +106,7 @@ export function WeekTotals({ week, unit, today }: { week: RunnerWeek; unit: Unit
         )}
       </Figure>
       <Figure label="Last upload" note="When the runner last imported a run, of any week.">
-        {formatDaysAgo(week.last_upload, today)}
+        {formatDaysAgo(week.last_upload, timeZone)}
       </Figure>
     </dl>
   );

@@ -1,9 +1,9 @@
+import { calendarDaysAgo } from '../../../../shared/runs/local-time.ts';
 import { addDays } from '../../../../shared/weeks/weeks.ts';
 
 const DAY_SHORT = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' });
 const DAY_LONG = new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', timeZone: 'UTC' });
 const DAY_MONTH = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', timeZone: 'UTC' });
-const DAY_MS = 86_400_000;
 
 /** "Mon 7 Dec" (or "Monday 7 December" when `long`) for a `YYYY-MM-DD`. */
 export function formatDay(date: string, long = false): string {
@@ -21,19 +21,14 @@ export function formatWeekRange(start: string): string {
   return `${formatDay(start)} – ${formatDay(end)} ${end.slice(0, 4)}`;
 }
 
-/** A device-local `YYYY-MM-DD` for an instant. */
-function localDate(iso: string): string {
-  const d = new Date(iso);
-  return `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
-}
-
 /**
- * When something last happened, in calendar days on this device: "today", "yesterday", "3 days ago";
- * "never" for null. Counted in dates, not hours, so last night's upload is "yesterday".
+ * When something last happened, in calendar days of the profile's time zone (the instant and today both
+ * read there, never on the device's clock zone): "today", "yesterday", "3 days ago"; "never" for null.
+ * Counted in dates, not hours, so last night's upload is "yesterday".
  */
-export function formatDaysAgo(iso: string | null, today: string): string {
+export function formatDaysAgo(iso: string | null, timeZone: string, now: number = Date.now()): string {
   if (!iso) return 'never';
-  const days = Math.round((Date.parse(`${today}T00:00:00Z`) - Date.parse(`${localDate(iso)}T00:00:00Z`)) / DAY_MS);
+  const days = calendarDaysAgo(Date.parse(iso), timeZone, now);
   if (days <= 0) return 'today';
   if (days === 1) return 'yesterday';
   return `${days} days ago`;

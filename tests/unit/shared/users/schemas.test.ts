@@ -41,8 +41,16 @@ describe('UpdateProfileInputSchema', () => {
     expect(UpdateProfileInputSchema.safeParse(input).success).toBe(ok);
   });
 
-  it('knows IANA time zones from the runtime', () => {
+  it('knows IANA time zones, current and outdated', () => {
     expect(isKnownTimeZone('Europe/Berlin')).toBe(true);
+    expect(isKnownTimeZone('Asia/Calcutta')).toBe(true);
     expect(isKnownTimeZone('Not/AZone')).toBe(false);
+  });
+
+  it('stores an outdated time zone name as the current one', () => {
+    // IANA tz database, file `backward`: "Link Asia/Kolkata Asia/Calcutta", "Link Europe/Kyiv Europe/Kiev".
+    expect(UpdateProfileInputSchema.parse({ time_zone: 'Asia/Calcutta' })).toEqual({ time_zone: 'Asia/Kolkata' });
+    expect(UpdateProfileInputSchema.parse({ time_zone: 'Europe/Kiev' })).toEqual({ time_zone: 'Europe/Kyiv' });
+    expect(UpdateProfileInputSchema.parse({ time_zone: 'Europe/Berlin' })).toEqual({ time_zone: 'Europe/Berlin' });
   });
 });
