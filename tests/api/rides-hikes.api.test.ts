@@ -1,25 +1,10 @@
-import { mkdtempSync, readFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
-import { createApp } from '../../server/app.ts';
-import { createFsStore } from '../../server/lib/storage.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
-import { createUser } from '../support/factories.ts';
-import { recordingMailer, testConfig } from '../support/test-app.ts';
-
-function freshApp() {
-  const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-data-'));
-  return createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
-}
-
-async function signedIn(app: ReturnType<typeof freshApp>) {
-  const { user, password } = await createUser({ role: 'runner' });
-  const token = (await request(app).post('/api/auth/token').send({ email: user.email, password })).body.token as string;
-  return { user, auth: { Authorization: `Bearer ${token}` } };
-}
+import { freshApp, person } from '../support/test-world.ts';
 
 const sample = (name: string) => readFileSync(path.join('fixtures/gps-samples', name));
 
@@ -35,8 +20,8 @@ function gpx(date: string, speed: number, type: string): Buffer {
 
 describe('rides and hikes (issue #14)', () => {
   it('the file’s sport and speeds make a ride or a hike; they stay out of the week’s running totals and the plan check until the runner makes them a run', async () => {
-    const app = freshApp();
-    const { user, auth } = await signedIn(app);
+    const app = freshApp('rides');
+    const { id: userId, auth } = await person(app, 'runner', 'Test Runner');
     // Real files: TCX Sport="Biking"; a 10 h walk-pace GPX without a type.
     const ride = await request(app)
       .post('/api/runs')
@@ -61,7 +46,7 @@ describe('rides and hikes (issue #14)', () => {
     const cycleId = cycle.body.imported[0].id as string;
     await request(app).post('/api/plans').set(auth).send({ date: '2026-11-26', text: '7 km easy' });
 
-    const week = async () => (await request(app).get(`/api/runners/${user.id}/week?start=2026-11-23`).set(auth)).body;
+    const week = async () => (await request(app).get(`/api/runners/${userId}/week?start=2026-11-23`).set(auth)).body;
     const before = await week();
     expect(before.totals.run_distance_m / 1000).toBeCloseTo(7.2, 1);
     expect(before.days[3].runs).toEqual([]);
@@ -76,7 +61,7 @@ describe('rides and hikes (issue #14)', () => {
     expect(bad.body.error).toMatch(/run', 'ride' or 'hike'/);
     expect((await request(app).get(`/api/runs/${cycleId}`).set(auth)).body.kind).toBe('ride');
     // Another runner cannot change it.
-    const other = await signedIn(app);
+    const other = await person(app, 'runner', 'Other Runner');
     expect((await request(app).patch(`/api/runs/${cycleId}`).set(other.auth).send({ kind: 'run' })).status).toBe(404);
 
     // The runner says it was a run: it counts, and it is checked against Thursday's plan.
