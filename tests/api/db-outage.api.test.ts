@@ -7,8 +7,7 @@
  * to it. The shared test database of the other API tests is never touched.
  */
 import bcrypt from 'bcryptjs';
-import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -17,35 +16,13 @@ import knexFactory from 'knex';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest';
 import { knexConfig } from '../../db/knexfile.ts';
-import { freePort } from '../support/own-cluster.ts';
+import { freePort, ownCluster, pollUntil } from '../support/own-cluster.ts';
 import { buildZip } from '../support/zip-builder.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 const DATABASE = 'pacewright_outage';
 const FIXTURES = path.join(ROOT, 'fixtures/gps-samples');
 const gpsFile = (name: string) => readFileSync(path.join(FIXTURES, name));
-
-/** db/pg.sh on a cluster of this test's own: its own folder under /var/tmp and its own port. */
-function ownCluster(port: number) {
-  const env = { ...process.env, PGBASE: `/var/tmp/pg-outage-${randomUUID().slice(0, 8)}`, PGPORT: String(port) };
-  const pgSh = (...args: string[]) => {
-    try {
-      execFileSync('bash', [path.join(ROOT, 'db/pg.sh'), ...args], { env, stdio: 'pipe', timeout: 90_000 });
-    } catch (err) {
-      const stderr = (err as { stderr?: Buffer }).stderr?.toString() ?? '';
-      throw new Error(`db/pg.sh ${args.join(' ')} failed (this test needs PostgreSQL's programs installed):\n${stderr}`, {
-        cause: err,
-      });
-    }
-  };
-  return {
-    url: `postgres://postgres@127.0.0.1:${port}/${DATABASE}`,
-    start: () => pgSh('start', DATABASE),
-    /** `pg_ctl stop -m fast`: open sessions are cut with "terminating connection due to administrator command". */
-    stop: () => pgSh('stop'),
-    destroy: () => pgSh('destroy'),
-  };
-}
 
 interface ServerProcess {
   child: ChildProcess;
@@ -107,18 +84,6 @@ async function startServerProcess(databaseUrl: string, dataDir: string): Promise
 
 const isRunning = (child: ChildProcess) => child.exitCode === null && child.signalCode === null;
 
-/** Reads until `done` holds, every 200 ms, for at most `timeoutMs`; returns the last value read. */
-async function pollUntil<T>(read: () => Promise<T>, done: (value: T) => boolean, what: string, timeoutMs = 20_000): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await read();
-    if (done(value)) return value;
-    if (Date.now() > deadline)
-      throw new Error(`${what}: still not so after ${timeoutMs / 1000} s (last: ${JSON.stringify(value)})`);
-    await new Promise((resolve) => setTimeout(resolve, 200));
-  }
-}
-
 /** What a runner or a script must get while the database is away: 503, Retry-After, a sentence, no internals. */
 function expectDatabaseUnavailable(res: request.Response) {
   expect(res.status).toBe(503);
@@ -138,7 +103,7 @@ describe('PostgreSQL stopped and restarted under the running server', () => {
   let auth: Record<string, string>;
 
   beforeAll(async () => {
-    cluster = ownCluster(await freePort());
+    cluster = ownCluster(DATABASE, await freePort());
     dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-outage-'));
     cluster.start();
     const knex = knexFactory(knexConfig(cluster.url));

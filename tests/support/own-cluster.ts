@@ -27,8 +27,11 @@ export async function freePort(): Promise<number> {
   throw new Error('no free port between 20000 and 30000 for the test cluster');
 }
 
-/** The cluster holding `database` on `port`, and its replica mode: a streaming replica made with pg_basebackup on `replicaPort`. */
-export function ownCluster(database: string, port: number, replicaPort: number) {
+/**
+ * The cluster holding `database` on `port`, and its replica mode: a streaming replica made with pg_basebackup on
+ * `replicaPort` (db/pg.sh's default, `port` + 10, when the test needs none: `destroy` is safe without a replica).
+ */
+export function ownCluster(database: string, port: number, replicaPort = port + 10) {
   const env = {
     ...process.env,
     PGBASE: `/var/tmp/pg-test-${randomUUID().slice(0, 8)}`,
@@ -49,6 +52,8 @@ export function ownCluster(database: string, port: number, replicaPort: number) 
     url: `postgres://postgres@127.0.0.1:${port}/${database}`,
     replicaUrl: `postgres://postgres@127.0.0.1:${replicaPort}/${database}`,
     start: () => pgSh('start', database),
+    /** `pg_ctl stop -m fast` on the primary: open sessions are cut with "terminating connection due to administrator command". */
+    stop: () => pgSh('stop'),
     startReplica: () => pgSh('replica', 'start'),
     /** `pg_ctl stop -m fast`: open sessions are cut with "terminating connection due to administrator command". */
     stopReplica: () => pgSh('replica', 'stop'),
