@@ -1,0 +1,108 @@
+/**
+ * The uploading side of `npm run load`'s "reads during uploads" rounds, in its own process
+ * (http-load.ts forks it), so making and sending 25 MB files never runs on the event loop of the
+ * server being measured.
+ *
+ * It writes one 100-mile run (30 h, one point a second, 108 001 points, 24.7 MB of GPX, the same
+ * run as `npm run bench`'s 30 h GPX) once, then makes each upload a different file by writing
+ * another year into every `<time>`: the import refuses a file it already holds (same bytes) and a
+ * second file of the same run (same times), and this keeps every upload a real, stored import.
+ *
+ * Messages (process.send): in `{ type: 'start', base, tokens }` → out `{ type: 'started' }`; each
+ * token then uploads one file at a time, again and again; in `{ type: 'stop' }` → no new uploads,
+ * and once those under way are answered, out `{ type: 'stopped', result }`.
+ */
+import { generateLakeRun, longRunPhases } from '../../shared/tracks/synthetic.ts';
+import { writeGpx } from '../../shared/tracks/write-track.ts';
+
+export interface UploadDriverResult {
+  /** Uploads answered (any status) while the round ran. */
+  uploads: number;
+  stored: number;
+  statuses: Record<string, number>;
+  p50_ms: number;
+  max_ms: number;
+  file_mb: number;
+}
+
+export type UploadDriverMessage = { type: 'start'; base: string; tokens: string[] } | { type: 'stop' };
+export type UploadDriverReply = { type: 'ready' } | { type: 'started' } | { type: 'stopped'; result: UploadDriverResult };
+
+const START_T = Date.UTC(2024, 8, 14, 6, 30, 0);
+const UPLOAD_TIMEOUT_MS = 180_000;
+
+// The bench's 30 h GPX (import-bench.ts writeDocument, same seed and noise).
+const { points } = generateLakeRun({ start_t: START_T, phases: longRunPhases(30, 1.6), seed: 3, gps_sigma_m: 1.5, ele_sigma_m: 1 });
+const template = Buffer.from(writeGpx('Load 100-mile upload', [points]));
+const yearOffsets: number[] = [];
+const TIME_TAG = Buffer.from('<time>2024-');
+for (let at = template.indexOf(TIME_TAG); at !== -1; at = template.indexOf(TIME_TAG, at + TIME_TAG.length)) {
+  yearOffsets.push(at + '<time>'.length);
+}
+
+/** The template with every timestamp moved to `year` (same month, day and time). */
+function fileOfYear(year: number): Uint8Array<ArrayBuffer> {
+  const copy = new Uint8Array(template.length);
+  copy.set(template);
+  const digits = Buffer.from(String(year));
+  for (const at of yearOffsets) copy.set(digits, at);
+  return copy;
+}
+
+let stopping = false;
+const statuses: Record<string, number> = {};
+const latencies: number[] = [];
+let stored = 0;
+
+async function uploadLoop(base: string, token: string): Promise<void> {
+  // A fresh account per uploader: years 2023, 2022, … keep each of its files a different run.
+  for (let year = 2023; !stopping && year > 1900; year--) {
+    const form = new FormData();
+    form.append('files', new Blob([fileOfYear(year)], { type: 'application/gpx+xml' }), `100-mile-${year}.gpx`);
+    const started = performance.now();
+    try {
+      const response = await fetch(`${base}/api/runs`, {
+        method: 'POST',
+        headers: { authorization: `Bearer ${token}` },
+        body: form,
+        signal: AbortSignal.timeout(UPLOAD_TIMEOUT_MS),
+      });
+      const body = (await response.json()) as { imported?: unknown[] };
+      statuses[response.status] = (statuses[response.status] ?? 0) + 1;
+      if (response.status === 201 && body.imported?.length === 1) stored++;
+    } catch (error) {
+      const key = error instanceof Error ? error.name : 'error';
+      statuses[key] = (statuses[key] ?? 0) + 1;
+    }
+    latencies.push(performance.now() - started);
+  }
+}
+
+let loops: Promise<void>[] = [];
+
+process.on('message', (message: UploadDriverMessage) => {
+  if (message.type === 'start') {
+    stopping = false;
+    stored = 0;
+    latencies.length = 0;
+    for (const key of Object.keys(statuses)) delete statuses[key];
+    loops = message.tokens.map((token) => uploadLoop(message.base, token));
+    process.send!({ type: 'started' } satisfies UploadDriverReply);
+  } else if (message.type === 'stop') {
+    stopping = true;
+    void Promise.all(loops).then(() => {
+      const sorted = [...latencies].sort((a, b) => a - b);
+      const result: UploadDriverResult = {
+        uploads: sorted.length,
+        stored,
+        statuses: { ...statuses },
+        p50_ms: Math.round(sorted[Math.floor(sorted.length / 2)] ?? 0),
+        max_ms: Math.round(sorted[sorted.length - 1] ?? 0),
+        file_mb: Math.round((template.length / 1024 / 1024) * 10) / 10,
+      };
+      process.send!({ type: 'stopped', result } satisfies UploadDriverReply);
+    });
+  }
+});
+process.on('disconnect', () => process.exit(0));
+process.send!({ type: 'ready' } satisfies UploadDriverReply);
