@@ -44,9 +44,7 @@ const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
 const UPLOADS = 20;
 /** Which rounds to run (LOAD_ROUNDS=runs,week to profile one or two): signin, runs, run, week, squad, uploads. */
-const ROUNDS = new Set(
-  (process.env.LOAD_ROUNDS ?? 'signin,runs,run,week,squad,busy,uploads').split(',').map((k) => k.trim()),
-);
+const ROUNDS = new Set((process.env.LOAD_ROUNDS ?? 'signin,runs,run,week,squad,busy,uploads').split(',').map((k) => k.trim()));
 /** Runners uploading 100-mile files, one file at a time each, during the `busy` rounds. */
 const UPLOADERS = Number(process.env.LOAD_UPLOADERS ?? 3);
 /** No single upload may take longer than this; the round as a whole is bounded by it too. */
@@ -563,7 +561,11 @@ async function main(): Promise<void> {
         detail: `${bundle.gzip_kb} KB`,
       },
     ];
-    console.log(`\nTargets (issues 8 and 19), load average now ${loadavg().map((l) => l.toFixed(1)).join(' ')}:`);
+    console.log(
+      `\nTargets (issues 8 and 19), load average now ${loadavg()
+        .map((l) => l.toFixed(1))
+        .join(' ')}:`,
+    );
     for (const check of checks) console.log(`  ${check.met ? 'met   ' : 'MISSED'}  ${check.target} (${check.detail})`);
     console.log(
       JSON.stringify({

@@ -32,7 +32,13 @@ const START_T = Date.UTC(2024, 8, 14, 6, 30, 0);
 const UPLOAD_TIMEOUT_MS = 180_000;
 
 // The bench's 30 h GPX (import-bench.ts writeDocument, same seed and noise).
-const { points } = generateLakeRun({ start_t: START_T, phases: longRunPhases(30, 1.6), seed: 3, gps_sigma_m: 1.5, ele_sigma_m: 1 });
+const { points } = generateLakeRun({
+  start_t: START_T,
+  phases: longRunPhases(30, 1.6),
+  seed: 3,
+  gps_sigma_m: 1.5,
+  ele_sigma_m: 1,
+});
 const template = Buffer.from(writeGpx('Load 100-mile upload', [points]));
 const yearOffsets: number[] = [];
 const TIME_TAG = Buffer.from('<time>2024-');
