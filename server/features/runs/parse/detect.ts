@@ -1,5 +1,6 @@
 import { gunzipSync } from 'node:zlib';
 import { ImportRejection } from './import-rejection.ts';
+import type { XmlBytes } from './xml-events.ts';
 
 /** Largest uncompressed document accepted, bytes (a 100-mile 1 s GPX is about 25 MB). */
 export const MAX_DOCUMENT_BYTES = 150 * 1024 * 1024;
@@ -58,17 +59,85 @@ export function rejectBinary(buffer: Buffer): void {
 /**
  * Decode the bytes to text using the XML declaration's encoding (UTF-8 by default; ISO-8859-1,
  * Latin-1 and Windows-1252 as Latin-1; UTF-16 by its byte-order mark). A UTF-8 BOM is removed.
+ * The import itself reads bytes (`xmlBytesOf`) and decodes only what saxes reads; this gives the
+ * same text as decoding those bytes.
  */
 export function decodeXml(buffer: Buffer): string {
-  if (startsWith(buffer, [0xff, 0xfe])) return new TextDecoder('utf-16le').decode(buffer.subarray(2));
-  if (startsWith(buffer, [0xfe, 0xff])) return new TextDecoder('utf-16be').decode(buffer.subarray(2));
+  const { bytes, encoding } = xmlBytesOf(buffer);
+  return bytes.toString(encoding);
+}
+
+/**
+ * The document's bytes in an encoding whose ASCII bytes are ASCII characters, as `decodeXml`
+ * would read them: Latin-1 when the XML declaration names ISO-8859-1, Latin-1, Windows-1252 or
+ * ASCII, UTF-16 (by its byte-order mark) converted to UTF-8, else UTF-8 without its BOM.
+ */
+export function xmlBytesOf(buffer: Buffer): XmlBytes {
+  if (startsWith(buffer, [0xff, 0xfe])) return utf8Of(new TextDecoder('utf-16le').decode(buffer.subarray(2)));
+  if (startsWith(buffer, [0xfe, 0xff])) return utf8Of(new TextDecoder('utf-16be').decode(buffer.subarray(2)));
   const head = buffer.subarray(0, 200).toString('latin1');
   const encoding = /^\s*<\?xml[^>]*encoding\s*=\s*["']([\w.-]+)["']/i.exec(head)?.[1]?.toLowerCase();
   if (encoding && /^(iso-8859-1|iso8859-1|latin-?1|windows-1252|cp1252|us-ascii|ascii)$/.test(encoding)) {
-    return buffer.toString('latin1');
+    return { bytes: buffer, encoding: 'latin1' };
   }
-  const text = buffer.toString('utf8');
-  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  // The UTF-8 byte-order mark, which decoding would give as U+FEFF.
+  return { bytes: startsWith(buffer, [0xef, 0xbb, 0xbf]) ? buffer.subarray(3) : buffer, encoding: 'utf8' };
+}
+
+function utf8Of(text: string): XmlBytes {
+  // A decoded BOM at the start (a doubled mark) stays, as decoding keeps it.
+  return { bytes: Buffer.from(text, 'utf8'), encoding: 'utf8' };
+}
+
+/** Longest UTF-8 encoding of one UTF-16 code unit: enough bytes for `count` characters. */
+const MAX_BYTES_PER_CHAR = 3;
+
+/** The first `count` characters of the document (as `text.slice(0, count)` of its decoded text). */
+function firstChars({ bytes, encoding }: XmlBytes, count: number): string {
+  return bytes.toString(encoding, 0, Math.min(bytes.length, count * MAX_BYTES_PER_CHAR + 4)).slice(0, count);
+}
+
+/** The last `count` characters of the document (as `text.slice(-count)`); a character cut at the start falls outside. */
+function lastChars({ bytes, encoding }: XmlBytes, count: number): string {
+  return bytes.toString(encoding, Math.max(0, bytes.length - count * MAX_BYTES_PER_CHAR - 4)).slice(-count);
+}
+
+const LOWER_CASE_BIT = 0x20;
+
+/** True when bytes at `at` spell `word` (upper-case ASCII letters) in any case, as /word/i does. */
+function wordAt(bytes: Buffer, at: number, word: string): boolean {
+  for (let k = 0; k < word.length; k++) {
+    const code = bytes[at + k];
+    if (code === undefined || (code | LOWER_CASE_BIT) !== (word.charCodeAt(k) | LOWER_CASE_BIT)) return false;
+  }
+  return true;
+}
+
+/**
+ * Whether the document declares an entity (`/<!ENTITY/i`) or names an external DTD
+ * (`/<!DOCTYPE[^>[]*\b(?:SYSTEM|PUBLIC)\b/i`), as those expressions find on its decoded text,
+ * found on the bytes: every `<!` is looked at, and only a DOCTYPE's own words are decoded.
+ */
+function declarationsOf(doc: XmlBytes): { entity: boolean; externalDtd: boolean } {
+  const { bytes, encoding } = doc;
+  let entity = false;
+  let externalDtd = false;
+  /** Where the next '>' and '[' are, found once per stretch so many DOCTYPEs cost one pass. */
+  let nextClose = -2;
+  let nextBracket = -2;
+  for (let at = bytes.indexOf('<!'); at !== -1 && !(entity && externalDtd); at = bytes.indexOf('<!', at + 2)) {
+    // Letters only: any of a-z A-Z matched ignoring case here is what /i matches without /u (ASCII to ASCII only).
+    if (wordAt(bytes, at + 2, 'ENTITY')) entity = true;
+    else if (!externalDtd && wordAt(bytes, at + 2, 'DOCTYPE')) {
+      if (nextClose !== -1 && nextClose < at) nextClose = bytes.indexOf(0x3e /* > */, at);
+      if (nextBracket !== -1 && nextBracket < at) nextBracket = bytes.indexOf(0x5b /* [ */, at);
+      const ends = [nextClose, nextBracket].filter((end) => end !== -1);
+      const end = ends.length ? Math.min(...ends) : bytes.length;
+      // From DOCTYPE's last letter, so a word glued to it ("<!DOCTYPESYSTEM") has no boundary, as in the text.
+      externalDtd = /\b(?:SYSTEM|PUBLIC)\b/i.test(bytes.toString(encoding, at + 8, end));
+    }
+  }
+  return { entity, externalDtd };
 }
 
 /**
@@ -76,19 +145,20 @@ export function decodeXml(buffer: Buffer): string {
  * declarations (XML bombs and external entities are never expanded or fetched), references to an
  * external DTD and documents cut off before their root element closes.
  */
-export function detectFormat(text: string): TrackFormat {
-  const head = text.slice(0, 4096);
+export function detectFormat(doc: XmlBytes): TrackFormat {
+  const head = firstChars(doc, 4096);
   if (/^\s*<!doctype\s+html|<html[\s>]/i.test(head)) {
     throw new ImportRejection('not-a-track', 'This file is not a GPS track (it looks like a web page, HTML).');
   }
-  if (/<!ENTITY/i.test(text)) {
+  const declarations = declarationsOf(doc);
+  if (declarations.entity) {
     throw new ImportRejection(
       'xml-entities',
       'This file declares XML entities, which Pacewright never expands for safety; export the run again from your watch or app.',
     );
   }
   // Nothing here fetches a DTD, but a track never needs one: refusing it keeps a future parser honest too.
-  if (/<!DOCTYPE[^>[]*\b(?:SYSTEM|PUBLIC)\b/i.test(text)) {
+  if (declarations.externalDtd) {
     throw new ImportRejection(
       'xml-external-dtd',
       'This file refers to an outside XML document type (DTD), which Pacewright never fetches for safety; export the run again from your watch or app.',
@@ -107,7 +177,7 @@ export function detectFormat(text: string): TrackFormat {
   } else throw new ImportRejection('not-a-track', NOT_A_TRACK);
 
   const closing = new RegExp(`</(?:[\\w.-]+:)?${local}\\s*>\\s*(?:<!--[\\s\\S]*?-->\\s*)*$`);
-  if (!closing.test(text.slice(-512))) {
+  if (!closing.test(lastChars(doc, 512))) {
     throw new ImportRejection(
       'truncated',
       'This file is incomplete: it ends before the track is closed, so the export or the upload was probably cut short.',

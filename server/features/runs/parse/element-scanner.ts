@@ -15,6 +15,11 @@
  * - every end tag naming the open element; at most `maxDepth` levels.
  * The element is first checked to its end and only then replayed as events, so a reader never
  * sees part of an element that turns out to be broken.
+ *
+ * It reads the document's bytes, never a decoded string: everything it accepts is ASCII, which is
+ * the same byte in UTF-8, Latin-1 and Windows-1252, so an import never decodes its points' bytes
+ * as a whole (xml-events.ts decodes only what saxes reads). A string given instead is read as its
+ * UTF-8 bytes, and positions are then byte positions.
  */
 
 const LESS = 60;
@@ -69,6 +74,19 @@ for (let code = 0; code < 128; code++) {
   CHAR_CLASS[code] = cls;
 }
 
+/** The document as bytes; a string as its UTF-8 bytes (the last one converted is kept, for scan then replay). */
+let lastString: string | null = null;
+let lastStringBytes: Buffer = Buffer.alloc(0);
+export function documentBytes(xml: string | Buffer): Buffer {
+  if (typeof xml !== 'string') return xml;
+  if (xml !== lastString) {
+    lastString = xml;
+    lastStringBytes = Buffer.from(xml, 'utf8');
+  }
+  return lastStringBytes;
+}
+
+/** Past the end a typed array gives undefined, which (like NaN before) is in no class and equals no code. */
 function classOf(code: number): number {
   return code < 128 ? (CHAR_CLASS[code] as number) : 0;
 }
@@ -77,9 +95,9 @@ function isBlank(code: number): boolean {
   return (classOf(code) & BLANK) !== 0;
 }
 
-/** True when xml[start, start + name.length) is `name`. */
-function sameChars(xml: string, start: number, name: string): boolean {
-  for (let k = 0; k < name.length; k++) if (xml.charCodeAt(start + k) !== name.charCodeAt(k)) return false;
+/** True when xml[start, start + name.length) is `name` (an ASCII name). */
+function sameChars(xml: Buffer, start: number, name: string): boolean {
+  for (let k = 0; k < name.length; k++) if (xml[start + k] !== name.charCodeAt(k)) return false;
   return true;
 }
 
@@ -96,7 +114,7 @@ class NameTable {
   private readonly slots = new Int32Array(NAME_SLOTS).fill(-1);
 
   /** The id of the name at xml[start, end) whose characters hash to `hash`, or −1 when the table is full. */
-  idOf(xml: string, start: number, end: number, hash: number): number {
+  idOf(xml: Buffer, start: number, end: number, hash: number): number {
     let slot = hash & (NAME_SLOTS - 1);
     for (let id = this.slots[slot] as number; id !== -1; id = this.slots[slot] as number) {
       const name = this.qualified[id] as string;
@@ -104,7 +122,7 @@ class NameTable {
       slot = (slot + 1) & (NAME_SLOTS - 1);
     }
     if (this.qualified.length >= MAX_NAMES) return -1;
-    const name = xml.slice(start, end);
+    const name = xml.toString('latin1', start, end);
     const id = this.qualified.length;
     this.slots[slot] = id;
     this.qualified.push(name);
@@ -131,22 +149,23 @@ export class ElementScanner {
    * Check the element that starts at `xml[start]` (a `<`) and remember its tokens. Returns the
    * index just after its end tag, or −1 when it is not in the accepted subset (or not complete).
    */
-  scan(xml: string, start: number, maxDepth: number): number {
+  scan(source: string | Buffer, start: number, maxDepth: number): number {
+    const xml = documentBytes(source);
     const names = this.names;
     this.count = 0;
     let depth = 0;
     let pos = start;
     for (;;) {
       // pos is at a '<'.
-      let code = xml.charCodeAt(pos + 1);
+      let code = at(xml, pos + 1);
       if (code === SLASH) {
         if (depth === 0) return -1;
         const id = this.open[depth - 1] as number;
         const name = names.qualified[id] as string;
         if (!sameChars(xml, pos + 2, name)) return -1;
         pos += 2 + name.length;
-        code = xml.charCodeAt(pos);
-        while (isBlank(code)) code = xml.charCodeAt(++pos);
+        code = at(xml, pos);
+        while (isBlank(code)) code = at(xml, ++pos);
         if (code !== GREATER) return -1;
         pos++;
         this.push(CLOSE, id, 0, 0);
@@ -156,7 +175,7 @@ export class ElementScanner {
         const nameStart = pos + 1;
         let hash = code;
         pos = nameStart + 1;
-        for (code = xml.charCodeAt(pos); (classOf(code) & NAME_CHAR) !== 0; code = xml.charCodeAt(++pos)) {
+        for (code = at(xml, pos); (classOf(code) & NAME_CHAR) !== 0; code = at(xml, ++pos)) {
           hash = (Math.imul(hash, 31) + code) | 0;
         }
         const id = names.idOf(xml, nameStart, pos, hash);
@@ -164,11 +183,11 @@ export class ElementScanner {
         this.push(OPEN, id, 0, 0);
         const firstAttribute = this.count;
         for (;;) {
-          code = xml.charCodeAt(pos);
+          code = at(xml, pos);
           let spaced = false;
           while (isBlank(code)) {
             spaced = true;
-            code = xml.charCodeAt(++pos);
+            code = at(xml, ++pos);
           }
           if (code === GREATER) {
             this.open[depth++] = id;
@@ -176,7 +195,7 @@ export class ElementScanner {
             break;
           }
           if (code === SLASH) {
-            if (xml.charCodeAt(pos + 1) !== GREATER) return -1;
+            if (at(xml, pos + 1) !== GREATER) return -1;
             pos += 2;
             this.push(CLOSE, id, 0, 0);
             if (depth === 0) return pos;
@@ -185,22 +204,22 @@ export class ElementScanner {
           if (!spaced || (classOf(code) & NAME_START) === 0) return -1;
           const attributeStart = pos;
           let hash = code;
-          for (code = xml.charCodeAt(++pos); (classOf(code) & NAME_CHAR) !== 0; code = xml.charCodeAt(++pos)) {
+          for (code = at(xml, ++pos); (classOf(code) & NAME_CHAR) !== 0; code = at(xml, ++pos)) {
             hash = (Math.imul(hash, 31) + code) | 0;
           }
           const attributeId = names.idOf(xml, attributeStart, pos, hash);
           // "__proto__" would behave differently on a plain object than on saxes's prototype-free one.
           if (attributeId < 0 || names.attributeName[attributeId] === '__proto__') return -1;
           for (let k = firstAttribute; k < this.count; k++) if (this.first[k] === attributeId) return -1;
-          code = xml.charCodeAt(pos);
-          while (isBlank(code)) code = xml.charCodeAt(++pos);
+          code = at(xml, pos);
+          while (isBlank(code)) code = at(xml, ++pos);
           if (code !== EQUALS) return -1;
-          code = xml.charCodeAt(++pos);
-          while (isBlank(code)) code = xml.charCodeAt(++pos);
+          code = at(xml, ++pos);
+          while (isBlank(code)) code = at(xml, ++pos);
           if (code !== DOUBLE_QUOTE && code !== SINGLE_QUOTE) return -1;
           const quote = code;
           const valueStart = ++pos;
-          for (code = xml.charCodeAt(pos); code !== quote; code = xml.charCodeAt(++pos)) {
+          for (code = at(xml, pos); code !== quote; code = at(xml, ++pos)) {
             if (!(code >= SPACE && code <= 126) || code === LESS || code === AMPERSAND) return -1;
           }
           this.push(ATTRIBUTE, attributeId, valueStart, pos);
@@ -211,7 +230,7 @@ export class ElementScanner {
       let contentStart = -1;
       let contentEnd = -1;
       let returnAfterContent = false;
-      for (code = xml.charCodeAt(pos); code !== LESS; code = xml.charCodeAt(++pos)) {
+      for (code = at(xml, pos); code !== LESS; code = at(xml, ++pos)) {
         const cls = classOf(code);
         if ((cls & TEXT_CHAR) !== 0) {
           if (returnAfterContent) return -1;
@@ -229,7 +248,8 @@ export class ElementScanner {
   }
 
   /** Send the last element that `scan` accepted to `sink`, as saxes would have. */
-  replay(xml: string, sink: ScannedElementSink): void {
+  replay(source: string | Buffer, sink: ScannedElementSink): void {
+    const xml = documentBytes(source);
     const { kinds, first, second, third, count, names } = this;
     for (let k = 0; k < count; k++) {
       const kind = kinds[k];
@@ -242,13 +262,13 @@ export class ElementScanner {
           while (k + 1 < count && kinds[k + 1] === ATTRIBUTE) {
             k++;
             const name = names.attributeName[first[k] as number];
-            if (name !== null && name !== undefined) local[name] = xml.slice(second[k], third[k]);
+            if (name !== null && name !== undefined) local[name] = xml.toString('latin1', second[k], third[k]);
           }
           attributes = local;
         }
         sink.open(names.local[id] as string, attributes);
       } else if (kind === TEXT) {
-        sink.text(xml.slice(second[k], third[k]));
+        sink.text(xml.toString('latin1', second[k], third[k]));
       } else if (kind === CLOSE) {
         sink.close(names.local[first[k] as number] as string);
       }
@@ -269,6 +289,11 @@ export class ElementScanner {
     this.second[k] = b;
     this.third[k] = c;
   }
+}
+
+/** The byte at `index`, or undefined past the end (typed as a number: every test on it then fails). */
+function at(xml: Buffer, index: number): number {
+  return xml[index] as number;
 }
 
 function grow<T extends Uint8Array | Int32Array>(from: T, to: T): T {

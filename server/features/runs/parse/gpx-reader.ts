@@ -1,7 +1,7 @@
 import { PointColumns, pointCapacityFor } from '../../../../shared/tracks/point-columns.ts';
 import type { RawTrack, TrackPoint } from '../../../../shared/tracks/types.ts';
 import { parseIsoTime, parseNumber } from './parse-time.ts';
-import { readXmlEvents } from './xml-events.ts';
+import { readXmlEvents, type XmlBytes } from './xml-events.ts';
 
 /** What a GPX file holds besides its track, to explain a rejection. */
 export interface GpxContents {
@@ -21,8 +21,8 @@ const TEMP_NAMES = new Set(['atemp', 'temp', 'temperature', 'wtemp']);
  * (segments are pauses, never joined); `trkpt` gives lat/lon (attributes), `ele`, `time` and,
  * from any extension under any namespace prefix, heart rate, cadence and temperature.
  */
-export function readGpx(xml: string): GpxContents {
-  const points = new PointColumns(pointCapacityFor(xml.length));
+export function readGpx(xml: XmlBytes): GpxContents {
+  const points = new PointColumns(pointCapacityFor(xml.bytes.length));
   /** Where each segment begins in `points`; points always go to the segment opened last. */
   const segmentStarts: number[] = [];
   const stack: string[] = [];

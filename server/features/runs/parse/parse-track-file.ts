@@ -1,11 +1,11 @@
 import { tinyTrackShareReason, tooLongReason, tooManyPointsReason } from '../../../../shared/runs/upload-limits.ts';
 import { cleanPoints } from '../../../../shared/tracks/clean.ts';
 import type { CleanTrack, DeviceLap, RawTrack } from '../../../../shared/tracks/types.ts';
-import { decodeXml, detectFormat, gunzipIfNeeded, rejectBinary, type TrackFormat } from './detect.ts';
+import { detectFormat, gunzipIfNeeded, rejectBinary, xmlBytesOf, type TrackFormat } from './detect.ts';
 import { readGpx } from './gpx-reader.ts';
 import { ImportRejection } from './import-rejection.ts';
 import { readTcx } from './tcx-reader.ts';
-import { XmlReadError } from './xml-events.ts';
+import { XmlReadError, type XmlBytes } from './xml-events.ts';
 
 /** One run found in a file, cleaned and ready for `analyseTrack`. */
 export interface ParsedRun {
@@ -31,13 +31,14 @@ export function parseTrackFile(input: Buffer): ParsedRun[] {
   if (input.length === 0) throw new ImportRejection('empty-file', 'This file is empty.');
   const buffer = gunzipIfNeeded(input);
   rejectBinary(buffer);
-  const text = decodeXml(buffer);
-  const format = detectFormat(text);
+  // Bytes, not text: the readers decode only what saxes reads (xml-events.ts), never the track points.
+  const doc = xmlBytesOf(buffer);
+  const format = detectFormat(doc);
   // Counted before reading, so a file of a million points is refused in a fraction of its reading time.
-  const tooMany = tooManyPointsReason(countTrackPointTags(text, format));
+  const tooMany = tooManyPointsReason(countTrackPointTags(doc, format));
   if (tooMany) throw new ImportRejection('too-many-points', tooMany);
   try {
-    const { runs, points } = format === 'gpx' ? runsFromGpx(text) : runsFromTcx(text);
+    const { runs, points } = format === 'gpx' ? runsFromGpx(doc) : runsFromTcx(doc);
     const tiny = tinyTrackShareReason(buffer.length, points);
     if (tiny) throw new ImportRejection('tiny-track-share', tiny);
     return runs;
@@ -56,21 +57,23 @@ export function parseTrackFile(input: Buffer): ParsedRun[] {
  * Opening tags of track points (`<trkpt`, `<Trackpoint`, with any namespace prefix), found with
  * indexOf: an upper bound of the points the reader will collect (comments are counted too).
  */
-export function countTrackPointTags(text: string, format: TrackFormat): number {
-  const tag = format === 'gpx' ? 'trkpt' : 'Trackpoint';
+export function countTrackPointTags({ bytes }: XmlBytes, format: TrackFormat): number {
+  const tag = Buffer.from(format === 'gpx' ? 'trkpt' : 'Trackpoint', 'latin1');
   let count = 0;
-  for (let at = text.indexOf(tag); at !== -1; at = text.indexOf(tag, at + tag.length)) {
-    const before = text.charCodeAt(at - 1);
-    const after = text.charCodeAt(at + tag.length);
+  // ASCII bytes are the same characters in every encoding xmlBytesOf gives, and never part of another character.
+  for (let at = bytes.indexOf(tag); at !== -1; at = bytes.indexOf(tag, at + tag.length)) {
+    const before = bytes[at - 1];
+    const after = bytes[at + tag.length];
     // `<trkpt ` or `<ns:trkpt>`, never `</trkpt>` or a longer name such as `<trkpts`.
-    const opens = before === 0x3c /* < */ || (before === 0x3a /* : */ && text.lastIndexOf('<', at) > text.lastIndexOf('/', at));
+    const opens =
+      before === 0x3c /* < */ || (before === 0x3a /* : */ && bytes.lastIndexOf(0x3c, at) > bytes.lastIndexOf(0x2f, at));
     if (opens && (after === 0x20 || after === 0x3e || after === 0x09 || after === 0x0a || after === 0x0d || after === 0x2f))
       count++;
   }
   return count;
 }
 
-function runsFromGpx(text: string): { runs: ParsedRun[]; points: number } {
+function runsFromGpx(text: XmlBytes): { runs: ParsedRun[]; points: number } {
   const contents = readGpx(text);
   if (contents.track.points.length === 0) {
     if (contents.tracks === 0 && (contents.waypoints > 0 || contents.routePoints > 0)) {
@@ -81,7 +84,7 @@ function runsFromGpx(text: string): { runs: ParsedRun[]; points: number } {
   return { runs: [toRun(contents.track, 0)], points: contents.track.points.length };
 }
 
-function runsFromTcx(text: string): { runs: ParsedRun[]; points: number } {
+function runsFromTcx(text: XmlBytes): { runs: ParsedRun[]; points: number } {
   const contents = readTcx(text);
   if (contents.activities.length === 0) {
     if (contents.courses > 0) {

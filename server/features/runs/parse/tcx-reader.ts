@@ -1,7 +1,7 @@
 import { PointColumns, pointCapacityFor } from '../../../../shared/tracks/point-columns.ts';
 import type { DeviceLap, RawTrack, TrackPoint } from '../../../../shared/tracks/types.ts';
 import { parseIsoTime, parseNumber } from './parse-time.ts';
-import { readXmlEvents } from './xml-events.ts';
+import { readXmlEvents, type XmlBytes } from './xml-events.ts';
 
 /** What a TCX file holds: one run per `Activity`, and whether it has planned courses. */
 export interface TcxContents {
@@ -21,7 +21,7 @@ function orNull(value: number): number | null {
  * pauses show up as stretches without progress. Trackpoints without a position are kept (they
  * may carry the device distance).
  */
-export function readTcx(xml: string): TcxContents {
+export function readTcx(xml: XmlBytes): TcxContents {
   const activities: RawTrack[] = [];
   const stack: string[] = [];
   let courses = 0;
@@ -41,7 +41,7 @@ export function readTcx(xml: string): TcxContents {
             name: null,
             sport: attrs.Sport ?? null,
             // Room for the whole file in the first activity; any others grow as they need.
-            points: new PointColumns(activities.length === 0 ? pointCapacityFor(xml.length) : undefined),
+            points: new PointColumns(activities.length === 0 ? pointCapacityFor(xml.bytes.length) : undefined),
             segment_starts: [0],
             laps: [],
           };

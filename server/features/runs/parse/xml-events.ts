@@ -12,9 +12,19 @@
  * The track points, nearly all of a GPS file, may instead go through element-scanner.ts: a
  * strict reader of a plain subset of XML (no entities, comments, CDATA or DTD at all) that gives
  * the same events and leaves every point it does not fully accept to saxes.
+ *
+ * The document comes as its bytes and their encoding (detect.ts `xmlBytesOf`): the scanner reads
+ * the points' bytes as they are, and only the stretches between them, the parts saxes reads, are
+ * decoded to text. A 100-mile file is never decoded as a whole.
  */
 import { SaxesParser, type SaxesTagPlain } from 'saxes';
-import { ElementScanner, type ScannedElementSink } from './element-scanner.ts';
+import { documentBytes, ElementScanner, type ScannedElementSink } from './element-scanner.ts';
+
+/** A document's bytes in an ASCII-compatible encoding (UTF-16 is converted to UTF-8 first, detect.ts). */
+export interface XmlBytes {
+  bytes: Buffer;
+  encoding: 'utf8' | 'latin1';
+}
 
 export interface XmlEventHandlers {
   /** An element starts; `name` has no namespace prefix; attribute names are unprefixed too. */
@@ -73,16 +83,18 @@ export interface XmlReadOptions {
  * well-formed. Throws `XmlReadError` when it is not (mismatched or unclosed tags, a truncated
  * document, an undefined entity, an entity declaration, nesting deeper than 64 elements).
  * Errors thrown by the handlers pass through unchanged. Returns how many repeated elements the
- * scanner read (the rest of the document went through saxes).
+ * scanner read (the rest of the document went through saxes). A string is read as its UTF-8 bytes.
  */
-export function readXmlEvents(xml: string, handlers: XmlEventHandlers, options: XmlReadOptions = {}): number {
+export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers, options: XmlReadOptions = {}): number {
+  const { bytes, encoding } = typeof xml === 'string' ? { bytes: documentBytes(xml), encoding: 'utf8' as const } : xml;
   const parser = new SaxesParser();
   let depth = 0;
   let pending = '';
-  /** Characters read by the scanner instead of saxes, so far. */
-  let skipped = 0;
-  /** Index in xml just after the last tag read (by saxes or the scanner), or −1. */
-  let lastTagEnd = -1;
+  /** A tag ended (saxes's `position`, in the text given to it) in the stretch being written, and where. */
+  let tagInStretch = false;
+  let tagEnd = 0;
+  /** Only whitespace since the last tag read (by saxes or the scanner); false before the first tag. */
+  let blankSinceTag = false;
 
   const flushText = (): void => {
     if (pending === '') return;
@@ -118,15 +130,31 @@ export function readXmlEvents(xml: string, handlers: XmlEventHandlers, options: 
   // saxes's position counts the characters it was given; inside a handler it is just past the '>'.
   parser.on('opentag', (tag: SaxesTagPlain) => {
     sink.open(localName(tag.name), localAttributes(tag.attributes));
-    lastTagEnd = parser.position + skipped;
+    tagInStretch = true;
+    tagEnd = parser.position;
   });
   parser.on('closetag', (tag: SaxesTagPlain) => {
     sink.close(localName(tag.name));
-    lastTagEnd = parser.position + skipped;
+    tagInStretch = true;
+    tagEnd = parser.position;
   });
 
+  /** Characters given to saxes so far. */
+  let written = 0;
+  /** Decode bytes[from, to) (never inside a character: both ends are at ASCII bytes) and give it to saxes. */
+  const write = (from: number, to: number): void => {
+    if (from === to) return;
+    const text = bytes.toString(encoding, from, to);
+    const start = written;
+    written += text.length;
+    tagInStretch = false;
+    parser.write(text);
+    blankSinceTag = tagInStretch ? isBlankFrom(text, tagEnd - start) : blankSinceTag && isBlankFrom(text, 0);
+  };
+
   if (options.repeatedElement === undefined) {
-    parser.write(xml).close();
+    write(0, bytes.length);
+    parser.close();
     return 0;
   }
 
@@ -134,28 +162,28 @@ export function readXmlEvents(xml: string, handlers: XmlEventHandlers, options: 
   // of an element, right after a tag with only whitespace since (so not inside a comment, CDATA,
   // text or another tag), the scanner reads as many whole elements from there as it accepts;
   // saxes, left in the same state, continues after them.
-  const marker = `<${options.repeatedElement}`;
+  const marker = Buffer.from(`<${options.repeatedElement}`, 'latin1');
   const scanner = new ElementScanner();
-  /** xml[0, fed) has been read, by saxes or the scanner. */
+  /** bytes[0, fed) has been read, by saxes or the scanner. */
   let fed = 0;
   let scanned = 0;
-  for (let at = xml.indexOf(marker); at !== -1;) {
-    parser.write(xml.slice(fed, at));
+  for (let at = bytes.indexOf(marker); at !== -1;) {
+    write(fed, at);
     fed = at;
     let next = at + 1;
-    if (depth > 0 && lastTagEnd >= 0 && isBlankBetween(xml, lastTagEnd, at)) {
-      const [end, count] = readRepeatedElements(xml, at, marker, scanner, sink, () => MAX_DEPTH - depth);
+    if (depth > 0 && blankSinceTag) {
+      const [end, count] = readRepeatedElements(bytes, at, marker, scanner, sink, () => MAX_DEPTH - depth);
       scanned += count;
       if (end > at) {
-        skipped += end - at;
         fed = end;
-        lastTagEnd = end;
+        blankSinceTag = true;
         next = end;
       }
     }
-    at = xml.indexOf(marker, next);
+    at = bytes.indexOf(marker, next);
   }
-  parser.write(xml.slice(fed)).close();
+  write(fed, bytes.length);
+  parser.close();
   return scanned;
 }
 
@@ -164,9 +192,9 @@ export function readXmlEvents(xml: string, handlers: XmlEventHandlers, options: 
  * after the last one read (`start` when none) and how many were read.
  */
 function readRepeatedElements(
-  xml: string,
+  xml: Buffer,
   start: number,
-  marker: string,
+  marker: Buffer,
   scanner: ElementScanner,
   sink: ScannedElementSink,
   depthLeft: () => number,
@@ -181,8 +209,8 @@ function readRepeatedElements(
     count++;
     end = after;
     at = after;
-    while (isBlankCode(xml.charCodeAt(at))) at++;
-    if (!xml.startsWith(marker, at)) return [end, count];
+    while (isBlankCode(xml[at] as number)) at++;
+    if (!startsWithAt(xml, marker, at)) return [end, count];
   }
 }
 
@@ -190,7 +218,12 @@ function isBlankCode(code: number): boolean {
   return code === 32 || code === 10 || code === 9 || code === 13;
 }
 
-function isBlankBetween(xml: string, from: number, to: number): boolean {
-  for (let i = from; i < to; i++) if (!isBlankCode(xml.charCodeAt(i))) return false;
+function isBlankFrom(text: string, from: number): boolean {
+  for (let i = from; i < text.length; i++) if (!isBlankCode(text.charCodeAt(i))) return false;
+  return true;
+}
+
+function startsWithAt(xml: Buffer, marker: Buffer, at: number): boolean {
+  for (let k = 0; k < marker.length; k++) if (xml[at + k] !== marker[k]) return false;
   return true;
 }
