@@ -61,6 +61,13 @@ export default tseslint.config(
             { target: './server/lib', from: './server/features' },
             { target: './client/lib', from: './client/features' },
             { target: './client/components', from: './client/features' },
+            // history/ imports runs/ (a bulk import imports runs); runs/ never imports history/ back.
+            {
+              target: './server/features/runs',
+              from: './server/features/history',
+              message:
+                'runs/ never imports history/: history imports runs, and a cycle makes both one feature (hand the step in from jobs/).',
+            },
             ...featureZones('server', ['./db']),
             ...featureZones('client', []),
           ],
@@ -122,6 +129,10 @@ export default tseslint.config(
       'no-restricted-syntax': [
         'error',
         { selector: 'ExportAllDeclaration', message: 'Name what the feature makes public: export { … } from, never export *.' },
+        {
+          selector: 'ExportNamedDeclaration[source.value=/\\.repository(\\.ts)?$/]',
+          message: 'A repository is private to its feature: the face exports service functions, never a repository.',
+        },
       ],
     },
   },

@@ -5,7 +5,7 @@ import { AppError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
 import { invitationVouchesFor } from '../squads/index.ts';
-import { findUserByEmail, insertUser, toUser } from '../users/index.ts';
+import { createUser, findUserByEmail, toUser } from '../users/index.ts';
 import { hashPassword } from './auth.service.ts';
 import { linkUsedError, newEmailedToken, usableEmailedToken, type EmailedTokenKind } from './emailed-token.ts';
 import {
@@ -38,7 +38,7 @@ export async function signUpByInvitation(
   if (await findUserByEmail(input.email)) return undefined;
   const passwordHash = await hashPassword(input.password, config);
   try {
-    return await insertUser({ email: input.email, passwordHash, name: input.name, role: input.role });
+    return await createUser({ email: input.email, passwordHash, name: input.name, role: input.role });
   } catch (err) {
     // Made a moment ago by a second request: the e-mailed-link way tells the owner instead.
     if (err instanceof AppError && err.status === 409) return undefined;
@@ -127,7 +127,7 @@ export async function confirmSignUp(token: string, now = new Date()) {
   const user = await inTransaction(async (trx) => {
     if (!(await claimPendingSignUp(row.id, now, trx))) throw linkUsedError(SIGN_UP_LINK);
     // 409 with a sentence when the address got an account meanwhile (two links used one after the other).
-    return insertUser({ id: row.id, email: row.email, passwordHash: row.password_hash, name: row.name, role: row.role }, trx);
+    return createUser({ id: row.id, email: row.email, passwordHash: row.password_hash, name: row.name, role: row.role }, trx);
   });
   const answer: SignUpConfirmed = { user: toUser(user), next: row.next_path };
   return { row: user, answer };

@@ -72,6 +72,11 @@ function requireService(stripe: Stripe | null): Stripe {
 // The coach sets the fee.
 // ---------------------------------------------------------------------------------------------------------------
 
+/** The squad's fee as the invitation page shows it (no fee when never set). */
+export async function feeOfSquad(squadId: string): Promise<Fee> {
+  return toFee(await findSquadFee(squadId));
+}
+
 export async function getSquadFee(actor: Actor, squadId: string): Promise<Fee> {
   const squad = await findSquadById(squadId);
   if (!squad || (squad.coach_id !== actor.id && !(await isMember(squadId, actor.id))))

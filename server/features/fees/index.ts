@@ -1,5 +1,4 @@
 // The public face of the fees feature: the only file other features (and db/) import.
 // Everything else in this folder is private to it (server/features/README.md).
 
-export { findSquadFee } from './fees.repository.ts';
-export { toFee } from './fees.service.ts';
+export { feeOfSquad } from './fees.service.ts';

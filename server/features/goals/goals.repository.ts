@@ -1,19 +1,5 @@
 import { db, type Db, type GoalRaceRow, type RaceResultRow, readDb } from '../../lib/db.ts';
-import type { GoalRace, GoalRaceInput, RaceResult, RaceResultInput } from '../../../shared/goals/schemas.ts';
-
-export function toGoalRace(row: GoalRaceRow): GoalRace {
-  return {
-    name: row.name,
-    date: row.date,
-    distance_m: row.distance_m,
-    goal_time_s: row.goal_time_s,
-    updated_at: row.updated_at.toISOString(),
-  };
-}
-
-export function toRaceResult(row: RaceResultRow): RaceResult {
-  return { id: row.id, name: row.name, date: row.date, distance_m: row.distance_m, time_s: row.time_s };
-}
+import type { GoalRaceInput, RaceResultInput } from '../../../shared/goals/schemas.ts';
 
 export async function findGoalRace(userId: string, trx: Db = db): Promise<GoalRaceRow | undefined> {
   return trx('goal_races').where({ user_id: userId }).first();

@@ -5,7 +5,8 @@ import { requireActor } from '../../lib/authorize.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import { assertCanReadRunner } from '../squads/index.ts';
-import { deleteGoalRace, deleteRaceResult, findGoalRace, listRaceResults, toGoalRace, toRaceResult } from './goals.repository.ts';
+import { findGoalRace, listRaceResults, toGoalRace, toRaceResult } from './goal-reads.service.ts';
+import { deleteGoalRace, deleteRaceResult } from './goals.repository.ts';
 import { addRaceResult, setGoalRace } from './goals.service.ts';
 
 const RunnerQuerySchema = z.object({ runner_id: z.uuid({ error: 'Not a runner id.' }).optional() });

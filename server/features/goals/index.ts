@@ -8,4 +8,4 @@ export {
   listRaceResultsOf,
   toGoalRace,
   toRaceResult,
-} from './goals.repository.ts';
+} from './goal-reads.service.ts';

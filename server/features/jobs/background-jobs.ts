@@ -42,10 +42,18 @@ export async function startBackgroundJobs({ config, store, mailer, payments }: B
   const { startPlanNoticeSweeper } = await import('../plans/plan-notices.ts');
   stops.push({ name: 'plan-change e-mails', ...startPlanNoticeSweeper(mailer, config) });
   // Files left by a crash (an original stored just before the process died, an old archive): now and hourly.
+  // runs/ sweeps originals and uploads; history/'s archive step is handed in, so neither imports the other.
   const { startOrphanSweeper } = await import('../runs/orphan-sweeper.ts');
+  const { sweepLeftoverArchives } = await import('../history/index.ts');
+  const { dataDir, orphanGraceSeconds: graceSeconds } = config;
   stops.push({
     name: 'orphan file sweep',
-    ...startOrphanSweeper({ store, dataDir: config.dataDir, graceSeconds: config.orphanGraceSeconds }),
+    ...startOrphanSweeper({
+      store,
+      dataDir,
+      graceSeconds,
+      sweepArchives: (now) => sweepLeftoverArchives(dataDir, now, graceSeconds),
+    }),
   });
   // The nightly comparison with the payment service (server/features/fees/README.md).
   if (payments) {

@@ -1,4 +1,4 @@
 // The public face of the notes feature: the only file other features (and db/) import.
 // Everything else in this folder is private to it (server/features/README.md).
 
-export { findReadNoteIds } from './notes.repository.ts';
+export { findReadNoteIds } from './note-reads.service.ts';

@@ -88,13 +88,13 @@ export async function updateNoticeSwitches(
       .where('id', userId)
       .update(Object.fromEntries(changed.map((kind) => [NOTICE_KIND_INFO[kind].column, changes[kind]])))
       .returning('*');
-    await recordSwitchChanges(userId, changed, now, t);
+    await insertSwitchChanges(userId, changed, now, t);
     return after;
   };
   return trx === db ? db.transaction(run) : run(trx);
 }
 
-export async function recordSwitchChanges(userId: string, kinds: readonly NoticeKind[], now: Date, trx: Db = db): Promise<void> {
+export async function insertSwitchChanges(userId: string, kinds: readonly NoticeKind[], now: Date, trx: Db = db): Promise<void> {
   if (kinds.length === 0) return;
   await trx('notice_switch_changes')
     .insert(kinds.map((kind) => ({ user_id: userId, kind, changed_at: now })))

@@ -1,9 +1,10 @@
-import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
+import { NOTICE_KIND_INFO, type NoticeKind } from '../../../shared/notices/kinds.ts';
 import type { NoticeSwitches, UnsubscribeAnswer, UpdateNoticeSwitchesInput } from '../../../shared/notices/schemas.ts';
 import type { AppConfig } from '../../config.ts';
+import type { Db } from '../../lib/db.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { findUserById } from '../users/index.ts';
-import { findSwitchChangedAt, toNoticeSwitches, updateNoticeSwitches } from './notices.repository.ts';
+import { findSwitchChangedAt, insertSwitchChanges, toNoticeSwitches, updateNoticeSwitches } from './notices.repository.ts';
 import { readUnsubscribeToken } from './unsubscribe-token.ts';
 
 export async function noticeSwitchesOf(userId: string): Promise<NoticeSwitches> {
@@ -62,4 +63,9 @@ export async function unsubscribeByLink(token: string, config: AppConfig, now = 
     );
   const after = await updateNoticeSwitches(user.id, { [claim.kind]: false }, now);
   return { kind: claim.kind, label: info.label, on: after ? after[info.column] : false };
+}
+
+/** Switches changed elsewhere (the profile form): unsubscribe links for them issued before `now` stop working. */
+export async function recordSwitchChanges(userId: string, kinds: readonly NoticeKind[], now: Date, trx?: Db): Promise<void> {
+  await insertSwitchChanges(userId, kinds, now, trx);
 }

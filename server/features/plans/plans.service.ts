@@ -17,10 +17,11 @@ import { findGoalRacesOf, listRaceResultsOf } from '../goals/index.ts';
 import { computePlanCheckJob } from '../compute/index.ts';
 import { getReadableRun, loadRunLaps } from '../runs/index.ts';
 import { assertCanPlanFor, assertCanReadRunner } from '../squads/index.ts';
-import { findUsersByIds, updateUserProfile } from '../users/index.ts';
+import { findUsersByIds, storePaceTolerance } from '../users/index.ts';
 import { repBlocks } from '../../../shared/plans/rep-blocks.ts';
 import type { PlanCheckAnswer } from '../../../shared/plans/plan-check-answer.ts';
 import { findPlanCheckResults, savePlanCheckResults } from './plan-check-results.repository.ts';
+import { toPlan, type StoredPlan } from './plan-view.ts';
 import { PLAN_CHECK_CODE_VERSION } from './plan-check-version.ts';
 import {
   deletePlan,
@@ -30,11 +31,9 @@ import {
   findRunPlanLinks,
   insertPlan,
   listPlans,
-  toPlan,
   updatePlan,
   upsertRunPlanLink,
   type NamedPlanRow,
-  type StoredPlan,
 } from './plans.repository.ts';
 
 /** Parses shorthand for the API: the items, their expanded list and the canonical text, or a 400 pointing at the mistake. */
@@ -307,6 +306,6 @@ export async function linkRunToPlan(actor: Actor, runId: string, planId: string 
 /** The runner or one of their coaches sets the runner's pace tolerance for the plan check. */
 export async function setPaceTolerance(actor: Actor, runnerId: string, tolerance: number): Promise<number> {
   await assertCanPlanFor(actor, runnerId);
-  await updateUserProfile(runnerId, { pace_tolerance: tolerance });
+  await storePaceTolerance(runnerId, tolerance);
   return tolerance;
 }

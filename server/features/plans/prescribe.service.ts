@@ -15,7 +15,8 @@ import { AppError, BadRequestError, ConflictError, ForbiddenError, NotFoundError
 import { assertCanPlanFor, assertCanReadRunner } from '../squads/index.ts';
 import { findUserById } from '../users/index.ts';
 import { recordPlanChanges, type PlanChangeEntry } from './plan-changes.service.ts';
-import { deletePlan, findPlanById, insertPlan, listPlans, toPlan, type StoredPlan } from './plans.repository.ts';
+import { toPlan, type StoredPlan } from './plan-view.ts';
+import { deletePlan, findPlanById, insertPlan, listPlans } from './plans.repository.ts';
 import { parsePlanText } from './plans.service.ts';
 import {
   countLibrary,

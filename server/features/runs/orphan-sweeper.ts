@@ -1,23 +1,16 @@
-import { readdir, rm, stat } from 'node:fs/promises';
+import { rm } from 'node:fs/promises';
 import path from 'node:path';
-import {
-  importIdOfArchive,
-  selectLeftoverArchives,
-  selectLeftoverUploads,
-  selectOrphanOriginals,
-  type StoredFileInfo,
-} from '../../../shared/runs/orphan-files.ts';
+import { selectLeftoverUploads, selectOrphanOriginals } from '../../../shared/runs/orphan-files.ts';
+import { listFilesWithTimes } from '../../lib/dir-listing.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { findImportStatuses } from '../history/index.ts';
-import { importsDir } from '../history/index.ts';
 import { findReferencedStorageKeys, withOriginalFilesExclusiveLock } from './original-files.repository.ts';
 import { uploadsTempDir } from './upload-to-disk.ts';
 
 /**
  * Removes files a crash left behind: an original stored by an upload whose transaction never
- * committed (the process was killed between storing the file and COMMIT), and bulk-import archives
- * no import will read again. Runs at server start and then every hour.
+ * committed (the process was killed between storing the file and COMMIT), uploads half-received,
+ * and (through `sweepArchives`) bulk-import archives no import will read again. Runs at server start and then every hour.
  */
 
 export interface SweepOptions {
@@ -27,6 +20,11 @@ export interface SweepOptions {
   graceSeconds: number;
   /** Checked between batches so a server that is closing is not held up by a long sweep. */
   shouldStop?: () => boolean;
+  /**
+   * The bulk-import archives' step (history's `sweepLeftoverArchives`), handed in by jobs/ so this
+   * feature never imports history/ (which imports runs/); without it no archive is looked at.
+   */
+  sweepArchives?: (now: Date) => Promise<string[]>;
 }
 
 export interface SweepResult {
@@ -78,39 +76,9 @@ async function sweepOrphanOriginals(options: SweepOptions, now: Date): Promise<s
   return removed;
 }
 
-async function listImportsDir(dir: string): Promise<StoredFileInfo[]> {
-  let names: string[];
-  try {
-    names = (await readdir(dir, { withFileTypes: true })).filter((e) => e.isFile()).map((e) => e.name);
-  } catch (err) {
-    if ((err as NodeJS.ErrnoException).code === 'ENOENT') return [];
-    throw err;
-  }
-  const files = await Promise.all(
-    names.map(async (name) => {
-      const info = await stat(path.join(dir, name)).catch(() => null);
-      return info ? { key: name, modifiedAt: info.mtime } : null;
-    }),
-  );
-  return files.filter((f) => f !== null);
-}
-
-async function sweepLeftoverArchives(options: SweepOptions, now: Date): Promise<string[]> {
-  const dir = importsDir(options.dataDir);
-  const files = await listImportsDir(dir);
-  const importIds = files.map((f) => importIdOfArchive(f.key)).filter((id) => id !== null);
-  const statuses = await findImportStatuses(importIds);
-  const leftovers = selectLeftoverArchives(files, statuses, now, options.graceSeconds);
-  for (const name of leftovers) {
-    await rm(path.join(dir, name), { force: true });
-    logger.warn({ file: path.join(dir, name) }, 'removed a bulk-import archive that no unfinished import needs');
-  }
-  return leftovers;
-}
-
 async function sweepLeftoverUploads(options: SweepOptions, now: Date): Promise<string[]> {
   const dir = uploadsTempDir(options.dataDir);
-  const leftovers = selectLeftoverUploads(await listImportsDir(dir), now, options.graceSeconds);
+  const leftovers = selectLeftoverUploads(await listFilesWithTimes(dir), now, options.graceSeconds);
   for (const name of leftovers) {
     await rm(path.join(dir, name), { force: true });
     logger.warn({ file: path.join(dir, name) }, 'removed an upload a crash left behind');
@@ -123,7 +91,7 @@ export async function sweepOrphans(options: SweepOptions): Promise<SweepResult> 
   // One "now" for the whole sweep: files written while it lists look new and are kept.
   const now = new Date();
   const originals = await sweepOrphanOriginals(options, now);
-  const archives = options.shouldStop?.() ? [] : await sweepLeftoverArchives(options, now);
+  const archives = options.shouldStop?.() || !options.sweepArchives ? [] : await options.sweepArchives(now);
   const uploads = options.shouldStop?.() ? [] : await sweepLeftoverUploads(options, now);
   logger.info(
     {

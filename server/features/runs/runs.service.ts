@@ -44,8 +44,8 @@ import {
   listRunsOf,
   lockRunsOf,
   renameRun,
-  toRunListItem,
 } from './runs.repository.ts';
+import { toRunListItem } from './run-list.ts';
 import { lockStorageOf, storageUsedBy } from './storage-quota.repository.ts';
 
 const GENERIC_REJECTION =

@@ -2,5 +2,5 @@
 // Everything else in this folder is private to it (server/features/README.md).
 
 export { assertCanPlanFor, assertCanReadRunner, squadCoachedBy } from './runner-access.ts';
-export { findCoachIdsOfRunner, findSquadById, listMembers } from './squads.repository.ts';
+export { findCoachIdsOfRunner, findSquadById, listMembers } from './squad-reads.service.ts';
 export { invitationVouchesFor } from './squads.service.ts';

@@ -9,8 +9,7 @@ import { inTransaction, type InvitationRow } from '../../lib/db.ts';
 import { AppError, ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { htmlMessage, type Mailer } from '../../lib/mailer.ts';
-import { findSquadFee } from '../fees/index.ts';
-import { toFee } from '../fees/index.ts';
+import { feeOfSquad } from '../fees/index.ts';
 import { recordSquadLeave, type NoticeDeps } from '../notices/index.ts';
 import { findUserById } from '../users/index.ts';
 import { squadCoachedBy } from './runner-access.ts';
@@ -171,7 +170,7 @@ export async function previewInvitation(token: string, now = new Date()) {
     email: row.email,
     status: invitationStatus(row, now),
     // A paid squad says its fee before anyone accepts (issue 20).
-    fee: toFee(await findSquadFee(squad.id)),
+    fee: await feeOfSquad(squad.id),
   };
 }
 

@@ -2,12 +2,12 @@
 // Everything else in this folder is private to it (server/features/README.md).
 
 export {
+  createUser,
   findUserByEmail,
   findUserById,
   findUsersByIds,
-  insertUser,
+  setPasswordHash,
+  storePaceTolerance,
   toProfile,
   toUser,
-  updateUserProfile,
-} from './users.repository.ts';
-export { setPasswordHash } from './users.service.ts';
+} from './users.service.ts';

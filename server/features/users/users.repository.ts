@@ -1,43 +1,17 @@
 import { db, isUniqueViolation, type Db, type UserRow, readDb } from '../../lib/db.ts';
 import { ConflictError } from '../../lib/errors.ts';
-import type { AdminUser, Profile, Role, UpdateProfileInput, User } from '../../../shared/users/schemas.ts';
+import type { Role, UpdateProfileInput } from '../../../shared/users/schemas.ts';
 
-export function toUser(row: UserRow): User {
-  return { id: row.id, email: row.email, name: row.name, role: row.role };
-}
-
-export function toProfile(row: UserRow): Profile {
-  return {
-    ...toUser(row),
-    unit: row.unit,
-    birth_year: row.birth_year,
-    resting_hr: row.resting_hr,
-    max_hr: row.max_hr,
-    weight_kg: row.weight_kg,
-    time_zone: row.time_zone,
-    pace_tolerance: row.pace_tolerance,
-    notify_on_import: row.notify_on_import,
-    notify_on_plan_change: row.notify_on_plan_change,
-    week_starts_on: row.week_starts_on,
-    sex: row.sex,
-    created_at: row.created_at.toISOString(),
-  };
-}
-
-export function toAdminUser(row: UserRow): AdminUser {
-  return { ...toUser(row), created_at: row.created_at.toISOString() };
-}
-
-export async function findUserById(id: string, trx: Db = readDb()): Promise<UserRow | undefined> {
+export async function selectUserById(id: string, trx: Db = readDb()): Promise<UserRow | undefined> {
   return trx('users').where({ id }).first();
 }
 
-export async function findUsersByIds(ids: readonly string[], trx: Db = readDb()): Promise<UserRow[]> {
+export async function selectUsersByIds(ids: readonly string[], trx: Db = readDb()): Promise<UserRow[]> {
   if (ids.length === 0) return [];
   return trx('users').whereIn('id', ids);
 }
 
-export async function findUserByEmail(email: string, trx: Db = db): Promise<UserRow | undefined> {
+export async function selectUserByEmail(email: string, trx: Db = db): Promise<UserRow | undefined> {
   return trx('users').whereRaw('lower(email) = lower(?)', [email]).first();
 }
 
@@ -51,7 +25,7 @@ export interface NewUser {
   timeZone?: string;
 }
 
-export async function insertUser(user: NewUser, trx: Db = db): Promise<UserRow> {
+export async function insertUserRow(user: NewUser, trx: Db = db): Promise<UserRow> {
   try {
     const [row] = await trx('users')
       .insert({

@@ -9,7 +9,7 @@ import {
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { parseIdParam } from '../../lib/ids.ts';
-import { toProfile } from './users.repository.ts';
+import { toProfile } from './users.service.ts';
 import { changeRole, listAllUsers, updateProfile } from './users.service.ts';
 
 export function createUsersRouter() {

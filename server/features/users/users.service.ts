@@ -1,18 +1,71 @@
 import { NOTICE_KIND_INFO, NOTICE_KINDS } from '../../../shared/notices/kinds.ts';
 import { recordSwitchChanges } from '../notices/index.ts';
-import type { Db } from '../../lib/db.ts';
+import type { Db, UserRow } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import {
-  findUserById,
+  insertUserRow,
   listUsers,
-  toAdminUser,
-  toProfile,
-  toUser,
-  updateUserProfile,
+  selectUserByEmail,
+  selectUserById,
+  selectUsersByIds,
+  type NewUser,
   updatePasswordHash,
+  updateUserProfile,
   updateUserRole,
 } from './users.repository.ts';
 import type { AdminUser, Profile, Role, UpdateProfileInput, User } from '../../../shared/users/schemas.ts';
+
+// ── The face: what other features read and write of a user (server/features/README.md) ──
+
+export function toUser(row: UserRow): User {
+  return { id: row.id, email: row.email, name: row.name, role: row.role };
+}
+
+export function toProfile(row: UserRow): Profile {
+  return {
+    ...toUser(row),
+    unit: row.unit,
+    birth_year: row.birth_year,
+    resting_hr: row.resting_hr,
+    max_hr: row.max_hr,
+    weight_kg: row.weight_kg,
+    time_zone: row.time_zone,
+    pace_tolerance: row.pace_tolerance,
+    notify_on_import: row.notify_on_import,
+    notify_on_plan_change: row.notify_on_plan_change,
+    week_starts_on: row.week_starts_on,
+    sex: row.sex,
+    created_at: row.created_at.toISOString(),
+  };
+}
+
+export function toAdminUser(row: UserRow): AdminUser {
+  return { ...toUser(row), created_at: row.created_at.toISOString() };
+}
+
+/** The user with this id; a read a streaming replica may serve unless `trx` is given. */
+export function findUserById(id: string, trx?: Db): Promise<UserRow | undefined> {
+  return selectUserById(id, trx);
+}
+
+export function findUsersByIds(ids: readonly string[], trx?: Db): Promise<UserRow[]> {
+  return selectUsersByIds(ids, trx);
+}
+
+/** The user with this e-mail address, whatever its case. */
+export function findUserByEmail(email: string, trx?: Db): Promise<UserRow | undefined> {
+  return selectUserByEmail(email, trx);
+}
+
+/** A new account (auth has checked the address and hashed the password); 409 with a sentence when the address is taken. */
+export function createUser(user: NewUser, trx?: Db): Promise<UserRow> {
+  return insertUserRow(user, trx);
+}
+
+/** The runner's pace tolerance for the plan check (plans decides who may set it). */
+export async function storePaceTolerance(userId: string, tolerance: number): Promise<void> {
+  await updateUserProfile(userId, { pace_tolerance: tolerance });
+}
 
 export async function updateProfile(userId: string, changes: UpdateProfileInput): Promise<Profile> {
   const current = await findUserById(userId);

@@ -91,6 +91,25 @@ describe('server feature boundaries', { timeout: 60_000 }, () => {
     }
   });
 
+  it('a public face never re-exports a repository: it offers service functions', async () => {
+    const fired = await rulesFiredFor(
+      'server/features/goals/index.ts',
+      "export { findGoalRace } from './goals.repository.ts';\n",
+    );
+    expect(fired).toEqual([expect.stringMatching(/^no-restricted-syntax: A repository is private to its feature/)]);
+    expect(
+      await rulesFiredFor('server/features/goals/index.ts', "export { findGoalRace } from './goal-reads.service.ts';\n"),
+    ).toEqual([]);
+  });
+
+  it('runs/ never imports history/, even through its face (history imports runs)', async () => {
+    const fired = await rulesFiredFor(
+      'server/features/runs/boundary-probe.ts',
+      "import { sweepLeftoverArchives } from '../history/index.ts';\nexport const probe = sweepLeftoverArchives;\n",
+    );
+    expect(fired).toEqual([expect.stringMatching(/^import-x\/no-restricted-paths: .*runs\/ never imports history\//)]);
+  });
+
   it('a public face names what it exports: no export *', async () => {
     const fired = await rulesFiredFor('server/features/goals/index.ts', "export * from './goals.service.ts';\n");
     expect(fired).toEqual([expect.stringMatching(/^no-restricted-syntax: Name what the feature makes public/)]);
