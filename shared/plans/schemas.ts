@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { CONTROL_CHARACTER, CONTROL_CHARACTER_MESSAGE } from '../api/text.ts';
 import { calendarDateSchema } from '../api/calendar-date.ts';
 import { countExpandedParts } from './expand.ts';
 import { parseShorthand } from './shorthand.ts';
@@ -13,13 +14,16 @@ export const PlanDateSchema = calendarDateSchema('2026-10-03');
 const TitleSchema = z
   .string({ error: 'A title is text.' })
   .trim()
-  .max(L.maxTitleLength, `Keep the title under ${L.maxTitleLength} characters.`);
+  .max(L.maxTitleLength, `Keep the title under ${L.maxTitleLength} characters.`)
+  // The server refuses these for every field (issue 13 #13); the form says so at the field as it is typed (issue 17).
+  .refine((text) => !CONTROL_CHARACTER.test(text), CONTROL_CHARACTER_MESSAGE);
 
 /** Free notes on a session ("on the track, lane 3"); blank means none. */
 const NotesSchema = z
   .string({ error: 'Notes are text.' })
   .trim()
-  .max(L.maxTextLength, `Keep the notes under ${L.maxTextLength} characters.`);
+  .max(L.maxTextLength, `Keep the notes under ${L.maxTextLength} characters.`)
+  .refine((text) => !CONTROL_CHARACTER.test(text), CONTROL_CHARACTER_MESSAGE);
 
 const DistanceAmountSchema = z
   .object({

@@ -1,6 +1,7 @@
 import { screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { CONTROL_CHARACTER_MESSAGE } from '../../../shared/api/text.ts';
 import type { Plan } from '../../../shared/plans/schemas.ts';
 import { SessionEditor } from '../../../client/features/plans/components/session-editor.tsx';
 import { descriptionOf, fakeServer, renderAt, type SentRequest } from '../support/render.tsx';
@@ -127,5 +128,30 @@ describe('Session editor', () => {
     expect(onDone.mock.calls[0]![0]).toMatchObject({ date: '2026-12-08', text: SESSION });
     expect(onDone.mock.calls[0]![1]).toBe('Session added.');
     expect(posts(sent)).toHaveLength(2);
+  });
+
+  it('a title with an invisible control character is refused at the field, as the server would, and nothing is sent', async () => {
+    const sent = fakeServer(() => ({ status: 201, body: {} }));
+    showEditor();
+    const u = userEvent.setup();
+    await pasteShorthand(u, SESSION);
+    const title = control('Title (optional)');
+    await u.click(title);
+    // U+0007 (BEL) pasted from another program: shared/api/text.ts refuses C0 controls other than tab and line breaks.
+    await u.paste('Track\u0007 400s');
+    await u.tab();
+    expect(title.getAttribute('aria-invalid')).toBe('true');
+    expect(descriptionOf(title)).toBe(CONTROL_CHARACTER_MESSAGE);
+    await u.click(screen.getByRole('button', { name: 'Save session' }));
+    expect(posts(sent)).toEqual([]);
+    expect(title.value).toBe('Track\u0007 400s');
+
+    // Typing the title again answers the message, and the save goes out.
+    await u.clear(title);
+    await u.type(title, 'Track 400s');
+    expect(title.getAttribute('aria-invalid')).toBeNull();
+    await u.click(screen.getByRole('button', { name: 'Save session' }));
+    await vi.waitFor(() => expect(posts(sent)).toHaveLength(1));
+    expect(posts(sent)[0]!.body).toMatchObject({ title: 'Track 400s', text: SESSION });
   });
 });
