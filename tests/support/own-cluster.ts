@@ -49,9 +49,20 @@ export function ownCluster(database: string, port: number, replicaPort = port + 
     }
   };
   return {
+    /** PGBASE and PGPORT for a child process that runs db/pg.sh on this same cluster (e.g. `npm start`). */
+    env: { PGBASE: env.PGBASE, PGPORT: env.PGPORT },
     url: `postgres://postgres@127.0.0.1:${port}/${database}`,
     replicaUrl: `postgres://postgres@127.0.0.1:${replicaPort}/${database}`,
     start: () => pgSh('start', database),
+    /** Whether the primary runs (`db/pg.sh status` exits 0 when running, 3 when stopped). */
+    isRunning: () => {
+      try {
+        execFileSync('bash', [path.join(ROOT, 'db/pg.sh'), 'status'], { env, stdio: 'pipe', timeout: 30_000 });
+        return true;
+      } catch {
+        return false;
+      }
+    },
     /** `pg_ctl stop -m fast` on the primary: open sessions are cut with "terminating connection due to administrator command". */
     stop: () => pgSh('stop'),
     startReplica: () => pgSh('replica', 'start'),
