@@ -21,6 +21,10 @@
  * more jitter, the lower the cut-off; clean files (jitter under `MIN_JITTER_M`) and sparse files
  * (median interval over `MAX_SMOOTHED_INTERVAL_S`) are not smoothed at all.
  *
+ * The slow part of the receiver's wander cannot be smoothed away (it moves like a runner); the length
+ * its across-track velocity still adds to each smoothed step is taken out afterwards
+ * (`measureWander`, `smoothedStepNoiseVariance`, `stepWithoutNoise`; shared/tracks/README.md).
+ *
  * Pure: no I/O, inputs are not modified.
  */
 
@@ -139,6 +143,162 @@ export function measureJitter(
   if (m < 20) return { sigma_m: 0, median_interval_s: medianMs / 1000, samples: m };
   const spread = median(third, m) / 0.6744897501960817;
   return { sigma_m: spread / Math.sqrt(20), median_interval_s: medianMs / 1000, samples: m };
+}
+
+/**
+ * The receiver's error per axis as two parts: white jitter (independent from point to point) and a
+ * slow wander, a first-order Gauss–Markov process (an Ornstein–Uhlenbeck position bias: variance
+ * `sigma_m`², correlation time `tau_s`), as consumer receivers show.
+ */
+export interface WanderModel {
+  white_m: number;
+  sigma_m: number;
+  tau_s: number;
+}
+
+/**
+ * Robust variance (m², per axis) of third differences over points `lag` intervals apart,
+ * x(i) − 3x(i − L) + 3x(i − 2L) − x(i − 3L), on evenly spaced points of one segment; NaN when fewer
+ * than 20 could be formed.
+ */
+export function thirdDifferenceVariance(
+  t: ArrayLike<number>,
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  lag: number,
+  intervalMs: number,
+): number {
+  const n = t.length;
+  if (n < 3 * lag + 1 || !(intervalMs > 0)) return Number.NaN;
+  const { north, east } = metresPerDegree(lat[0] as number);
+  const stride = Math.max(1, Math.floor(n / JITTER_SAMPLE));
+  const third = new Float64Array(2 * Math.ceil(n / stride) + 2);
+  const span = 3 * lag * intervalMs;
+  let m = 0;
+  for (let i = 3 * lag; i < n; i += stride) {
+    // No segment break inside the span, and every one of its intervals the usual one (within 1 %).
+    let even = Math.abs((t[i] as number) - (t[i - 3 * lag] as number) - span) <= span * 0.01;
+    for (let j = i - 3 * lag + 1; even && j <= i; j++)
+      even = !segmentStart[j] && Math.abs((t[j] as number) - (t[j - 1] as number) - intervalMs) <= intervalMs * 0.01;
+    if (!even) continue;
+    const a = i - lag;
+    const b = i - 2 * lag;
+    const c = i - 3 * lag;
+    const dLat = (lat[i] as number) - 3 * (lat[a] as number) + 3 * (lat[b] as number) - (lat[c] as number);
+    const dLon = (lon[i] as number) - 3 * (lon[a] as number) + 3 * (lon[b] as number) - (lon[c] as number);
+    third[m++] = Math.abs(dLat * north);
+    third[m++] = Math.abs(dLon * east);
+  }
+  if (m < 20) return Number.NaN;
+  const spread = median(third, m) / 0.6744897501960817;
+  return spread * spread;
+}
+
+/**
+ * Correlation time assumed for the wander, s. Positions alone cannot tell a wander that slow from the
+ * runner's own path (both move smoothly), so it is not measured; consumer receivers' errors are
+ * correlated over tens of seconds to minutes. What adds length is the wander's velocity noise
+ * D = 2σ²/τ, which is measured from the file; with D fixed, τ from 20 to 120 s moves the predicted
+ * step noise by under 10 %.
+ */
+export const WANDER_CORRELATION_S = 60;
+
+/**
+ * Splits the file's own jitter into white jitter and a slow wander from third differences at lags of
+ * one and two intervals. White noise of variance r gives 20 r at every lag; a wander of variance σ²
+ * and correlation time τ ≫ the lag gives 12 σ² L Δt / τ (it moves like a random walk of velocity
+ * noise density D = 2σ²/τ, third differences 6 D L Δt): so D = (V₂ − V₁) / (6 Δt) and
+ * r = (2 V₁ − V₂) / 20. τ is `WANDER_CORRELATION_S` and σ² = D τ / 2. Null when the jitter cannot
+ * be split (too few even points).
+ */
+export function measureWander(
+  t: ArrayLike<number>,
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  jitter: JitterEstimate,
+  tauS = WANDER_CORRELATION_S,
+): WanderModel | null {
+  const intervalMs = jitter.median_interval_s * 1000;
+  const v1 = thirdDifferenceVariance(t, lat, lon, segmentStart, 1, intervalMs);
+  const v2 = thirdDifferenceVariance(t, lat, lon, segmentStart, 2, intervalMs);
+  if (!Number.isFinite(v1) || !Number.isFinite(v2)) return null;
+  const density = Math.max(0, (v2 - v1) / (6 * jitter.median_interval_s));
+  const white = Math.max(0, (2 * v1 - v2) / 20);
+  return { white_m: Math.sqrt(white), sigma_m: Math.sqrt((density * tauS) / 2), tau_s: tauS };
+}
+
+/** Points either side of the impulse when the smoother's response is taken (it decays within a few tens of seconds). */
+const RESPONSE_HALF_WIDTH = 120;
+
+/**
+ * The smoother's weights on evenly spaced points: its response to one unit measurement in the middle
+ * of a long stretch (index `RESPONSE_HALF_WIDTH` + m is the weight of the measurement m points away).
+ */
+export function smootherWeights(intervalS: number, filterSigmaM: number, q = ACCELERATION_DENSITY): Float64Array {
+  const n = 2 * RESPONSE_HALF_WIDTH + 1;
+  const t = Float64Array.from({ length: n }, (_, i) => i * intervalS * 1000);
+  const z = new Float64Array(n);
+  z[RESPONSE_HALF_WIDTH] = 1;
+  const w = new Float64Array(n);
+  smoothStretch(t, z, new Float64Array(n), w, new Float64Array(n), new Float64Array(2 * n), 0, n, filterSigmaM * filterSigmaM, q);
+  return w;
+}
+
+/**
+ * Variance (m², per axis) that the receiver's error leaves in one step of the smoothed path, for a
+ * track `intervalS` seconds apart smoothed by `smoothPositions` with noise `filterSigmaM` and
+ * acceleration density `q`, when the error is white jitter plus a first-order Gauss–Markov wander
+ * (`noise`). Exact for the smoother away from the ends of a stretch: the smoother is linear, so its
+ * smoothed position is Σ w(m) zᵢ₋ₘ with the weights w read off its response to one unit measurement,
+ * a step's error is Σ g(m) nᵢ₋ₘ with g(m) = w(m) − w(m − 1), and its variance is
+ * Σₘ Σₗ g(m) g(l) C(m − l) with C the error's autocovariance σ² ρ^|k| + r δₖ.
+ */
+export function smoothedStepNoiseVariance(
+  intervalS: number,
+  filterSigmaM: number,
+  noise: WanderModel,
+  q = ACCELERATION_DENSITY,
+): number {
+  const w = smootherWeights(intervalS, filterSigmaM, q);
+  // Weight of the measurement m points before: w(m) = response at RESPONSE_HALF_WIDTH + m.
+  const half = RESPONSE_HALF_WIDTH - 1;
+  const g = new Float64Array(2 * half + 1);
+  for (let m = -half; m <= half; m++)
+    g[m + half] = (w[RESPONSE_HALF_WIDTH + m] as number) - (w[RESPONSE_HALF_WIDTH + m - 1] as number);
+  const rho = Math.exp(-intervalS / noise.tau_s);
+  const wander = noise.sigma_m * noise.sigma_m;
+  const white = noise.white_m * noise.white_m;
+  const covariance = Float64Array.from({ length: g.length }, (_, k) => wander * rho ** k);
+  let variance = 0;
+  for (let a = 0; a < g.length; a++) {
+    const ga = g[a] as number;
+    if (ga === 0) continue;
+    variance += ga * ga * white;
+    for (let b = 0; b < g.length; b++) variance += ga * (g[b] as number) * (covariance[Math.abs(a - b)] as number);
+  }
+  return variance;
+}
+
+/**
+ * The noise correction of a step's length is applied only when the excess it removes, at the run's
+ * median moving step, is at least this share of the distance. Below it, the other biases of the
+ * measure (corners the smoother rounds, running lost at the edges of stops: −0.1 to −0.3 % on the
+ * generated tracks with 0.3–1 m of wander) are as large as the excess, and removing one without the
+ * others made splits worse there (shared/tracks/README.md, "The wander").
+ */
+export const MIN_CORRECTED_EXCESS = 0.003;
+
+/**
+ * Length of one smoothed step with the receiver's error taken out (method of moments). A step of true
+ * length ℓ with an error of variance s² per axis measures ℓ̂² = (ℓ + e_along)² + e_across², whose
+ * across part adds s² / (2ℓ) on average: the length a noisy path gains (Ranacher et al. 2016, "Why GPS
+ * makes distances bigger than they are", Int. J. Geographical Information Science 30(2)). So
+ * √(ℓ̂² − s²) is the step's length without that gain, to first order in s / ℓ; 0 when ℓ̂² < s².
+ */
+export function stepWithoutNoise(measured: number, stepNoiseVariance: number): number {
+  return Math.sqrt(Math.max(0, measured * measured - stepNoiseVariance));
 }
 
 /** Whether a track with this jitter is smoothed at all (clean or sparse tracks are not). */

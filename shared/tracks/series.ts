@@ -15,8 +15,14 @@ import {
   MAX_SMOOTHED_INTERVAL_S,
   measureJitter,
   shouldSmooth,
+  measureWander,
+  MIN_CORRECTED_EXCESS,
+  smoothedStepNoiseVariance,
   smoothPositions,
   SPARSE_FLOOR_JITTER_M,
+  stepWithoutNoise,
+  type JitterEstimate,
+  type WanderModel,
 } from './position-smoother.ts';
 import type { CleanTrack, DistanceReport, DistanceSource, TrackSeries } from './types.ts';
 
@@ -130,18 +136,27 @@ export function buildSeries(track: CleanTrack): TrackSeries {
         approxDistance(smooth.lat[a] as number, smooth.lon[a] as number, smooth.lat[b] as number, smooth.lon[b] as number);
       classifyMoving(t, segmentOf, displacement, moving, noiseAwareMovingSpeed(jitter.sigma_m));
       const bends = arcFactors(t, smooth.lat, smooth.lon, segmentBreak, moving);
+      const chords = new Float64Array(n);
+      for (let i = 1; i < n; i++)
+        if (moving[i])
+          chords[i] = localDistance(
+            smooth.lat[i - 1] as number,
+            smooth.lon[i - 1] as number,
+            smooth.lat[i] as number,
+            smooth.lon[i] as number,
+          );
+      // The slow wander the smoother lets through still adds length (position-smoother.ts,
+      // `stepWithoutNoise`): taken out when it is large enough to matter (`MIN_CORRECTED_EXCESS`).
+      const stepNoise = noiseToRemove(t, chords, moving, jitter, measureWander(t, lat, lon, segmentBreak, jitter));
+      const intervalMs = jitter.median_interval_s * 1000;
       let raw = 0;
       for (let i = 1; i < n; i++) {
         let step = 0;
         if (moving[i]) {
-          step =
-            (bends[i] as number) *
-            localDistance(
-              smooth.lat[i - 1] as number,
-              smooth.lon[i - 1] as number,
-              smooth.lat[i] as number,
-              smooth.lon[i] as number,
-            );
+          const dt = (t[i] as number) - (t[i - 1] as number);
+          // Only steps of the usual interval: the variance is that of one such step.
+          const noise = dt <= 1.5 * intervalMs ? stepNoise * (dt / intervalMs) ** 2 : 0;
+          step = (bends[i] as number) * stepWithoutNoise(chords[i] as number, noise);
           raw += localDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number);
         }
         d[i] = (d[i - 1] as number) + step;
@@ -271,6 +286,30 @@ function approxDistance(lat1: number, lon1: number, lat2: number, lon2: number):
   const dy = ((lat2 - lat1) * Math.PI * meridian) / 180;
   const dx = (dLon * Math.PI * normal * Math.cos(phi)) / 180;
   return Math.hypot(dx, dy);
+}
+
+/**
+ * Variance (m², per axis) of the receiver's error left in one smoothed step, when the excess length it
+ * adds at the run's median moving step is at least `MIN_CORRECTED_EXCESS`; else 0 (nothing removed).
+ */
+export function noiseToRemove(
+  t: ArrayLike<number>,
+  chords: Float64Array,
+  moving: Uint8Array,
+  jitter: JitterEstimate,
+  wander: WanderModel | null,
+): number {
+  if (!wander) return 0;
+  const variance = smoothedStepNoiseVariance(jitter.median_interval_s, jitter.sigma_m, wander);
+  const intervalMs = jitter.median_interval_s * 1000;
+  const steps = new Float64Array(chords.length);
+  let count = 0;
+  for (let i = 1; i < chords.length; i++)
+    if (moving[i] && Math.abs((t[i] as number) - (t[i - 1] as number) - intervalMs) <= intervalMs * 0.01)
+      steps[count++] = chords[i] as number;
+  if (count === 0) return 0;
+  const typical = steps.subarray(0, count).sort()[count >> 1] as number;
+  return typical > 0 && variance / (2 * typical * typical) >= MIN_CORRECTED_EXCESS ? variance : 0;
 }
 
 /**

@@ -45,10 +45,11 @@ describe('splits of generated 1 s GPX tracks against their exact truth (fast-che
     expect(smoothed).toBeGreaterThan(150);
   }, 300_000);
 
-  it('heavier wander (1–3 m per axis over 20–120 s): the distance is not biased long, mean total error under 0.3 % (100 tracks)', () => {
-    // Splits are not held to 4.5 s here: a wander of σ moves each split boundary along the path by
-    // about σ / speed whatever the method (shared/tracks/README.md); what smoothing must remove is
-    // the length the wander adds, which the issue wants well under 0.5 %.
+  it('heavier wander (1–3 m per axis over 20–120 s): the distance is not biased, mean total error within ±0.1 % (100 tracks)', () => {
+    // Splits are not held to 4.5 s here (shared/tracks/README.md, "The wander": the worst is 14 s).
+    // What must go is the length the wander adds, which the issue wants well under 0.5 %: the smoother
+    // leaves the slow part of the wander in the path (it cannot be told from the runner's own moves),
+    // and the step correction (`stepWithoutNoise`) takes out the length it adds.
     const totals: number[] = [];
     fc.assert(
       fc.property(trackOptions(noise(1, 3), fc.constant(1)), (options) => {
@@ -59,7 +60,7 @@ describe('splits of generated 1 s GPX tracks against their exact truth (fast-che
       { numRuns: 100, seed: SEED },
     );
     const mean = totals.reduce((a, b) => a + b, 0) / totals.length;
-    expect(Math.abs(mean)).toBeLessThan(0.003);
+    expect(Math.abs(mean)).toBeLessThan(0.001);
   }, 300_000);
 });
 

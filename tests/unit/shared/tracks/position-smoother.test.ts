@@ -6,9 +6,13 @@ import {
   hermiteLength,
   localDistance,
   measureJitter,
+  measureWander,
   metresPerDegree,
+  MIN_CORRECTED_EXCESS,
   shouldSmooth,
+  smoothedStepNoiseVariance,
   smoothPositions,
+  stepWithoutNoise,
 } from '../../../../shared/tracks/position-smoother.ts';
 import { createPrng } from '../../../../shared/tracks/synthetic.ts';
 
@@ -268,5 +272,113 @@ describe('curveFactors and hermiteLength', () => {
       new Uint8Array(40).fill(1),
     );
     for (let i = 1; i < 40; i++) expect(lineFactors[i]).toBeCloseTo(1, 6);
+  });
+});
+
+/**
+ * A run due north at `speed` m/s, 1 s apart, with the receiver's error as a first-order Gauss–Markov
+ * wander (σ, τ) per axis plus white jitter (north only, so both axes are measured on one scale).
+ */
+function wandering(n: number, speed: number, sigma: number, tau: number, white: number, seed: number) {
+  const random = createPrng(seed);
+  const scale = metresPerDegree(46);
+  const rho = Math.exp(-1 / tau);
+  const k = sigma * Math.sqrt(1 - rho * rho);
+  let east = sigma * gaussian(random);
+  let north = sigma * gaussian(random);
+  const t = new Float64Array(n);
+  const lat = new Float64Array(n);
+  const lon = new Float64Array(n);
+  const northError = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    east = rho * east + k * gaussian(random);
+    north = rho * north + k * gaussian(random);
+    northError[i] = north + white * gaussian(random);
+    t[i] = i * 1000;
+    lat[i] = 46 + (i * speed + (northError[i] as number)) / scale.north;
+    lon[i] = 7 + (east + white * gaussian(random)) / scale.east;
+  }
+  return { t, lat, lon, segment: new Uint8Array(n), northError };
+}
+
+describe('the wander and the length it adds', () => {
+  it.each([
+    [2, 30, 0],
+    [3, 60, 0.3],
+    [1, 120, 0.2],
+  ])(
+    'measureWander splits σ = %f m, τ = %f s, white %f m into its velocity noise 2σ²/τ within 15 %% and the white part within 0.05 m',
+    (sigma, tau, white) => {
+      const track = wandering(20_000, 3, sigma, tau, white, 11);
+      const jitter = measureJitter(track.t, track.lat, track.lon, track.segment);
+      const wander = measureWander(track.t, track.lat, track.lon, track.segment, jitter)!;
+      const density = (2 * wander.sigma_m ** 2) / wander.tau_s;
+      expect(Math.abs(density / ((2 * sigma ** 2) / tau) - 1)).toBeLessThan(0.15);
+      expect(Math.abs(wander.white_m - white)).toBeLessThan(0.05);
+    },
+  );
+
+  it('smoothedStepNoiseVariance predicts the error the smoother leaves in a step (against a simulation of the same noise, within 8 %)', () => {
+    const sigma = 2.5;
+    const tau = 30;
+    const white = 0.2;
+    const track = wandering(40_000, 0, sigma, tau, white, 5);
+    // Noise only (the runner stands): every smoothed step is error.
+    const filterSigma = 0.4;
+    const smooth = smoothPositions(track.t, track.lat, track.lon, track.segment, filterSigma);
+    const scale = metresPerDegree(46);
+    let sum = 0;
+    let count = 0;
+    for (let i = 1000; i < 39_000; i++) {
+      const step = ((smooth.lat[i] as number) - (smooth.lat[i - 1] as number)) * scale.north;
+      sum += step * step;
+      count++;
+    }
+    const predicted = smoothedStepNoiseVariance(1, filterSigma, { white_m: white, sigma_m: sigma, tau_s: tau });
+    expect(Math.abs(predicted / (sum / count) - 1)).toBeLessThan(0.08);
+  });
+
+  it('stepWithoutNoise takes out the excess a noisy step gains on average, s²/(2ℓ) (Ranacher et al. 2016)', () => {
+    const random = createPrng(3);
+    const length = 2.5;
+    const s = 0.3;
+    let raw = 0;
+    let corrected = 0;
+    const n = 200_000;
+    for (let i = 0; i < n; i++) {
+      const measured = Math.hypot(length + s * gaussian(random), s * gaussian(random));
+      raw += measured;
+      corrected += stepWithoutNoise(measured, s * s);
+    }
+    // The raw mean is long by about s²/(2ℓ) = 0.72 %; the corrected one is within 0.05 %.
+    expect(raw / n / length - 1).toBeCloseTo((s * s) / (2 * length * length), 3);
+    expect(Math.abs(corrected / n / length - 1)).toBeLessThan(0.0005);
+    expect(stepWithoutNoise(0.1, 0.09)).toBe(0);
+  });
+
+  it('a run with 2.5 m of slow wander: the smoothed length is long, the corrected length is not (straight, 2.5 m/s)', () => {
+    const track = wandering(20_000, 2.5, 2.5, 30, 0, 21);
+    const jitter = measureJitter(track.t, track.lat, track.lon, track.segment);
+    const wander = measureWander(track.t, track.lat, track.lon, track.segment, jitter)!;
+    const smooth = smoothPositions(track.t, track.lat, track.lon, track.segment, jitter.sigma_m);
+    const noise = smoothedStepNoiseVariance(1, jitter.sigma_m, wander);
+    // The correction is applied to this track: its excess is over the threshold.
+    expect(noise / (2 * 2.5 * 2.5)).toBeGreaterThan(MIN_CORRECTED_EXCESS);
+    let smoothed = 0;
+    let corrected = 0;
+    for (let i = 1; i < 20_000; i++) {
+      const step = localDistance(
+        smooth.lat[i - 1] as number,
+        smooth.lon[i - 1] as number,
+        smooth.lat[i] as number,
+        smooth.lon[i] as number,
+      );
+      smoothed += step;
+      corrected += stepWithoutNoise(step, noise);
+    }
+    // The truth is the distance run plus the wander's own net move along it (first to last point).
+    const truth = 2.5 * 19_999 + (track.northError[19_999] as number) - (track.northError[0] as number);
+    expect(smoothed / truth - 1).toBeGreaterThan(0.003);
+    expect(Math.abs(corrected / truth - 1)).toBeLessThan(0.001);
   });
 });
