@@ -252,6 +252,22 @@ export interface PlanCheckResultRow {
   computed_at: Date;
 }
 
+export interface WeekInputCounterRow {
+  runner_id: string;
+  counter: string;
+}
+
+export interface AssembledWeekRow {
+  runner_id: string;
+  week_start: string;
+  variant: string;
+  counter: string;
+  code_version: string;
+  today: string;
+  body: unknown;
+  computed_at: Date;
+}
+
 export interface DevOutboxRow {
   id: string;
   to: string;
@@ -515,6 +531,8 @@ declare module 'knex/types/tables.js' {
     calendar_feeds: CalendarFeedRow;
     plan_check_results: PlanCheckResultRow;
     dev_outbox: DevOutboxRow;
+    week_input_counters: WeekInputCounterRow;
+    assembled_weeks: AssembledWeekRow;
     notices: NoticeRow;
     notice_switch_changes: NoticeSwitchChangeRow;
     invitations: InvitationRow;

@@ -1,4 +1,5 @@
 import { db, type Db, type FuelItemRow, type FuelPlanRow, type FuelTakenRow, type RunCheckinRow, readDb } from '../../lib/db.ts';
+import { bumpWeekInputs, bumpWeekInputsOfRuns } from '../week-cache/index.ts';
 import type { FuelItem, FuelItemInput, FuelItemPatch } from '../../../shared/fuel/schemas.ts';
 import type { FuelTargets } from '../../../shared/fuel/targets.ts';
 import type { TakenEntry } from '../../../shared/fuel/taken.ts';
@@ -83,11 +84,17 @@ export async function upsertFuelPlan(owner: FuelPlanOwner, values: FuelPlanValue
     .onConflict(conflict)
     .merge()
     .returning('*');
+  await bumpWeekInputs([(row as FuelPlanRow).runner_id], trx);
   return row as FuelPlanRow;
 }
 
 export async function deleteFuelPlan(owner: FuelPlanOwner, trx: Db = db): Promise<boolean> {
-  return (await trx('fuel_plans').where(owner).delete()) > 0;
+  const gone: Array<{ runner_id: string }> = await trx('fuel_plans').where(owner).delete().returning('runner_id');
+  await bumpWeekInputs(
+    gone.map((r) => r.runner_id),
+    trx,
+  );
+  return gone.length > 0;
 }
 
 export async function findFuelTaken(runId: string, trx: Db = db): Promise<FuelTakenRow | undefined> {
@@ -109,6 +116,7 @@ export async function upsertFuelTaken(
     .onConflict('run_id')
     .merge()
     .returning('*');
+  await bumpWeekInputsOfRuns([runId], trx);
   return row as FuelTakenRow;
 }
 
@@ -127,5 +135,6 @@ export async function upsertRunCheckin(values: Omit<RunCheckinRow, 'updated_at'>
     .onConflict('run_id')
     .merge()
     .returning('*');
+  await bumpWeekInputsOfRuns([values.run_id], trx);
   return row as RunCheckinRow;
 }

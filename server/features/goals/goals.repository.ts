@@ -1,4 +1,5 @@
 import { db, type Db, type GoalRaceRow, type RaceResultRow, readDb } from '../../lib/db.ts';
+import { bumpWeekInputs } from '../week-cache/index.ts';
 import type { GoalRaceInput, RaceResultInput } from '../../../shared/goals/schemas.ts';
 
 export async function findGoalRace(userId: string, trx: Db = db): Promise<GoalRaceRow | undefined> {
@@ -16,11 +17,14 @@ export async function upsertGoalRace(userId: string, goal: GoalRaceInput, trx: D
     .onConflict('user_id')
     .merge()
     .returning('*');
+  await bumpWeekInputs([userId], trx);
   return row as GoalRaceRow;
 }
 
 export async function deleteGoalRace(userId: string, trx: Db = db): Promise<boolean> {
-  return (await trx('goal_races').where({ user_id: userId }).delete()) > 0;
+  const deleted = (await trx('goal_races').where({ user_id: userId }).delete()) > 0;
+  if (deleted) await bumpWeekInputs([userId], trx);
+  return deleted;
 }
 
 export async function listRaceResults(userId: string, trx: Db = db): Promise<RaceResultRow[]> {
@@ -43,9 +47,12 @@ export async function insertRaceResult(userId: string, result: RaceResultInput, 
       time_s: result.time_s,
     })
     .returning('*');
+  await bumpWeekInputs([userId], trx);
   return row as RaceResultRow;
 }
 
 export async function deleteRaceResult(userId: string, id: string, trx: Db = db): Promise<boolean> {
-  return (await trx('race_results').where({ user_id: userId, id }).delete()) > 0;
+  const deleted = (await trx('race_results').where({ user_id: userId, id }).delete()) > 0;
+  if (deleted) await bumpWeekInputs([userId], trx);
+  return deleted;
 }

@@ -1,4 +1,5 @@
 import type { Db } from '../../lib/db.ts';
+import { forgetWeeksNaming } from '../week-cache/index.ts';
 import { deleteImportJobs } from './imports.repository.ts';
 
 export interface AccountRemains {
@@ -28,6 +29,7 @@ export async function deleteUserEverywhere(userId: string, email: string, trx: D
     imports.map((i) => i.id),
     trx,
   );
+  await forgetWeeksNaming(userId, trx);
   await trx('users').where({ id: userId }).delete();
   return { storageKeys: files.map((f) => f.storage_key), importIds: imports.map((i) => i.id) };
 }

@@ -3,4 +3,5 @@
 
 export { findFirstPlanOnDate, findPlanById, findRunPlanLink, listDayMarksOf, listPlansOf } from './plan-reads.service.ts';
 export { toPlan } from './plan-view.ts';
+export { PLAN_CHECK_CODE_VERSION } from './plan-check-version.ts';
 export { type RunnerCheckInputs, checkRuns, runnerCheckInputs } from './plans.service.ts';

@@ -1,4 +1,5 @@
 import { db, type Db, type RunPlanLinkRow, type SessionPlanRow, readDb } from '../../lib/db.ts';
+import { bumpWeekInputs, bumpWeekInputsOfRuns } from '../week-cache/index.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
 
 /** A plan row with the names of who wrote it and who changed it last (null when unknown or gone). */
@@ -27,6 +28,7 @@ export async function insertPlan(
       items: JSON.stringify(plan.items),
     })
     .returning('id');
+  await bumpWeekInputs([plan.runnerId], trx);
   return (await findPlanById((row as { id: string }).id, trx))!;
 }
 
@@ -82,11 +84,17 @@ export async function updatePlan(
       updated_by: updatedBy,
       sequence: trx.raw('sequence + 1'),
     });
-  return (await findPlanById(id, trx))!;
+  const plan = (await findPlanById(id, trx))!;
+  await bumpWeekInputs([plan.runner_id], trx);
+  return plan;
 }
 
 export async function deletePlan(id: string, trx: Db = db): Promise<void> {
-  await trx('session_plans').where({ id }).delete();
+  const gone = await trx('session_plans').where({ id }).delete().returning('runner_id');
+  await bumpWeekInputs(
+    gone.map((r: { runner_id: string }) => r.runner_id),
+    trx,
+  );
 }
 
 /** The first plan of the runner's day (by creation), for linking a run automatically. */
@@ -126,8 +134,10 @@ export async function findRunPlanLink(runId: string, trx: Db = db) {
 
 export async function upsertRunPlanLink(runId: string, planId: string | null, trx: Db = db): Promise<void> {
   await trx('run_plan_links').insert({ run_id: runId, plan_id: planId, linked_at: new Date() }).onConflict('run_id').merge();
+  await bumpWeekInputsOfRuns([runId], trx);
 }
 
 export async function deleteRunPlanLink(runId: string, trx: Db = db): Promise<void> {
   await trx('run_plan_links').where({ run_id: runId }).delete();
+  await bumpWeekInputsOfRuns([runId], trx);
 }

@@ -9,6 +9,7 @@ import {
   type SessionPlanRow,
   readDb,
 } from '../../lib/db.ts';
+import { bumpWeekInputs } from '../week-cache/index.ts';
 import type { DayMark, LibrarySession, PlanChange } from '../../../shared/plans/prescribe-schemas.ts';
 import { formatShorthand } from '../../../shared/plans/shorthand.ts';
 import type { PlanItem } from '../../../shared/plans/types.ts';
@@ -186,6 +187,7 @@ export async function insertFuelPlanCopy(
     runner_id: runnerId,
     author_id: authorId,
   });
+  await bumpWeekInputs([runnerId], trx);
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -231,6 +233,7 @@ export async function restorePlan(replaced: ReplacedPlan, trx: Db = db): Promise
     created_at: new Date(row.created_at),
     updated_at: new Date(row.updated_at),
   });
+  await bumpWeekInputs([row.runner_id], trx);
   if (replaced.fuel_plan) {
     await insertFuelPlanCopy(
       row.id,
@@ -244,7 +247,12 @@ export async function restorePlan(replaced: ReplacedPlan, trx: Db = db): Promise
 
 export async function deletePlans(ids: readonly string[], trx: Db = db): Promise<number> {
   if (ids.length === 0) return 0;
-  return trx('session_plans').whereIn('id', ids).delete();
+  const gone: Array<{ runner_id: string }> = await trx('session_plans').whereIn('id', ids).delete().returning('runner_id');
+  await bumpWeekInputs(
+    gone.map((r) => r.runner_id),
+    trx,
+  );
+  return gone.length;
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -269,11 +277,14 @@ export async function upsertDayMark(values: Omit<DayMarkRow, 'updated_at'>, trx:
     .onConflict(['runner_id', 'date'])
     .merge()
     .returning('*');
+  await bumpWeekInputs([values.runner_id], trx);
   return row as DayMarkRow;
 }
 
 export async function deleteDayMark(runnerId: string, date: string, trx: Db = db): Promise<boolean> {
-  return (await trx('day_marks').where({ runner_id: runnerId, date }).delete()) > 0;
+  const deleted = (await trx('day_marks').where({ runner_id: runnerId, date }).delete()) > 0;
+  if (deleted) await bumpWeekInputs([runnerId], trx);
+  return deleted;
 }
 
 export async function listDayMarksOf(

@@ -1,4 +1,5 @@
 import { db, type Db, type NoteConcern, readDb } from '../../lib/db.ts';
+import { bumpWeekInputsOfRuns } from '../week-cache/index.ts';
 import type { RunNote } from '../../../shared/runs/schemas.ts';
 
 interface NoteWithAuthor {
@@ -49,6 +50,7 @@ export async function insertRunNote(
   const [{ id }] = (await trx('run_notes').insert({ run_id: runId, author_id: authorId, text, concern }).returning('id')) as [
     { id: string },
   ];
+  await bumpWeekInputsOfRuns([runId], trx);
   const row = await notesWithAuthors(trx).where('run_notes.id', id).first();
   return toRunNote(row as NoteWithAuthor);
 }

@@ -8,6 +8,7 @@ import {
   type SourceFileRow,
   readDb,
 } from '../../lib/db.ts';
+import { bumpWeekInputs } from '../week-cache/index.ts';
 import type { Knex } from 'knex';
 import { insertInChunks } from '../../lib/insert-in-chunks.ts';
 import type { ListRunsQuery, RunListOrder, RunListSort } from '../../../shared/runs/schemas.ts';
@@ -69,6 +70,8 @@ export interface RunChildren {
 export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, children: RunChildren, trx: Db): Promise<RunRow> {
   const [row] = await trx('runs').insert(run).returning('*');
   const runId = (row as RunRow).id;
+  // Feeds the runner's assembled weeks (server/features/week-cache).
+  await bumpWeekInputs([run.user_id], trx);
   await trx('run_tracks').insert({ run_id: runId, ...children.track });
   // In chunks: a long track's splits (or a file's laps) can pass PostgreSQL's 65 535 parameters per statement.
   await insertInChunks(
@@ -218,12 +221,14 @@ export async function renameRun(
   if (changes.name !== undefined) update.name = changes.name;
   if (changes.kind !== undefined) update.activity_kind = changes.kind;
   const [row] = await trx('runs').where({ id }).update(update).returning('*');
+  if (row) await bumpWeekInputs([(row as RunRow).user_id], trx);
   return row as RunRow | undefined;
 }
 
 /** Deletes the run; returns the source file row when no other run uses it any more (and deletes that row too). */
 export async function deleteRunAndOrphanFile(run: RunRow, trx: Db): Promise<SourceFileRow | undefined> {
   await trx('runs').where({ id: run.id }).delete();
+  await bumpWeekInputs([run.user_id], trx);
   const remaining = await trx('runs').where({ source_file_id: run.source_file_id }).first();
   if (remaining) return undefined;
   const [file] = await trx('source_files').where({ id: run.source_file_id }).delete().returning('*');

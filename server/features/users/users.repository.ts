@@ -1,4 +1,5 @@
 import { db, isUniqueViolation, type Db, type UserRow, readDb } from '../../lib/db.ts';
+import { bumpWeekInputs, bumpWeekInputsOfCoachedRunners } from '../week-cache/index.ts';
 import { ConflictError } from '../../lib/errors.ts';
 import type { Role, UpdateProfileInput } from '../../../shared/users/schemas.ts';
 
@@ -49,6 +50,9 @@ export async function updateUserProfile(id: string, changes: UpdateProfileInput,
     .where({ id })
     .update({ ...changes, updated_at: new Date() })
     .returning('*');
+  // The profile (time zone, week start, tolerance, name…) feeds the user's weeks; a coach's name is in their runners'.
+  await bumpWeekInputs([id], trx);
+  await bumpWeekInputsOfCoachedRunners(id, trx);
   return row as UserRow | undefined;
 }
 

@@ -1,5 +1,6 @@
 import { db, type Db, type NoteConcern, readDb } from '../../lib/db.ts';
 import { RUN_LIST_COLUMNS, type RunListRow } from '../runs/index.ts';
+import { bumpWeekInputs } from '../week-cache/index.ts';
 
 /** The run's TRIMP stored at import (`details.trimp.trimp`), null without heart rate. */
 const TRIMP = "(details->'trimp'->>'trimp')::float8 as trimp";
@@ -118,6 +119,7 @@ export async function insertWeekNote(
   const [row] = await trx('week_notes')
     .insert({ runner_id: runnerId, week_start: weekStart, author_id: authorId, text, concern })
     .returning('id');
+  await bumpWeekInputs([runnerId], trx);
   return (row as { id: string }).id;
 }
 
@@ -126,8 +128,10 @@ export async function upsertWeekReview(runnerId: string, weekStart: string, coac
     .insert({ runner_id: runnerId, week_start: weekStart, coach_id: coachId })
     .onConflict(['runner_id', 'week_start', 'coach_id'])
     .merge();
+  await bumpWeekInputs([runnerId], trx);
 }
 
 export async function deleteWeekReview(runnerId: string, weekStart: string, coachId: string, trx: Db = db): Promise<void> {
   await trx('week_reviews').where({ runner_id: runnerId, week_start: weekStart, coach_id: coachId }).delete();
+  await bumpWeekInputs([runnerId], trx);
 }

@@ -22,13 +22,14 @@ import { plannedFuelTotalsOf } from '../fuel/index.ts';
 import { findReadNoteIds } from '../notes/index.ts';
 import { listRunNotesOf } from '../runs/index.ts';
 import { findGoalRacesOf, listRaceResultsOf } from '../goals/index.ts';
-import { listPlansOf } from '../plans/index.ts';
+import { listPlansOf, PLAN_CHECK_CODE_VERSION } from '../plans/index.ts';
 import { listDayMarksOf } from '../plans/index.ts';
 import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/index.ts';
 import { toRunListItem } from '../runs/index.ts';
 import { assertCanReadRunner, squadCoachedBy } from '../squads/index.ts';
 import { findCoachIdsOfRunner, listMembers } from '../squads/index.ts';
 import { findUserById, findUsersByIds } from '../users/index.ts';
+import { readWeekCache, storeWeeks, weekCacheKeyText } from '../week-cache/index.ts';
 import {
   deleteWeekReview,
   findWeekReviewsOf,
@@ -166,8 +167,8 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
   const plannedFuel = new Map(
     await Promise.all(fuelTaken.map(async (f) => [f.run_id, await plannedFuelTotalsOf(runsById.get(f.run_id)!)] as const)),
   );
-  const readIds = await findReadNoteIds(viewer.id, [...notes.map((n) => n.id), ...runNotes.map((n) => n.id)]);
-  const unread = (authorId: string, id: string) => authorId !== viewer.id && !readIds.has(id);
+  // Unread markers are the viewer's alone: set by `withUnreadMarkers` after the week is built or read from the cache.
+  const unread = () => false;
 
   return frames.map((frame) => {
     const { runner, today, start, dates, end, trendStart, loadStart, historyFrom } = frame;
@@ -241,7 +242,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
           created_at: n.created_at,
           author: n.author,
           concern: n.concern,
-          unread: unread(n.author.id, n.id),
+          unread: unread(),
         })),
       };
     };
@@ -251,7 +252,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
       created_at: n.created_at.toISOString(),
       author: { id: n.author_id, name: n.author_name, role: n.author_role },
       concern: n.concern,
-      unread: unread(n.author_id, n.id),
+      unread: unread(),
     }));
     const days = review.days.map((day) => {
       const dayRuns = day.runs.map((r) => ({ ...toRunListItem(itemsById.get(r.id)!), ...r, ...afterRun(r.id) }));
@@ -276,6 +277,70 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
       })),
       notes: weekNotes,
       unread_notes: weekNotes.filter((n) => n.unread).length + days.reduce((n, d) => n + d.unread_notes, 0),
+    };
+  });
+}
+
+/**
+ * Changes to how a week is assembled (this file, shared/weeks) that stored weeks must not outlive: raise it with
+ * such a change. The plan-check code's own version (a hash of its source) is part of the key as well.
+ */
+export const WEEK_ASSEMBLY_VERSION = 1;
+
+function weekCodeVersion(): string | null {
+  return PLAN_CHECK_CODE_VERSION === null ? null : `${WEEK_ASSEMBLY_VERSION}-${PLAN_CHECK_CODE_VERSION}`;
+}
+
+/** What a stored week was built for besides its runner and start: the page, the reader's side and unit. */
+function variantOf(frame: WeekFrame, forReview: boolean, viewer: WeekViewer): string {
+  return `${forReview ? 'review' : 'overview'}|${viewer.id === frame.runner.id ? 'runner' : 'coach'}|${viewer.unit}`;
+}
+
+/**
+ * The weeks of `frames`, from the cache where a stored week is still valid (same counter, code version and
+ * local date) and built in one set for the rest, which are then stored (server/features/week-cache/README.md).
+ * The counters are read before anything the weeks are built from, so a week is never stored under a counter
+ * newer than its data.
+ */
+async function cachedWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekViewer): Promise<RunnerWeek[]> {
+  const version = weekCodeVersion();
+  if (version === null) return withUnreadMarkers(await buildWeeks(frames, forReview, viewer), viewer);
+  const keys = frames.map((f) => ({ runner_id: f.runner.id, week_start: f.start, variant: variantOf(f, forReview, viewer) }));
+  const cache = await readWeekCache(keys, version);
+  const entries = keys.map((k) => cache.get(weekCacheKeyText(k)));
+  const lacking = frames.filter((f, i) => entries[i]?.stored?.today !== f.today);
+  const built = new Map((await buildWeeks(lacking, forReview, viewer)).map((w) => [w.runner_id, w]));
+  await storeWeeks(
+    frames.flatMap((f, i) => {
+      const week = built.get(f.runner.id);
+      return week
+        ? [{ ...keys[i]!, counter: entries[i]?.counter ?? '0', code_version: version, today: f.today, body: week }]
+        : [];
+    }),
+  ).catch((err: unknown) => logger.warn({ err }, 'storing assembled weeks failed'));
+  const weeks = frames.map((f, i) => built.get(f.runner.id) ?? (entries[i]!.stored!.body as RunnerWeek));
+  return withUnreadMarkers(weeks, viewer);
+}
+
+/** Marks the notes the viewer has not read (written by someone else, no read row), with one query for all weeks. */
+async function withUnreadMarkers(weeks: RunnerWeek[], viewer: WeekViewer): Promise<RunnerWeek[]> {
+  const noteIds = weeks.flatMap((w) => [
+    ...w.notes.map((n) => n.id),
+    ...w.days.flatMap((d) => d.runs.flatMap((r) => r.notes.map((n) => n.id))),
+  ]);
+  const readIds = await findReadNoteIds(viewer.id, noteIds);
+  const unread = (authorId: string, id: string) => authorId !== viewer.id && !readIds.has(id);
+  return weeks.map((w) => {
+    const notes = w.notes.map((n) => ({ ...n, unread: unread(n.author.id, n.id) }));
+    const days = w.days.map((d) => {
+      const runs = d.runs.map((r) => ({ ...r, notes: r.notes.map((n) => ({ ...n, unread: unread(n.author.id, n.id) })) }));
+      return { ...d, runs, unread_notes: runs.reduce((n, r) => n + r.notes.filter((x) => x.unread).length, 0) };
+    });
+    return {
+      ...w,
+      notes,
+      days,
+      unread_notes: notes.filter((n) => n.unread).length + days.reduce((n, d) => n + d.unread_notes, 0),
     };
   });
 }
@@ -317,7 +382,7 @@ export async function buildRunnerWeek(
   const [runner, reader] = await Promise.all([findUserById(runnerId), findUserById(actor.id)]);
   if (!runner) throw new NotFoundError();
   const viewer = { id: actor.id, unit: reader?.unit ?? runner.unit };
-  const [week] = await buildWeeks([frameOf(runner, requestedStart, now)], true, viewer);
+  const [week] = await cachedWeeks([frameOf(runner, requestedStart, now)], true, viewer);
   return week!;
 }
 
@@ -380,7 +445,7 @@ export async function buildSquadOverview(
     return user ? [frameOf(user, week, now)] : [];
   });
   const coach = await findUserById(actor.id);
-  const weeks = await buildWeeks(frames, false, { id: actor.id, unit: coach?.unit ?? 'km' });
+  const weeks = await cachedWeeks(frames, false, { id: actor.id, unit: coach?.unit ?? 'km' });
   const rows: OverviewRow[] = weeks.map((w) => {
     const s = w.totals.sessions;
     return {
