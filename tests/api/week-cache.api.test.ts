@@ -18,6 +18,7 @@ import type { RunnerWeek } from '../../shared/weeks/week-answer.ts';
 import type { SquadOverviewRow } from '../../shared/weeks/squad-overview.ts';
 import { createUser } from '../support/factories.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
+import { freshApp, person } from '../support/test-world.ts';
 
 const MARK = 'Served from the cache';
 const WEEK = '2026-11-30'; // Monday; "today" is fixed at Thursday 3 Dec 2026
@@ -275,5 +276,72 @@ describe('assembled weeks in the cache', { timeout: 60_000 }, () => {
     const planQuery = sql.find((s) => /from "session_plans"/.test(s) && /"session_plans"\."runner_id" in \(\$\d+\)/.test(s));
     expect(planQuery, 'plans read for the one lacking runner only').toBeDefined();
     expect(body.rows.find((r: { runner: { id: string } }) => r.runner.id === runners[2]!.user.id).sessions_planned).toBe(1);
+  });
+
+  it('deleting an account removes the runner’s stored weeks, and the coach’s overview no longer shows them', async () => {
+    const app = freshApp('week-cache-delete');
+    const { user: leaver, password } = await createUser({ role: 'runner', name: 'Leaving Runner' });
+    const leaverAuth = {
+      Authorization: `Bearer ${(await request(app).post('/api/auth/token').send({ email: leaver.email, password })).body.token as string}`,
+    };
+    const stayer = await person(app, 'runner', 'Staying Runner');
+    const coach = await person(app, 'coach', 'Coach Keeps');
+    const [squad] = await db('squads').insert({ coach_id: coach.id, name: 'Deletion squad' }).returning('id');
+    await db('squad_members').insert([
+      { squad_id: squad!.id, runner_id: leaver.id },
+      { squad_id: squad!.id, runner_id: stayer.id },
+    ]);
+    const upload = await request(app).post('/api/runs').set(leaverAuth).attach('files', easyRun('2026-12-01', 5), 'leaver.gpx');
+    expect(upload.status).toBe(201);
+    const overview = async () => {
+      const res = await request(app).get(`/api/squads/${squad!.id}/overview?week=${WEEK}`).set(coach.auth);
+      expect(res.status).toBe(200);
+      return (res.body.rows as SquadOverviewRow[]).map((r) => r.runner.name).sort();
+    };
+    const storedOf = async (runnerId: string) =>
+      Number((await db('assembled_weeks').where({ runner_id: runnerId }).count({ n: '*' }).first())!.n);
+
+    expect(await overview()).toEqual(['Leaving Runner', 'Staying Runner']);
+    expect((await request(app).get(`/api/runners/${leaver.id}/week?start=${WEEK}`).set(leaverAuth)).status).toBe(200);
+    expect(await storedOf(leaver.id)).toBe(2); // the coach's overview row and the runner's own review
+    expect(await storedOf(stayer.id)).toBe(1);
+
+    const res = await request(app).delete('/api/me').set(leaverAuth).send({ password });
+    expect(res.status).toBe(204);
+
+    expect(await storedOf(leaver.id)).toBe(0);
+    expect(await db('week_input_counters').where({ runner_id: leaver.id }).first()).toBeUndefined();
+    const naming = await db('assembled_weeks').whereRaw('strpos(body::text, ?) > 0', [leaver.id]).count({ n: '*' }).first();
+    expect(Number(naming!.n), 'no stored week names the deleted runner').toBe(0);
+    expect(await overview()).toEqual(['Staying Runner']);
+    expect(await storedOf(stayer.id)).toBe(1);
+  });
+
+  it('deleting a coach’s account removes the stored weeks that carry their words', async () => {
+    const app = freshApp('week-cache-delete-coach');
+    const runner = await person(app, 'runner', 'Runner Stays');
+    const { user: coachUser, password } = await createUser({ role: 'coach', name: 'Coach Leaves' });
+    const coachAuth = {
+      Authorization: `Bearer ${(await request(app).post('/api/auth/token').send({ email: coachUser.email, password })).body.token as string}`,
+    };
+    const [squad] = await db('squads').insert({ coach_id: coachUser.id, name: 'Leaving squad' }).returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.id });
+    const note = await request(app)
+      .post(`/api/runners/${runner.id}/weeks/${WEEK}/notes`)
+      .set(coachAuth)
+      .send({ text: 'Keep it easy this week.' });
+    expect(note.status).toBe(201);
+    const review = async () => {
+      const res = await request(app).get(`/api/runners/${runner.id}/week?start=${WEEK}`).set(runner.auth);
+      expect(res.status).toBe(200);
+      return res.body as RunnerWeek;
+    };
+    expect((await review()).notes.map((n) => n.text)).toEqual(['Keep it easy this week.']);
+    expect(Number((await db('assembled_weeks').where({ runner_id: runner.id }).count({ n: '*' }).first())!.n)).toBe(1);
+
+    expect((await request(app).delete('/api/me').set(coachAuth).send({ password })).status).toBe(204);
+
+    expect(Number((await db('assembled_weeks').where({ runner_id: runner.id }).count({ n: '*' }).first())!.n)).toBe(0);
+    expect((await review()).notes).toEqual([]);
   });
 });
