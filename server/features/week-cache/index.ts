@@ -12,4 +12,4 @@ export {
   weekCacheKeyText,
   type WeekCacheEntry,
   type WeekCacheKey,
-} from './week-cache.repository.ts';
+} from './week-cache.service.ts';
