@@ -1,22 +1,11 @@
 import { readFileSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { RunningServer } from '../../server/index.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { describe, expect, it } from 'vitest';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 import { createUser } from '../support/factories.ts';
 
 /** "Your data" and "Delete my account" on the profile (issue 17), each with its own throwaway account. */
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser({ acceptDownloads: true });
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession({ acceptDownloads: true });
 
 async function signedInOnProfile(email: string, password: string, width: number) {
   await browser.context.clearCookies();

@@ -1,21 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { RunningServer } from '../../server/index.ts';
+import { describe, expect, it } from 'vitest';
 import { SESSION_COOKIE } from '../../shared/auth/schemas.ts';
 import { createUser } from '../support/factories.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 /** What a copied session cookie gets from the server now. */
 async function statusWithCookie(cookie: string): Promise<number> {

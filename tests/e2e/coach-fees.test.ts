@@ -1,9 +1,9 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE, DEMO_SQUAD_NAME } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
 import { TEST_CARDS } from '../../shared/fees/schemas.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 /**
  * Issue 20: the demo coach sets a monthly fee; an invited runner sees it on the invitation, joins, pays on the local
@@ -17,18 +17,7 @@ const IVY = DEMO_PEOPLE.find((p) => p.email.startsWith('ivy@'))!;
 const PHONE = { width: 375, height: 812 };
 const DESKTOP = { width: 1280, height: 900 };
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 async function freshPage(size: { width: number; height: number }): Promise<Page> {
   await browser.context.clearCookies();

@@ -1,11 +1,11 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE, DEMO_SQUAD_NAME } from '../../db/seeds/01_demo_people.ts';
 import { db } from '../../server/lib/db.ts';
 import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
-import type { RunningServer } from '../../server/index.ts';
 import { createUser } from '../support/factories.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 // Issue 15, "Done when": the demo coach keeps a session in the library, applies it to three runners
 // on Saturday, opens one runner's Plan and moves it to Sunday; the runner sees it with "written by"
@@ -17,18 +17,7 @@ const ivy = runners[0]!;
 const WAIT = { timeout: 15_000 };
 const LIBRARY_NAME = `Hill repeats ${Date.now().toString(36)}`;
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 async function signedInPage(email: string, password: string, next: string, width = 1280): Promise<Page> {
   await browser.context.clearCookies();

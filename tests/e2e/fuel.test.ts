@@ -2,30 +2,19 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
 import { CSRF_COOKIE, CSRF_HEADER } from '../../shared/auth/schemas.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 // Ivy runs in miles; her demo long runs are "2 h easy, 30 min @ MP" (db/seeds/02_demo_runs.ts).
 const RUNNER = DEMO_PEOPLE.find((p) => p.email.startsWith('ivy@'))!;
 const LONG_RUN = 'Long run, goal-pace finish';
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 /** The latest past long run the runner has a session plan for, and the run uploaded that day (read as the page does). */
 async function findLongRun(page: Page): Promise<{ date: string; runId: string }> {

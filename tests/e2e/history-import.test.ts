@@ -3,28 +3,23 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
-import { launchBrowser, screenshot, signIn, startAppServer } from '../support/browser.ts';
+import { screenshot, signIn } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 import { buildZip } from '../support/zip-builder.ts';
 
 const RUNNER = DEMO_PEOPLE.find((p) => p.email.startsWith('tomas@'))!;
 const FILES = 6;
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const { server, browser } = useBrowserSession();
 let workDir: string;
 
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
+beforeAll(() => {
   workDir = mkdtempSync(path.join(tmpdir(), 'pacewright-history-'));
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
+afterAll(() => {
   if (workDir) rmSync(workDir, { recursive: true, force: true });
 });
 

@@ -1,10 +1,10 @@
 import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
 import { SIGN_UP_SENT_MESSAGE } from '../../shared/auth/schemas.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 const RUN_FILE = path.resolve('fixtures/gps-samples/run-hr-4s.gpx');
 const COACH = DEMO_PEOPLE.find((p) => p.role === 'coach')!;
@@ -12,18 +12,7 @@ const SQUAD_NAME = 'Harbor Line Runners';
 
 type CaughtMessage = { to: string; subject: string; text: string };
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 /** An address nobody has used in this database yet. */
 const freshAddress = (who: string) => `${who}-${Date.now().toString(36)}@example.org`;

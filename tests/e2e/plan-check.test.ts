@@ -4,10 +4,10 @@ import path from 'node:path';
 import type { Locator, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 // A day far from the demo data (which lies around today), so the only plan that day is this test's.
 const PLAN_DATE = '2025-06-14';
@@ -18,19 +18,14 @@ const JOG = 2.2;
 
 const RUNNER = DEMO_PEOPLE.find((p) => p.email.startsWith('priya@'))!;
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const { server, browser } = useBrowserSession();
 let workDir: string;
 
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
+beforeAll(() => {
   workDir = mkdtempSync(path.join(tmpdir(), 'pacewright-plan-check-'));
 });
 
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
+afterAll(() => {
   if (workDir) rmSync(workDir, { recursive: true, force: true });
 });
 

@@ -1,26 +1,15 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { Locator, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 const WATCH_FILE = path.resolve('fixtures/gps-samples/watch-run-3-laps.tcx');
 const CSV_HEADER = 'split,unit,distance,elapsed_s,moving_s,pace,avg_hr,max_hr,elev_gain_m,elev_loss_m';
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 /** Seconds from the first `m:ss` in a cell ("fastest 7:52" → 472). */
 function seconds(text: string): number {

@@ -1,8 +1,8 @@
 import type { Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
-import type { RunningServer } from '../../server/index.ts';
-import { launchBrowser, screenshot, signIn, startAppServer, watchErrors } from '../support/browser.ts';
+import { screenshot, signIn, watchErrors } from '../support/browser.ts';
+import { useBrowserSession } from '../support/browser-session.ts';
 
 const coach = DEMO_PEOPLE.find((p) => p.role === 'coach')!;
 const runners = DEMO_PEOPLE.filter((p) => p.role === 'runner');
@@ -10,18 +10,7 @@ const runners = DEMO_PEOPLE.filter((p) => p.role === 'runner');
 const WAIT = { timeout: 15_000 };
 const NOTE = 'Good week. Keep Thursday easy: conversational pace, no watch-checking.';
 
-let server: RunningServer;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  server = await startAppServer();
-  browser = await launchBrowser();
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await server?.close();
-});
+const { server, browser } = useBrowserSession();
 
 async function signedInPage(email: string, password: string, next: string, width = 1280): Promise<Page> {
   const page = await browser.context.newPage();

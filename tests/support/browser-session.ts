@@ -7,6 +7,22 @@ import { launchBrowser, signIn, startAppServer } from './browser.ts';
 type Browser = Awaited<ReturnType<typeof launchBrowser>>;
 
 /**
+ * A stand-in for an object that exists only once `beforeAll` has run: each property read goes to the object of
+ * that moment. So a file can write `const { server, browser } = useBrowserSession()` at the top and use
+ * `server.url` and `browser.context` in its tests and helpers as if they were plain variables.
+ */
+function whenStarted<T extends object>(current: () => T | undefined, what: string): T {
+  return new Proxy({} as T, {
+    get(_, key) {
+      const target = current();
+      if (!target) throw new Error(`The ${what} starts in beforeAll: read it inside a test or hook.`);
+      const value: unknown = Reflect.get(target, key);
+      return typeof value === 'function' ? value.bind(target) : value;
+    },
+  });
+}
+
+/**
  * The built app on a free port and one Chromium for the whole file: started before the first test,
  * closed after the last. Read `server` and `browser` inside tests and hooks (they exist from then on).
  */
@@ -24,16 +40,7 @@ export function useBrowserSession(options: Parameters<typeof launchBrowser>[0] =
     await browser?.close();
     await server?.close();
   });
-  return {
-    get server() {
-      if (!server) throw new Error('The app server starts in beforeAll: read it inside a test or hook.');
-      return server;
-    },
-    get browser() {
-      if (!browser) throw new Error('The browser starts in beforeAll: read it inside a test or hook.');
-      return browser;
-    },
-  };
+  return { server: whenStarted(() => server, 'app server'), browser: whenStarted(() => browser, 'browser') };
 }
 
 /**
