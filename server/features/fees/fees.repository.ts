@@ -13,10 +13,6 @@ export async function upsertSquadFee(row: Omit<SquadFeeRow, 'updated_at'>, trx: 
   return saved!;
 }
 
-export async function isMember(squadId: string, runnerId: string, trx: Db = db): Promise<boolean> {
-  return Boolean(await trx('squad_members').where({ squad_id: squadId, runner_id: runnerId }).first());
-}
-
 export async function findPayer(squadId: string, runnerId: string, trx: Db = db): Promise<FeePayerRow | undefined> {
   return trx('fee_payers').where({ squad_id: squadId, runner_id: runnerId }).first();
 }

@@ -6,7 +6,14 @@ import { NO_FEE, type BillingAnswer, type Fee, type FeeInput, type MyFee, type R
 import { inTransaction, type Db, type FeePayerRow, type FeeReceiptRow, type SquadFeeRow } from '../../lib/db.ts';
 import { AppError, BadRequestError, ConflictError, NotFoundError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
-import { findSquadById, listMembers, squadCoachedBy } from '../squads/index.ts';
+import {
+  findSquadById,
+  isSquadMember,
+  listMembers,
+  squadCoachedBy,
+  squadCoachedOrJoinedBy,
+  squadJoinedBy,
+} from '../squads/index.ts';
 import { findUserById } from '../users/index.ts';
 import {
   claimPaymentEvent,
@@ -14,7 +21,6 @@ import {
   findPayer,
   findSquadFee,
   insertReceipt,
-  isMember,
   listPayers,
   listPayersWithSubscription,
   listReceipts,
@@ -55,14 +61,6 @@ const toReceipt = (r: FeeReceiptRow): Receipt => ({
   period_end: r.period_end,
 });
 
-const coachedSquad = (actor: Actor, squadId: string) => squadCoachedBy(actor, squadId);
-
-async function memberSquad(actor: Actor, squadId: string) {
-  const squad = await findSquadById(squadId);
-  if (!squad || !(await isMember(squadId, actor.id))) throw new NotFoundError('You are not in a squad with this id.');
-  return squad;
-}
-
 function requireService(stripe: Stripe | null): Stripe {
   if (!stripe) throw paymentsUnavailable();
   return stripe;
@@ -78,9 +76,7 @@ export async function feeOfSquad(squadId: string): Promise<Fee> {
 }
 
 export async function getSquadFee(actor: Actor, squadId: string): Promise<Fee> {
-  const squad = await findSquadById(squadId);
-  if (!squad || (squad.coach_id !== actor.id && !(await isMember(squadId, actor.id))))
-    throw new NotFoundError('There is no squad of yours with this id.');
+  await squadCoachedOrJoinedBy(actor, squadId);
   return toFee(await findSquadFee(squadId));
 }
 
@@ -89,7 +85,7 @@ export async function getSquadFee(actor: Actor, squadId: string): Promise<Fee> {
  * new amount applies from their next period (README: "a change applies from the next period").
  */
 export async function setSquadFee(actor: Actor, squadId: string, input: FeeInput, stripe: Stripe | null): Promise<Fee> {
-  await coachedSquad(actor, squadId);
+  await squadCoachedBy(actor, squadId);
   const saved = await upsertSquadFee({
     squad_id: squadId,
     kind: input.kind,
@@ -145,7 +141,7 @@ async function moveSubscriptionsToFee(squadId: string, fee: Fee, stripe: Stripe 
 // ---------------------------------------------------------------------------------------------------------------
 
 export async function startCheckout(actor: Actor, squadId: string, stripe: Stripe | null, appUrl: string, now = new Date()) {
-  const squad = await memberSquad(actor, squadId);
+  const squad = await squadJoinedBy(actor, squadId);
   const fee = toFee(await findSquadFee(squadId));
   if (fee.kind === 'none' || !fee.currency || !fee.amount_minor)
     throw new ConflictError('This squad has no fee to pay.', 'no-fee');
@@ -208,7 +204,7 @@ export async function startCheckout(actor: Actor, squadId: string, stripe: Strip
 }
 
 export async function cancelAtPeriodEnd(actor: Actor, squadId: string, stripe: Stripe | null): Promise<void> {
-  await memberSquad(actor, squadId);
+  await squadJoinedBy(actor, squadId);
   const payer = await findPayer(squadId, actor.id);
   if (!payer?.subscription_id || payer.ended)
     throw new ConflictError('You have no running monthly fee in this squad.', 'no-subscription');
@@ -258,7 +254,7 @@ export async function squadBilling(
   squadId: string,
   now = new Date(),
 ): Promise<BillingAnswer & { squadName: string }> {
-  const squad = await coachedSquad(actor, squadId);
+  const squad = await squadCoachedBy(actor, squadId);
   const fee = toFee(await findSquadFee(squadId));
   const payers = new Map((await listPayers(squadId)).map((p) => [p.runner_id, p]));
   const receipts = await listReceipts({ squad_id: squadId });
@@ -280,8 +276,8 @@ export async function squadBilling(
 }
 
 export async function setWaiver(actor: Actor, squadId: string, runnerId: string, waived: boolean) {
-  await coachedSquad(actor, squadId);
-  if (!(await isMember(squadId, runnerId))) throw new NotFoundError('This runner is not in your squad.');
+  await squadCoachedBy(actor, squadId);
+  if (!(await isSquadMember(squadId, runnerId))) throw new NotFoundError('This runner is not in your squad.');
   await upsertPayer(squadId, runnerId, { waived });
 }
 

@@ -1,7 +1,7 @@
 import { canReadRunnerData, type Actor } from '../../../shared/auth/permissions.ts';
 import { ForbiddenError, NotFoundError } from '../../lib/errors.ts';
 import type { SquadRow } from '../../lib/db.ts';
-import { findCoachIdsOfRunner, findSquadById } from './squads.repository.ts';
+import { findCoachIdsOfRunner, findSquadById, isMember } from './squads.repository.ts';
 
 /**
  * Throws 404 unless `actor` may read the data of runner `ownerId` (the rule lives in
@@ -36,6 +36,29 @@ export async function assertCanPlanFor(actor: Actor, runnerId: string): Promise<
 export async function squadCoachedBy(actor: Actor, squadId: string, { adminMayRead = false } = {}): Promise<SquadRow> {
   const squad = await findSquadById(squadId);
   if (!squad || (squad.coach_id !== actor.id && !(adminMayRead && actor.role === 'admin')))
+    throw new NotFoundError('There is no squad of yours with this id.');
+  return squad;
+}
+
+/** Whether the runner is in the squad now (a coach acting on one runner of their squad checks this). */
+export function isSquadMember(squadId: string, runnerId: string): Promise<boolean> {
+  return isMember(squadId, runnerId);
+}
+
+/**
+ * The squad `squadId` when `actor` is one of its runners: the one squad-membership check (a runner's
+ * own fee, checkout and receipts). 404 otherwise, the same for someone else's squad and a made-up id.
+ */
+export async function squadJoinedBy(actor: Actor, squadId: string): Promise<SquadRow> {
+  const squad = await findSquadById(squadId);
+  if (!squad || !(await isMember(squadId, actor.id))) throw new NotFoundError('You are not in a squad with this id.');
+  return squad;
+}
+
+/** The squad when `actor` coaches it or is one of its runners (what both sides may read, such as its fee); 404 otherwise. */
+export async function squadCoachedOrJoinedBy(actor: Actor, squadId: string): Promise<SquadRow> {
+  const squad = await findSquadById(squadId);
+  if (!squad || (squad.coach_id !== actor.id && !(await isMember(squadId, actor.id))))
     throw new NotFoundError('There is no squad of yours with this id.');
   return squad;
 }

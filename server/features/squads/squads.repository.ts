@@ -39,6 +39,10 @@ export async function listMembers(squadId: string, trx: Db = readDb()) {
     );
 }
 
+export async function isMember(squadId: string, runnerId: string, trx: Db = db): Promise<boolean> {
+  return Boolean(await trx('squad_members').where({ squad_id: squadId, runner_id: runnerId }).first());
+}
+
 export async function addMember(squadId: string, runnerId: string, trx: Db = db): Promise<void> {
   await trx('squad_members').insert({ squad_id: squadId, runner_id: runnerId }).onConflict(['squad_id', 'runner_id']).ignore();
 }
