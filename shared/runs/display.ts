@@ -1,5 +1,6 @@
 import type { CleaningReport, SplitUnit } from '../tracks/types.ts';
 import { MAX_SMOOTHED_INTERVAL_S } from '../tracks/position-smoother.ts';
+import { formatPace } from '../tracks/format.ts';
 import { UNIT_METRES } from '../units.ts';
 
 /**
@@ -15,6 +16,15 @@ export function formatDistance(metres: number | null, unit: SplitUnit, decimals 
 export function pacePerUnit(secondsPerKm: number | null, unit: SplitUnit): number | null {
   if (secondsPerKm === null || !Number.isFinite(secondsPerKm)) return null;
   return unit === 'km' ? secondsPerKm : secondsPerKm * (UNIT_METRES.mi / 1000);
+}
+
+/**
+ * A pace stored in seconds per km as read in `unit`, with the unit: the one "pace with its unit" of
+ * every screen and e-mail. Examples: (300, 'km') → "5:00 /km", (300, 'mi') → "8:03 /mi"; '' for invalid input.
+ */
+export function formatPaceIn(secondsPerKm: number | null, unit: SplitUnit): string {
+  const pace = formatPace(pacePerUnit(secondsPerKm, unit));
+  return pace && `${pace} /${unit}`;
 }
 
 const WEEKDAYS = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'] as const;

@@ -5,6 +5,7 @@
  * leaving the decision to the coach; each names where its rule comes from.
  */
 import { describeMarathonEffortRule, EASY_RULE } from '../race/training-ranges.ts';
+import { formatPaceIn } from '../runs/display.ts';
 import { UNIT_METRES } from '../units.ts';
 import { acuteChronicRatio, type AcuteChronic, type DailyLoad } from './load.ts';
 import { dayOfWeek, isIsoDate, weekDates } from './weeks.ts';
@@ -345,8 +346,8 @@ function easyTooFastFlag(run: WeekRun, plan: WeekPlan, easyFastest: number, unit
   return {
     code: 'easy-too-fast',
     message:
-      `${v.whose} run on ${formatDay(run.date)} ("${plan.title}") averaged ${formatPace(run.pace_s_per_km ?? 0, unit)}, ` +
-      `quicker than the fast end of ${v.whoseInner} easy range (${formatPace(easyFastest, unit)}). Easy days kept easy ` +
+      `${v.whose} run on ${formatDay(run.date)} ("${plan.title}") averaged ${formatPaceIn(run.pace_s_per_km ?? 0, unit)}, ` +
+      `quicker than the fast end of ${v.whoseInner} easy range (${formatPaceIn(easyFastest, unit)}). Easy days kept easy ` +
       `leave the legs fresh for the hard ones. ${v.lastWord('the paces')}`,
     source: SOURCES['easy-too-fast'],
     plan_id: plan.id,
@@ -380,12 +381,6 @@ function formatDay(date: string): string {
 /** '42.2 km', '26.2 mi' */
 function formatDistance(metres: number, unit: DistanceUnit): string {
   return `${(metres / UNIT_METRES[unit]).toFixed(1)} ${unit}`;
-}
-
-/** '5:07 /km' from seconds per km, in the chosen unit. */
-function formatPace(secondsPerKm: number, unit: DistanceUnit): string {
-  const total = Math.round((secondsPerKm * UNIT_METRES[unit]) / 1000);
-  return `${Math.floor(total / 60)}:${String(total % 60).padStart(2, '0')} /${unit}`;
 }
 
 /**

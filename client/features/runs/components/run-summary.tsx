@@ -1,5 +1,5 @@
-import { formatDistance, formatRunStart, pacePerUnit } from '../../../../shared/runs/display.ts';
-import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
+import { formatDistance, formatPaceIn, formatRunStart } from '../../../../shared/runs/display.ts';
+import { formatDuration } from '../../../../shared/tracks/format.ts';
 import type { RunSummary as Summary } from '../../../../shared/runs/types.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 
@@ -11,7 +11,7 @@ export function RunSummary({ summary, unit }: { summary: Summary; unit: Unit }) 
     { label: 'Clock', value: formatDuration(summary.elapsed_s) },
     {
       label: 'Pace',
-      value: summary.pace_s_per_km === null ? '–' : `${formatPace(pacePerUnit(summary.pace_s_per_km, unit))} /${unit}`,
+      value: summary.pace_s_per_km === null ? '–' : formatPaceIn(summary.pace_s_per_km, unit),
     },
   ];
   if (summary.ascent_m !== null || summary.descent_m !== null)

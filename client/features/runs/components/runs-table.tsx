@@ -1,10 +1,10 @@
 import { createColumnHelper, functionalUpdate, useTable, type SortingState, type Updater } from '@tanstack/react-table';
 import { ActivityKindMark } from './activity-kind.tsx';
 import { Link } from 'react-router-dom';
-import { formatDistance, formatLocalDate, formatShortDate, pacePerUnit } from '../../../../shared/runs/display.ts';
+import { formatDistance, formatLocalDate, formatPaceIn, formatShortDate } from '../../../../shared/runs/display.ts';
 import type { RunListSorting } from '../../../../shared/runs/list-sort.ts';
 import type { RunListItem, RunListSort } from '../../../../shared/runs/schemas.ts';
-import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
+import { formatDuration } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { DataTable } from '../../../components/ui/data-table.tsx';
 import { paths } from '../../../config/paths.ts';
@@ -58,8 +58,7 @@ const COLUMNS = helper.columns([
     meta: { align: 'right', primary: true },
     sortDescFirst: false,
     cell: (info) => {
-      const pace = formatPace(pacePerUnit(info.getValue(), info.row.original.unit));
-      return pace ? `${pace} /${info.row.original.unit}` : '–';
+      return formatPaceIn(info.getValue(), info.row.original.unit) || '–';
     },
   }),
   helper.accessor('ascent_m', {

@@ -1,7 +1,7 @@
 import { useRef } from 'react';
 import { Link } from 'react-router-dom';
-import { formatDistance, pacePerUnit } from '../../../../shared/runs/display.ts';
-import { formatDuration, formatPace } from '../../../../shared/tracks/format.ts';
+import { formatDistance, formatPaceIn } from '../../../../shared/runs/display.ts';
+import { formatDuration } from '../../../../shared/tracks/format.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import type { WeekCheckin, WeekDayRun, WeekFuelTaken, WeekNote } from '../../../../shared/weeks/week-answer.ts';
 import { Button } from '../../../components/ui/button.tsx';
@@ -17,7 +17,7 @@ const one = (x: number) => (Math.round(x * 10) / 10).toString();
 
 /** One run of the week as the runner told it: figures, verdict and why, fuel, check-in, notes, and a reply box. */
 export function WeekRunEntry({ run, unit, meId, runnerId }: { run: WeekDayRun; unit: Unit; meId: string; runnerId: string }) {
-  const pace = formatPace(pacePerUnit(run.pace_s_per_km, unit));
+  const pace = formatPaceIn(run.pace_s_per_km, unit);
   return (
     <div className="flex flex-col gap-1 rounded-sm bg-paper px-2 py-1" data-run-id={run.id}>
       <Link
@@ -28,7 +28,7 @@ export function WeekRunEntry({ run, unit, meId, runnerId }: { run: WeekDayRun; u
         <span className="font-normal text-ink-muted"> · {run.name}</span>
       </Link>
       <p className="text-xs text-ink-muted tabular-nums">
-        {run.local_time} · {formatDuration(run.moving_s)} moving{pace && ` · ${pace} /${unit}`}
+        {run.local_time} · {formatDuration(run.moving_s)} moving{pace && ` · ${pace}`}
         {run.trimp !== null && ` · TRIMP ${Math.round(run.trimp)}`}
         {run.avg_hr !== null && ` · ♥ ${Math.round(run.avg_hr)}`}
         {(run.goal_pace_s ?? 0) > 0 && ` · ${formatDuration(run.goal_pace_s ?? 0)} at goal pace`}

@@ -4,6 +4,7 @@ import {
   describeDistanceMeasure,
   formatDistance,
   formatLocalDate,
+  formatPaceIn,
   formatShortDate,
   formatRunStart,
   pacePerUnit,
@@ -117,5 +118,21 @@ describe('describeDistanceMeasure', () => {
     expect(describeDistanceMeasure({ ...base, source: 'device', smoothed: false, raw_distance_m: 1, distance_m: 1 }, 'mi')).toBe(
       'The watch’s own distance was used (no smoothing).',
     );
+  });
+});
+
+describe('formatPaceIn', () => {
+  it("shows a pace stored per km in the reader's unit, with the unit", () => {
+    // 300 s/km × 1.609344 km/mi = 482.8 s/mi → 8:03 /mi (the 1959 international mile, 1609.344 m: shared/REFERENCES.md §1).
+    expect(formatPaceIn(300, 'mi')).toBe('8:03 /mi');
+    expect(formatPaceIn(300, 'km')).toBe('5:00 /km');
+    // 4:27.4 per km rounds to the nearest second.
+    expect(formatPaceIn(267.4, 'km')).toBe('4:27 /km');
+  });
+
+  it('gives nothing for a missing or unreadable pace, so callers show their own dash', () => {
+    expect(formatPaceIn(null, 'km')).toBe('');
+    expect(formatPaceIn(Number.NaN, 'mi')).toBe('');
+    expect(formatPaceIn(-1, 'km')).toBe('');
   });
 });
