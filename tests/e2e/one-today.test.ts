@@ -1,6 +1,8 @@
+import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { todayIn } from '../../shared/runs/local-time.ts';
+import { METRES_PER_FOOT } from '../../shared/units.ts';
 import { screenshot, watchErrors } from '../support/browser.ts';
 import { callApi, signInThroughPage, useBrowserSession } from '../support/browser-session.ts';
 import { createUser } from '../support/factories.ts';
@@ -98,6 +100,55 @@ describe('one time zone for the profile list and for "today"', () => {
     expect([longDay(expected), longDay(expectedNow)]).toContain(onPlan);
     expect(onMyWeek).toBe(onPlan);
     expect(onPlan).not.toBe(longDay(deviceDate));
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
+
+describe('one unit setting for every page', () => {
+  it('miles show climb in feet; the run page’s km choice moves the top bar too and is remembered after a reload', async () => {
+    const { user, password } = await createUser({ name: 'Una Units', email: `una-${Date.now()}@example.test` });
+    const page = await session.browser.context.newPage();
+    await signInThroughPage(page, session.server.url, { email: user.email, password }, DESKTOP);
+    const errors = watchErrors(page);
+    await page.goto(`${session.server.url}/log`);
+    await page.getByLabel('Choose files').setInputFiles(path.resolve('fixtures/gps-samples/watch-run-3-laps.tcx'));
+    const uploads = page.getByRole('list', { name: 'Uploads' });
+    await expect.poll(() => uploads.textContent(), { timeout: 20_000 }).toMatch(/imported →/);
+    await uploads.getByRole('link').first().click();
+    await page.waitForURL(/\/runs\/[^/]+$/);
+    const runId = new URL(page.url()).pathname.split('/').pop()!;
+    const { summary } = await callApi<{ summary: { ascent_m: number; descent_m: number } }>(page, 'GET', `/api/runs/${runId}`);
+    expect(summary.ascent_m).toBeGreaterThan(0);
+
+    // Miles: climb in feet (international foot, 0.3048 m exactly), in the summary and the splits' columns.
+    const climb = page.locator('dl div', { has: page.getByText('Climb / descent', { exact: true }) }).locator('dd');
+    const feet = (m: number) => Math.round(m / METRES_PER_FOOT);
+    await expect.poll(() => climb.textContent()).toBe(`↑ ${feet(summary.ascent_m)} ft ↓ ${feet(summary.descent_m)} ft`);
+    const splits = page.getByRole('table', { name: /^Splits per mile/ });
+    await expect.poll(() => splits.getByText('Climb in feet').count()).toBe(1);
+
+    // km on the splits card: the top bar's switch follows, the climb turns to metres.
+    const topBar = page.getByRole('group', { name: 'Distance unit' });
+    expect(await topBar.getByRole('radio', { name: 'mi' }).isChecked()).toBe(true);
+    await page.getByRole('group', { name: 'Split unit' }).getByRole('radio', { name: 'km' }).check();
+    await expect.poll(() => topBar.getByRole('radio', { name: 'km' }).isChecked()).toBe(true);
+    await expect.poll(() => climb.textContent()).toBe(`↑ ${Math.round(summary.ascent_m)} m ↓ ${Math.round(summary.descent_m)} m`);
+    await expect
+      .poll(() =>
+        page
+          .getByRole('table', { name: /^Splits per kilometre/ })
+          .getByText('Climb in metres')
+          .count(),
+      )
+      .toBe(1);
+    await expect.poll(async () => (await callApi<{ profile: { unit: string } }>(page, 'GET', '/api/me')).profile.unit).toBe('km');
+
+    // Remembered: a reload keeps km on the card and in the top bar.
+    await page.reload();
+    await page.getByRole('table', { name: /^Splits per kilometre/ }).waitFor();
+    expect(await page.getByRole('group', { name: 'Distance unit' }).getByRole('radio', { name: 'km' }).isChecked()).toBe(true);
+    await screenshot(page, 'run-km-remembered-1280');
     expect(errors).toEqual([]);
     await page.close();
   });

@@ -85,6 +85,15 @@ describe('importing a watch file', () => {
     const csv = readFileSync((await download.path())!, 'utf8');
     expect(csv.startsWith(CSV_HEADER)).toBe(true);
     expect(csv.trim().split(/\r?\n/)).toHaveLength(1 + 5);
+    // The file is named by the run's date and name (issue 17), e.g. 2026-12-04-morning-run-splits-km.csv.
+    expect(download.suggestedFilename()).toMatch(/^\d{4}-\d{2}-\d{2}-[a-z0-9-]+-splits-km\.csv$/);
+
+    // The unit is the profile's one setting (it moved the top bar too): back to miles for the tests after this one.
+    await page.getByRole('group', { name: 'Split unit' }).getByRole('radio', { name: 'mi' }).check();
+    await page.getByRole('table', { name: /^Splits per mile/ }).waitFor();
+    await expect
+      .poll(() => page.getByRole('group', { name: 'Distance unit' }).getByRole('radio', { name: 'mi' }).isChecked())
+      .toBe(true);
 
     await page.getByRole('button', { name: 'Rename' }).click();
     await page.getByLabel('Run name').fill('Three laps by the river');

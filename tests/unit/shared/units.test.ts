@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatFileSize } from '../../../shared/units.ts';
+import { CLIMB_UNIT, climbIn, formatFileSize } from '../../../shared/units.ts';
 
 describe('formatFileSize', () => {
   it.each([
@@ -12,5 +12,15 @@ describe('formatFileSize', () => {
     [0, '0 bytes'],
   ])('%d bytes reads "%s"', (bytes, words) => {
     expect(formatFileSize(bytes)).toBe(words);
+  });
+});
+
+describe('climb in the unit that goes with the distances', () => {
+  it('is feet with miles and metres with kilometres, rounded to whole units', () => {
+    // International foot = 0.3048 m exactly (1959 international yard and pound agreement): 541 m = 1774.9 ft.
+    expect(climbIn(541, 'mi')).toBe(1775);
+    expect(climbIn(541, 'km')).toBe(541);
+    expect(climbIn(0.3048 * 1000, 'mi')).toBe(1000);
+    expect(CLIMB_UNIT).toEqual({ mi: 'ft', km: 'm' });
   });
 });

@@ -1,5 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { useState, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import type { RunTrack } from '../../../../shared/runs/types.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
@@ -11,6 +11,7 @@ import { FuelTakenCard } from '../../../features/fuel/components/fuel-taken-card
 import { planCheckQueryOptions } from '../../../features/plan-check/api/get-plan-check.ts';
 import { PlanCheckCard } from '../../../features/plan-check/components/plan-check-card.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
+import { useUpdateProfile } from '../../../features/profile/api/update-profile.ts';
 import { runNotesQueryOptions } from '../../../features/run-notes/api/get-run-notes.ts';
 import { RunNotesCard } from '../../../features/run-notes/components/run-notes-card.tsx';
 import { runQueryOptions, useRun } from '../../../features/runs/api/get-run.ts';
@@ -49,9 +50,10 @@ export default function RunRoute() {
   const run = useRun(id);
   const me = useMe();
   const profile = useProfile();
-  // Follows the profile's unit until this page's own toggle is used.
-  const [chosenUnit, setChosenUnit] = useState<Unit | null>(null);
-  const unit = chosenUnit ?? profile.unit;
+  // One unit setting (issue 17): this card's toggle saves it to the profile like the top bar's switch, so the
+  // whole app moves together and it is remembered; the chosen unit shows while the save is in flight.
+  const saveUnit = useUpdateProfile();
+  const unit: Unit = (saveUnit.isPending && saveUnit.variables.unit) || profile.unit;
   const isOwner = me?.id === run.owner_id;
   const { details } = run;
 
@@ -79,10 +81,10 @@ export default function RunRoute() {
       <Card
         title="Splits"
         description={`Per ${UNIT_WORDS[unit]}; pace from moving time. Sort by any column.`}
-        actions={<UnitToggle label="Split unit" value={unit} onChange={setChosenUnit} />}
+        actions={<UnitToggle label="Split unit" value={unit} onChange={(next) => saveUnit.mutate({ unit: next })} />}
       >
         {run.splits[unit].length > 0 ? (
-          <SplitTable splits={run.splits[unit]} unitLabel={UNIT_WORDS[unit]} />
+          <SplitTable splits={run.splits[unit]} unit={unit} unitLabel={UNIT_WORDS[unit]} />
         ) : (
           <p className="text-sm text-ink-muted">This run has no distance, so it has no splits.</p>
         )}

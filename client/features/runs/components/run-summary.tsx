@@ -2,6 +2,7 @@ import { formatDistance, formatPaceIn, formatRunStart } from '../../../../shared
 import { formatDuration } from '../../../../shared/tracks/format.ts';
 import type { RunSummary as Summary } from '../../../../shared/runs/types.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
+import { CLIMB_UNIT, climbIn } from '../../../../shared/units.ts';
 
 /** Start time in words, then the run's figures on one wrapping line. */
 export function RunSummary({ summary, unit }: { summary: Summary; unit: Unit }) {
@@ -17,7 +18,8 @@ export function RunSummary({ summary, unit }: { summary: Summary; unit: Unit }) 
   if (summary.ascent_m !== null || summary.descent_m !== null)
     figures.push({
       label: 'Climb / descent',
-      value: `↑ ${Math.round(summary.ascent_m ?? 0)} m ↓ ${Math.round(summary.descent_m ?? 0)} m`,
+      // Feet with miles, metres with kilometres: one unit choice for every figure (issue 17).
+      value: `↑ ${climbIn(summary.ascent_m ?? 0, unit)} ${CLIMB_UNIT[unit]} ↓ ${climbIn(summary.descent_m ?? 0, unit)} ${CLIMB_UNIT[unit]}`,
     });
   if (summary.avg_hr !== null)
     figures.push({
