@@ -329,11 +329,16 @@ async function applyEvent(trx: Db, event: Stripe.Event): Promise<string> {
       const owner = await ownerOf(trx, object.metadata);
       if (!owner) return 'unknown runner or squad';
       if (object.mode === 'subscription') {
-        await upsertPayer(owner.squadId, owner.runnerId, {
-          subscription_id: String(object.subscription),
-          ended: false,
-          cancel_at_period_end: false,
-        });
+        await upsertPayer(
+          owner.squadId,
+          owner.runnerId,
+          {
+            subscription_id: String(object.subscription),
+            ended: false,
+            cancel_at_period_end: false,
+          },
+          trx,
+        );
         return 'subscription linked';
       }
       if (object.payment_status !== 'paid') return 'not paid yet';
