@@ -23,7 +23,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { cpus, tmpdir, totalmem } from 'node:os';
+import { cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
@@ -67,6 +67,8 @@ interface FileComparison {
   floor_saxes_ms: number;
   floor_scan_ms: number;
   pipeline_over_floor: number;
+  /** Pipeline ÷ the indexOf floor (issue 19). */
+  pipeline_over_scan: number;
   pipeline_peak_rss_mb: number;
   baseline_peak_rss_mb: number;
   distance_km: { pipeline: number | null; baseline: number | null };
@@ -81,12 +83,17 @@ const RUNS = [
   { label: '30h', hours: 30, speed: 1.6 },
 ] as const;
 const FORMATS: readonly Format[] = ['gpx', 'tcx'];
+/** BENCH_RUNS=30h (comma-separated labels) measures only those runs: the issue 19 targets are about the 30 h files. */
+const ONLY_RUNS = process.env.BENCH_RUNS ? new Set(process.env.BENCH_RUNS.split(',').map((label) => label.trim())) : null;
 const APPROACHES: readonly Approach[] = ['pipeline', 'baseline', 'floor-saxes', 'floor-scan'];
 
 /** Issue #8 targets. */
 const TARGET_SPEEDUP = 3;
 const TARGET_LONGEST_MS = 1500;
 const TARGET_LONGEST_RSS_MB = 400;
+/** Issue 19 targets for the 30 h files: at most this many times the `indexOf` floor of the same file, and peak memory. */
+const TARGET_OVER_SCAN_FLOOR = 2;
+const TARGET_LONGEST_RSS_MB_19 = 300;
 
 /**
  * Each case runs this many times (BENCH_REPEATS, default 3), each in a fresh process; the table
@@ -306,6 +313,7 @@ function compareFile(results: readonly CaseResult[], file: string): FileComparis
     floor_saxes_ms: floorSaxes.total_ms,
     floor_scan_ms: of('floor-scan').total_ms,
     pipeline_over_floor: round(pipeline.total_ms / Math.max(1, floorSaxes.total_ms), 1),
+    pipeline_over_scan: round(pipeline.total_ms / Math.max(1, of('floor-scan').total_ms), 2),
     pipeline_peak_rss_mb: pipeline.peak_rss_mb,
     baseline_peak_rss_mb: baseline.peak_rss_mb,
     distance_km: { pipeline: pipeline.distance_km, baseline: baseline.distance_km },
@@ -336,6 +344,16 @@ function checkTargets(comparisons: readonly FileComparison[]): TargetCheck[] {
         met: c.pipeline_peak_rss_mb < TARGET_LONGEST_RSS_MB,
         detail: `${c.pipeline_peak_rss_mb} MB`,
       },
+      {
+        target: `${c.file}: parse + analysis at most ${TARGET_OVER_SCAN_FLOOR}× the indexOf floor (issue 19)`,
+        met: c.pipeline_over_scan <= TARGET_OVER_SCAN_FLOOR,
+        detail: `${c.pipeline_ms} / ${c.floor_scan_ms} ms = ${c.pipeline_over_scan}×`,
+      },
+      {
+        target: `${c.file}: peak RSS at most ${TARGET_LONGEST_RSS_MB_19} MB (issue 19)`,
+        met: c.pipeline_peak_rss_mb <= TARGET_LONGEST_RSS_MB_19,
+        detail: `${c.pipeline_peak_rss_mb} MB`,
+      },
     );
   }
   return checks;
@@ -352,7 +370,7 @@ async function main(): Promise<void> {
   const dir = mkdtempSync(join(tmpdir(), 'pacewright-bench-'));
   try {
     const files: string[] = [];
-    for (const run of RUNS) {
+    for (const run of RUNS.filter((r) => ONLY_RUNS === null || ONLY_RUNS.has(r.label))) {
       for (const format of FORMATS) {
         const path = join(dir, `bench-${run.label}.${format}`);
         writeFileSync(path, writeDocument(format, run.hours, run.speed));
@@ -411,6 +429,7 @@ async function main(): Promise<void> {
         'floor saxes ms',
         'floor indexOf ms',
         'pipeline/floor',
+        'pipeline/indexOf',
         'peak MB ours',
         'peak MB baseline',
       ],
@@ -422,6 +441,7 @@ async function main(): Promise<void> {
         String(c.floor_saxes_ms),
         String(c.floor_scan_ms),
         `${c.pipeline_over_floor.toFixed(1)}×`,
+        `${c.pipeline_over_scan.toFixed(2)}×`,
         String(c.pipeline_peak_rss_mb),
         String(c.baseline_peak_rss_mb),
       ]),
@@ -429,13 +449,18 @@ async function main(): Promise<void> {
     );
 
     const checks = checkTargets(comparisons);
-    console.log('\nTargets (issue #8):');
+    console.log(
+      `\nTargets (issues 8 and 19), load average ${loadavg()
+        .map((l) => l.toFixed(1))
+        .join(' ')}:`,
+    );
     for (const check of checks) console.log(`  ${check.met ? 'met   ' : 'MISSED'}  ${check.target} (${check.detail})`);
     console.log(
       JSON.stringify({
         bench: 'import',
         node: process.version,
         cpus: cpus().length,
+        load_average: loadavg(),
         results,
         comparisons,
         targets: checks,
