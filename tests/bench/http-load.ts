@@ -18,7 +18,8 @@
  *    one after another, for the whole round; the uploads come from a separate process
  *    (upload-driver.ts) and are parsed and analysed in the server's worker threads. The ratio of
  *    the two p99s is the figure: it compares rounds a few seconds apart on the same machine.
- * 5. 20 different generated 3-hour GPX files uploaded at once by a fresh runner.
+ * 5. 20 different generated 3-hour GPX files uploaded at once by 10 fresh runners (2 each, the most
+ *    one runner may have arriving).
  *    LOAD_ROUNDS (comma-separated: signin, runs, run, week, squad, busy, uploads; default all) picks
  *    rounds; `busy` adds the with-uploads twin of each read round that runs.
  * 6. The gzipped size of every script the built index.html loads (entry and modulepreloads).
@@ -43,6 +44,8 @@ import type { UploadDriverMessage, UploadDriverReply, UploadDriverResult } from 
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
 const UPLOADS = 20;
+/** The server's uploads arriving at once per runner (config uploadsAtOncePerUser); more get 429. */
+const UPLOADS_AT_ONCE_PER_RUNNER = 2;
 /** Which rounds to run (LOAD_ROUNDS=runs,week to profile one or two): signin, runs, run, week, squad, uploads. */
 const ROUNDS = new Set((process.env.LOAD_ROUNDS ?? 'signin,runs,run,week,squad,busy,uploads').split(',').map((k) => k.trim()));
 /** Runners uploading 100-mile files, one file at a time each, during the `busy` rounds. */
@@ -373,7 +376,10 @@ async function busyRound(
 }
 
 async function uploadRound(base: string): Promise<UploadResult> {
-  const token = await freshRunnerToken(base, 'upload');
+  // A runner may have 2 uploads arriving at once (issue 13, config uploadsAtOncePerUser): 20 at once come from 10 runners.
+  const tokens: string[] = [];
+  for (let r = 0; r < Math.ceil(UPLOADS / UPLOADS_AT_ONCE_PER_RUNNER); r++)
+    tokens.push(await freshRunnerToken(base, `upload-${r + 1}`));
   const files = Array.from({ length: UPLOADS }, (_, k) => threeHourFile(k));
   const statuses: Record<string, number> = {};
   const latencies: number[] = [];
@@ -387,7 +393,7 @@ async function uploadRound(base: string): Promise<UploadResult> {
       try {
         const response = await fetch(`${base}/api/runs`, {
           method: 'POST',
-          headers: { authorization: `Bearer ${token}` },
+          headers: { authorization: `Bearer ${tokens[Math.floor(k / UPLOADS_AT_ONCE_PER_RUNNER)]}` },
           body: form,
           signal: AbortSignal.timeout(UPLOAD_TIMEOUT_MS),
         });
@@ -395,7 +401,9 @@ async function uploadRound(base: string): Promise<UploadResult> {
         statuses[response.status] = (statuses[response.status] ?? 0) + 1;
         if (response.status === 201 && body.imported?.length === 1) stored++;
       } catch (error) {
-        const key = error instanceof Error ? error.name : 'error';
+        // fetch's TypeError says only "fetch failed"; its cause names the socket error.
+        const cause = error instanceof Error ? (error.cause as { code?: string; message?: string } | undefined) : undefined;
+        const key = error instanceof Error ? `${error.name}${cause ? ` (${cause.code ?? cause.message})` : ''}` : 'error';
         statuses[key] = (statuses[key] ?? 0) + 1;
       }
       latencies.push(performance.now() - started);
@@ -403,7 +411,8 @@ async function uploadRound(base: string): Promise<UploadResult> {
   );
   const wall = performance.now() - t0;
   latencies.sort((a, b) => a - b);
-  const { total } = await api<{ total: number }>(base, 'GET', '/api/runs', token);
+  let total = 0;
+  for (const token of tokens) total += (await api<{ total: number }>(base, 'GET', '/api/runs', token)).total;
   return {
     files: UPLOADS,
     stored,
@@ -510,7 +519,7 @@ async function main(): Promise<void> {
       uploads = await uploadRound(base);
       console.log(
         `  uploads          stored ${uploads.stored}/${uploads.files}, statuses ${JSON.stringify(uploads.statuses)}, ` +
-          `all done in ${uploads.wall_ms} ms (p50 ${uploads.p50_ms} ms, max ${uploads.max_ms} ms); the runner now has ${uploads.runs_after} runs`,
+          `all done in ${uploads.wall_ms} ms (p50 ${uploads.p50_ms} ms, max ${uploads.max_ms} ms); the 10 runners now have ${uploads.runs_after} runs`,
       );
     }
     console.log(

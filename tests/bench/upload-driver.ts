@@ -77,7 +77,9 @@ async function uploadLoop(base: string, token: string): Promise<void> {
       statuses[response.status] = (statuses[response.status] ?? 0) + 1;
       if (response.status === 201 && body.imported?.length === 1) stored++;
     } catch (error) {
-      const key = error instanceof Error ? error.name : 'error';
+      // fetch's TypeError says only "fetch failed"; its cause names the socket error.
+      const cause = error instanceof Error ? (error.cause as { code?: string; message?: string } | undefined) : undefined;
+      const key = error instanceof Error ? `${error.name}${cause ? ` (${cause.code ?? cause.message})` : ''}` : 'error';
       statuses[key] = (statuses[key] ?? 0) + 1;
     }
     latencies.push(performance.now() - started);
