@@ -27,6 +27,11 @@ export const ListRunsQuerySchema = z.object({
   runner_id: z.uuid({ error: 'Not a runner id.' }).optional(),
   sort: z.enum(RUN_LIST_SORTS, { error: `Sort by one of: ${RUN_LIST_SORTS.join(', ')}.` }).default('date'),
   order: z.enum(['asc', 'desc'], { error: 'Order must be asc or desc.' }).default('desc'),
+  /**
+   * Keyset paging (issue 19): the `next_cursor` of the page before; the runs that follow its last run in the
+   * same sort and order. Opaque; at most 300 characters (shared/runs/list-cursor.ts).
+   */
+  after: z.string().max(300, 'This link to more runs no longer works. Start again from the first page of your runs.').optional(),
 });
 export type ListRunsQuery = z.infer<typeof ListRunsQuerySchema>;
 

@@ -8,6 +8,8 @@ export const RunPageSchema = z.object({
   total: z.number(),
   page: z.number(),
   per_page: z.number(),
+  /** Pass as `after` for the runs that follow this page (keyset paging); null on the last page. */
+  next_cursor: z.string().nullable(),
 });
 export type RunPage = z.infer<typeof RunPageSchema>;
 

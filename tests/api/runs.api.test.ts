@@ -279,12 +279,16 @@ describe('listing, renaming and deleting runs', () => {
 type ListedRun = { id: string; started_at: string; distance_m: number; moving_s: number };
 
 /** Stores runs straight in the table (the list reads only summary columns), all from one source file. */
-async function storeRuns(userId: string, runs: Array<{ started_at: string; distance_m: number; moving_s: number }>) {
+async function storeRuns(
+  userId: string,
+  runs: Array<{ started_at: string; distance_m: number; moving_s: number }>,
+  fileHash = 'f'.repeat(64),
+) {
   const [file] = await db('source_files')
     .insert({
       user_id: userId,
       original_name: 'many.tcx',
-      sha256: 'f'.repeat(64),
+      sha256: fileHash,
       size_bytes: '1',
       storage_key: 'k',
       format: 'tcx',
@@ -373,6 +377,128 @@ describe('GET /api/runs?sort=…&order=…', () => {
     const paceDesc = await request(app).get('/api/runs?sort=pace&order=desc').set(auth);
     expect(paceAsc.body.runs.slice(-2).map((run: ListedRun) => run.distance_m)).toEqual([0, 0]);
     expect(paceDesc.body.runs.slice(-2).map((run: ListedRun) => run.distance_m)).toEqual([0, 0]);
+  });
+
+  it('after=next_cursor walks every sort and order to the same runs as the pages, the last page has no cursor', async () => {
+    const { app } = appWithStore();
+    const { user, auth } = await runnerWithToken(app);
+    await storeRuns(user.id, [
+      { started_at: '2026-03-01T07:00:00.000Z', distance_m: 10000, moving_s: 3000 },
+      { started_at: '2026-03-01T07:00:00.000Z', distance_m: 5000, moving_s: 1500 },
+      { started_at: '2026-03-02T18:30:00.000Z', distance_m: 5000, moving_s: 1400 },
+      { started_at: '2026-02-27T06:15:00.000Z', distance_m: 21097.5, moving_s: 6300 },
+      { started_at: '2026-03-05T12:00:00.000Z', distance_m: 0, moving_s: 1800 },
+      { started_at: '2026-03-04T12:00:00.000Z', distance_m: 0, moving_s: 900 },
+      { started_at: '2026-01-10T09:00:00.000Z', distance_m: 8000, moving_s: 3000 },
+      { started_at: '2026-01-11T09:00:00.000Z', distance_m: 12000, moving_s: 3000 },
+      { started_at: '2026-02-01T09:00:00.000Z', distance_m: 3000, moving_s: 1000 },
+      { started_at: '2026-02-02T09:00:00.000Z', distance_m: 3000, moving_s: 1000 },
+      { started_at: '2026-02-03T09:00:00.000Z', distance_m: 42195, moving_s: 12600 },
+    ]);
+    // Microseconds a JavaScript date cannot hold: the cursor carries PostgreSQL's exact text of the key.
+    await db('runs')
+      .where({ user_id: user.id })
+      .andWhere('started_at', new Date('2026-02-01T09:00:00.000Z'))
+      .update({ started_at: db.raw("'2026-02-01T09:00:00.000731Z'::timestamptz") });
+    const everyRun = (await request(app).get('/api/runs?per_page=200').set(auth)).body.runs as ListedRun[];
+    for (const sort of ['date', 'distance', 'duration', 'pace']) {
+      for (const order of ['asc', 'desc'] as const) {
+        const walked: string[] = [];
+        let after: string | null = null;
+        let pages = 0;
+        do {
+          const cursor: string = after === null ? '' : `&after=${encodeURIComponent(after)}`;
+          const res = await request(app).get(`/api/runs?sort=${sort}&order=${order}&per_page=4${cursor}`).set(auth);
+          expect(res.status).toBe(200);
+          expect(res.body.total).toBe(11);
+          walked.push(...(res.body.runs as ListedRun[]).map((run) => run.id));
+          // The deep page by cursor is the same as the page by offset.
+          const byOffset = await request(app)
+            .get(`/api/runs?sort=${sort}&order=${order}&per_page=4&page=${pages + 1}`)
+            .set(auth);
+          expect(res.body.runs).toEqual(byOffset.body.runs);
+          after = res.body.next_cursor as string | null;
+          pages++;
+        } while (after !== null && pages < 10);
+        expect({ sort, order, pages, ids: walked }).toEqual({ sort, order, pages: 3, ids: sortedInJs(everyRun, sort, order) });
+      }
+    }
+    // A page that ends exactly at the last run says so: no cursor.
+    const whole = await request(app).get('/api/runs?per_page=11').set(auth);
+    expect(whole.body.next_cursor).toBeNull();
+  });
+
+  it('after=next_cursor stays in place when runs are added or deleted before it (an offset page shifts)', async () => {
+    const { app } = appWithStore();
+    const { user, auth } = await runnerWithToken(app);
+    await storeRuns(
+      user.id,
+      Array.from({ length: 8 }, (_, i) => ({
+        started_at: `2026-04-${String(10 + i)}T07:00:00.000Z`,
+        distance_m: 5000,
+        moving_s: 1500,
+      })),
+    );
+    const first = await request(app).get('/api/runs?per_page=3').set(auth);
+    const secondBefore = await request(app).get('/api/runs?per_page=3&page=2').set(auth);
+    // Two newer runs arrive and the newest shown run is deleted while the runner reads page one.
+    await storeRuns(
+      user.id,
+      [
+        { started_at: '2026-04-20T07:00:00.000Z', distance_m: 6000, moving_s: 1800 },
+        { started_at: '2026-04-21T07:00:00.000Z', distance_m: 6000, moving_s: 1800 },
+      ],
+      'e'.repeat(64),
+    );
+    expect(
+      (
+        await request(app)
+          .delete(`/api/runs/${first.body.runs[0].id as string}`)
+          .set(auth)
+      ).status,
+    ).toBe(204);
+    const next = await request(app)
+      .get(`/api/runs?per_page=3&after=${first.body.next_cursor as string}`)
+      .set(auth);
+    expect(next.status).toBe(200);
+    expect(next.body.runs.map((r: ListedRun) => r.id)).toEqual(secondBefore.body.runs.map((r: ListedRun) => r.id));
+    const secondAfter = await request(app).get('/api/runs?per_page=3&page=2').set(auth);
+    expect(secondAfter.body.runs.map((r: ListedRun) => r.id)).not.toEqual(secondBefore.body.runs.map((r: ListedRun) => r.id));
+  });
+
+  it('answers 400 with a sentence for a damaged cursor, one from another order, or a cursor with a page number', async () => {
+    const { app } = appWithStore();
+    const { user, auth } = await runnerWithToken(app);
+    await storeRuns(user.id, [
+      { started_at: '2026-05-01T07:00:00.000Z', distance_m: 5000, moving_s: 1500 },
+      { started_at: '2026-05-02T07:00:00.000Z', distance_m: 6000, moving_s: 1500 },
+    ]);
+    const cursor = (await request(app).get('/api/runs?per_page=1').set(auth)).body.next_cursor as string;
+    expect(cursor).toMatch(/^[A-Za-z0-9_-]+$/);
+    const forged = Buffer.from(JSON.stringify([1, 'date', 'desc', "2026-05-02'; drop table runs; --", user.id])).toString(
+      'base64url',
+    );
+    const sqlKey = Buffer.from(JSON.stringify([1, 'distance', 'desc', '1 or 1=1', user.id])).toString('base64url');
+    for (const bad of [
+      'not-a-cursor',
+      `${cursor}x`,
+      cursor.slice(0, -4),
+      forged,
+      sqlKey,
+      'A'.repeat(301),
+      encodeURIComponent(Buffer.from('[1,"date"]').toString('base64')),
+    ]) {
+      const res = await request(app).get(`/api/runs?per_page=1&after=${bad}`).set(auth);
+      expect({ bad, status: res.status }).toEqual({ bad, status: 400 });
+      expect(res.body.error).toBe('This link to more runs no longer works. Start again from the first page of your runs.');
+    }
+    const otherOrder = await request(app).get(`/api/runs?per_page=1&sort=distance&after=${cursor}`).set(auth);
+    expect(otherOrder.status).toBe(400);
+    expect(otherOrder.body.error).toMatch(/no longer works/);
+    const both = await request(app).get(`/api/runs?per_page=1&page=2&after=${cursor}`).set(auth);
+    expect(both.status).toBe(400);
+    expect(both.body.error).toBe('Ask for a page number or for the runs after a link, not both.');
+    expect(await db('runs').where({ user_id: user.id }).count({ n: '*' }).first()).toEqual({ n: '2' });
   });
 
   it('answers 400 with a sentence for an unknown sort or order', async () => {

@@ -189,11 +189,52 @@ function runListOrderBy(sort: RunListSort, order: RunListOrder): string {
   return `${RUN_LIST_ORDER_BY[sort]} ${direction}${nulls}, id ${direction}`;
 }
 
+/** What a sort key is in SQL, to read a cursor's key back exactly. */
+const RUN_LIST_KEY_TYPE: Record<RunListSort, string> = {
+  date: 'timestamptz',
+  distance: 'float8',
+  duration: 'float8',
+  pace: 'float8',
+};
+
+/**
+ * The runs after `after` in the list's order (keyset: no offset, so a deep page costs what the first does; the
+ * date order reads the (user_id, started_at, id) index). Pace may be null and sorts last in both directions.
+ */
+function whereAfter(q: Knex.QueryBuilder, after: RunListAfter): void {
+  const expr = RUN_LIST_ORDER_BY[after.sort];
+  const cmp = after.order === 'asc' ? '>' : '<';
+  if (after.key === null) {
+    q.andWhereRaw(`(${expr}) is null and id ${cmp} ?::uuid`, [after.id]);
+    return;
+  }
+  const key = `?::${RUN_LIST_KEY_TYPE[after.sort]}`;
+  if (after.sort === 'pace') {
+    q.andWhere((w) =>
+      w.whereRaw(`(${expr}, id) ${cmp} (${key}, ?::uuid)`, [after.key, after.id]).orWhereRaw(`(${expr}) is null`),
+    );
+  } else {
+    q.andWhereRaw(`(${expr}, id) ${cmp} (${key}, ?::uuid)`, [after.key, after.id]);
+  }
+}
+
+export interface RunListAfter {
+  sort: RunListSort;
+  order: RunListOrder;
+  key: string | null;
+  id: string;
+}
+
+/**
+ * One page of the runner's runs, by offset (`page`) or after a cursor (`after`), with the total and the place
+ * of the run after the page (null when the page is the last): one row more is read to know.
+ */
 export async function listRunsOf(
   userId: string,
   query: ListRunsQuery,
+  after: RunListAfter | null,
   trx: Db = readDb(),
-): Promise<{ rows: RunListRow[]; total: number }> {
+): Promise<{ rows: RunListRow[]; total: number; next: RunListAfter | null }> {
   const matching = () => {
     const q = trx('runs').where({ user_id: userId });
     if (query.from) q.andWhere('local_date', '>=', query.from);
@@ -201,15 +242,24 @@ export async function listRunsOf(
     return q;
   };
   // The total rides along on every row as a subquery (computed once): one round trip instead of two.
-  const rows = (await matching()
-    .select(...RUN_LIST_COLUMNS, { total: matching().count('*') })
+  const page = matching()
+    .select(...RUN_LIST_COLUMNS, {
+      total: matching().count('*'),
+      list_key: trx.raw(`(${RUN_LIST_ORDER_BY[query.sort]})::text`),
+    })
     .orderByRaw(runListOrderBy(query.sort, query.order))
-    .limit(query.per_page)
-    .offset((query.page - 1) * query.per_page)) as Array<RunListRow & { total: string }>;
-  if (rows.length > 0) return { rows, total: Number(rows[0]!.total) };
+    .limit(query.per_page + 1);
+  if (after) whereAfter(page, after);
+  else page.offset((query.page - 1) * query.per_page);
+  const read = (await page) as Array<RunListRow & { total: string; list_key: string | null }>;
+  const rows = read.slice(0, query.per_page);
+  const last = rows.at(-1);
+  const next =
+    read.length > query.per_page && last ? { sort: query.sort, order: query.order, key: last.list_key, id: last.id } : null;
+  if (rows.length > 0) return { rows, total: Number(read[0]!.total), next };
   // A page past the end has no row to carry the total.
   const [{ count }] = (await matching().count({ count: '*' })) as [{ count: string }];
-  return { rows, total: Number(count) };
+  return { rows: [], total: Number(count), next: null };
 }
 
 export async function renameRun(

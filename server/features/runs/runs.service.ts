@@ -9,6 +9,12 @@ import { readFile } from 'node:fs/promises';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import type { ImportResult, ListRunsQuery, StorageUsage } from '../../../shared/runs/schemas.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
+import {
+  decodeRunListCursor,
+  encodeRunListCursor,
+  RUN_LIST_CURSOR_ERROR,
+  type RunListCursor,
+} from '../../../shared/runs/list-cursor.ts';
 import { overQuotaReason } from '../../../shared/runs/upload-limits.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
 import { inTransaction, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
@@ -347,8 +353,28 @@ export async function splitsCsvOf(actor: Actor, runId: string, unit: SplitUnit):
 export async function listRuns(actor: Actor, query: ListRunsQuery) {
   const ownerId = query.runner_id ?? actor.id;
   await assertCanReadRunner(actor, ownerId);
-  const { rows, total } = await listRunsOf(ownerId, query);
-  return { runs: rows.map(toRunListItem), total, page: query.page, per_page: query.per_page };
+  const after = query.after === undefined ? null : readListCursor(query);
+  const { rows, total, next } = await listRunsOf(ownerId, query, after);
+  return {
+    runs: rows.map(toRunListItem),
+    total,
+    page: query.page,
+    per_page: query.per_page,
+    next_cursor: next ? encodeRunListCursor(next) : null,
+  };
+}
+
+/** The cursor of `after`, which must come from this list in the same sort and order (shared/runs/list-cursor.ts). */
+function readListCursor(query: ListRunsQuery): RunListCursor {
+  const cursor = decodeRunListCursor(query.after ?? '');
+  if (!cursor || cursor.sort !== query.sort || cursor.order !== query.order) {
+    throw new ValidationError(RUN_LIST_CURSOR_ERROR, [{ field: 'after', message: RUN_LIST_CURSOR_ERROR }]);
+  }
+  if (query.page !== 1) {
+    const message = 'Ask for a page number or for the runs after a link, not both.';
+    throw new ValidationError(message, [{ field: 'page', message }]);
+  }
+  return cursor;
 }
 
 /** Renames a run and/or changes its kind (run, ride, hike); only the owner may. */
