@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Area, AreaChart, CartesianGrid, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { niceTicks, robustRange, type ChartRow } from '../../../../shared/runs/chart-series.ts';
 import { formatPace } from '../../../../shared/tracks/format.ts';
+import { CLIMB_UNIT, METRES_PER_FOOT } from '../../../../shared/units.ts';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 
 type RunChartsProps = { rows: ChartRow[]; unit: Unit };
@@ -13,7 +14,8 @@ const SYNC_ID = 'run-over-distance';
 const HEIGHT = 150;
 const PACE_STEPS_S = [5, 10, 15, 30, 60, 120, 300, 600];
 const HR_STEPS = [5, 10, 20, 25, 50];
-const ELEVATION_STEPS_M = [1, 2, 5, 10, 20, 25, 50, 100, 200, 250, 500, 1000];
+/** Tick steps in the climb unit (metres or feet: a 1 000 m range is about 3 300 ft). */
+const ELEVATION_STEPS = [1, 2, 5, 10, 20, 25, 50, 100, 200, 250, 500, 1000, 2000, 2500, 5000];
 
 /** Round ticks over the bulk of the values (spikes are clipped, not allowed to flatten the line). */
 function scale(values: Array<number | null>, steps: number[]) {
@@ -55,13 +57,13 @@ export default function RunCharts({ rows, unit }: RunChartsProps) {
     rows.map((r) => r.hr),
     HR_STEPS,
   );
+  // Elevation is drawn in the climb unit that goes with the distance unit (feet with miles).
+  const climbUnit = CLIMB_UNIT[unit];
+  const eleShown = rows.map((r) => (r.ele === null ? null : unit === 'mi' ? r.ele / METRES_PER_FOOT : r.ele));
   // Elevation keeps its full range: a hill is not a spike.
-  const eleRange = robustRange(
-    rows.map((r) => r.ele),
-    0,
-    1,
-  );
-  const ele = eleRange ? niceTicks(eleRange[0], eleRange[1], ELEVATION_STEPS_M, 4) : undefined;
+  const eleRange = robustRange(eleShown, 0, 1);
+  const ele = eleRange ? niceTicks(eleRange[0], eleRange[1], ELEVATION_STEPS, 4) : undefined;
+  const eleRows = rows.map((r, i) => ({ ...r, ele: eleShown[i] }));
   const hasHr = hr !== undefined;
   const hasEle = ele !== undefined;
 
@@ -102,9 +104,9 @@ export default function RunCharts({ rows, unit }: RunChartsProps) {
       )}
       {hasEle && (
         <>
-          <ChartTitle>Elevation (m)</ChartTitle>
+          <ChartTitle>Elevation ({climbUnit})</ChartTitle>
           <ResponsiveContainer width="100%" height={HEIGHT + 20}>
-            <AreaChart data={rows} syncId={SYNC_ID} margin={{ top: 4, right: 8, bottom: 0, left: 0 }}>
+            <AreaChart data={eleRows} syncId={SYNC_ID} margin={{ top: 4, right: 8, bottom: 0, left: 0 }}>
               <CartesianGrid stroke={LINE} vertical={false} />
               {xAxis(true)}
               <YAxis
@@ -115,7 +117,7 @@ export default function RunCharts({ rows, unit }: RunChartsProps) {
                 width={Y_WIDTH}
                 {...AXIS}
               />
-              {tooltip('Elevation', (v) => `${Math.round(v)} m`)}
+              {tooltip('Elevation', (v) => `${Math.round(v)} ${climbUnit}`)}
               <Area
                 dataKey="ele"
                 stroke="var(--color-ink-muted)"
