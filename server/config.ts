@@ -59,6 +59,11 @@ export interface AppConfig {
   /** Stored files without rows are removed by the orphan sweeper only when older than this (ORPHAN_GRACE_SECONDS). */
   orphanGraceSeconds: number;
   /**
+   * Bulk-import leases (server/features/history/README.md): work not beaten for `leaseSeconds`
+   * (IMPORT_LEASE_SECONDS, 60) is queued again; a file is given up after `maxAttempts` claims (IMPORT_MAX_ATTEMPTS, 3).
+   */
+  importLease: { leaseSeconds: number; maxAttempts: number };
+  /**
    * The payment service (coach fees, server/features/fees/README.md). `url` null means the real service when a
    * secret key is set in production; outside production `startServer` starts the local fake and puts its address
    * here. `webhookSecret` signs and checks webhook events.
@@ -97,6 +102,14 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   const orphanGrace = env.ORPHAN_GRACE_SECONDS || '600';
   if (!/^\d+$/.test(orphanGrace)) {
     throw new ConfigError(`ORPHAN_GRACE_SECONDS must be a whole number of seconds (0 or more), not "${orphanGrace}".`);
+  }
+  const leaseSeconds = env.IMPORT_LEASE_SECONDS || '60';
+  if (!/^\d+$/.test(leaseSeconds) || Number(leaseSeconds) < 2) {
+    throw new ConfigError(`IMPORT_LEASE_SECONDS must be a whole number of seconds (2 or more), not "${leaseSeconds}".`);
+  }
+  const maxAttempts = env.IMPORT_MAX_ATTEMPTS || '3';
+  if (!/^\d+$/.test(maxAttempts) || Number(maxAttempts) < 1) {
+    throw new ConfigError(`IMPORT_MAX_ATTEMPTS must be a whole number (1 or more), not "${maxAttempts}".`);
   }
   const quotaMb = env.STORAGE_QUOTA_MB || '1024';
   if (!/^\d+$/.test(quotaMb) || Number(quotaMb) < 1) {
@@ -143,6 +156,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     mailCatcherPort: Number(env.MAIL_CATCHER_PORT ?? 2525),
     mailFrom: env.MAIL_FROM ?? 'Pacewright <no-reply@pacewright.test>',
     orphanGraceSeconds: Number(orphanGrace),
+    importLease: { leaseSeconds: Number(leaseSeconds), maxAttempts: Number(maxAttempts) },
     payments: {
       url: env.PAYMENTS_URL || null,
       secretKey: env.STRIPE_SECRET_KEY || (mode === 'production' ? null : 'sk_test_local_fake'),

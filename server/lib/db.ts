@@ -446,6 +446,8 @@ export interface ImportRow {
   rejected: Array<{ file: string; error: string }>;
   created_at: Date;
   finished_at: Date | null;
+  /** Last sign of life of a worker on this import (the lease sweep queues it again when this grows old). */
+  heartbeat_at: Date | null;
 }
 
 export interface ImportFileRow {
@@ -456,6 +458,10 @@ export interface ImportFileRow {
   claimed_at: Date | null;
   /** The process (`host:pid`) that claimed the file last. */
   claimed_by: string | null;
+  /** How often the file was claimed; the lease sweep gives it up after IMPORT_MAX_ATTEMPTS. */
+  attempts: number;
+  /** Last sign of life of the worker holding the file. */
+  heartbeat_at: Date | null;
   result: unknown;
 }
 

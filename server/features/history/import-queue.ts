@@ -6,7 +6,7 @@ import { isDatabaseUp } from '../../lib/db.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { IMPORT_QUEUE, listUnfinishedImportIds } from './imports.repository.ts';
-import { processImport, type ImportWorkDeps } from './imports.service.ts';
+import { ImportHoldings, processImport, sweepImportLeases, type ImportWorkDeps } from './imports.service.ts';
 
 /**
  * The background side of bulk imports: a pg-boss queue in the app's own PostgreSQL (schema
@@ -18,8 +18,17 @@ const QUEUE = IMPORT_QUEUE;
 const IMPORTS_AT_ONCE = 2;
 /** Files of one import imported at the same time (parsing is CPU-bound; two overlap the database writes). */
 const FILES_AT_ONCE = 2;
-/** A file claimed longer ago than this by a worker that never finished it is taken over. */
-const LEASE_SECONDS = 300;
+/**
+ * Leases on import work (README.md in this folder): a worker beats the heartbeat of what it holds
+ * every `leaseSeconds / 6`; every `leaseSeconds / 4` each job-running process sweeps: a file not
+ * beaten for `leaseSeconds` is given back and its import queued again, and a file claimed
+ * `maxAttempts` times is given up with a sentence. Defaults: IMPORT_LEASE_SECONDS, IMPORT_MAX_ATTEMPTS.
+ */
+export interface ImportLease {
+  leaseSeconds: number;
+  maxAttempts: number;
+}
+export const DEFAULT_IMPORT_LEASE: ImportLease = { leaseSeconds: 60, maxAttempts: 3 };
 /** How often a worker whose import lost the database looks whether it is back. */
 const DATABASE_RECHECK_MS = 2_000;
 
@@ -33,6 +42,8 @@ let boss: Promise<PgBoss> | null = null;
 let sender: Promise<PgBoss> | null = null;
 let workerIds: string[] = [];
 let stopping = false;
+let heartbeat: NodeJS.Timeout | undefined;
+let leaseSweep: NodeJS.Timeout | undefined;
 
 function openBoss(databaseUrl: string, works: boolean): Promise<PgBoss> {
   return (async () => {
@@ -99,6 +110,22 @@ export interface ImportWorkerOptions {
   pollingIntervalSeconds?: number;
   /** Original files a user may keep, bytes; no limit when absent. */
   storageQuotaBytes?: number;
+  /** Lease length and attempts (IMPORT_LEASE_SECONDS, IMPORT_MAX_ATTEMPTS); DEFAULT_IMPORT_LEASE when absent. */
+  lease?: ImportLease;
+}
+
+/** Runs `task` every `ms`, never two at once; errors are logged (the database may be away) and the next round tries again. */
+function every(ms: number, what: string, task: () => Promise<unknown>): NodeJS.Timeout {
+  let running = false;
+  const timer = setInterval(() => {
+    if (running) return;
+    running = true;
+    task()
+      .catch((err: unknown) => logger.warn({ err }, `${what} failed; it runs again shortly`))
+      .finally(() => (running = false));
+  }, ms);
+  timer.unref();
+  return timer;
 }
 
 /**
@@ -107,13 +134,15 @@ export interface ImportWorkerOptions {
  */
 export async function startImportWorker(store: FileStore, options: ImportWorkerOptions): Promise<void> {
   stopping = false;
+  const lease = options.lease ?? DEFAULT_IMPORT_LEASE;
   const instance = await startBoss(options.databaseUrl ?? databaseUrlFromEnv());
-  const deps = {
+  const holdings = new ImportHoldings();
+  const deps: ImportWorkDeps = {
     store,
     dataDir: options.dataDir,
     maxEntryBytes: options.maxEntryBytes,
     filesAtOnce: FILES_AT_ONCE,
-    leaseSeconds: LEASE_SECONDS,
+    holdings,
     shouldStop: () => stopping,
     storageQuotaBytes: options.storageQuotaBytes,
   };
@@ -123,12 +152,27 @@ export async function startImportWorker(store: FileStore, options: ImportWorkerO
         QUEUE,
         { batchSize: 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
         async ([job]) => {
-          if (job) await importOrResumeLater(instance, job.data.importId, deps);
+          if (job) await importOrResumeLater(instance, job.data.importId, deps, lease);
         },
       ),
     );
   }
   for (const importId of await listUnfinishedImportIds()) await instance.send(QUEUE, { importId } satisfies ImportJob);
+  const sweep = async () => {
+    const swept = await sweepImportLeases({
+      ...lease,
+      dataDir: options.dataDir,
+      enqueue: async (importId) => {
+        await instance.send(QUEUE, { importId } satisfies ImportJob);
+        for (const id of workerIds) instance.notifyWorker(id);
+      },
+    });
+    if (swept.requeued.length > 0 || swept.givenUp.length > 0) {
+      logger.warn(swept, 'import lease sweep: work of a stopped worker was queued again');
+    }
+  };
+  heartbeat = every((lease.leaseSeconds * 1000) / 6, 'the import heartbeat', () => holdings.beat());
+  leaseSweep = every((lease.leaseSeconds * 1000) / 4, 'the import lease sweep', sweep);
 }
 
 /**
@@ -137,7 +181,7 @@ export async function startImportWorker(store: FileStore, options: ImportWorkerO
  * would not help: pg-boss cannot record a failure without the database either, and the job would
  * then sit as active for hours.
  */
-async function importOrResumeLater(instance: PgBoss, importId: string, deps: ImportWorkDeps): Promise<void> {
+async function importOrResumeLater(instance: PgBoss, importId: string, deps: ImportWorkDeps, lease: ImportLease): Promise<void> {
   try {
     await processImport(importId, deps);
   } catch (err) {
@@ -145,17 +189,20 @@ async function importOrResumeLater(instance: PgBoss, importId: string, deps: Imp
     logger.warn({ err, importId }, 'the database went away during an import; it resumes once the database is back');
     while (!stopping && !(await isDatabaseUp())) await sleep(DATABASE_RECHECK_MS);
     // When stopping, the next start's sweep queues the import again.
-    if (!stopping) await instance.send(QUEUE, { importId } satisfies ImportJob, { startAfter: LEASE_SECONDS + 5 });
+    if (!stopping) await instance.send(QUEUE, { importId } satisfies ImportJob, { startAfter: lease.leaseSeconds + 5 });
   }
 }
 
 /** Stops the workers: files in hand are finished, no new one is started; the rest waits for the next start. */
 export async function stopImportWorker(): Promise<void> {
   stopping = true;
+  clearInterval(leaseSweep);
   const current = boss;
   boss = null;
   workerIds = [];
+  // The files in hand keep their heartbeat until they are finished.
   if (current) await (await current).stop({ graceful: true, wait: true, timeout: 60_000 });
+  clearInterval(heartbeat);
   await stopImportSender();
 }
 

@@ -19,8 +19,10 @@ import { importFiles } from '../runs/index.ts';
 import { recordUploadNotice } from '../notices/index.ts';
 import { findUserById } from '../users/index.ts';
 import {
+  beatHeartbeats,
   claimFile,
   completeFile,
+  expireLeases,
   finishImportIfComplete,
   findImportById,
   insertImport,
@@ -29,7 +31,9 @@ import {
   markImportFailed,
   markImportRunning,
   releaseFile,
+  takeStalledImports,
   toImportProgress,
+  type FileClaim,
   type FileOutcome,
   type NewImportFile,
 } from './imports.repository.ts';
@@ -166,6 +170,39 @@ export async function getImportProgress(actor: Actor, importId: string): Promise
   return toImportProgress(row);
 }
 
+/**
+ * What this process holds of bulk-import work, beaten by the heartbeat: files claimed and imports
+ * being worked on. A process that dies stops beating, and the lease sweep of any other process
+ * gives its work back.
+ */
+export class ImportHoldings {
+  readonly claims = new Map<string, FileClaim>();
+  readonly imports = new Map<string, number>();
+
+  hold(claim: FileClaim): void {
+    this.claims.set(`${claim.importId}:${claim.position}`, claim);
+  }
+
+  let(claim: FileClaim): void {
+    this.claims.delete(`${claim.importId}:${claim.position}`);
+  }
+
+  enter(importId: string): void {
+    this.imports.set(importId, (this.imports.get(importId) ?? 0) + 1);
+  }
+
+  leave(importId: string): void {
+    const left = (this.imports.get(importId) ?? 1) - 1;
+    if (left > 0) this.imports.set(importId, left);
+    else this.imports.delete(importId);
+  }
+
+  /** One heartbeat: everything held is still alive. */
+  beat(): Promise<void> {
+    return beatHeartbeats([...this.claims.values()], [...this.imports.keys()]);
+  }
+}
+
 export interface ImportWorkDeps {
   store: FileStore;
   dataDir: string;
@@ -173,8 +210,8 @@ export interface ImportWorkDeps {
   maxEntryBytes: number;
   /** Files imported at the same time within one import. */
   filesAtOnce: number;
-  /** After this many seconds a claimed but unfinished file is taken over (its worker died). */
-  leaseSeconds: number;
+  /** The claims and imports this process's heartbeat keeps alive. */
+  holdings: ImportHoldings;
   /** True once the worker is asked to stop: finish the files in hand, start no more. */
   shouldStop: () => boolean;
   /** Original files a user may keep, bytes (STORAGE_QUOTA_MB); files past it are refused. No limit when absent. */
@@ -182,6 +219,11 @@ export interface ImportWorkDeps {
 }
 
 const DAMAGED_ENTRY = 'This file is damaged inside the archive, so it could not be read.';
+
+/** The sentence of a file given up by the lease sweep after `maxAttempts` claims (IMPORT_MAX_ATTEMPTS). */
+export function givenUpSentence(maxAttempts: number): string {
+  return `The import stopped ${maxAttempts} times while reading this file, so it was skipped. Upload it on its own from the Log page to see what is wrong with it.`;
+}
 
 function outcomeOf(result: Awaited<ReturnType<typeof importFiles>>): FileOutcome {
   if (result.imported.length > 0) return { status: 'imported', result: { runIds: result.imported.map((r) => r.id) } };
@@ -193,7 +235,7 @@ function outcomeOf(result: Awaited<ReturnType<typeof importFiles>>): FileOutcome
 /**
  * Marks a complete import done and removes its archive before that commits, so "done" always means
  * the archive is gone (a crash in between leaves an import whose files are all done, which the next
- * start finishes without opening the archive).
+ * start or lease sweep finishes without opening the archive).
  */
 async function finish(importId: string, dataDir: string): Promise<void> {
   const finished = await inTransaction(async (trx) => {
@@ -210,44 +252,89 @@ async function finish(importId: string, dataDir: string): Promise<void> {
     );
 }
 
+/** The claim on a file was lost (its lease ran out and another worker holds it now): nothing is stored. */
+class ClaimLost extends Error {
+  constructor() {
+    super('the claim on this import file was lost');
+  }
+}
+
+/** Passes over the archive per processImport call at most; files left after that wait for the lease sweep. */
+const MOST_PASSES = 3;
+
 /**
  * Works through an import's open files, `filesAtOnce` at a time, each through the ordinary
  * `importFiles` (its own transaction; the SHA-256 rule turns a second copy into a duplicate).
- * Each file is claimed before and counted after, in the database, so a stop or crash resumes with
- * exactly the files not yet done. Returns when every file is done or the worker is stopping.
+ * Each file is claimed before, and an imported file is counted in the transaction that stores its
+ * runs, so a stop or crash resumes with exactly the files not yet done. Files given back meanwhile
+ * (by the lease sweep) are taken in another pass. Returns when every file is done or the worker is stopping.
  */
 export async function processImport(importId: string, deps: ImportWorkDeps): Promise<void> {
   const row = await findImportById(importId);
   if (!row || row.status === 'done' || row.status === 'failed') return;
   const user = await findUserById(row.user_id);
   if (!user) return;
-  await markImportRunning(importId);
-  const open = new Map((await listOpenFiles(importId, deps.leaseSeconds)).map((f) => [f.position, f]));
-  if (open.size === 0) return finish(importId, deps.dataDir);
+  deps.holdings.enter(importId);
+  try {
+    await markImportRunning(importId);
+    for (let pass = 0; pass < MOST_PASSES && !deps.shouldStop(); pass++) {
+      const open = new Map((await listOpenFiles(importId)).map((f) => [f.position, f]));
+      if (open.size === 0) break;
+      if (!(await importPass(importId, row.archive_name, user, open, deps))) return;
+    }
+  } finally {
+    deps.holdings.leave(importId);
+  }
+  if (!deps.shouldStop()) await finish(importId, deps.dataDir);
+}
 
+/** One pass over the archive, importing the `open` files this worker can claim; false when the archive is gone. */
+async function importPass(
+  importId: string,
+  archiveName: string,
+  user: NonNullable<Awaited<ReturnType<typeof findUserById>>>,
+  open: Map<number, { position: number; name: string }>,
+  deps: ImportWorkDeps,
+): Promise<boolean> {
   let zip;
   try {
     zip = await openZip(archivePath(deps.dataDir, importId));
   } catch (err) {
     // Another job of this import (in any worker) finished it and removed the archive meanwhile.
-    if ((await findImportById(importId))?.status === 'done') return;
+    if ((await findImportById(importId))?.status === 'done') return false;
     logger.error({ err, importId }, 'an import archive could not be opened');
-    await markImportFailed(importId, row.archive_name, 'The uploaded archive is no longer readable; please upload it again.');
-    return;
+    await markImportFailed(importId, archiveName, 'The uploaded archive is no longer readable; please upload it again.');
+    return false;
   }
 
-  const record = async (position: number, name: string, outcome: FileOutcome) => {
-    const updated = await inTransaction((trx) => completeFile(importId, position, name, outcome, trx));
+  const record = async (claim: FileClaim, name: string, outcome: FileOutcome) => {
+    const updated = await inTransaction((trx) => completeFile(claim, name, outcome, trx));
     if (updated && updated.done >= updated.total) await finish(importId, deps.dataDir);
   };
-  const importOne = async (position: number, name: string, data: Buffer) => {
+  const importOne = async (claim: FileClaim, name: string, data: Buffer) => {
     try {
-      const result = await importFiles(user, [{ name, data }], deps.store, { storageQuotaBytes: deps.storageQuotaBytes });
-      await record(position, name, outcomeOf(result));
+      let counted: Awaited<ReturnType<typeof completeFile>>;
+      const result = await importFiles(user, [{ name, data }], deps.store, {
+        storageQuotaBytes: deps.storageQuotaBytes,
+        // Stored runs and the file's count commit together: a kill -9 leaves both or neither.
+        beforeCommit: async (trx, runIds) => {
+          counted = await completeFile(claim, name, { status: 'imported', result: { runIds } }, trx);
+          if (!counted) throw new ClaimLost();
+        },
+      });
+      if (result.imported.length > 0) {
+        if (counted && counted.done >= counted.total) await finish(importId, deps.dataDir);
+      } else await record(claim, name, outcomeOf(result));
     } catch (err) {
+      if (err instanceof ClaimLost) {
+        logger.warn({ importId, file: name }, 'an import file was taken over by another worker after its lease ran out');
+        return;
+      }
       // Not the file's fault (the database went away, say): leave it open for the next attempt.
       logger.error({ err, importId, file: name }, 'importing a file from an archive failed');
-      await releaseFile(importId, position).catch(() => undefined);
+      await releaseFile(claim).catch(() => undefined);
+    } finally {
+      deps.holdings.let(claim);
     }
   };
 
@@ -256,15 +343,20 @@ export async function processImport(importId: string, deps: ImportWorkDeps): Pro
     for await (const entry of zipEntries(zip)) {
       if (deps.shouldStop()) break;
       const file = open.get(entry.position);
-      if (!file || !(await claimFile(importId, file.position, deps.leaseSeconds))) continue;
+      if (!file) continue;
+      const claim = await claimFile(importId, file.position);
+      if (!claim) continue;
+      deps.holdings.hold(claim);
       let data: Buffer;
       try {
         data = await readZipEntry(zip, entry.entry, deps.maxEntryBytes);
       } catch {
-        await record(file.position, file.name, { status: 'rejected', result: { error: DAMAGED_ENTRY }, error: DAMAGED_ENTRY });
+        await record(claim, file.name, { status: 'rejected', result: { error: DAMAGED_ENTRY }, error: DAMAGED_ENTRY }).finally(
+          () => deps.holdings.let(claim),
+        );
         continue;
       }
-      const task: Promise<void> = importOne(file.position, file.name, data).finally(() => inFlight.delete(task));
+      const task: Promise<void> = importOne(claim, file.name, data).finally(() => inFlight.delete(task));
       inFlight.add(task);
       if (inFlight.size >= deps.filesAtOnce) await Promise.race(inFlight);
     }
@@ -272,5 +364,33 @@ export async function processImport(importId: string, deps: ImportWorkDeps): Pro
     await Promise.all(inFlight);
     zip.close();
   }
-  if (!deps.shouldStop()) await finish(importId, deps.dataDir);
+  return true;
+}
+
+export interface LeaseSweepResult {
+  /** Imports queued again (a file's worker died, or nobody worked on them for a lease). */
+  requeued: string[];
+  /** Files given up after too many attempts. */
+  givenUp: Array<{ importId: string; name: string }>;
+}
+
+/**
+ * The lease sweep (issue 13 #9), run every few seconds by every job-running process: files whose
+ * worker stopped beating are given back (or, after `maxAttempts` claims, rejected with a sentence),
+ * and imports nobody works on are handed to `enqueue`, without a restart of anything.
+ */
+export async function sweepImportLeases(options: {
+  leaseSeconds: number;
+  maxAttempts: number;
+  dataDir: string;
+  enqueue: (importId: string) => Promise<void>;
+}): Promise<LeaseSweepResult> {
+  const expired = await inTransaction((trx) =>
+    expireLeases(options.leaseSeconds, options.maxAttempts, givenUpSentence(options.maxAttempts), trx),
+  );
+  // A file given up may have been an import's last one.
+  for (const importId of new Set(expired.givenUp.map((f) => f.importId))) await finish(importId, options.dataDir);
+  const stalled = await inTransaction((trx) => takeStalledImports(options.leaseSeconds, trx));
+  for (const importId of stalled) await options.enqueue(importId);
+  return { requeued: stalled, givenUp: expired.givenUp };
 }

@@ -33,6 +33,7 @@ export async function startBackgroundJobs({ config, store, mailer, payments }: B
     maxEntryBytes: config.uploadMaxFileBytes,
     databaseUrl: config.databaseUrl,
     storageQuotaBytes: config.storageQuotaBytes,
+    lease: config.importLease,
   });
   stops.push({ name: 'bulk imports', stop: stopImportWorker });
   // Batched notice e-mails (uploads, notes, alerts), every few seconds.

@@ -17,7 +17,15 @@ import {
 } from '../../../shared/runs/list-cursor.ts';
 import { overQuotaReason } from '../../../shared/runs/upload-limits.ts';
 import type { Split, SplitUnit } from '../../../shared/tracks/types.ts';
-import { inTransaction, isUniqueViolation, type NoteConcern, type RunRow, type RunSplitRow, type UserRow } from '../../lib/db.ts';
+import {
+  inTransaction,
+  isUniqueViolation,
+  type Db,
+  type NoteConcern,
+  type RunRow,
+  type RunSplitRow,
+  type UserRow,
+} from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
@@ -68,6 +76,19 @@ export interface ImportOptions {
   storageQuotaBytes?: number;
   /** Import activities that match a stored run anyway (`?duplicates=import`). */
   importDuplicates?: boolean;
+  /**
+   * Runs in a file's transaction once its runs are inserted, before the original is stored and the
+   * transaction commits (a bulk import counts the file here, so runs and count commit together).
+   * What it throws aborts that file (nothing is stored) and comes out of importFiles unchanged.
+   */
+  beforeCommit?: (trx: Db, runIds: string[]) => Promise<void>;
+}
+
+/** An error thrown by `beforeCommit`, carried through the transaction's rollback. */
+class BeforeCommitFailed extends Error {
+  constructor(readonly reason: unknown) {
+    super('beforeCommit failed');
+  }
 }
 
 async function sha256Of(file: UploadedFile): Promise<string> {
@@ -195,9 +216,21 @@ export async function importFiles(
         }
         const inserted: RunRow[] = [];
         if (keep.length === 0) return { inserted, sameRun };
+        const beforeCommit = async () => {
+          if (!options.beforeCommit) return;
+          try {
+            await options.beforeCommit(
+              trx,
+              inserted.map((r) => r.id),
+            );
+          } catch (err) {
+            throw new BeforeCommitFailed(err);
+          }
+        };
         if (existing) {
           // The original is stored already and referenced by its other runs: no new storage is used.
           for (const record of keep) inserted.push(await insertRecord(record, existing.id, trx));
+          await beforeCommit();
           return { inserted, sameRun };
         }
         if (options.storageQuotaBytes !== undefined) {
@@ -217,6 +250,7 @@ export async function importFiles(
           trx,
         );
         for (const record of keep) inserted.push(await insertRecord(record, source.id, trx));
+        await beforeCommit();
         // Last step inside the transaction: if storing the original fails, no row is committed.
         // The shared lock keeps the orphan sweeper off this file until the rows are committed.
         await holdOriginalFilesSharedLock(trx);
@@ -234,6 +268,7 @@ export async function importFiles(
       }
       result.imported.push(...outcome.inserted.map((r) => ({ ...toRunListItem(r), file: file.name })));
     } catch (err) {
+      if (err instanceof BeforeCommitFailed) throw err.reason;
       if (err instanceof OverQuota) {
         result.rejected.push({ file: file.name, error: overQuotaReason(err.used, size, options.storageQuotaBytes!) });
         continue;

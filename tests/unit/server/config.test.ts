@@ -49,4 +49,18 @@ describe('loadConfig', () => {
     for (const bad of ['-1', '10m', '1.5', ' 60'])
       expect(() => loadConfig({ ORPHAN_GRACE_SECONDS: bad })).toThrow(/ORPHAN_GRACE_SECONDS must be a whole number/);
   });
+
+  it('gives bulk-import work a 60 s lease and 3 attempts unless IMPORT_LEASE_SECONDS / IMPORT_MAX_ATTEMPTS say otherwise', () => {
+    expect(loadConfig({}).importLease).toEqual({ leaseSeconds: 60, maxAttempts: 3 });
+    expect(loadConfig({ IMPORT_LEASE_SECONDS: '8', IMPORT_MAX_ATTEMPTS: '5' }).importLease).toEqual({
+      leaseSeconds: 8,
+      maxAttempts: 5,
+    });
+    for (const bad of ['0', '1', '-5', '1.5', '10s'])
+      expect(() => loadConfig({ IMPORT_LEASE_SECONDS: bad })).toThrow(
+        /IMPORT_LEASE_SECONDS must be a whole number of seconds \(2 or more\)/,
+      );
+    for (const bad of ['0', 'three', '2.5'])
+      expect(() => loadConfig({ IMPORT_MAX_ATTEMPTS: bad })).toThrow(/IMPORT_MAX_ATTEMPTS must be a whole number/);
+  });
 });
