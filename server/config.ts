@@ -43,6 +43,11 @@ export interface AppConfig {
   uploadMaxRequestBytes: number;
   /** Uploads (single files or archives) one user may have arriving at the same time. */
   uploadsAtOncePerUser: number;
+  /**
+   * How long an upload's slot is leased (renewed every third of it while the upload arrives): the
+   * longest a process that dies mid-upload keeps its slots (server/lib/README.md, "Shared limits").
+   */
+  uploadSlotLeaseMs: number;
   /** Upload requests per user per window. */
   uploadRateLimit: { windowMs: number; max: number };
   /** Pace-tolerance changes (each makes every plan check recompute) per user per window. */
@@ -147,6 +152,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     uploadMaxArchiveBytes: MAX_ARCHIVE_UPLOAD_BYTES,
     uploadMaxRequestBytes: 256 * 1024 * 1024,
     uploadsAtOncePerUser: 2,
+    uploadSlotLeaseMs: 15_000,
     uploadRateLimit: { windowMs: 10 * 60 * 1000, max: 30 },
     recomputeRateLimit: { windowMs: 60 * 60 * 1000, max: 30 },
     storageQuotaBytes: Number(quotaMb) * 1024 * 1024,

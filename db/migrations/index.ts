@@ -21,6 +21,7 @@ import * as m20261205116000 from './20261205116000_import_claimed_by.ts';
 import * as m20261205117000 from './20261205117000_write_positions.ts';
 import * as m20261205121000 from './20261205121000_week_cache.ts';
 import * as m20261205121100 from './20261205121100_runs_list_keyset.ts';
+import * as m20261205122000 from './20261205122000_shared_limits.ts';
 import * as m20261205123000 from './20261205123000_import_leases.ts';
 import * as m20261205124000 from './20261205124000_canonical_time_zones.ts';
 
@@ -53,6 +54,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261205117000_write_positions': m20261205117000,
   '20261205121000_week_cache': m20261205121000,
   '20261205121100_runs_list_keyset': m20261205121100,
+  '20261205122000_shared_limits': m20261205122000,
   '20261205123000_import_leases': m20261205123000,
   '20261205124000_canonical_time_zones': m20261205124000,
 };

@@ -354,6 +354,21 @@ export interface CredentialFailureRow {
   failed_at: Date;
 }
 
+/** Requests counted by one express-rate-limit limiter for one caller, in a fixed window (server/lib/postgres-rate-limit-store.ts). */
+export interface RateLimitHitRow {
+  key: string;
+  hits: number;
+  reset_at: Date;
+}
+
+/** One upload arriving, leased until `expires_at` and renewed while it arrives (server/lib/upload-slots.ts). */
+export interface UploadSlotRow {
+  id: string;
+  kind: string;
+  user_id: string;
+  expires_at: Date;
+}
+
 export interface WeekNoteRow {
   id: string;
   runner_id: string;
@@ -545,6 +560,8 @@ declare module 'knex/types/tables.js' {
     password_resets: PasswordResetRow;
     sessions: SessionRow;
     credential_failures: CredentialFailureRow;
+    rate_limit_hits: RateLimitHitRow;
+    upload_slots: UploadSlotRow;
     pending_signups: PendingSignupRow;
     sign_up_notices: SignUpNoticeRow;
     week_notes: WeekNoteRow;

@@ -806,9 +806,10 @@ function filesUnder(dir: string): string[] {
     .sort();
 }
 
+/** Every table's content and the stored files; the shared limits' request counts and upload slots are bookkeeping, not data. */
 async function snapshot(): Promise<Record<string, string>> {
   const { rows: tables } = await db.raw<{ rows: Array<{ tablename: string }> }>(
-    "select tablename from pg_tables where schemaname = 'public' and tablename not like 'knex_migrations%' order by tablename",
+    "select tablename from pg_tables where schemaname = 'public' and tablename not like 'knex_migrations%' and tablename not in ('rate_limit_hits', 'upload_slots') order by tablename",
   );
   const state: Record<string, string> = {};
   for (const { tablename } of tables) {

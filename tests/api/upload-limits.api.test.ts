@@ -14,6 +14,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { loadConfig } from '../../server/config.ts';
 import { db } from '../../server/lib/db.ts';
+import { uploadSlotsHeldBy } from '../../server/lib/shared-limits.repository.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
 import { CONTROL_CHARACTER_MESSAGE } from '../../shared/api/text.ts';
 import {
@@ -23,8 +24,9 @@ import {
   TRACK_SHARE_MIN_FILE_BYTES,
   trackShareOf,
 } from '../../shared/runs/upload-limits.ts';
-import { streamMultipart, writeLongGpx, type LongTrackOptions } from '../support/big-uploads.ts';
+import { streamMultipart, uploadLeftOpen, writeLongGpx, type LongTrackOptions } from '../support/big-uploads.ts';
 import { createUser } from '../support/factories.ts';
+import { waitUntil } from '../support/server-process.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
 
 type App = ReturnType<typeof createApp>;
@@ -104,29 +106,10 @@ describe('uploads arriving at once, per user', () => {
     await new Promise((resolve) => server.close(resolve));
   });
 
-  /** An upload whose body starts arriving and then waits: the server counts it as arriving until it ends. */
-  function uploadLeftOpen(auth: Record<string, string>) {
-    const boundary = 'pacewright-open-upload';
-    const req = http.request(`${baseUrl}/api/runs`, {
-      method: 'POST',
-      headers: {
-        ...auth,
-        'Content-Type': `multipart/form-data; boundary=${boundary}`,
-        'Content-Length': String(10 * 1024 * 1024),
-      },
-    });
-    req.on('error', () => undefined); // destroyed by the test
-    req.write(
-      `--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="slow.gpx"\r\nContent-Type: application/octet-stream\r\n\r\n`,
-    );
-    req.write(Buffer.alloc(64 * 1024, 0x20));
-    return req;
-  }
-
   it(`a third upload while ${AT_ONCE} are arriving gets 429 with a sentence; once they end, uploads are let in again`, async () => {
     expect(AT_ONCE).toBe(2);
     const { user, auth } = await runnerOf(app);
-    const open = [uploadLeftOpen(auth), uploadLeftOpen(auth)];
+    const open = [uploadLeftOpen(`${baseUrl}/api/runs`, auth), uploadLeftOpen(`${baseUrl}/api/runs`, auth)];
     // Both bodies are being written to disk: the server has let both in.
     await until(() => filesIn(path.join(dataDir, 'uploads')).length === AT_ONCE, 'two uploads arriving');
 
@@ -146,6 +129,8 @@ describe('uploads arriving at once, per user', () => {
     // The two broken-off uploads leave nothing behind.
     await until(() => filesIn(path.join(dataDir, 'uploads')).length === 0, 'the broken-off uploads removed');
     expect(await leftBy(user.id, dataDir)).toEqual({ runs: 0, sourceFiles: 0, originals: 0, temporary: 0 });
+    // Their places (rows in PostgreSQL, shared by every web process) are given back as the connections close.
+    await waitUntil(async () => (await uploadSlotsHeldBy(user.id)) === 0, 'the broken-off uploads’ slots given back');
 
     // Their places are free again.
     const after = await streamMultipart(`${baseUrl}/api/runs`, auth, [

@@ -143,6 +143,28 @@ export function streamMultipart(url: string, headers: Record<string, string>, pa
   });
 }
 
+/**
+ * An upload to `url` whose body starts arriving and then waits (64 KB of a declared 10 MB file): the
+ * server holds it as arriving until the test destroys the returned request or the server goes away.
+ */
+export function uploadLeftOpen(url: string, headers: Record<string, string>): http.ClientRequest {
+  const boundary = 'pacewright-open-upload';
+  const req = http.request(url, {
+    method: 'POST',
+    headers: {
+      ...headers,
+      'Content-Type': `multipart/form-data; boundary=${boundary}`,
+      'Content-Length': String(10 * 1024 * 1024),
+    },
+  });
+  req.on('error', () => undefined); // destroyed by the test, or the server was stopped
+  req.write(
+    `--${boundary}\r\nContent-Disposition: form-data; name="files"; filename="slow.gpx"\r\nContent-Type: application/octet-stream\r\n\r\n`,
+  );
+  req.write(Buffer.alloc(64 * 1024, 0x20));
+  return req;
+}
+
 /** Resident memory of a process, bytes (Linux /proc). */
 export async function residentBytes(pid: number): Promise<number> {
   const { readFile } = await import('node:fs/promises');

@@ -24,6 +24,7 @@ import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor, requireCookieSession, type AuthLocals } from '../../lib/authorize.ts';
 import { AppError } from '../../lib/errors.ts';
+import { PostgresRateLimitStore } from '../../lib/postgres-rate-limit-store.ts';
 import { parseIdParam, readTokenParam } from '../../lib/ids.ts';
 import { issueApiToken, listTokensOf, revokeToken } from '../tokens/index.ts';
 import { toUser } from '../users/index.ts';
@@ -37,13 +38,14 @@ import type { Mailer } from '../../lib/mailer.ts';
 
 export function createAuthRouter(config: AppConfig, mailer: Mailer) {
   const api = createApiRouter();
-  // Sign-ups and reset requests per address (every request counts); password checks have their own
-  // limiter that counts failures only (credential-limiter.ts).
+  // Sign-ups and reset requests per address (every request counts, in PostgreSQL so every web process
+  // shares the count); password checks have their own limiter that counts failures only (credential-limiter.ts).
   const addressLimiter = rateLimit({
     windowMs: config.authRateLimit.windowMs,
     limit: config.authRateLimit.max,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
+    store: new PostgresRateLimitStore('sign-up-and-reset:'),
     handler: () => {
       throw new AppError(
         429,

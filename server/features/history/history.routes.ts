@@ -82,7 +82,10 @@ export function createHistoryRouter(store: FileStore, config: AppConfig) {
       response: ImportCreatedSchema,
       status: 202,
       // Signed in, not too many uploads, storage left: settled before a byte of the archive is read.
-      before: [...uploadGuards(config, { checkStorage: true }), uploadArchive(config.dataDir, config.uploadMaxArchiveBytes)],
+      before: [
+        ...uploadGuards(config, { route: 'import-archives', checkStorage: true }),
+        uploadArchive(config.dataDir, config.uploadMaxArchiveBytes),
+      ],
     },
     async (req, res) => {
       const file = req.file;

@@ -197,6 +197,7 @@ export function createPlansRouter(config: AppConfig) {
       before: [
         authorize('own-data'),
         perUserRateLimit({
+          name: 'pace-tolerance-changes',
           ...config.recomputeRateLimit,
           code: 'too-many-changes',
           message: `The pace tolerance can be changed ${config.recomputeRateLimit.max} times in ${Math.round(config.recomputeRateLimit.windowMs / 60_000)} minutes, as every change rechecks all runs against their plans. Please try again later.`,

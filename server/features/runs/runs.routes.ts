@@ -57,7 +57,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       status: 201,
       // Who is asking, and whether they may upload now, is settled before a byte of the body is read.
       before: [
-        ...uploadGuards(config, { checkStorage: true }),
+        ...uploadGuards(config, { route: 'run-files', checkStorage: true }),
         receiveUploads({
           tempDir: uploadsTempDir(config.dataDir),
           maxFileBytes: config.uploadMaxFileBytes,
