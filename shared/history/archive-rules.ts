@@ -2,6 +2,7 @@
  * What a history archive may hold: limits checked before anything is stored, and the rule that
  * decides, from its name alone, whether one zip entry is a GPS file worth reading.
  */
+import { CONTROL_CHARACTER } from '../api/text.ts';
 
 /** Entries in one archive, at most. */
 export const MAX_ARCHIVE_ENTRIES = 5000;
@@ -25,6 +26,8 @@ const ARCHIVE_ENDINGS = ['.zip', '.gz', '.tgz', '.tar', '.7z', '.rar', '.bz2', '
  */
 export function entrySkipReason(name: string): string | null {
   if (name.includes('\0')) return 'a file name with a NUL character, skipped';
+  // Bells, escapes and other invisible characters have no place in a file name a runner reads back.
+  if (CONTROL_CHARACTER.test(name)) return 'a file name with an invisible control character, skipped';
   if (name.includes('\\')) return 'a file name with a backslash, skipped';
   if (name.startsWith('/') || /^[a-z]:/i.test(name)) return 'an absolute path, skipped';
   if (name.split('/').some((part) => part === '..')) return 'a path that climbs out of the archive (..), skipped';

@@ -223,7 +223,7 @@ describe('POST /api/imports', () => {
     },
   );
 
-  it('skips hostile entries (nested zip, ../ path, backslash, JPEG, a zip named .gpx) with their reasons and imports the rest', async () => {
+  it('skips hostile entries (nested zip, ../ path, backslash, JPEG, a zip named .gpx, control characters in names) with their reasons and imports the rest', async () => {
     const { user, auth } = await signedIn();
     const inner = buildZip([gpxFile(2)]);
     const entries: RawZipEntry[] = [
@@ -236,14 +236,26 @@ describe('POST /api/imports', () => {
       { name: 'folder\\evil.gpx', data: gpxFile(5).data },
       { name: 'photo.jpg', data: Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0, 16]) },
       { name: 'sneaky.gpx', data: inner },
+      { name: 'bell\u0007.gpx', data: gpxFile(6).data },
+      { name: 'escape\u001b[31m.gpx', data: gpxFile(7).data },
     ];
     const res = await uploadZip(auth, buildZip(entries));
     expect(res.status).toBe(202);
     const progress = await waitFor(auth, res.body.import.id as string, finished);
-    expect(progress).toMatchObject({ status: 'done', total: 8, done: 8, imported: 1, duplicates: 0 });
+    expect(progress).toMatchObject({ status: 'done', total: 10, done: 10, imported: 1, duplicates: 0 });
     const reasons = Object.fromEntries(progress.rejected.map((r) => [r.file, r.error]));
     expect(Object.keys(reasons).sort()).toEqual(
-      ['../evil.gpx', '/etc/evil.gpx', 'folder\\evil.gpx', 'inner.gpx.gz.tar', 'inner.zip', 'photo.jpg', 'sneaky.gpx'].sort(),
+      [
+        '../evil.gpx',
+        '/etc/evil.gpx',
+        'folder\\evil.gpx',
+        'inner.gpx.gz.tar',
+        'inner.zip',
+        'photo.jpg',
+        'sneaky.gpx',
+        'bell?.gpx',
+        'escape?[31m.gpx',
+      ].sort(),
     );
     expect(reasons['inner.zip']).toMatch(/archive inside the archive/);
     expect(reasons['inner.gpx.gz.tar']).toMatch(/archive inside the archive/);
@@ -252,6 +264,9 @@ describe('POST /api/imports', () => {
     expect(reasons['folder\\evil.gpx']).toMatch(/backslash/);
     expect(reasons['photo.jpg']).toMatch(/not a GPS file/);
     expect(reasons['sneaky.gpx']).toMatch(/zip archive/);
+    // Control characters in entry names (issue 13): skipped with a sentence, shown with "?" in their place.
+    expect(reasons['bell?.gpx']).toMatch(/invisible control character/);
+    expect(reasons['escape?[31m.gpx']).toMatch(/invisible control character/);
     expect(await count('runs', { user_id: user.id })).toBe(1);
     expect(await count('source_files', { user_id: user.id })).toBe(1);
     expect(storedFilesOf(user.id)).toHaveLength(1);

@@ -2,6 +2,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { screenshot, signIn, watchErrors } from '../support/browser.ts';
 import { useBrowserSession } from '../support/browser-session.ts';
+import { formatFileSize } from '../../shared/units.ts';
 import { createUser } from '../support/factories.ts';
 
 /** "Your data" and "Delete my account" on the profile (issue 17), each with its own throwaway account. */
@@ -31,6 +32,29 @@ describe('the profile’s data and account cards', () => {
     expect(readFileSync(file).subarray(0, 4).toString('binary')).toBe('PK\u0003\u0004');
     expect(errors).toEqual([]);
     await page.close();
+  });
+
+  it("the storage line reads the account's own figures from GET /api/me/storage, at 375 and 1280 px", async () => {
+    const { user, password } = await createUser({ name: 'Wren Storage', email: `wren-storage-${Date.now()}@example.test` });
+    for (const width of [375, 1280]) {
+      const page = await signedInOnProfile(user.email, password, width);
+      const errors = watchErrors(page);
+      const answer = await page.request.get(`${server.url}/api/me/storage`);
+      expect(answer.status()).toBe(200);
+      const usage = (await answer.json()) as { used_bytes: number; quota_bytes: number; files: number };
+      expect(usage.quota_bytes).toBeGreaterThan(0);
+      const line = page.getByText(/^Storage: .* used \(/);
+      await expect.poll(() => line.count()).toBe(1);
+      // The figures are the API's, in the file-size words of shared/units.ts.
+      expect(await line.textContent()).toBe(
+        `Storage: ${formatFileSize(usage.used_bytes)} of ${formatFileSize(usage.quota_bytes)} used (${usage.files} original files)`,
+      );
+      const box = await line.boundingBox();
+      expect(box && box.x >= 0 && box.x + box.width <= width).toBe(true);
+      await screenshot(page, `profile-storage-${width}`);
+      expect(errors).toEqual([]);
+      await page.close();
+    }
   });
 
   it('"Delete my account" needs the password and a last confirmation, signs the user out, and the sign-in then fails', async () => {
