@@ -298,6 +298,21 @@ describe('the web server killed (SIGKILL) during uploads', () => {
     expect(original.status).toBe(200);
     expect(Buffer.compare(Buffer.from(await original.arrayBuffer()), keptRun)).toBe(0);
 
+    // The killed process's two uploads held places among the uploads a runner may have arriving at
+    // once; they are leased (server/lib/README.md, "Shared limits") and free when the lease runs out.
+    await waitFor(
+      async () =>
+        Number(
+          (
+            await db('upload_slots')
+              .where({ user_id: user.id })
+              .andWhere('expires_at', '>', db.fn.now())
+              .count<{ count: string }[]>('* as count')
+          )[0]!.count,
+        ) === 0,
+      'the killed process’s upload places to be freed',
+      60_000,
+    );
     // Neither interrupted upload left a trace the duplicate check could trip over.
     for (const [name, data] of [
       ['long-run.gpx', longRun],
