@@ -14,6 +14,7 @@ import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
 import { buildZip, type RawZipEntry } from '../support/zip-builder.ts';
+import type { ImportProgress } from '../../shared/history/schemas.ts';
 
 // One data folder, app and worker alike: the worker reads the archives the app stored.
 const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-history-'));
@@ -54,14 +55,8 @@ function uploadZip(auth: Record<string, string>, zip: Buffer, name = 'history.zi
   return request(app).post('/api/imports').set(auth).attach('file', zip, name);
 }
 
-interface Progress {
-  status: string;
-  total: number;
-  done: number;
-  imported: number;
-  duplicates: number;
-  rejected: Array<{ file: string; error: string }>;
-}
+/** The import's answer, as the shared contract declares it (no copy of the type here). */
+type Progress = ImportProgress;
 
 async function progressOf(auth: Record<string, string>, id: string): Promise<Progress> {
   const res = await request(app).get(`/api/imports/${id}`).set(auth);

@@ -20,6 +20,7 @@ import { createUser } from '../support/factories.ts';
 import { startAppProcess, waitUntil, type AppProcess } from '../support/server-process.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
 import { buildZip } from '../support/zip-builder.ts';
+import type { ImportProgress } from '../../shared/history/schemas.ts';
 
 /**
  * Issue 13 #9: a bulk import must not stay "working" after its worker is killed. Workers beat a
@@ -69,14 +70,8 @@ async function upload(auth: Record<string, string>, zip: Buffer): Promise<string
   return res.body.import.id as string;
 }
 
-interface Progress {
-  status: string;
-  total: number;
-  done: number;
-  imported: number;
-  duplicates: number;
-  rejected: Array<{ file: string; error: string }>;
-}
+/** The import's answer, as the shared contract declares it (no copy of the type here). */
+type Progress = ImportProgress;
 
 async function progressOf(auth: Record<string, string>, id: string): Promise<Progress> {
   const res = await request(app).get(`/api/imports/${id}`).set(auth);
