@@ -12,6 +12,16 @@ export function formatDistance(metres: number | null, unit: SplitUnit, decimals 
   return (metres / UNIT_METRES[unit]).toFixed(decimals);
 }
 
+/**
+ * A distance with its unit, one decimal by default: the one "distance with unit" of the week review
+ * and the coach's digest. Examples: (24_300, 'km') → "24.3 km", (24_300, 'mi') → "15.1 mi" (the
+ * international mile, 1609.344 m); '' for invalid input.
+ */
+export function formatDistanceIn(metres: number | null, unit: SplitUnit, decimals = 1): string {
+  const amount = formatDistance(metres, unit, decimals);
+  return amount && `${amount} ${unit}`;
+}
+
 /** Seconds per km → seconds per `unit`; null stays null. */
 export function pacePerUnit(secondsPerKm: number | null, unit: SplitUnit): number | null {
   if (secondsPerKm === null || !Number.isFinite(secondsPerKm)) return null;

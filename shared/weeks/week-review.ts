@@ -5,8 +5,7 @@
  * leaving the decision to the coach; each names where its rule comes from.
  */
 import { describeMarathonEffortRule, EASY_RULE } from '../race/training-ranges.ts';
-import { formatPaceIn } from '../runs/display.ts';
-import { UNIT_METRES } from '../units.ts';
+import { formatDistanceIn, formatPaceIn } from '../runs/display.ts';
 import { acuteChronicRatio, type AcuteChronic, type DailyLoad } from './load.ts';
 import { dayOfWeek, isIsoDate, weekDates } from './weeks.ts';
 import { crossTrainingSeconds, missedReasonOf, type WeekDayMark, type MissedReason } from './day-marks.ts';
@@ -323,7 +322,7 @@ function volumeJumpFlag(runDistance: number, previous: number, unit: DistanceUni
   return {
     code: 'volume-jump',
     message:
-      `${v.who} ran ${formatDistance(runDistance, unit)} this week, ${up} % more than the ${formatDistance(previous, unit)} ` +
+      `${v.who} ran ${formatDistanceIn(runDistance, unit)} this week, ${up} % more than the ${formatDistanceIn(previous, unit)} ` +
       'of the week before. A common rule of thumb keeps weekly increases to about 10 %, though studies have not ' +
       `shown that it prevents injury. ${v.lastWord('how fast to build up')}`,
     source: SOURCES['volume-jump'],
@@ -356,7 +355,7 @@ function easyTooFastFlag(run: WeekRun, plan: WeekPlan, easyFastest: number, unit
 }
 
 function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit, v: Voice, reason: MissedReason | null): WeekFlag {
-  const amount = plan.planned_distance_m !== null ? ` of ${formatDistance(plan.planned_distance_m, unit)}` : '';
+  const amount = plan.planned_distance_m !== null ? ` of ${formatDistanceIn(plan.planned_distance_m, unit)}` : '';
   const marked = reason ? ` The day is marked ${reason}.` : '';
   return {
     code: 'long-run-missed',
@@ -376,11 +375,6 @@ function longRunMissedFlag(plan: WeekPlan, unit: DistanceUnit, v: Voice, reason:
 function formatDay(date: string): string {
   const month = Number(date.slice(5, 7));
   return `${WEEKDAYS[dayOfWeek(date)]} ${Number(date.slice(8, 10))} ${MONTHS[month - 1]}`;
-}
-
-/** '42.2 km', '26.2 mi' */
-function formatDistance(metres: number, unit: DistanceUnit): string {
-  return `${(metres / UNIT_METRES[unit]).toFixed(1)} ${unit}`;
 }
 
 /**

@@ -2,7 +2,7 @@ import type { Actor } from '../../../shared/auth/permissions.ts';
 import { groupForDigest } from '../../../shared/weeks/csv.ts';
 import type { Unit } from '../../../shared/users/schemas.ts';
 import type { DigestReceipt } from '../../../shared/weeks/squad-overview.ts';
-import { UNIT_METRES } from '../../../shared/units.ts';
+import { formatDistanceIn } from '../../../shared/runs/display.ts';
 import type { AppConfig } from '../../config.ts';
 import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
 import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
@@ -18,11 +18,6 @@ const HEADINGS = {
   on_plan: 'On plan',
 } as const;
 
-/** '24.3 km', '15.1 mi' (the international mile, 1609.344 m). */
-function distance(m: number, unit: Unit): string {
-  return `${(m / UNIT_METRES[unit]).toFixed(1)} ${unit}`;
-}
-
 function hoursMinutes(seconds: number): string {
   const minutes = Math.round(seconds / 60);
   return `${Math.floor(minutes / 60)}:${String(minutes % 60).padStart(2, '0')} h`;
@@ -31,13 +26,13 @@ function hoursMinutes(seconds: number): string {
 /** One runner's line, in the coach's unit, with what to look at; the flags are already worded for the coach. */
 function line(row: OverviewRow, unit: Unit): string {
   const planned = [
-    row.planned_distance_m > 0 && distance(row.planned_distance_m, unit),
+    row.planned_distance_m > 0 && formatDistanceIn(row.planned_distance_m, unit),
     row.planned_duration_s > 0 && hoursMinutes(row.planned_duration_s),
   ].filter(Boolean);
   const volume =
     row.sessions_planned === 0
-      ? `${distance(row.run_distance_m, unit)} run, nothing planned`
-      : `${distance(row.run_distance_m, unit)} (${hoursMinutes(row.moving_s)} moving) of ${planned.join(' + ') || 'no amount'} planned, ` +
+      ? `${formatDistanceIn(row.run_distance_m, unit)} run, nothing planned`
+      : `${formatDistanceIn(row.run_distance_m, unit)} (${hoursMinutes(row.moving_s)} moving) of ${planned.join(' + ') || 'no amount'} planned, ` +
         `${row.sessions_as_planned} of ${row.sessions_due} sessions due so far as planned`;
   const extras = [
     row.missed_key_sessions > 0 &&

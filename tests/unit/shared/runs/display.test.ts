@@ -3,6 +3,7 @@ import {
   describeCleaning,
   describeDistanceMeasure,
   formatDistance,
+  formatDistanceIn,
   formatLocalDate,
   formatPaceIn,
   formatShortDate,
@@ -30,6 +31,19 @@ describe('formatDistance', () => {
     [-1, 'mi', undefined, ''],
   ])('%s m in %s (%s decimals) → "%s"', (metres, unit, decimals, text) => {
     expect(formatDistance(metres, unit, decimals)).toBe(text);
+  });
+});
+
+describe('formatDistanceIn', () => {
+  it.each<[number | null, 'mi' | 'km', string]>([
+    [24_300, 'km', '24.3 km'],
+    [24_300, 'mi', '15.1 mi'], // 24 300 / 1609.344 = 15.099… (international mile, REFERENCES.md)
+    [42_195, 'mi', '26.2 mi'],
+    [0, 'km', '0.0 km'],
+    [null, 'km', ''],
+    [Number.NaN, 'mi', ''],
+  ])('%s m in %s → "%s"', (metres, unit, text) => {
+    expect(formatDistanceIn(metres, unit)).toBe(text);
   });
 });
 
