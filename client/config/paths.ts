@@ -30,11 +30,25 @@ export const paths = {
   devOutbox: { path: '/dev/outbox', getHref: () => '/dev/outbox' },
   log: {
     path: '/log',
-    /** `import` keeps a bulk import's progress bar on the page across reloads; the list's default order (date, desc) is left out. */
-    getHref: (search?: { page?: number; month?: string; import?: string; sort?: RunListSort; order?: RunListOrder }) => {
+    /**
+     * `import` keeps a bulk import's progress bar on the page across reloads; the list's default order (date, desc) is
+     * left out. `after` is the runs list's keyset cursor of a page past the first (server/features/runs/README.md,
+     * decision 46): `page` is then the page's number as shown, and the runs are those after the cursor.
+     */
+    getHref: (search?: {
+      page?: number;
+      after?: string;
+      month?: string;
+      import?: string;
+      sort?: RunListSort;
+      order?: RunListOrder;
+    }) => {
       const params = new URLSearchParams();
       if (search?.month) params.set('month', search.month);
-      if (search?.page && search.page > 1) params.set('page', String(search.page));
+      if (search?.page && search.page > 1) {
+        params.set('page', String(search.page));
+        if (search.after) params.set('after', search.after);
+      }
       if (search?.import) params.set('import', search.import);
       if (search?.sort && search.sort !== 'date') params.set('sort', search.sort);
       if (search?.order && search.order !== 'desc') params.set('order', search.order);

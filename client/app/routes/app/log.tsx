@@ -1,5 +1,5 @@
 import { useQueryClient, type QueryClient } from '@tanstack/react-query';
-import { useCallback } from 'react';
+import { useCallback, useEffect } from 'react';
 import { useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { monthBounds, parseYearMonth, type YearMonth } from '../../../../shared/runs/calendar.ts';
 import {
@@ -25,6 +25,7 @@ import { runKeys } from '../../../features/runs/api/run-keys.ts';
 import { RunUpload } from '../../../features/runs/components/run-upload.tsx';
 import { RunsCalendar } from '../../../features/runs/components/runs-calendar.tsx';
 import { RunsTable } from '../../../features/runs/components/runs-table.tsx';
+import { cursorBefore, rememberPage } from '../../../features/runs/utils/page-trail.ts';
 
 /** This month in the profile's time zone (the calendar opens on it when there are no runs). */
 function thisMonth(timeZone: string): YearMonth {
@@ -47,14 +48,26 @@ function readMonth(search: URLSearchParams, newest: RunPage, timeZone: string): 
   return parseYearMonth(search.get('month')) ?? (latest && parseYearMonth(latest.local_date.slice(0, 7))) ?? thisMonth(timeZone);
 }
 
+/**
+ * The keyset cursor of a page past the first (`?page=N&after=…`): the runs after it are read without an offset, so
+ * page 40 costs what page 1 does. A page number without a cursor (an older link, or "newer" from a shared link) is
+ * read by its number (decision 46, server/features/runs/README.md).
+ */
+function readCursor(search: URLSearchParams, page: number): string | undefined {
+  return page > 1 ? (search.get('after') ?? undefined) : undefined;
+}
+
 /** The list's order from the address (`?sort=&order=`), so a sorted list survives reloads and shared links. */
 function readSorting(search: URLSearchParams): RunListSorting {
   return readRunListSorting(search.get('sort'), search.get('order'));
 }
 
-/** The default order is left out of the filters, so page 1 shares its cache entry with `FIRST_PAGE`. */
-const listFilters = (page: number, sorting: RunListSorting) => ({
-  page,
+/**
+ * The default order is left out of the filters, so page 1 shares its cache entry with `FIRST_PAGE`. With a cursor
+ * the server is asked for its first page after the cursor (it refuses `after` with another page number).
+ */
+const listFilters = (page: number, sorting: RunListSorting, after: string | undefined) => ({
+  ...(after ? { page: 1, after } : { page }),
   per_page: RUNS_PER_PAGE,
   ...(isDefaultRunListSorting(sorting) ? {} : sorting),
 });
@@ -65,9 +78,10 @@ export const createLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     const search = new URL(request.url).searchParams;
+    const page = readPage(search);
     const [newest] = await Promise.all([
       queryClient.ensureQueryData(runsQueryOptions(FIRST_PAGE)),
-      queryClient.ensureQueryData(runsQueryOptions(listFilters(readPage(search), readSorting(search)))),
+      queryClient.ensureQueryData(runsQueryOptions(listFilters(page, readSorting(search), readCursor(search, page)))),
     ]);
     await queryClient.ensureQueryData(
       runsQueryOptions(
@@ -83,7 +97,12 @@ export default function LogRoute() {
   const profile = useProfile();
   const newest = useRuns(FIRST_PAGE);
   const sorting = readSorting(search);
-  const list = useRuns(listFilters(page, sorting));
+  const after = readCursor(search, page);
+  const list = useRuns(listFilters(page, sorting, after));
+  // This page's start, for the "newer" link of the page after it (the server gives only the cursor forward).
+  useEffect(() => {
+    if (list.next_cursor) rememberPage(list.next_cursor, after);
+  }, [list.next_cursor, after]);
   const month = readMonth(search, newest, profile.time_zone);
   const monthRuns = useRuns(monthFilters(month));
   const pages = Math.max(1, Math.ceil(list.total / list.per_page));
@@ -93,7 +112,7 @@ export default function LogRoute() {
   const queryClient = useQueryClient();
   const refreshRuns = useCallback(() => void queryClient.invalidateQueries({ queryKey: runKeys.lists() }), [queryClient]);
   const showImport = (id: string) =>
-    void navigate(paths.log.getHref({ page, month: monthParam, import: id, ...sorting }), { replace: true });
+    void navigate(paths.log.getHref({ page, after, month: monthParam, import: id, ...sorting }), { replace: true });
   // A new order starts again at its first page: page 3 of another order is a different set of runs.
   const sortRuns = (next: RunListSorting) =>
     void navigate(paths.log.getHref({ page: 1, month: monthParam, import: importId ?? undefined, ...next }));
@@ -132,6 +151,7 @@ export default function LogRoute() {
                 unit={profile.unit}
                 today={todayIn(profile.time_zone)}
                 page={page}
+                after={after}
                 sorting={sorting}
               />
             </Card>
@@ -144,7 +164,13 @@ export default function LogRoute() {
                 <nav aria-label="Pages of runs" className="mt-3 flex items-center justify-between gap-2 text-sm">
                   {page > 1 ? (
                     <LinkButton
-                      to={paths.log.getHref({ page: page - 1, month: monthParam, import: importId ?? undefined, ...sorting })}
+                      to={paths.log.getHref({
+                        page: page - 1,
+                        after: cursorBefore(after),
+                        month: monthParam,
+                        import: importId ?? undefined,
+                        ...sorting,
+                      })}
                     >
                       ◀ {pager.back}
                     </LinkButton>
@@ -154,9 +180,15 @@ export default function LogRoute() {
                   <span className="text-ink-muted tabular-nums">
                     Page {page} of {pages}
                   </span>
-                  {page < pages ? (
+                  {list.next_cursor ? (
                     <LinkButton
-                      to={paths.log.getHref({ page: page + 1, month: monthParam, import: importId ?? undefined, ...sorting })}
+                      to={paths.log.getHref({
+                        page: page + 1,
+                        after: list.next_cursor,
+                        month: monthParam,
+                        import: importId ?? undefined,
+                        ...sorting,
+                      })}
                     >
                       {pager.forward} ▶
                     </LinkButton>

@@ -15,6 +15,7 @@ export async function getRuns(filters: RunListFilters): Promise<RunPage> {
   if (filters.sort) params.set('sort', filters.sort);
   if (filters.order) params.set('order', filters.order);
   if (filters.runner_id) params.set('runner_id', filters.runner_id);
+  if (filters.after) params.set('after', filters.after);
   return api.get<RunPage>(`/runs?${params}`);
 }
 

@@ -8,6 +8,8 @@ export type RunListFilters = {
   to?: string;
   sort?: RunListSort;
   order?: RunListOrder;
+  /** Keyset paging: the runs after this `next_cursor` (with `page` 1, as the server asks). */
+  after?: string;
   /** A squad runner's runs (coaches). */
   runner_id?: string;
 };

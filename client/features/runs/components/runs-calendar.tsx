@@ -24,11 +24,13 @@ type RunsCalendarProps = {
   today: string;
   /** Other search parameters of the page to keep when changing month. */
   page: number;
+  /** The list page's keyset cursor, kept with `page`. */
+  after?: string;
   sorting?: RunListSorting;
 };
 
 /** A month, Monday first: each day its distance linked to its run(s), and each week's total. No coloured cells. */
-export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCalendarProps) {
+export function RunsCalendar({ month, runs, unit, today, page, after, sorting }: RunsCalendarProps) {
   const byDate = new Map<string, RunListItem[]>();
   for (const run of runs) byDate.set(run.local_date, [...(byDate.get(run.local_date) ?? []), run]);
   const weeks = monthWeeks(month);
@@ -41,7 +43,7 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
     <div className="flex flex-col gap-2">
       <div className="flex items-center gap-2">
         <Link
-          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, -1)), page, ...sorting })}
+          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, -1)), page, after, ...sorting })}
           className={nav}
           aria-label="Previous month"
         >
@@ -51,7 +53,7 @@ export function RunsCalendar({ month, runs, unit, today, page, sorting }: RunsCa
           {title}
         </h3>
         <Link
-          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, 1)), page, ...sorting })}
+          to={paths.log.getHref({ month: formatYearMonth(shiftMonth(month, 1)), page, after, ...sorting })}
           className={nav}
           aria-label="Next month"
         >
