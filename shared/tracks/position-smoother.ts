@@ -309,7 +309,8 @@ export function shouldSmooth(jitter: JitterEstimate): boolean {
 /**
  * Kalman filter + RTS smoother of positions (see the module comment). Returns smoothed latitude and
  * longitude; stretches restart at every segment start and at intervals over `SMOOTHING_GAP_S`.
- * `sigmaM` is the measurement noise (√r, m) and `q` the acceleration density (m²/s³).
+ * `sigmaM` is the measurement noise (√r, m) and `q` the acceleration density (m²/s³); with `qSteps`,
+ * the step into point i has density qSteps[i] instead (`smoothPositionsThroughTurns`).
  */
 export function smoothPositions(
   t: ArrayLike<number>,
@@ -318,14 +319,33 @@ export function smoothPositions(
   segmentStart: ArrayLike<number>,
   sigmaM: number,
   q = ACCELERATION_DENSITY,
+  qSteps: Float64Array | null = null,
 ): SmoothedPositions {
-  const n = t.length;
-  const outLat = new Float64Array(n);
-  const outLon = new Float64Array(n);
-  const sv = new Float64Array(2 * n);
-  if (n === 0) return { lat: outLat, lon: outLon, east_mps: new Float64Array(0), north_mps: new Float64Array(0) };
-  const lat0 = lat[0] as number;
-  const lon0 = lon[0] as number;
+  const plane = toPlane(lat, lon);
+  const states = smoothInPlane(t, plane, segmentStart, sigmaM * sigmaM, q, qSteps, null);
+  return fromPlane(plane, states);
+}
+
+/** Positions in metres east and north of the first point (a local tangent plane). */
+interface Plane {
+  lat0: number;
+  lon0: number;
+  scale: { north: number; east: number };
+  x: Float64Array;
+  y: Float64Array;
+}
+
+/** Smoothed positions (m) and velocities (m/s, east and north interleaved) in the plane. */
+interface PlaneStates {
+  sx: Float64Array;
+  sy: Float64Array;
+  sv: Float64Array;
+}
+
+function toPlane(lat: ArrayLike<number>, lon: ArrayLike<number>): Plane {
+  const n = lat.length;
+  const lat0 = n > 0 ? (lat[0] as number) : 0;
+  const lon0 = n > 0 ? (lon[0] as number) : 0;
   const scale = metresPerDegree(lat0);
   const x = new Float64Array(n);
   const y = new Float64Array(n);
@@ -336,25 +356,161 @@ export function smoothPositions(
     x[i] = dLon * scale.east;
     y[i] = ((lat[i] as number) - lat0) * scale.north;
   }
-  const sx = new Float64Array(n);
-  const sy = new Float64Array(n);
-  const r = sigmaM * sigmaM;
-  let start = 0;
-  for (let i = 1; i <= n; i++) {
-    const ends = i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
-    if (!ends) continue;
-    smoothStretch(t, x, y, sx, sy, sv, start, i, r, q);
-    start = i;
-  }
+  return { lat0, lon0, scale, x, y };
+}
+
+function fromPlane(plane: Plane, states: PlaneStates): SmoothedPositions {
+  const n = plane.x.length;
+  const outLat = new Float64Array(n);
+  const outLon = new Float64Array(n);
   const eastMps = new Float64Array(n);
   const northMps = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    outLat[i] = lat0 + (sy[i] as number) / scale.north;
-    outLon[i] = lon0 + (sx[i] as number) / scale.east;
-    eastMps[i] = sv[2 * i] as number;
-    northMps[i] = sv[2 * i + 1] as number;
+    outLat[i] = plane.lat0 + (states.sy[i] as number) / plane.scale.north;
+    outLon[i] = plane.lon0 + (states.sx[i] as number) / plane.scale.east;
+    eastMps[i] = states.sv[2 * i] as number;
+    northMps[i] = states.sv[2 * i + 1] as number;
   }
   return { lat: outLat, lon: outLon, east_mps: eastMps, north_mps: northMps };
+}
+
+/**
+ * Runs the smoother on every stretch (split at segment starts and at intervals over `SMOOTHING_GAP_S`).
+ * With `qSteps` the step ending at point i has acceleration density qSteps[i]; with `redo`, only the
+ * stretches holding a point where redo[i] is 1 are smoothed again, in place in `into` (the others keep
+ * their values).
+ */
+function smoothInPlane(
+  t: ArrayLike<number>,
+  plane: Plane,
+  segmentStart: ArrayLike<number>,
+  r: number,
+  q: number,
+  qSteps: Float64Array | null,
+  redo: { marks: Uint8Array; into: PlaneStates } | null,
+): PlaneStates {
+  const n = t.length;
+  const states = redo ? redo.into : { sx: new Float64Array(n), sy: new Float64Array(n), sv: new Float64Array(2 * n) };
+  let start = 0;
+  let marked = false;
+  for (let i = 1; i <= n; i++) {
+    if (redo && redo.marks[i - 1]) marked = true;
+    const ends = i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
+    if (!ends) continue;
+    if (!redo || marked) smoothStretch(t, plane.x, plane.y, states.sx, states.sy, states.sv, start, i, r, q, qSteps);
+    start = i;
+    marked = false;
+  }
+  return states;
+}
+
+/**
+ * Turns sharper than this over `TURN_WINDOW_S` (radians, in the first pass's smoothed heading) are
+ * manoeuvres: a turnaround or a street corner. A 400 m track's bend turns 180° over 25–40 s at running
+ * speeds (under 45° in the window) and is not one.
+ */
+export const TURN_ANGLE = Math.PI / 3;
+/** Window over which a manoeuvre's turn is summed, s (centred on the point). */
+export const TURN_WINDOW_S = 6;
+/** Seconds either side of a manoeuvre's points whose steps get the manoeuvre's process noise too. */
+export const TURN_MARGIN_S = 3;
+/** Headings are read only where the smoothed speed is at least this, m/s (standing jitter has no heading). */
+export const TURN_MIN_SPEED_MPS = 1;
+/**
+ * Cut-off of the smoother inside a manoeuvre, rad/s. The smoother passes a circle run at angular rate ω
+ * with gain 1 / (1 + (ω/ω_c)⁴) (module comment); a 6 m turnaround at 3 m/s is ω = 0.5 rad/s, a 12 m
+ * corner at 4.5 m/s 0.375 rad/s, so ω_c = 1.2 rad/s keeps 97 % or more of their radius. Its process
+ * noise is q = r·ω_c⁴ (never less than the run's): more jitter, more process noise needed to follow the turn.
+ * Chosen on generated tracks (shared/tracks/README.md, "Turnarounds and corners"): 1.0 and 1.5 rad/s do
+ * about as well; a fixed q of 0.5 or 2 m²/s³ lets more noise through on tracks with little jitter.
+ */
+export const TURN_CUTOFF_RAD_S = 1.2;
+
+/**
+ * Points inside a manoeuvre: where the heading of the smoothed velocity turns by at least `TURN_ANGLE`
+ * within `TURN_WINDOW_S`, widened by `TURN_MARGIN_S` either side. Returns 1 per such point, or null
+ * when the track has none.
+ */
+export function findManoeuvres(
+  t: ArrayLike<number>,
+  east_mps: ArrayLike<number>,
+  north_mps: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+): Uint8Array | null {
+  const n = t.length;
+  // Cumulative signed heading change up to each point (0 across breaks and where too slow to steer).
+  const turned = new Float64Array(n);
+  let prevHeading = Number.NaN;
+  for (let i = 0; i < n; i++) {
+    const vx = east_mps[i] as number;
+    const vy = north_mps[i] as number;
+    const broken = i === 0 || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
+    const heading = vx * vx + vy * vy >= TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS ? Math.atan2(vy, vx) : Number.NaN;
+    let change = 0;
+    if (!broken && !Number.isNaN(heading) && !Number.isNaN(prevHeading)) {
+      change = heading - prevHeading;
+      if (change > Math.PI) change -= 2 * Math.PI;
+      else if (change < -Math.PI) change += 2 * Math.PI;
+    }
+    turned[i] = (i > 0 ? (turned[i - 1] as number) : 0) + change;
+    prevHeading = heading;
+  }
+  const halfMs = (TURN_WINDOW_S * 1000) / 2;
+  const marginMs = TURN_MARGIN_S * 1000;
+  let marks: Uint8Array | null = null;
+  let lo = 0;
+  let hi = 0;
+  for (let i = 0; i < n; i++) {
+    const ti = t[i] as number;
+    while ((t[lo] as number) < ti - halfMs) lo++;
+    while (hi + 1 < n && (t[hi + 1] as number) <= ti + halfMs) hi++;
+    if (Math.abs((turned[hi] as number) - (turned[lo] as number)) < TURN_ANGLE) continue;
+    marks ??= new Uint8Array(n);
+    for (let j = i; j >= 0 && (t[j] as number) >= ti - halfMs - marginMs; j--) marks[j] = 1;
+    for (let j = i + 1; j < n && (t[j] as number) <= ti + halfMs + marginMs; j++) marks[j] = 1;
+  }
+  return marks;
+}
+
+/**
+ * `smoothPositions` that lets the velocity turn at turnarounds and tight corners. With one process
+ * noise for the whole run, the smoother is a low-pass filter of cut-off ω_c = (q/r)^¼ (module comment):
+ * a runner going round a 6 m turnaround at 3 m/s turns at 0.5 rad/s, near that cut-off, so the smoothed
+ * path cuts inside and the turnaround loses metres, while raising q everywhere lets the noise through
+ * everywhere. So the process noise has two levels, switched by a manoeuvre detector: a first pass with
+ * q = `ACCELERATION_DENSITY` finds where the smoothed heading turns sharply (`findManoeuvres`), and the
+ * stretches holding such a turn are smoothed again with a larger q on the steps inside it (cut-off
+ * `TURN_CUTOFF_RAD_S`) (adjustable-level process noise for manoeuvring targets: Bar-Shalom, Li & Kirubarajan 2001,
+ * ch. 11). The time-varying Qₖ keeps the smoother exact for its model (Rauch, Tung & Striebel 1965
+ * allow any Qₖ; checked against the batch solution in the unit test). Tracks without such a turn get
+ * exactly `smoothPositions`.
+ */
+export function smoothPositionsThroughTurns(
+  t: ArrayLike<number>,
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  sigmaM: number,
+  q = ACCELERATION_DENSITY,
+): SmoothedPositions {
+  const plane = toPlane(lat, lon);
+  const r = sigmaM * sigmaM;
+  const first = smoothInPlane(t, plane, segmentStart, r, q, null, null);
+  const n = t.length;
+  const east = new Float64Array(n);
+  const north = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    east[i] = first.sv[2 * i] as number;
+    north[i] = first.sv[2 * i + 1] as number;
+  }
+  const marks = findManoeuvres(t, east, north, segmentStart);
+  if (!marks) return fromPlane(plane, first);
+  const qSteps = new Float64Array(n).fill(q);
+  // The step into point i is inside the manoeuvre when both its ends are.
+  const qTurn = Math.max(q, r * TURN_CUTOFF_RAD_S ** 4);
+  for (let i = 1; i < n; i++) if (marks[i] && marks[i - 1]) qSteps[i] = qTurn;
+  const second = smoothInPlane(t, plane, segmentStart, r, q, qSteps, { marks, into: first });
+  return fromPlane(plane, second);
 }
 
 export interface SmoothedPositions {
@@ -376,7 +532,8 @@ function smoothStretch(
   from: number,
   to: number,
   r: number,
-  q: number,
+  qAll: number,
+  qSteps: Float64Array | null = null,
 ): void {
   const len = to - from;
   if (len < 3) {
@@ -414,6 +571,7 @@ function smoothStretch(
   fP[2] = a11;
   for (let k = 1; k < len; k++) {
     const dt = ((t[from + k] as number) - (t[from + k - 1] as number)) / 1000;
+    const q = qSteps ? (qSteps[from + k] as number) : qAll;
     // Predict: P⁻ = F P Fᵀ + Q.
     const b00 = a00 + 2 * dt * a01 + dt * dt * a11 + (q * dt * dt * dt) / 3;
     const b01 = a01 + dt * a11 + (q * dt * dt) / 2;

@@ -19,6 +19,7 @@ import {
   MIN_CORRECTED_EXCESS,
   smoothedStepNoiseVariance,
   smoothPositions,
+  smoothPositionsThroughTurns,
   SPARSE_FLOOR_JITTER_M,
   stepWithoutNoise,
   type JitterEstimate,
@@ -131,7 +132,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     if (smoothing) {
       // Noisy 1–2 s track: moving time and distance from the smoothed path (position-smoother.ts),
       // so standing jitter neither counts as moving nor adds length; the raw sum is kept for the report.
-      const smooth = smoothPositions(t, lat, lon, segmentBreak, jitter.sigma_m);
+      const smooth = smoothPositionsThroughTurns(t, lat, lon, segmentBreak, jitter.sigma_m);
       const displacement = (a: number, b: number): number =>
         approxDistance(smooth.lat[a] as number, smooth.lon[a] as number, smooth.lat[b] as number, smooth.lon[b] as number);
       classifyMoving(t, segmentOf, displacement, moving, noiseAwareMovingSpeed(jitter.sigma_m));

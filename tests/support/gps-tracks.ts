@@ -215,6 +215,7 @@ export function generateGpsTrack(options: GpsTrackOptions): GpsTrack {
     north = rho * north + k * gaussian(random);
   };
   const segments: TrackPoint[][] = [[]];
+  const errors: GpsPointError[] = [];
   const recordablePhases: GpsPhase[] = [];
   let lastTrue: { lat: number; lon: number } | null = null;
   let lastT = 0;
@@ -246,6 +247,7 @@ export function generateGpsTrack(options: GpsTrackOptions): GpsTrack {
     const scale = metresPerDegree(truth.lat);
     const e = east + white * gaussian(random);
     const n = north + white * gaussian(random);
+    errors.push({ at_s: at, distance_m: dist, lat: truth.lat, lon: truth.lon, wander_east_m: east, wander_north_m: north });
     segments.at(-1)!.push({
       t: options.start_t + at * 1000,
       lat: Math.round((truth.lat + n / scale.north) * 1e7) / 1e7,
@@ -278,7 +280,22 @@ export function generateGpsTrack(options: GpsTrackOptions): GpsTrack {
     segments: segments.filter((seg) => seg.length > 0),
     distance_m: total,
     recordable: { ...options, phases: recordablePhases },
+    errors,
   };
+}
+
+/** Where one recorded point truly is and the slow part of its error (the wander, without the white jitter). */
+export interface GpsPointError {
+  /** Seconds from the start. */
+  at_s: number;
+  /** True distance covered, m. */
+  distance_m: number;
+  /** True position, degrees. */
+  lat: number;
+  lon: number;
+  /** The correlated (Gauss–Markov) error east and north, m. */
+  wander_east_m: number;
+  wander_north_m: number;
 }
 
 export interface GpsTrack {
@@ -291,6 +308,8 @@ export interface GpsTrack {
    * is that chord over its duration. Truths for splits are computed from this profile.
    */
   recordable: GpsTrackOptions;
+  /** One entry per recorded point, in file order (segments concatenated). */
+  errors: GpsPointError[];
 }
 
 /** Named noise levels, none to heavy (per axis): consumer receivers wander a few metres over tens of seconds. */

@@ -14,6 +14,9 @@ import { measureTrack } from '../../../support/gps-track-check.ts';
 
 // A fixed seed: the same generated tracks on every run, so a failure can be replayed.
 const SEED = 14;
+/** Margin over a track's own wander floor for 1–3 m of wander, s, and what each stop, pause or gap adds (README). */
+const WANDER_MARGIN_S = 4;
+const WANDER_MARGIN_PER_EVENT_S = 1.5;
 
 describe('splits of generated 1 s GPX tracks against their exact truth (fast-check)', () => {
   it('clean tracks: every full split within 0.6 s, the total within 1 % (100 tracks)', () => {
@@ -45,20 +48,34 @@ describe('splits of generated 1 s GPX tracks against their exact truth (fast-che
     expect(smoothed).toBeGreaterThan(150);
   }, 300_000);
 
-  it('heavier wander (1–3 m per axis over 20–120 s): the distance is not biased, mean total error within ±0.1 % (100 tracks)', () => {
-    // Splits are not held to 4.5 s here (shared/tracks/README.md, "The wander": the worst is 14 s).
-    // What must go is the length the wander adds, which the issue wants well under 0.5 %: the smoother
-    // leaves the slow part of the wander in the path (it cannot be told from the runner's own moves),
-    // and the step correction (`stepWithoutNoise`) takes out the length it adds.
+  it("heavier wander (1–3 m per axis over 20–120 s): every full split within the wander floor of its own track + 4 s (+ 1.5 s per stop, pause or gap), the total within 1 % of the floor's, no bias (200 tracks)", () => {
+    // 4.5 s cannot be met here by any method that has only positions: the slow wander moves like a
+    // runner and no estimator removes it (shared/tracks/README.md, "The wander"). What it leaves is
+    // computed for each track from its truth and its generated wander alone (tests/support/gps-wander-floor.ts:
+    // the along-track wander at both ends of a split and the sideways wander times the turn, d·θ, inside
+    // it). The method must stay within a margin of that floor. The margin is measured (README,
+    // "Turnarounds and corners"): on 800 tracks of four seeds, tracks without events stay within 3.6 s
+    // of their floor, and each stop, pause or gap adds at most 1.4 s (its edges: moving time at a stop,
+    // the smoother's ends at a gap). The smoother without its turn handling is 4.2 s over on this seed.
     const totals: number[] = [];
     fc.assert(
       fc.property(trackOptions(noise(1, 3), fc.constant(1)), (options) => {
         const errors = measureTrack(options);
         expect(errors.smoothed).toBe(true);
+        const events = options.phases.filter((phase) => phase.kind !== 'run').length;
+        const margin = WANDER_MARGIN_S + WANDER_MARGIN_PER_EVENT_S * events;
+        expect(errors.worst_elapsed_s).toBeLessThan(errors.floor_elapsed_s + margin);
+        expect(errors.worst_moving_s).toBeLessThan(errors.floor_moving_s + margin);
+        // The wander held at the ends of a stretch changes the length itself (up to 1.5 % here): the
+        // total is judged against the truth moved by that change.
+        expect(Math.abs(errors.total_error - errors.floor_total)).toBeLessThan(0.01);
         totals.push(errors.total_error);
       }),
-      { numRuns: 100, seed: SEED },
+      { numRuns: 200, seed: SEED },
     );
+    // What must go is the length the wander adds, which the issue wants well under 0.5 %: the smoother
+    // leaves the slow part of the wander in the path, and the step correction (`stepWithoutNoise`)
+    // takes out the length it adds.
     const mean = totals.reduce((a, b) => a + b, 0) / totals.length;
     expect(Math.abs(mean)).toBeLessThan(0.001);
   }, 300_000);
