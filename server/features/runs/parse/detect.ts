@@ -113,6 +113,20 @@ function wordAt(bytes: Buffer, at: number, word: string): boolean {
   return true;
 }
 
+const EXCLAMATION = 0x21;
+const LESS_THAN = 0x3c;
+
+/**
+ * The first `<!` at or after `from` (as `bytes.indexOf('<!', from)`), found by its `!`: a single
+ * byte is searched several times faster, and `!` is rare in a track.
+ */
+function markupDeclarationAt(bytes: Buffer, from: number): number {
+  for (let at = bytes.indexOf(EXCLAMATION, from + 1); at !== -1; at = bytes.indexOf(EXCLAMATION, at + 1)) {
+    if (bytes[at - 1] === LESS_THAN) return at - 1;
+  }
+  return -1;
+}
+
 /**
  * Whether the document declares an entity (`/<!ENTITY/i`) or names an external DTD
  * (`/<!DOCTYPE[^>[]*\b(?:SYSTEM|PUBLIC)\b/i`), as those expressions find on its decoded text,
@@ -125,7 +139,7 @@ function declarationsOf(doc: XmlBytes): { entity: boolean; externalDtd: boolean 
   /** Where the next '>' and '[' are, found once per stretch so many DOCTYPEs cost one pass. */
   let nextClose = -2;
   let nextBracket = -2;
-  for (let at = bytes.indexOf('<!'); at !== -1 && !(entity && externalDtd); at = bytes.indexOf('<!', at + 2)) {
+  for (let at = markupDeclarationAt(bytes, 0); at !== -1 && !(entity && externalDtd); at = markupDeclarationAt(bytes, at + 2)) {
     // Letters only: any of a-z A-Z matched ignoring case here is what /i matches without /u (ASCII to ASCII only).
     if (wordAt(bytes, at + 2, 'ENTITY')) entity = true;
     else if (!externalDtd && wordAt(bytes, at + 2, 'DOCTYPE')) {

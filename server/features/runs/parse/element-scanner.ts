@@ -35,10 +35,11 @@ const TAB = 9;
 const LINE_FEED = 10;
 const CARRIAGE_RETURN = 13;
 
-const OPEN = 0;
-const ATTRIBUTE = 1;
-const TEXT = 2;
-const CLOSE = 3;
+/** Kinds of the tokens a scan leaves (see `ScannedTokens`). */
+export const OPEN = 0;
+export const ATTRIBUTE = 1;
+export const TEXT = 2;
+export const CLOSE = 3;
 
 /** Distinct names one document may use inside the scanned elements; past this, saxes reads the rest. */
 const MAX_NAMES = 256;
@@ -56,6 +57,23 @@ export interface ScannedElementSink {
 }
 
 const NO_ATTRIBUTES: Readonly<Record<string, string>> = Object.freeze({});
+
+/**
+ * The tokens of the element a scan last accepted, in document order, for readers that learn its
+ * shape (point-template.ts). Token k is `kinds[k]` with a name id (`names`), and for an attribute
+ * value or a text the byte range [starts[k], ends[k]) of its characters (a text already trimmed).
+ */
+export interface ScannedTokens {
+  readonly count: number;
+  readonly kinds: Uint8Array;
+  readonly nameIds: Int32Array;
+  readonly starts: Int32Array;
+  readonly ends: Int32Array;
+  /** The name without its namespace prefix. */
+  localName(id: number): string;
+  /** As an attribute: its name without prefix, or null for a namespace declaration (which readers never see). */
+  attributeName(id: number): string | null;
+}
 
 /** Character classes of ASCII codes; anything else (and NaN past the end) is in none. */
 const NAME_START = 1;
@@ -93,6 +111,16 @@ function classOf(code: number): number {
 
 function isBlank(code: number): boolean {
   return (classOf(code) & BLANK) !== 0;
+}
+
+/** A byte the scanner takes as part of a text (never whitespace, `<`, `&` or `]`); false past the end. */
+export function isTextByte(code: number): boolean {
+  return (classOf(code) & TEXT_CHAR) !== 0;
+}
+
+/** A byte the scanner takes inside an attribute value quoted by `quote` (the quote itself ends it). */
+export function isAttributeValueByte(code: number, quote: number): boolean {
+  return code >= SPACE && code <= 126 && code !== LESS && code !== AMPERSAND && code !== quote;
 }
 
 /** True when xml[start, start + name.length) is `name` (an ASCII name). */
@@ -220,7 +248,7 @@ export class ElementScanner {
           const quote = code;
           const valueStart = ++pos;
           for (code = at(xml, pos); code !== quote; code = at(xml, ++pos)) {
-            if (!(code >= SPACE && code <= 126) || code === LESS || code === AMPERSAND) return -1;
+            if (!isAttributeValueByte(code, quote)) return -1;
           }
           this.push(ATTRIBUTE, attributeId, valueStart, pos);
           pos++;
@@ -231,12 +259,11 @@ export class ElementScanner {
       let contentEnd = -1;
       let returnAfterContent = false;
       for (code = at(xml, pos); code !== LESS; code = at(xml, ++pos)) {
-        const cls = classOf(code);
-        if ((cls & TEXT_CHAR) !== 0) {
+        if (isTextByte(code)) {
           if (returnAfterContent) return -1;
           if (contentStart < 0) contentStart = pos;
           contentEnd = pos + 1;
-        } else if ((cls & BLANK) === 0) {
+        } else if (!isBlank(code)) {
           return -1; // `&`, `]`, control characters, non-ASCII, or the end of the document
         } else if (code === CARRIAGE_RETURN && contentStart >= 0) {
           // saxes turns a carriage return into a line feed; harmless only where trimming removes it.
@@ -245,6 +272,20 @@ export class ElementScanner {
       }
       if (contentStart >= 0) this.push(TEXT, 0, contentStart, contentEnd);
     }
+  }
+
+  /** The tokens of the last element that `scan` accepted (valid until the next scan). */
+  tokens(): ScannedTokens {
+    const names = this.names;
+    return {
+      count: this.count,
+      kinds: this.kinds,
+      nameIds: this.first,
+      starts: this.second,
+      ends: this.third,
+      localName: (id) => names.local[id] as string,
+      attributeName: (id) => names.attributeName[id] ?? null,
+    };
   }
 
   /** Send the last element that `scan` accepted to `sink`, as saxes would have. */

@@ -4,6 +4,7 @@ import type { CleanTrack, DeviceLap, RawTrack } from '../../../../shared/tracks/
 import { detectFormat, gunzipIfNeeded, rejectBinary, xmlBytesOf, type TrackFormat } from './detect.ts';
 import { readGpx } from './gpx-reader.ts';
 import { ImportRejection } from './import-rejection.ts';
+import type { ReadOptions } from './point-template.ts';
 import { readTcx } from './tcx-reader.ts';
 import { XmlReadError, type XmlBytes } from './xml-events.ts';
 
@@ -25,9 +26,10 @@ const MAX_UNTIMED_SHARE = 0.5;
  * Read an uploaded file (GPX 1.0/1.1 or TCX, possibly gzip-compressed; the format is detected
  * from the content, never from the name) into its runs: one for a GPX file, one per usable
  * `Activity` of a TCX file. Throws `ImportRejection` with a sentence for the runner when the
- * file cannot become a run. Nothing here touches storage.
+ * file cannot become a run. Nothing here touches storage. `options` are for tests: the result
+ * is the same with and without the point templates (point-template.ts).
  */
-export function parseTrackFile(input: Buffer): ParsedRun[] {
+export function parseTrackFile(input: Buffer, options: ReadOptions = {}): ParsedRun[] {
   if (input.length === 0) throw new ImportRejection('empty-file', 'This file is empty.');
   const buffer = gunzipIfNeeded(input);
   rejectBinary(buffer);
@@ -35,10 +37,12 @@ export function parseTrackFile(input: Buffer): ParsedRun[] {
   const doc = xmlBytesOf(buffer);
   const format = detectFormat(doc);
   // Counted before reading, so a file of a million points is refused in a fraction of its reading time.
-  const tooMany = tooManyPointsReason(countTrackPointTags(doc, format));
+  const pointTags = countTrackPointTags(doc, format);
+  const tooMany = tooManyPointsReason(pointTags);
   if (tooMany) throw new ImportRejection('too-many-points', tooMany);
   try {
-    const { runs, points } = format === 'gpx' ? runsFromGpx(doc) : runsFromTcx(doc);
+    const readOptions = { ...options, expectedPoints: pointTags };
+    const { runs, points } = format === 'gpx' ? runsFromGpx(doc, readOptions) : runsFromTcx(doc, readOptions);
     const tiny = tinyTrackShareReason(buffer.length, points);
     if (tiny) throw new ImportRejection('tiny-track-share', tiny);
     return runs;
@@ -73,8 +77,8 @@ export function countTrackPointTags({ bytes }: XmlBytes, format: TrackFormat): n
   return count;
 }
 
-function runsFromGpx(text: XmlBytes): { runs: ParsedRun[]; points: number } {
-  const contents = readGpx(text);
+function runsFromGpx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[]; points: number } {
+  const contents = readGpx(text, options);
   if (contents.track.points.length === 0) {
     if (contents.tracks === 0 && (contents.waypoints > 0 || contents.routePoints > 0)) {
       throw new ImportRejection('no-recorded-track', 'This file only has waypoints or a planned route, not a recorded track.');
@@ -84,8 +88,8 @@ function runsFromGpx(text: XmlBytes): { runs: ParsedRun[]; points: number } {
   return { runs: [toRun(contents.track, 0)], points: contents.track.points.length };
 }
 
-function runsFromTcx(text: XmlBytes): { runs: ParsedRun[]; points: number } {
-  const contents = readTcx(text);
+function runsFromTcx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[]; points: number } {
+  const contents = readTcx(text, options);
   if (contents.activities.length === 0) {
     if (contents.courses > 0) {
       throw new ImportRejection('no-recorded-track', 'This file only has a planned course, not a recorded run.');

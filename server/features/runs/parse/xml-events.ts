@@ -19,6 +19,7 @@
  */
 import { SaxesParser, type SaxesTagPlain } from 'saxes';
 import { documentBytes, ElementScanner, type ScannedElementSink } from './element-scanner.ts';
+import type { TemplatePointReader } from './point-template.ts';
 
 /** A document's bytes in an ASCII-compatible encoding (UTF-16 is converted to UTF-8 first, detect.ts). */
 export interface XmlBytes {
@@ -76,6 +77,12 @@ export interface XmlReadOptions {
    * goes to saxes as usual. The events are the same either way.
    */
   repeatedElement?: string;
+  /**
+   * Reads repeated elements straight into the reader's columns, without events, where it can
+   * (point-template.ts): offered every element the scanner would be tried on, and every element
+   * the scanner accepts, to learn from. What it does not read goes the usual way.
+   */
+  pointReader?: TemplatePointReader;
 }
 
 /**
@@ -172,7 +179,9 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
     fed = at;
     let next = at + 1;
     if (depth > 0 && blankSinceTag) {
-      const [end, count] = readRepeatedElements(bytes, at, marker, scanner, sink, () => MAX_DEPTH - depth);
+      // Only whitespace is pending here, which no event would carry.
+      pending = '';
+      const [end, count] = readRepeatedElements(bytes, at, marker, scanner, sink, MAX_DEPTH - depth, options.pointReader);
       scanned += count;
       if (end > at) {
         fed = end;
@@ -188,8 +197,9 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
 }
 
 /**
- * Scan and replay consecutive elements from `start`, whitespace between them. Gives the index
- * after the last one read (`start` when none) and how many were read.
+ * Read consecutive elements from `start`, whitespace between them: by the point reader's
+ * templates, else scanned and replayed. Gives the index after the last one read (`start` when
+ * none) and how many were read. Every element is complete, so the depth stays `depthLeft`.
  */
 function readRepeatedElements(
   xml: Buffer,
@@ -197,15 +207,23 @@ function readRepeatedElements(
   marker: Buffer,
   scanner: ElementScanner,
   sink: ScannedElementSink,
-  depthLeft: () => number,
+  depthLeft: number,
+  pointReader: TemplatePointReader | undefined,
 ): [end: number, count: number] {
   let end = start;
   let at = start;
   let count = 0;
   for (;;) {
-    const after = scanner.scan(xml, at, depthLeft());
-    if (after < 0) return [end, count];
-    scanner.replay(xml, sink);
+    let after = pointReader ? pointReader.tryRead(xml, at, depthLeft) : -1;
+    if (after < 0) {
+      after = scanner.scan(xml, at, depthLeft);
+      if (after < 0) return [end, count];
+      if (!pointReader?.learn(xml, at, after, scanner.tokens())) scanner.replay(xml, sink);
+      else if (pointReader.tryRead(xml, at, depthLeft) !== after) {
+        // A template learnt from this very element matches it; anything else is a bug here.
+        throw new Error('A learnt point template did not read the element it was learnt from.');
+      }
+    }
     count++;
     end = after;
     at = after;
