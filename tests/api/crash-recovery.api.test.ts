@@ -13,6 +13,7 @@ import { createFsStore } from '../../server/lib/storage.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
+import { waitUntil } from '../support/poll.ts';
 
 /**
  * The real server as a child process, killed with SIGKILL at the worst moments of an upload, then
@@ -40,17 +41,6 @@ async function killChild(child: ChildProcess): Promise<void> {
   const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
   child.kill('SIGKILL');
   await exited;
-}
-
-/** Polls `check` until it returns something other than undefined/false; fails with `what` after `timeoutMs`. */
-async function waitFor<T>(check: () => Promise<T | undefined | false> | T | undefined | false, what: string, timeoutMs = 20_000) {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await check();
-    if (value !== undefined && value !== false) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((resolve) => setTimeout(resolve, 50));
-  }
 }
 
 interface ServerProcess {
@@ -97,7 +87,7 @@ async function startServerProcess(dataDir: string): Promise<ServerProcess> {
   const alive = () => {
     if (child.exitCode !== null) throw new Error(`the server exited with code ${child.exitCode}:\n${stderr}`);
   };
-  const listening = await waitFor(
+  const listening = await waitUntil(
     () => {
       alive();
       return server.logs.find((l) => l.msg?.startsWith('Pacewright is listening on '))?.msg;
@@ -107,7 +97,7 @@ async function startServerProcess(dataDir: string): Promise<ServerProcess> {
     90_000,
   );
   server.url = listening.slice('Pacewright is listening on '.length);
-  await waitFor(async () => {
+  await waitUntil(async () => {
     alive();
     return (await fetch(`${server.url}/api/health`).catch(() => null))?.status === 200;
   }, 'the server to answer /api/health');
@@ -196,7 +186,7 @@ async function startHalfSentUpload(server: ServerProcess, authorization: string,
   });
   req.write(head);
   req.write(data.subarray(0, data.length / 2));
-  await waitFor(async () => {
+  await waitUntil(async () => {
     const unused = await db('api_tokens').where({ user_id: userId }).whereNull('last_used_at').count({ n: '*' }).first();
     return Number(unused!.n) === 0;
   }, 'the server to take the half-sent upload');
@@ -216,7 +206,7 @@ async function startBlockedImport(server: ServerProcess, authorization: string, 
     (res) => `answered ${res.status}`,
     () => 'connection lost',
   );
-  const { pid } = await waitFor(async () => {
+  const { pid } = await waitUntil(async () => {
     const { rows } = await db.raw<{ rows: Array<{ pid: number }> }>(
       `select pid from pg_stat_activity
         where datname = current_database() and wait_event_type = 'Lock' and query ilike 'insert into "runs"%'`,
@@ -230,7 +220,7 @@ async function startBlockedImport(server: ServerProcess, authorization: string, 
 async function releaseLockAfterKill(pid: number) {
   await heldLock!.rollback();
   heldLock = null;
-  await waitFor(async () => {
+  await waitUntil(async () => {
     const { rows } = await db.raw<{ rows: unknown[] }>('select 1 from pg_stat_activity where pid = ?', [pid]);
     return rows.length === 0;
   }, 'the killed server’s database session to end');
@@ -286,7 +276,7 @@ describe('the web server killed (SIGKILL) during uploads', () => {
 
     // Restarted: still nothing half-stored, and the sweep at start removes exactly the old leftovers.
     const second = await startServerProcess(dataDir);
-    const finished = await waitFor(() => second.logs.find((l) => l.msg === 'orphan sweep finished'), 'the first orphan sweep');
+    const finished = await waitUntil(() => second.logs.find((l) => l.msg === 'orphan sweep finished'), 'the first orphan sweep');
     expect(finished).toMatchObject({ removedOriginals: 1, removedArchives: 2, graceSeconds: 600 });
     expect(second.logs.filter((l) => l.msg?.startsWith('removed an original file')).map((l) => l.key)).toEqual([
       keyOf(orphanRun),
@@ -300,7 +290,7 @@ describe('the web server killed (SIGKILL) during uploads', () => {
 
     // The killed process's two uploads held places among the uploads a runner may have arriving at
     // once; they are leased (server/lib/README.md, "Shared limits") and free when the lease runs out.
-    await waitFor(
+    await waitUntil(
       async () =>
         Number(
           (
@@ -349,7 +339,7 @@ describe('the orphan sweep and an upload on another process', () => {
   }
 
   async function waitForSweepToQueue() {
-    await waitFor(async () => {
+    await waitUntil(async () => {
       const { rows } = await db.raw<{ rows: unknown[] }>(
         "select 1 from pg_stat_activity where datname = current_database() and wait_event = 'advisory'",
       );

@@ -16,7 +16,8 @@ import knexFactory from 'knex';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it, onTestFailed } from 'vitest';
 import { knexConfig } from '../../db/knexfile.ts';
-import { freePort, ownCluster, pollUntil } from '../support/own-cluster.ts';
+import { freePort, ownCluster } from '../support/own-cluster.ts';
+import { pollUntil } from '../support/poll.ts';
 import { buildZip } from '../support/zip-builder.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');

@@ -12,6 +12,7 @@ import { createFsStore } from '../../server/lib/storage.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
+import { pollUntil } from '../support/poll.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
 import { buildZip, type RawZipEntry } from '../support/zip-builder.ts';
 import type { ImportProgress } from '../../shared/history/schemas.ts';
@@ -65,14 +66,8 @@ async function progressOf(auth: Record<string, string>, id: string): Promise<Pro
 }
 
 // Waits on the import's own progress; the bound only ends a hung import (200 files take 15–60 s on a busy machine).
-async function waitFor(auth: Record<string, string>, id: string, until: (p: Progress) => boolean, timeoutMs = 150_000) {
-  const deadline = Date.now() + timeoutMs;
-  while (Date.now() < deadline) {
-    const progress = await progressOf(auth, id);
-    if (until(progress)) return progress;
-    await new Promise((r) => setTimeout(r, 100));
-  }
-  throw new Error(`import ${id} did not get there: ${JSON.stringify(await progressOf(auth, id))}`);
+function waitFor(auth: Record<string, string>, id: string, until: (p: Progress) => boolean, timeoutMs = 150_000) {
+  return pollUntil(() => progressOf(auth, id), until, `import ${id}`, timeoutMs);
 }
 
 const finished = (p: Progress) => p.status === 'done' || p.status === 'failed';

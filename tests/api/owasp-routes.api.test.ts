@@ -23,6 +23,7 @@ import type { Role } from '../../shared/users/schemas.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
+import { pollUntil } from '../support/poll.ts';
 import { recordedMail, recordingMailer, signedInAgent, testConfig, type BrowserAgent } from '../support/test-app.ts';
 import { buildZip } from '../support/zip-builder.ts';
 
@@ -157,13 +158,16 @@ async function must(label: string, test: request.Test, status: number): Promise<
 }
 
 async function waitForImport(browser: BrowserAgent, id: string): Promise<{ status: string; rejected: unknown[] }> {
-  const deadline = Date.now() + 30_000;
-  for (;;) {
-    const res = await browser.agent.get(`/api/imports/${id}`);
-    if (res.status === 200 && (res.body.status === 'done' || res.body.status === 'failed')) return res.body;
-    if (Date.now() > deadline) throw new Error(`import ${id} did not finish: ${res.status} ${JSON.stringify(res.body)}`);
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
+  const res = await pollUntil(
+    async () => {
+      const { status, body } = await browser.agent.get(`/api/imports/${id}`);
+      return { status, body };
+    },
+    ({ status, body }) => status === 200 && (body.status === 'done' || body.status === 'failed'),
+    `import ${id} to finish`,
+    30_000,
+  );
+  return res.body;
 }
 
 async function buildWorld(): Promise<World> {

@@ -21,7 +21,8 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { knexConfig } from '../../db/knexfile.ts';
 import { READ_SOURCE_HEADER } from '../../server/lib/read-replica.ts';
-import { freePort, ownCluster, pollUntil } from '../support/own-cluster.ts';
+import { freePort, ownCluster } from '../support/own-cluster.ts';
+import { pollUntil } from '../support/poll.ts';
 import { startServerProcess, type ServerProcess } from '../support/server-process.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');

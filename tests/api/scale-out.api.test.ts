@@ -5,7 +5,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { db } from '../../server/lib/db.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
-import { bearerFor, startAppProcess, waitUntil, type AppProcess } from '../support/server-process.ts';
+import { bearerFor, startAppProcess, type AppProcess } from '../support/server-process.ts';
+import { waitUntil } from '../support/poll.ts';
 import { createUser } from '../support/factories.ts';
 import { buildZip } from '../support/zip-builder.ts';
 

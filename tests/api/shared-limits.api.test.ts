@@ -7,7 +7,8 @@ import { db } from '../../server/lib/db.ts';
 import { uploadSlotsHeldBy } from '../../server/lib/shared-limits.repository.ts';
 import { streamMultipart, uploadLeftOpen, writeLongGpx } from '../support/big-uploads.ts';
 import { createUser } from '../support/factories.ts';
-import { bearerFor, startAppProcess, waitUntil, type AppProcess } from '../support/server-process.ts';
+import { bearerFor, startAppProcess, type AppProcess } from '../support/server-process.ts';
+import { waitUntil } from '../support/poll.ts';
 
 /**
  * Shared limits (issue 19): two web processes (ROLE=web) on one database, with the limits a

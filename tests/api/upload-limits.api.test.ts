@@ -26,7 +26,7 @@ import {
 } from '../../shared/runs/upload-limits.ts';
 import { streamMultipart, uploadLeftOpen, writeLongGpx, type LongTrackOptions } from '../support/big-uploads.ts';
 import { createUser } from '../support/factories.ts';
-import { waitUntil } from '../support/server-process.ts';
+import { waitUntil } from '../support/poll.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
 
 type App = ReturnType<typeof createApp>;
@@ -72,15 +72,6 @@ async function leftBy(userId: string, dataDir: string) {
   };
 }
 
-/** Checks `done` every 25 ms until it holds: waiting on the event, bounded only so a hang fails. */
-async function until(done: () => boolean, what: string, timeoutMs = 20_000): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (!done()) {
-    if (Date.now() > deadline) throw new Error(`gave up waiting: ${what}`);
-    await new Promise((resolve) => setTimeout(resolve, 25));
-  }
-}
-
 const upload = (app: App, auth: Record<string, string>, file: { file: string; name: string }) =>
   request(app).post('/api/runs').set(auth).attach('files', file.file, file.name);
 
@@ -111,7 +102,7 @@ describe('uploads arriving at once, per user', () => {
     const { user, auth } = await runnerOf(app);
     const open = [uploadLeftOpen(`${baseUrl}/api/runs`, auth), uploadLeftOpen(`${baseUrl}/api/runs`, auth)];
     // Both bodies are being written to disk: the server has let both in.
-    await until(() => filesIn(path.join(dataDir, 'uploads')).length === AT_ONCE, 'two uploads arriving');
+    await waitUntil(() => filesIn(path.join(dataDir, 'uploads')).length === AT_ONCE, 'two uploads arriving', 20_000, 25);
 
     const small = await gpx({ points: 600 });
     const third = await streamMultipart(`${baseUrl}/api/runs`, auth, [
@@ -127,7 +118,7 @@ describe('uploads arriving at once, per user', () => {
 
     for (const req of open) req.destroy();
     // The two broken-off uploads leave nothing behind.
-    await until(() => filesIn(path.join(dataDir, 'uploads')).length === 0, 'the broken-off uploads removed');
+    await waitUntil(() => filesIn(path.join(dataDir, 'uploads')).length === 0, 'the broken-off uploads removed', 20_000, 25);
     expect(await leftBy(user.id, dataDir)).toEqual({ runs: 0, sourceFiles: 0, originals: 0, temporary: 0 });
     // Their places (rows in PostgreSQL, shared by every web process) are given back as the connections close.
     await waitUntil(async () => (await uploadSlotsHeldBy(user.id)) === 0, 'the broken-off uploads’ slots given back');

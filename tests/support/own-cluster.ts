@@ -77,21 +77,3 @@ export function ownCluster(database: string, port: number, replicaPort = port + 
     },
   };
 }
-
-/** Reads until `done` holds, every `everyMs`, for at most `timeoutMs`; returns the last value read. */
-export async function pollUntil<T>(
-  read: () => Promise<T>,
-  done: (value: T) => boolean,
-  what: string,
-  timeoutMs = 20_000,
-  everyMs = 100,
-): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await read();
-    if (done(value)) return value;
-    if (Date.now() > deadline)
-      throw new Error(`${what}: still not so after ${timeoutMs / 1000} s (last: ${JSON.stringify(value)})`);
-    await new Promise((resolve) => setTimeout(resolve, everyMs));
-  }
-}

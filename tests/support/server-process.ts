@@ -1,6 +1,7 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { waitUntil } from './poll.ts';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 
@@ -18,21 +19,6 @@ export interface AppProcess {
   stderr(): string;
   /** SIGTERM and wait for the exit (a clean stop: files in hand are finished). */
   stop(): Promise<void>;
-}
-
-/** Polls `check` until it returns something other than undefined/false; fails with `what` after `timeoutMs`. */
-export async function waitUntil<T>(
-  check: () => Promise<T | undefined | false> | T | undefined | false,
-  what: string,
-  timeoutMs = 20_000,
-): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await check();
-    if (value !== undefined && value !== false) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
 }
 
 /**
