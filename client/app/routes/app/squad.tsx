@@ -28,7 +28,8 @@ import { InviteForm } from '../../../features/squad/components/invite-form.tsx';
 import { SquadOverviewHow } from '../../../features/squad/components/squad-overview-how.tsx';
 import { SquadOverviewTable } from '../../../features/squad/components/squad-overview-table.tsx';
 import { SquadPeople } from '../../../features/squad/components/squad-people.tsx';
-import { DownloadLink, WeekNav } from '../../../features/squad/components/week-nav.tsx';
+import { DownloadLink } from '../../../components/ui/download-link.tsx';
+import { WeekNav } from '../../../features/squad/components/week-nav.tsx';
 import { formatWeekRange } from '../../../features/squad/utils/week-format.ts';
 import { requireAccess } from '../../guards.ts';
 

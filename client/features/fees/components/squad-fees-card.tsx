@@ -12,7 +12,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { SelectField, TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { DownloadLink } from '../../squad/index.ts';
+import { DownloadLink } from '../../../components/ui/download-link.tsx';
 import { billingCsvHref, useSetFee, useSetWaiver, useSquadBilling } from '../api/fees.ts';
 import { describeFee, formatDay, statusWords } from './fee-words.ts';
 

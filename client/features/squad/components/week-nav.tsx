@@ -37,16 +37,3 @@ export function WeekNav({ title, previous, next, current }: WeekNavProps) {
     </div>
   );
 }
-
-/** A plain download link styled like the run page's. */
-export function DownloadLink({ href, children }: { href: string; children: string }) {
-  return (
-    <a
-      href={href}
-      download
-      className="inline-flex min-h-11 items-center rounded-md border border-line bg-card px-3.5 py-1.5 text-sm font-semibold text-teal hover:border-teal sm:min-h-9"
-    >
-      {children}
-    </a>
-  );
-}

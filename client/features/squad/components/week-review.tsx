@@ -14,7 +14,8 @@ import { WeekDays } from './week-days.tsx';
 import { WeekFlags } from './week-flags.tsx';
 import { WeekHow } from './week-how.tsx';
 import { WeekLoad } from './week-load.tsx';
-import { DownloadLink, WeekNav } from './week-nav.tsx';
+import { DownloadLink } from '../../../components/ui/download-link.tsx';
+import { WeekNav } from './week-nav.tsx';
 import { WeekNotes } from './week-notes.tsx';
 import { WeekTotals } from './week-totals.tsx';
 
