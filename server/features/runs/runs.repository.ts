@@ -284,3 +284,67 @@ export async function deleteRunAndOrphanFile(run: RunRow, trx: Db): Promise<Sour
   const [file] = await trx('source_files').where({ id: run.source_file_id }).delete().returning('*');
   return file as SourceFileRow | undefined;
 }
+
+// Several runners' runs as the week review and the squad overview read them (through run-reads.service.ts).
+
+/** The run's TRIMP stored at import (`details.trimp.trimp`), null without heart rate. */
+const TRIMP = "(details->'trimp'->>'trimp')::float8 as trimp";
+
+/** What the load, the trend and the week totals read of a run. */
+export interface RunLoadRow {
+  user_id: string;
+  local_date: string;
+  distance_m: number;
+  trimp: number | null;
+}
+
+/** Several runners' runs between two local dates (inclusive), light rows, in the order they started. */
+export async function listRunLoadsOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = readDb(),
+): Promise<RunLoadRow[]> {
+  if (runnerIds.length === 0) return [];
+  return (
+    trx('runs')
+      .whereIn('user_id', runnerIds)
+      .andWhere('local_date', '>=', from)
+      .andWhere('local_date', '<=', to)
+      // Rides and hikes stay out of running totals, loads and the week review (issue #14).
+      .andWhere('activity_kind', 'run')
+      .orderBy('started_at')
+      .select<RunLoadRow[]>('user_id', 'local_date', 'distance_m', trx.raw(TRIMP))
+  );
+}
+
+/** Several runners' runs between two local dates (inclusive) as list items, in the order they started. */
+export async function listRunItemsOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = readDb(),
+): Promise<Array<RunListRow & { user_id: string; trimp: number | null }>> {
+  if (runnerIds.length === 0) return [];
+  return (
+    trx('runs')
+      .whereIn('user_id', runnerIds)
+      .andWhere('local_date', '>=', from)
+      .andWhere('local_date', '<=', to)
+      // Rides and hikes stay out of running totals, loads and the week review (issue #14).
+      .andWhere('activity_kind', 'run')
+      .orderBy('started_at')
+      .select(...RUN_LIST_COLUMNS, 'user_id', trx.raw(TRIMP))
+  );
+}
+
+/** Each runner's latest upload time (runners without runs are left out). */
+export async function lastUploadsOf(runnerIds: readonly string[], trx: Db = readDb()): Promise<Map<string, Date>> {
+  if (runnerIds.length === 0) return new Map();
+  // One backward step on runs (user_id, created_at) per runner, rather than reading all their runs.
+  const { rows } = await trx.raw<{ rows: Array<{ user_id: string; last: Date | null }> }>(
+    'select r.id as user_id, (select max(created_at) from runs where runs.user_id = r.id) as last from unnest(?::uuid[]) as r(id)',
+    [runnerIds as string[]],
+  );
+  return new Map(rows.flatMap((r) => (r.last ? [[r.user_id, r.last] as const] : [])));
+}

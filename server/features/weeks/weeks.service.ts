@@ -25,21 +25,12 @@ import { findGoalRacesOf, listRaceResultsOf } from '../goals/index.ts';
 import { listPlansOf, PLAN_CHECK_CODE_VERSION } from '../plans/index.ts';
 import { listDayMarksOf } from '../plans/index.ts';
 import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/index.ts';
-import { toRunListItem } from '../runs/index.ts';
+import { lastUploadsOf, listRunItemsOf, listRunLoadsOf, toRunListItem } from '../runs/index.ts';
 import { assertCanReadRunner, squadCoachedBy } from '../squads/index.ts';
 import { findCoachIdsOfRunner, listMembers } from '../squads/index.ts';
 import { findUserById, findUsersByIds } from '../users/index.ts';
 import { readWeekCache, storeWeeks, weekCacheKeyText } from '../week-cache/index.ts';
-import {
-  deleteWeekReview,
-  findWeekReviewsOf,
-  insertWeekNote,
-  lastUploadsOf,
-  listRunItemsOf,
-  listRunLoadsOf,
-  listWeekNotes,
-  upsertWeekReview,
-} from './weeks.repository.ts';
+import { deleteWeekReview, findWeekReviewsOf, insertWeekNote, listWeekNotes, upsertWeekReview } from './weeks.repository.ts';
 
 const EASY_KINDS = new Set(['easy', 'recovery jog', 'warm-up', 'cool-down']);
 const TREND_WEEKS = 12;
