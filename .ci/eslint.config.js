@@ -119,6 +119,22 @@ export default tseslint.config(
           selector: "CallExpression[callee.type='Identifier'][callee.name=/^(db|trx|knex)$/]",
           message: 'Queries live in a repository: pass the transaction to a repository function instead.',
         },
+        // The import rules above see only static imports: `const { db } = await import('./lib/db.ts')`
+        // and `(await import('./lib/db.ts')).db` would slip past them.
+        {
+          selector:
+            "VariableDeclarator[init.argument.type='ImportExpression'][init.argument.source.value=/(^|\\/)lib\\/db(\\.ts)?$/] > ObjectPattern > Property[key.name='db']",
+          message: 'Queries live in a repository: call one, or open a transaction with inTransaction from server/lib/db.ts.',
+        },
+        {
+          selector:
+            "MemberExpression[property.name='db'][object.argument.type='ImportExpression'][object.argument.source.value=/(^|\\/)lib\\/db(\\.ts)?$/]",
+          message: 'Queries live in a repository: call one, or open a transaction with inTransaction from server/lib/db.ts.',
+        },
+        {
+          selector: "ImportExpression[source.value='knex']",
+          message: 'Knex is used only in repositories, server/lib/db.ts and db/.',
+        },
       ],
     },
   },

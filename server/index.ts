@@ -64,7 +64,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
   logStrayRejections();
   // Imported after the config check so a bad production config fails before any connection is made.
   const { createApp } = await import('./app.ts');
-  const { db } = await import('./lib/db.ts');
+  const { closeDatabase } = await import('./lib/db.ts');
   const { store, catcher, mailer, stopComputePool } = await startServices(config, env);
   // Development and tests: the local fake of the payment service on loopback, unless PAYMENTS_URL names one.
   // Imported only here and only outside production, so a production server never loads it.
@@ -125,7 +125,7 @@ export async function startServer(env: NodeJS.ProcessEnv = process.env): Promise
       await catcher?.close();
       await fake?.close();
       await stopReadReplica();
-      await db.destroy();
+      await closeDatabase();
     },
   };
 }
@@ -144,7 +144,7 @@ export interface RunningWorker {
 export async function startWorker(env: NodeJS.ProcessEnv = process.env): Promise<RunningWorker> {
   const config = loadConfig({ ...env, ROLE: 'worker' });
   logStrayRejections();
-  const { db } = await import('./lib/db.ts');
+  const { closeDatabase } = await import('./lib/db.ts');
   const { store, catcher, mailer, stopComputePool } = await startServices(config, env);
   const { createPaymentsClient } = await import('./features/fees/payments-client.ts');
   const payments = createPaymentsClient(config);
@@ -157,7 +157,7 @@ export async function startWorker(env: NodeJS.ProcessEnv = process.env): Promise
       await jobs.stop();
       await stopComputePool();
       await catcher?.close();
-      await db.destroy();
+      await closeDatabase();
     },
   };
 }

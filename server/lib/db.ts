@@ -615,6 +615,11 @@ export function inTransaction<T>(work: (trx: Knex.Transaction) => Promise<T>): P
   return db.transaction(work);
 }
 
+/** Closes the pool at shutdown: what a composition root (server/index.ts) needs of the database, without the query builder. */
+export function closeDatabase(): Promise<void> {
+  return db.destroy();
+}
+
 /** PostgreSQL's SQLSTATE for a unique violation. */
 export const PG_UNIQUE_VIOLATION = '23505';
 

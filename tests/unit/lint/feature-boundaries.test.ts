@@ -69,6 +69,28 @@ describe('server feature boundaries', { timeout: 60_000 }, () => {
     ).toEqual([]);
   });
 
+  it('sees the Knex instance taken through a dynamic import too, as server/index.ts once did', async () => {
+    const destructured =
+      "export async function probe() {\n  const { db } = await import('./lib/db.ts');\n  await db.destroy();\n}\n";
+    expect(await rulesFiredFor('server/index.ts', destructured)).toEqual([
+      expect.stringMatching(/^no-restricted-syntax: Queries live in a repository/),
+    ]);
+    const member = "export async function probe() {\n  await (await import('../../lib/db.ts')).db.destroy();\n}\n";
+    expect(await rulesFiredFor('server/features/runs/boundary-probe.service.ts', member)).toEqual([
+      expect.stringMatching(/^no-restricted-syntax: Queries live in a repository/),
+    ]);
+    const knex = "export async function probe() {\n  return (await import('knex')).default;\n}\n";
+    expect(await rulesFiredFor('server/features/runs/boundary-probe.service.ts', knex)).toEqual([
+      expect.stringMatching(/^no-restricted-syntax: Knex is used only in repositories/),
+    ]);
+    // What the composition root takes instead: closing the pool, no query builder.
+    const closing =
+      "export async function probe() {\n  const { closeDatabase } = await import('./lib/db.ts');\n  await closeDatabase();\n}\n";
+    expect(await rulesFiredFor('server/index.ts', closing)).toEqual([]);
+    // Scripts (server/cli) are composition roots that run queries themselves.
+    expect(await rulesFiredFor('server/cli/boundary-probe.ts', destructured)).toEqual([]);
+  });
+
   it('holds in the services that were once exempt: no file outside repositories, lib/db and cli may query', async () => {
     const code = "import { db } from '../../lib/db.ts';\nexport const probe = () => db('users').first();\n";
     // The nine files of the old KNEX_NOT_YET_MOVED list (issue 18), linted at their real paths.
