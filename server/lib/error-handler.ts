@@ -62,6 +62,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, next) => {
       return;
     }
     if (known instanceof DatabaseUnavailableError) res.set('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
+    else if (known.retryAfterSeconds !== undefined) res.set('Retry-After', String(known.retryAfterSeconds));
     res.status(known.status).json({
       error: known.message,
       code: known.code,

@@ -2,6 +2,9 @@ import type { FieldIssue } from '../../shared/api/errors.ts';
 
 /** An error whose message is safe to show a user. `code` is stable for programs. */
 export class AppError extends Error {
+  /** Seconds the client should wait before trying again (a Retry-After header), for errors that pass. */
+  retryAfterSeconds?: number;
+
   constructor(
     readonly status: number,
     readonly code: string,

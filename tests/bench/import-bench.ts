@@ -22,20 +22,25 @@
  * kept; compare ratios, and run it twice.
  */
 import { spawnSync } from 'node:child_process';
+import knexFactory from 'knex';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
 import { SaxesParser } from 'saxes';
+import { ROOT, startEmbeddedPostgres, withDatabase } from '../../server/cli/lib/postgres.ts';
 import { parseTrackFile } from '../../server/features/runs/parse/parse-track-file.ts';
 import { analyseTrack } from '../../shared/tracks/analyse.ts';
 import { generateLakeRun, longRunPhases, type SyntheticOptions } from '../../shared/tracks/synthetic.ts';
 import type { DeviceLap } from '../../shared/tracks/types.ts';
 import { writeGpx, writeTcx } from '../../shared/tracks/write-track.ts';
 import { analyseBaselineTrack, readBaselineTrack } from './baseline-pipeline.ts';
+import { measureUploadCase, type UploadCaseResult } from './upload-case.ts';
 
 type Approach = 'pipeline' | 'baseline' | 'floor-saxes' | 'floor-scan';
+/** The whole API upload (upload-case.ts), measured beside the pipeline of the same run. */
+type CaseKind = Approach | 'api-upload';
 type Format = 'gpx' | 'tcx';
 
 interface CaseResult {
@@ -49,6 +54,8 @@ interface CaseResult {
   /** Distance and splits from the points; null for the floors. */
   analyse_ms: number | null;
   total_ms: number;
+  /** process.cpuUsage (user + system) of the whole process during the case, ms. */
+  cpu_ms: number;
   /** Highest resident set size of the whole process during the case. */
   peak_rss_mb: number;
   /** The same over the process's RSS just before the case (Node, tsx and the loaded modules). */
@@ -94,6 +101,10 @@ const TARGET_LONGEST_RSS_MB = 400;
 /** Issue 19 targets for the 30 h files: at most this many times the `indexOf` floor of the same file, and peak memory. */
 const TARGET_OVER_SCAN_FLOOR = 2;
 const TARGET_LONGEST_RSS_MB_19 = 300;
+/** Issue 19: the whole API upload of a 30 h file at most this many times the pipeline alone (same run). */
+const TARGET_UPLOAD_OVER_PIPELINE = 1.3;
+/** BENCH_UPLOAD=0 leaves out the api-upload case (it needs PostgreSQL: the embedded cluster on PGPORT). */
+const WITH_UPLOAD = process.env.BENCH_UPLOAD !== '0';
 
 /**
  * Each case runs this many times (BENCH_REPEATS, default 3), each in a fresh process; the table
@@ -230,6 +241,7 @@ async function measureCase(path: string, approach: Approach): Promise<CaseResult
   const sampler = await startSampler();
   collectGarbage();
   const before = process.memoryUsage.rss();
+  const cpu0 = process.cpuUsage();
   const t0 = performance.now();
   let size = 0;
   const measured = runApproach(
@@ -242,6 +254,7 @@ async function measureCase(path: string, approach: Approach): Promise<CaseResult
     format,
   );
   const total = performance.now() - t0;
+  const cpu = process.cpuUsage(cpu0);
   await new Promise((resolve) => setTimeout(resolve, SAMPLE_INTERVAL_MS * 5));
   const peakRss = Math.max(sampler.peak(), process.memoryUsage.rss());
   await sampler.stop();
@@ -254,6 +267,7 @@ async function measureCase(path: string, approach: Approach): Promise<CaseResult
     parse_ms: Math.round(measured.parseMs),
     analyse_ms: measured.analyseMs === null ? null : Math.round(measured.analyseMs),
     total_ms: Math.round(total),
+    cpu_ms: Math.round((cpu.user + cpu.system) / 1000),
     peak_rss_mb: Math.round(peakRss / MB),
     peak_rss_growth_mb: Math.round((peakRss - before) / MB),
     distance_km: measured.distanceKm === null ? null : round(measured.distanceKm, 2),
@@ -277,14 +291,64 @@ function runBestOf(path: string, approach: Approach): CaseResult {
   };
 }
 
-function runChild(path: string, approach: Approach): CaseResult {
+function runChild<T = CaseResult>(path: string, kind: CaseKind, env: NodeJS.ProcessEnv = process.env): T {
   const self = fileURLToPath(import.meta.url);
-  const child = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', self, '--case', approach, path], {
+  const child = spawnSync(process.execPath, ['--expose-gc', '--import', 'tsx', self, '--case', kind, path], {
     encoding: 'utf8',
     maxBuffer: 1024 * 1024,
+    env,
   });
-  if (child.status !== 0) throw new Error(`bench case ${approach} ${path} failed:\n${child.stderr}`);
-  return JSON.parse(child.stdout.trim().split('\n').pop() ?? '') as CaseResult;
+  if (child.status !== 0) throw new Error(`bench case ${kind} ${path} failed:\n${child.stderr}`);
+  return JSON.parse(child.stdout.trim().split('\n').pop() ?? '') as T;
+}
+
+/** A fresh database on the embedded cluster (PGPORT), migrated, for the api-upload cases of this run. */
+async function makeUploadDatabase(): Promise<{ url: string; drop: () => Promise<void> }> {
+  const serverUrl = startEmbeddedPostgres([]);
+  const name = `pacewright_bench_${Date.now().toString(36)}_${process.pid}`;
+  const admin = knexFactory({ client: 'pg', connection: withDatabase(serverUrl, 'postgres') });
+  await admin.raw('create database ??', [name]);
+  const url = withDatabase(serverUrl, name);
+  const drop = async (): Promise<void> => {
+    await admin.raw('drop database if exists ?? with (force)', [name]);
+    await admin.destroy();
+  };
+  const migrated = spawnSync(process.execPath, ['--import', 'tsx', 'server/cli/db.ts', 'migrate'], {
+    cwd: ROOT,
+    stdio: ['ignore', 'ignore', 'inherit'],
+    env: { ...process.env, DATABASE_URL: url },
+  });
+  if (migrated.status !== 0) {
+    await drop();
+    throw new Error('migrating the bench database failed');
+  }
+  return { url, drop };
+}
+
+interface UploadComparison {
+  file: string;
+  pipeline_ms: number;
+  pipeline_cpu_ms: number;
+  upload: UploadCaseResult;
+  /** Whole upload ÷ pipeline, wall and CPU (issue 19: at most 1.3× for the 30 h files). */
+  over_pipeline: number;
+  cpu_over_pipeline: number;
+}
+
+/** Best of REPEATS fresh processes of the api-upload case, beside the pipeline case of the same file. */
+function compareUpload(path: string, pipeline: CaseResult, databaseUrl: string): UploadComparison {
+  const runs = Array.from({ length: REPEATS }, () =>
+    runChild<UploadCaseResult>(path, 'api-upload', { ...process.env, BENCH_DATABASE_URL: databaseUrl }),
+  );
+  const upload = runs.reduce((best, r) => (r.total_ms < best.total_ms ? r : best));
+  return {
+    file: pipeline.file,
+    pipeline_ms: pipeline.total_ms,
+    pipeline_cpu_ms: pipeline.cpu_ms,
+    upload,
+    over_pipeline: round(upload.total_ms / Math.max(1, pipeline.total_ms), 2),
+    cpu_over_pipeline: round(upload.cpu_ms / Math.max(1, pipeline.cpu_ms), 2),
+  };
 }
 
 function printTable(header: readonly string[], rows: readonly (readonly string[])[], leftColumns: number): void {
@@ -326,7 +390,7 @@ interface TargetCheck {
   detail: string;
 }
 
-function checkTargets(comparisons: readonly FileComparison[]): TargetCheck[] {
+function checkTargets(comparisons: readonly FileComparison[], uploads: readonly UploadComparison[]): TargetCheck[] {
   const checks: TargetCheck[] = comparisons.map((c) => ({
     target: `${c.file}: at least ${TARGET_SPEEDUP}× faster than the baseline`,
     met: c.speedup >= TARGET_SPEEDUP,
@@ -356,18 +420,31 @@ function checkTargets(comparisons: readonly FileComparison[]): TargetCheck[] {
       },
     );
   }
+  for (const u of uploads.filter((x) => x.file.startsWith('bench-30h'))) {
+    checks.push({
+      target: `${u.file}: the whole API upload at most ${TARGET_UPLOAD_OVER_PIPELINE}× the pipeline alone (issue 19)`,
+      met: u.over_pipeline <= TARGET_UPLOAD_OVER_PIPELINE,
+      detail: `${u.upload.total_ms} / ${u.pipeline_ms} ms = ${u.over_pipeline}×; CPU ${u.upload.cpu_ms} / ${u.pipeline_cpu_ms} ms = ${u.cpu_over_pipeline}×`,
+    });
+  }
   return checks;
 }
 
 async function main(): Promise<void> {
   const caseIndex = process.argv.indexOf('--case');
   if (caseIndex !== -1) {
-    const approach = process.argv[caseIndex + 1] as Approach;
+    const kind = process.argv[caseIndex + 1] as CaseKind;
     const path = process.argv[caseIndex + 2] ?? '';
-    console.log(JSON.stringify(await measureCase(path, approach)));
+    if (kind === 'api-upload') {
+      const warmUp = Buffer.from(writeDocument(path.endsWith('.tcx') ? 'tcx' : 'gpx', 0.2, 3.2));
+      console.log(JSON.stringify(await measureUploadCase(path, warmUp)));
+      return;
+    }
+    console.log(JSON.stringify(await measureCase(path, kind)));
     return;
   }
   const dir = mkdtempSync(join(tmpdir(), 'pacewright-bench-'));
+  const uploadDatabase = WITH_UPLOAD ? await makeUploadDatabase() : null;
   try {
     const files: string[] = [];
     for (const run of RUNS.filter((r) => ONLY_RUNS === null || ONLY_RUNS.has(r.label))) {
@@ -381,10 +458,15 @@ async function main(): Promise<void> {
       `Node ${process.version}, ${cpus().length} CPUs, ${Math.round(totalmem() / MB / 1024)} GiB; each case in a fresh process, best of ${REPEATS}.\n`,
     );
     const results: CaseResult[] = [];
+    const uploads: UploadComparison[] = [];
     for (const path of files) {
       for (const approach of APPROACHES) {
         process.stderr.write(`  ${path.slice(path.lastIndexOf('/') + 1)} ${approach}…\n`);
         results.push(runBestOf(path, approach));
+      }
+      if (uploadDatabase) {
+        process.stderr.write(`  ${path.slice(path.lastIndexOf('/') + 1)} api-upload…\n`);
+        uploads.push(compareUpload(path, results.at(-APPROACHES.length)!, uploadDatabase.url));
       }
     }
 
@@ -397,6 +479,7 @@ async function main(): Promise<void> {
         'parse ms',
         'analyse ms',
         'total ms',
+        'CPU ms',
         'peak RSS MB',
         'RSS growth MB',
         'km',
@@ -410,6 +493,7 @@ async function main(): Promise<void> {
         String(r.parse_ms),
         dash(r.analyse_ms),
         String(r.total_ms),
+        String(r.cpu_ms),
         String(r.peak_rss_mb),
         String(r.peak_rss_growth_mb),
         r.distance_km === null ? '—' : r.distance_km.toFixed(2),
@@ -448,7 +532,36 @@ async function main(): Promise<void> {
       1,
     );
 
-    const checks = checkTargets(comparisons);
+    if (uploads.length > 0) {
+      console.log('\nThe whole API upload (POST /api/runs, app in-process on a fresh database) beside the pipeline alone:\n');
+      printTable(
+        [
+          'file',
+          'pipeline ms',
+          'upload ms',
+          'body arrived ms',
+          'then answered ms',
+          'upload/pipeline',
+          'pipeline CPU ms',
+          'upload CPU ms',
+          'CPU upload/pipeline',
+        ],
+        uploads.map((u) => [
+          u.file,
+          String(u.pipeline_ms),
+          String(u.upload.total_ms),
+          String(u.upload.receive_ms),
+          String(u.upload.import_ms),
+          `${u.over_pipeline.toFixed(2)}×`,
+          String(u.pipeline_cpu_ms),
+          String(u.upload.cpu_ms),
+          `${u.cpu_over_pipeline.toFixed(2)}×`,
+        ]),
+        1,
+      );
+    }
+
+    const checks = checkTargets(comparisons, uploads);
     console.log(
       `\nTargets (issues 8 and 19), load average ${loadavg()
         .map((l) => l.toFixed(1))
@@ -463,11 +576,13 @@ async function main(): Promise<void> {
         load_average: loadavg(),
         results,
         comparisons,
+        uploads,
         targets: checks,
       }),
     );
   } finally {
     rmSync(dir, { recursive: true, force: true });
+    await uploadDatabase?.drop();
   }
 }
 

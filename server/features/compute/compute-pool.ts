@@ -1,9 +1,10 @@
+import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
 import { defaultComputeThreads } from '../../config.ts';
 import { AppError } from '../../lib/errors.ts';
 import type { PlanCheckComputeInput, PlanCheckComputeOutput } from '../plans/worker.ts';
 import type { ImportComputeInput, ImportComputeOutput } from '../runs/worker.ts';
-import type { ComputeTask } from './compute-worker.ts';
+import type { ComputeJob, ComputeTask } from './compute-worker.ts';
 
 /**
  * The worker-thread pool that does the CPU-heavy work (parsing and analysing uploaded tracks,
@@ -13,11 +14,18 @@ import type { ComputeTask } from './compute-worker.ts';
 export interface ComputeLimits {
   /** Worker threads (COMPUTE_THREADS); the event loop keeps a core of its own when there are two or more. */
   threads: number;
-  /** Longest a job may take, queue wait included, before its worker is stopped. */
+  /**
+   * Longest a job may run in its thread before the thread is stopped: its own run time, counted from
+   * the moment it is handed to a thread. Time spent waiting for a thread or for its user's turn never
+   * counts, so a long file is never refused only because other files were queued ahead of it.
+   */
   jobTimeoutMs: number;
   /** Jobs of one user in the pool at once; the rest of theirs wait their turn, so nobody fills the pool alone. */
   jobsAtOncePerUser: number;
-  /** Jobs waiting for a thread, across users, before new ones are turned away with a 503. */
+  /**
+   * Jobs waiting for a free thread, across users, before new ones are turned away at once with a 503
+   * and Retry-After (ComputeBusyError): the bound on waiting, now that waiting no longer eats a job's time.
+   */
   maxQueue: number;
   /** Heap of one worker, MB: a job that needs more ends its worker instead of the process. */
   workerHeapMb: number;
@@ -31,14 +39,25 @@ export const DEFAULT_COMPUTE_LIMITS: ComputeLimits = {
   workerHeapMb: 1024,
 };
 
+/**
+ * Seconds a client is asked to wait (Retry-After) when the queue is full. Most queued jobs are ordinary
+ * files or plan checks of a fraction of a second each, so a full queue of 64 drains in well under this.
+ */
+export const COMPUTE_BUSY_RETRY_AFTER_SECONDS = 30;
+
 /** The pool cannot take more work now (its queue is full); the client should retry shortly. */
 export class ComputeBusyError extends AppError {
   constructor() {
-    super(503, 'busy', 'Pacewright is busy reading other files just now. Please try again in a minute.');
+    super(
+      503,
+      'busy',
+      'Pacewright is reading a lot of files for other runners just now, so this one was not read or stored. Please send it again in half a minute.',
+    );
+    this.retryAfterSeconds = COMPUTE_BUSY_RETRY_AFTER_SECONDS;
   }
 }
 
-/** A job ran past its time limit and its worker was stopped. */
+/** A job ran past its time limit (its own run time) and its worker was stopped. */
 export class ComputeTimeoutError extends Error {
   constructor(readonly limitMs: number) {
     super(`a compute job ran longer than ${limitMs} ms`);
@@ -51,9 +70,12 @@ export class ComputeCrashError extends Error {}
 const WORKER_FILE = new URL('./compute-worker.ts', import.meta.url).href;
 
 let limits: ComputeLimits = DEFAULT_COMPUTE_LIMITS;
-let pool: Piscina<ComputeTask, unknown> | null = null;
+let pool: Piscina<ComputeJob, unknown> | null = null;
 const running = new Map<string, number>();
 const waiting = new Map<string, Array<() => void>>();
+/** Jobs handed to a thread now (never more than `threads`), and those waiting for one, first come first served. */
+let jobsInThreads = 0;
+const threadQueue: Array<() => void> = [];
 
 /** Changes the limits (server start, tests); a pool already running is replaced on its next job. */
 export function configureComputePool(next: Partial<ComputeLimits>): void {
@@ -61,21 +83,27 @@ export function configureComputePool(next: Partial<ComputeLimits>): void {
   const old = pool;
   pool = null;
   void old?.destroy();
+  handOutThreads();
+}
+
+/** Jobs waiting for a thread now (tests and the README's figures). */
+export function computeJobsWaiting(): number {
+  return threadQueue.length;
 }
 
 export function computeLimits(): ComputeLimits {
   return limits;
 }
 
-function thePool(): Piscina<ComputeTask, unknown> {
-  pool ??= new Piscina<ComputeTask, unknown>({
+function thePool(): Piscina<ComputeJob, unknown> {
+  pool ??= new Piscina<ComputeJob, unknown>({
     filename: WORKER_FILE,
     // Workers load TypeScript the way the server does (node --import tsx), whoever started this process.
     execArgv: ['--import', 'tsx'],
     minThreads: 1,
     maxThreads: limits.threads,
     idleTimeout: 60_000,
-    maxQueue: limits.maxQueue,
+    // No queue of piscina's own: runComputeJob hands it at most `threads` jobs (takeThread).
     resourceLimits: { maxOldGenerationSizeMb: limits.workerHeapMb },
   });
   return pool;
@@ -108,20 +136,57 @@ function endTurn(userId: string): void {
   next?.();
 }
 
-function isQueueFull(err: unknown): boolean {
-  return err instanceof Error && /queue is at limit/i.test(err.message);
+/** Starts waiting jobs while threads are free (a job ended, or the thread count grew). */
+function handOutThreads(): void {
+  while (jobsInThreads < limits.threads && threadQueue.length > 0) {
+    jobsInThreads++;
+    threadQueue.shift()!();
+  }
 }
 
-/** Runs one job for `userId` in the pool, within its time limit; the caller's event loop stays free. */
+/**
+ * Waits for a free thread and counts the job in it. The pool is only ever given as many jobs as it
+ * has threads, so a job's clock starts when it is handed over; a full queue refuses at once.
+ */
+async function takeThread(): Promise<void> {
+  if (jobsInThreads < limits.threads && threadQueue.length === 0) {
+    jobsInThreads++;
+    return;
+  }
+  if (threadQueue.length >= limits.maxQueue) throw new ComputeBusyError();
+  await new Promise<void>((resolve) => threadQueue.push(resolve));
+}
+
+function leaveThread(): void {
+  jobsInThreads--;
+  handOutThreads();
+}
+
+/**
+ * Runs one job for `userId` in the pool, within its time limit (its own run time, not its wait);
+ * the caller's event loop stays free. Throws ComputeBusyError when too many jobs wait already.
+ */
 export async function runComputeJob<T>(userId: string, task: ComputeTask): Promise<T> {
   await takeTurn(userId);
-  const timeoutMs = limits.jobTimeoutMs;
-  const signal = AbortSignal.timeout(timeoutMs);
   try {
-    return (await thePool().run(task, { signal })) as T;
+    await takeThread();
   } catch (err) {
-    if (signal.aborted) throw new ComputeTimeoutError(timeoutMs);
-    if (isQueueFull(err)) throw new ComputeBusyError();
+    endTurn(userId);
+    throw err;
+  }
+  const timeoutMs = limits.jobTimeoutMs;
+  const stop = new AbortController();
+  // The clock starts when the thread starts the job (it says so on `started`), so neither the wait for a
+  // thread nor a new thread loading its code (seconds on a busy machine) counts against the job.
+  const { port1: startedHere, port2: started } = new MessageChannel();
+  let timer: NodeJS.Timeout | undefined;
+  startedHere.once('message', () => {
+    timer = setTimeout(() => stop.abort(), timeoutMs);
+  });
+  try {
+    return (await thePool().run({ task, started }, { signal: stop.signal, transferList: [started] })) as T;
+  } catch (err) {
+    if (stop.signal.aborted) throw new ComputeTimeoutError(timeoutMs);
     if (
       err instanceof Error &&
       /ERR_WORKER_OUT_OF_MEMORY|worker.*(exit|terminat)/i.test(`${(err as { code?: string }).code} ${err.message}`)
@@ -130,6 +195,9 @@ export async function runComputeJob<T>(userId: string, task: ComputeTask): Promi
     }
     throw err;
   } finally {
+    clearTimeout(timer);
+    startedHere.close();
+    leaveThread();
     endTurn(userId);
   }
 }

@@ -3,6 +3,7 @@
  * computation and file reads happen here: no database, no network.
  */
 import { setPriority } from 'node:os';
+import type { MessagePort } from 'node:worker_threads';
 import { computePlanCheck, type PlanCheckComputeInput } from '../plans/worker.ts';
 import { computeImport, type ImportComputeInput } from '../runs/worker.ts';
 
@@ -24,7 +25,15 @@ export type ComputeTask =
   /** Test hook: keeps the thread busy for `ms` of CPU time (proves the event loop stays free). */
   | { kind: 'spin'; ms: number };
 
-export default async function runComputeTask(task: ComputeTask): Promise<unknown> {
+/** What the pool sends a thread: the task, and a port to say when this thread starts it (its time limit starts then). */
+export interface ComputeJob {
+  task: ComputeTask;
+  started: MessagePort;
+}
+
+export default async function runComputeJob({ task, started }: ComputeJob): Promise<unknown> {
+  // The pool closes the channel when the job ends.
+  started.postMessage('started');
   switch (task.kind) {
     case 'import-file':
       return computeImport(task.input);

@@ -1,0 +1,188 @@
+/**
+ * The `api-upload` case of `npm run bench` (issue 19: the whole API upload of the 30 h file at most
+ * 1.3× the pipeline alone). Runs in its own fresh process, started by import-bench.ts:
+ *
+ * the app started in this process on 127.0.0.1 against the bench's fresh, migrated database
+ * (BENCH_DATABASE_URL, made once per `npm run bench`), a new runner signed up through the API, one
+ * warm-up upload of a 12-minute file of the same format (so the compute thread is started and its hot
+ * paths compiled, like the pipeline case's warm-up), then the measured upload: `POST /api/runs` with
+ * the file as a multipart part named "files", as the client sends it, timed from the request's start
+ * to the whole answer. The client is its own process (upload-client.ts), as a browser would be. CPU is
+ * `process.cpuUsage()` of the server's process (event loop and compute thread); PostgreSQL's own CPU
+ * and the client's are not in it.
+ *
+ * The server side is split where the request's body has fully arrived (`receive_ms`: multipart to
+ * disk and its SHA-256) and the rest (`import_ms`: reading in the compute thread, analysis, rows,
+ * one transaction, storing the original, the answer).
+ */
+import { fork, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import type { IncomingMessage, Server } from 'node:http';
+import { tmpdir } from 'node:os';
+import { Session } from 'node:inspector/promises';
+import path from 'node:path';
+import type { UploadClientReply, UploadClientRequest } from './upload-client.ts';
+
+export interface UploadCaseResult {
+  status: number;
+  imported: number;
+  /** Request start → whole answer read, ms. */
+  total_ms: number;
+  /** Request start → the server saw the last byte of the body. */
+  receive_ms: number;
+  /** The server saw the last byte → whole answer read. */
+  import_ms: number;
+  /** process.cpuUsage (user + system) of the server's process during the upload, ms. */
+  cpu_ms: number;
+  /** The same per thread (Linux, 10 ms ticks): the event loop, the compute thread, libuv's and V8's helpers. */
+  cpu_ms_by_thread: Record<string, number>;
+}
+
+async function api<T>(base: string, method: string, urlPath: string, token: string | null, body?: unknown): Promise<T> {
+  const response = await fetch(`${base}${urlPath}`, {
+    method,
+    headers: { 'content-type': 'application/json', ...(token ? { authorization: `Bearer ${token}` } : {}) },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  if (!response.ok) throw new Error(`${method} ${urlPath}: ${response.status} ${await response.text()}`);
+  return (await response.json()) as T;
+}
+
+/** A new runner (sign-up, the link the mail catcher kept, a bearer token). */
+async function signUpRunner(base: string): Promise<string> {
+  const email = `bench-${Date.now().toString(36)}-${process.pid}@pacewright.test`;
+  const password = `bench-${process.pid}-upload-password`;
+  await api(base, 'POST', '/api/auth/register', null, { email, password, name: 'Bench Runner', role: 'runner' });
+  let link: string | undefined;
+  for (let tries = 0; !link; tries++) {
+    if (tries > 300) throw new Error('the sign-up link never reached the mail catcher');
+    const { messages } = await api<{ messages: Array<{ to: string; text: string }> }>(base, 'GET', '/api/dev/outbox', null);
+    link = messages.find((m) => m.to === email)?.text.match(/\/sign-up\/confirm\/(sgn_[A-Za-z0-9_-]+)/)?.[1];
+    if (!link) await new Promise((resolve) => setTimeout(resolve, 50));
+  }
+  await api(base, 'POST', `/api/auth/register/${link}`, null);
+  return (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, { email, password })).token;
+}
+
+const now = (): number => performance.timeOrigin + performance.now();
+
+/** When the server last saw the last byte of an upload's body (ms since the epoch), once one has arrived. */
+function watchBodyEnds(server: Server): () => number | undefined {
+  let last: number | undefined;
+  server.prependListener('request', (req: IncomingMessage) => {
+    if (req.method !== 'POST' || !req.url?.startsWith('/api/runs')) return;
+    req.once('end', () => (last = now()));
+  });
+  return () => last;
+}
+
+/** CPU ms of each thread of this process by thread id (Linux /proc; empty elsewhere), with the thread's name. */
+function threadCpu(): Map<string, { name: string; ms: number }> {
+  const out = new Map<string, { name: string; ms: number }>();
+  if (!existsSync('/proc/self/task')) return out;
+  for (const tid of readdirSync('/proc/self/task')) {
+    try {
+      const stat = readFileSync(`/proc/self/task/${tid}/stat`, 'utf8');
+      const name = stat.slice(stat.indexOf('(') + 1, stat.lastIndexOf(')'));
+      const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      // utime and stime, fields 14 and 15 of stat(5), in clock ticks (100 per second on Linux).
+      out.set(tid, { name, ms: (Number(fields[11]) + Number(fields[12])) * 10 });
+    } catch {
+      // The thread ended meanwhile.
+    }
+  }
+  return out;
+}
+
+/** CPU ms per thread between two threadCpu() readings, largest first, as "name tid: ms". */
+function threadCpuSince(before: Map<string, { name: string; ms: number }>): Record<string, number> {
+  const spent: Array<[string, number]> = [];
+  for (const [tid, now] of threadCpu()) {
+    const ms = now.ms - (before.get(tid)?.ms ?? 0);
+    if (ms > 0) spent.push([`${now.name} ${tid}`, ms]);
+  }
+  return Object.fromEntries(spent.sort((a, b) => b[1] - a[1]));
+}
+
+/**
+ * BENCH_PROFILE=<file>: a CPU profile of the server's event loop (not its compute thread) over the
+ * measured upload only, for finding where the time beyond the pipeline goes (open it in a browser's
+ * developer tools).
+ */
+async function profileEventLoop(file: string | undefined): Promise<() => Promise<void>> {
+  if (!file) return async () => undefined;
+  const session = new Session();
+  session.connect();
+  await session.post('Profiler.enable');
+  await session.post('Profiler.start');
+  return async () => {
+    const { profile } = await session.post('Profiler.stop');
+    writeFileSync(file, JSON.stringify(profile));
+    session.disconnect();
+  };
+}
+
+/** Has the client process send one file and waits for its answer; anything but 201 with one run is an error. */
+function upload(client: ChildProcess, ask: UploadClientRequest): Promise<UploadClientReply> {
+  return new Promise((resolve, reject) => {
+    const onExit = (code: number | null) => reject(new Error(`the upload client stopped (exit code ${code})`));
+    client.once('exit', onExit);
+    client.once('message', (reply: UploadClientReply) => {
+      client.off('exit', onExit);
+      if (reply.status !== 201 || reply.imported !== 1)
+        reject(new Error(`upload of ${ask.name}: ${reply.status} ${reply.problem}`));
+      else resolve(reply);
+    });
+    client.send(ask);
+  });
+}
+
+/** Uploads `warmUp` then the file at `filePath` through the running app; see the module comment. */
+export async function measureUploadCase(filePath: string, warmUp: Buffer): Promise<UploadCaseResult> {
+  const databaseUrl = process.env.BENCH_DATABASE_URL;
+  if (!databaseUrl) throw new Error('the api-upload case needs BENCH_DATABASE_URL (import-bench.ts makes it)');
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-bench-data-'));
+  Object.assign(process.env, {
+    DATABASE_URL: databaseUrl,
+    DATA_DIR: dataDir,
+    HOST: '127.0.0.1',
+    PORT: '0',
+    MAIL_CATCHER_PORT: '0',
+    LOG_LEVEL: process.env.BENCH_LOG_LEVEL ?? 'silent',
+    // No background jobs beside the measured upload (a web process; uploads are a web process's work).
+    ROLE: 'web',
+  });
+  // Imported only now: the server's modules bind to DATABASE_URL when they load.
+  const { startServer } = await import('../../server/index.ts');
+  const server = await startServer();
+  const client = fork(path.join(import.meta.dirname, 'upload-client.ts'), [], { execArgv: ['--import', 'tsx'] });
+  try {
+    const lastBodyEnd = watchBodyEnds(server.server);
+    const token = await signUpRunner(server.url);
+    const warmUpPath = path.join(dataDir, `warm-up${path.extname(filePath)}`);
+    writeFileSync(warmUpPath, warmUp);
+    await upload(client, { base: server.url, token, path: warmUpPath, name: path.basename(warmUpPath) });
+    const stopProfile = await profileEventLoop(process.env.BENCH_PROFILE);
+    const threads0 = threadCpu();
+    const cpu0 = process.cpuUsage();
+    const answer = await upload(client, { base: server.url, token, path: filePath, name: path.basename(filePath) });
+    const cpu = process.cpuUsage(cpu0);
+    const byThread = threadCpuSince(threads0);
+    await stopProfile();
+    const received = lastBodyEnd() ?? Number.NaN;
+    if (!(received > answer.started_at)) throw new Error('the server never saw the end of the upload body');
+    return {
+      status: answer.status,
+      imported: answer.imported,
+      total_ms: Math.round(answer.answered_at - answer.started_at),
+      receive_ms: Math.round(received - answer.started_at),
+      import_ms: Math.round(answer.answered_at - received),
+      cpu_ms: Math.round((cpu.user + cpu.system) / 1000),
+      cpu_ms_by_thread: byThread,
+    };
+  } finally {
+    client.kill();
+    await server.close();
+    rmSync(dataDir, { recursive: true, force: true });
+  }
+}
