@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { CAUTION_TOPICS, type Caution } from './cautions.ts';
+import { FuelItemSchema } from './schemas.ts';
 import type { MealPlan } from './meals.ts';
 import type { Bottle, Course, FuelItemFacts, FuelSchedule, IntakeRule } from './schedule.ts';
 import type { PlannedVsTaken, TakenEntry } from './taken.ts';
@@ -56,15 +57,8 @@ const BottleAnswerSchema = z.object({
   contents: z.array(z.object({ item_id: z.string(), servings: z.number() })),
 });
 
-const FuelItemFactsSchema = z.object({
-  id: z.string(),
-  name: z.string(),
-  serving: z.string(),
-  carbohydrate_g: z.number(),
-  sodium_mg: z.number(),
-  caffeine_mg: z.number(),
-  fluid_ml: z.number(),
-});
+/** A fuel item's facts as the schedule reads them: the fuel item answer itself (shared/fuel/schemas.ts). */
+const FuelItemFactsSchema = FuelItemSchema;
 
 const CourseSchema = z.object({
   distance_m: z.number(),
