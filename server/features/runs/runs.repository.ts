@@ -298,14 +298,8 @@ export interface RunLoadRow {
   trimp: number | null;
 }
 
-/** Several runners' runs between two local dates (inclusive), light rows, in the order they started. */
-export async function listRunLoadsOf(
-  runnerIds: readonly string[],
-  from: string,
-  to: string,
-  trx: Db = readDb(),
-): Promise<RunLoadRow[]> {
-  if (runnerIds.length === 0) return [];
+/** Several runners' runs (not rides or hikes) between two local dates, inclusive, in the order they started. */
+function runsOfRunnersBetween(runnerIds: readonly string[], from: string, to: string, trx: Db) {
   return (
     trx('runs')
       .whereIn('user_id', runnerIds)
@@ -314,7 +308,22 @@ export async function listRunLoadsOf(
       // Rides and hikes stay out of running totals, loads and the week review (issue #14).
       .andWhere('activity_kind', 'run')
       .orderBy('started_at')
-      .select<RunLoadRow[]>('user_id', 'local_date', 'distance_m', trx.raw(TRIMP))
+  );
+}
+
+/** Several runners' runs between two local dates (inclusive), light rows, in the order they started. */
+export async function listRunLoadsOf(
+  runnerIds: readonly string[],
+  from: string,
+  to: string,
+  trx: Db = readDb(),
+): Promise<RunLoadRow[]> {
+  if (runnerIds.length === 0) return [];
+  return runsOfRunnersBetween(runnerIds, from, to, trx).select<RunLoadRow[]>(
+    'user_id',
+    'local_date',
+    'distance_m',
+    trx.raw(TRIMP),
   );
 }
 
@@ -326,16 +335,7 @@ export async function listRunItemsOf(
   trx: Db = readDb(),
 ): Promise<Array<RunListRow & { user_id: string; trimp: number | null }>> {
   if (runnerIds.length === 0) return [];
-  return (
-    trx('runs')
-      .whereIn('user_id', runnerIds)
-      .andWhere('local_date', '>=', from)
-      .andWhere('local_date', '<=', to)
-      // Rides and hikes stay out of running totals, loads and the week review (issue #14).
-      .andWhere('activity_kind', 'run')
-      .orderBy('started_at')
-      .select(...RUN_LIST_COLUMNS, 'user_id', trx.raw(TRIMP))
-  );
+  return runsOfRunnersBetween(runnerIds, from, to, trx).select(...RUN_LIST_COLUMNS, 'user_id', trx.raw(TRIMP));
 }
 
 /** Each runner's latest upload time (runners without runs are left out). */
