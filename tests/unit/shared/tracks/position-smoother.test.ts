@@ -286,7 +286,7 @@ describe('smoothPositionsThroughTurns (process noise raised at turnarounds and t
     const turns = smoothPositionsThroughTurns(line.t, line.lat, line.lon, line.segment, 0.7);
     expect(turns.lat).toEqual(plain.lat);
     expect(turns.lon).toEqual(plain.lon);
-    // A bend of 36.8 m radius at 5 m/s (0.14 rad/s, 40° in the 6 s window): not a manoeuvre.
+    // A bend of 36.8 m radius at 5 m/s (0.136 rad/s, 47° in the 6 s window): not a manoeuvre.
     const random = createPrng(9);
     const scale = metresPerDegree(46);
     const n = 60;
