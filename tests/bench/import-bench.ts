@@ -32,10 +32,8 @@ import { SaxesParser } from 'saxes';
 import { ROOT, startEmbeddedPostgres, withDatabase } from '../../server/cli/lib/postgres.ts';
 import { parseTrackFile } from '../../server/features/runs/parse/parse-track-file.ts';
 import { analyseTrack } from '../../shared/tracks/analyse.ts';
-import { generateLakeRun, longRunPhases, type SyntheticOptions } from '../../shared/tracks/synthetic.ts';
-import type { DeviceLap } from '../../shared/tracks/types.ts';
-import { writeGpx, writeTcx } from '../../shared/tracks/write-track.ts';
 import { analyseBaselineTrack, readBaselineTrack } from './baseline-pipeline.ts';
+import { RUNS, writeDocument } from './bench-files.ts';
 import { measureUploadCase, type UploadCaseResult } from './upload-case.ts';
 
 type Approach = 'pipeline' | 'baseline' | 'floor-saxes' | 'floor-scan';
@@ -83,14 +81,6 @@ interface FileComparison {
   distance_km: { pipeline: number | null; baseline: number | null };
 }
 
-/** Fixed start, seed and noise, so every run benchmarks the same bytes. */
-const START_T = Date.UTC(2024, 8, 14, 6, 30, 0);
-/** 1.6 m/s for 30 h covers 170 km: a 100-mile race with its stops. */
-const RUNS = [
-  { label: '1h', hours: 1, speed: 3.2 },
-  { label: '3h', hours: 3, speed: 3.2 },
-  { label: '30h', hours: 30, speed: 1.6 },
-] as const;
 const FORMATS: readonly Format[] = ['gpx', 'tcx'];
 /** BENCH_RUNS=30h (comma-separated labels) measures only those runs: the issue 19 targets are about the 30 h files. */
 const ONLY_RUNS = process.env.BENCH_RUNS ? new Set(process.env.BENCH_RUNS.split(',').map((label) => label.trim())) : null;
@@ -145,32 +135,6 @@ async function startSampler(): Promise<{ peak: () => number; stop: () => Promise
     worker.once('error', reject);
   });
   return { peak: () => peak[0] ?? 0, stop: () => worker.terminate() };
-}
-
-function writeDocument(format: Format, hours: number, speed: number): string {
-  const options: SyntheticOptions = {
-    start_t: START_T,
-    phases: longRunPhases(hours, speed),
-    seed: 3,
-    gps_sigma_m: 1.5,
-    ele_sigma_m: 1,
-    // Watches write their own running distance into TCX.
-    device_distance: format === 'tcx',
-  };
-  const { points } = generateLakeRun(options);
-  if (format === 'gpx') return writeGpx('Lake Tamsel long run', [points]);
-  // One device lap per hour (the profile's 59 min running + 1 min stop).
-  const laps: DeviceLap[] = [];
-  for (let h = 0; h < Math.ceil(hours); h++) {
-    laps.push({
-      start_t: START_T + h * 3_600_000,
-      total_time_s: 3600,
-      distance_m: speed * 3540,
-      avg_hr: null,
-      max_hr: null,
-    });
-  }
-  return writeTcx(points, laps);
 }
 
 /** What a case computes between reading the file and the end of its clock. */
