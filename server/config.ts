@@ -69,6 +69,11 @@ export interface AppConfig {
    */
   importLease: { leaseSeconds: number; maxAttempts: number };
   /**
+   * When job-running processes send the weekly digests (DIGEST_SCHEDULE, a cron text read in UTC; default
+   * `0 6 * * 1`, Monday 06:00); null when set to `off` (server/features/jobs/README.md).
+   */
+  digestSchedule: string | null;
+  /**
    * The payment service (coach fees, server/features/fees/README.md). `url` null means the real service when a
    * secret key is set in production; outside production `startServer` starts the local fake and puts its address
    * here. `webhookSecret` signs and checks webhook events.
@@ -94,6 +99,25 @@ export const DEFAULT_REPLICA_MAX_LAG_MS = 2_000;
 const WEAK_SECRETS = new Set(['', 'secret', 'changeme', 'change-me', 'dev', 'development']);
 
 export class ConfigError extends Error {}
+
+/** Monday 06:00 UTC: the digest of the week just ended is in the coach's inbox before the new one starts. */
+export const DEFAULT_DIGEST_SCHEDULE = '0 6 * * 1';
+
+/**
+ * DIGEST_SCHEDULE: `off`, or a cron text of five fields (minute hour day-of-month month day-of-week) in UTC. Its
+ * shape is checked here; pg-boss checks the values when the schedule is set (server/features/weeks/digest-job.ts).
+ */
+export function readDigestSchedule(text: string | undefined): string | null {
+  const value = (text ?? '').trim() || DEFAULT_DIGEST_SCHEDULE;
+  if (value.toLowerCase() === 'off') return null;
+  const fields = value.split(/\s+/);
+  if (value.length > 100 || fields.length !== 5 || !fields.every((f) => /^[\w*/,?-]+$/.test(f))) {
+    throw new ConfigError(
+      `DIGEST_SCHEDULE must be "off" or a cron text of five fields in UTC (minute hour day month weekday), e.g. "${DEFAULT_DIGEST_SCHEDULE}" for Monday 06:00; not "${value}".`,
+    );
+  }
+  return fields.join(' ');
+}
 
 /** Reads configuration from the environment. In production a real JWT_SECRET is mandatory. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
@@ -124,6 +148,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   if (!/^\d+$/.test(maxLag) || Number(maxLag) < 1) {
     throw new ConfigError(`DATABASE_REPLICA_MAX_LAG_MS must be a whole number of milliseconds (1 or more), not "${maxLag}".`);
   }
+  const digestSchedule = readDigestSchedule(env.DIGEST_SCHEDULE);
   const role = (env.ROLE || 'all').toLowerCase();
   if (!(PROCESS_ROLES as readonly string[]).includes(role)) {
     throw new ConfigError(
@@ -163,6 +188,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     mailFrom: env.MAIL_FROM ?? 'Pacewright <no-reply@pacewright.test>',
     orphanGraceSeconds: Number(orphanGrace),
     importLease: { leaseSeconds: Number(leaseSeconds), maxAttempts: Number(maxAttempts) },
+    digestSchedule,
     payments: {
       url: env.PAYMENTS_URL || null,
       secretKey: env.STRIPE_SECRET_KEY || (mode === 'production' ? null : 'sk_test_local_fake'),

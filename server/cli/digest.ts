@@ -1,7 +1,8 @@
 /**
- * `npm run digest [-- YYYY-MM-DD]`: e-mails every coach the weekly digest of each of their squads, for the
- * week containing the date (default: today). For a cron job, e.g. Monday 06:00: `npm run digest`.
- * Mail goes to SMTP_URL, or to the running app's local mail catcher in development.
+ * `npm run digest [-- YYYY-MM-DD]`: e-mails every coach the weekly digest of each of their squads now, for the
+ * week containing the date (default: today). The manual trigger: workers also send it on DIGEST_SCHEDULE (default
+ * Monday 06:00 UTC, the week just ended; server/features/jobs/README.md). Mail goes to SMTP_URL, or to the
+ * running app's local mail catcher in development.
  */
 import { startEmbeddedPostgres, usesExternalDatabase, withDatabase } from './lib/postgres.ts';
 
@@ -15,28 +16,19 @@ if (!usesExternalDatabase()) process.env.DATABASE_URL = withDatabase(startEmbedd
 const { loadConfig } = await import('../config.ts');
 const { db } = await import('../lib/db.ts');
 const { createSmtpMailer } = await import('../lib/mailer.ts');
-const { sendSquadDigest } = await import('../features/weeks/digest.service.ts');
+const { sendDigestRound } = await import('../features/weeks/digest.service.ts');
 
 const config = loadConfig();
 const mailer = createSmtpMailer(config);
 let failures = 0;
 try {
-  const squads = await db('squads')
-    .join('users', 'users.id', 'squads.coach_id')
-    .select('squads.id', 'squads.name', 'users.id as coach_id', 'users.role', 'users.notify_on_digest');
-  for (const squad of squads) {
-    // The profile switch (or the digest's one-click unsubscribe) stops the weekly run; "send now" on the squad page still works.
-    if (!squad.notify_on_digest) {
-      console.log(`${squad.name}: the coach switched the digest off; not sent`);
-      continue;
-    }
-    try {
-      const sent = await sendSquadDigest({ id: squad.coach_id, role: squad.role }, squad.id, week, mailer, config);
-      console.log(`${squad.name}: digest for the week of ${sent.week_start} sent to ${sent.sent_to}`);
-    } catch (err) {
+  for (const line of await sendDigestRound(week, mailer, config)) {
+    if (line.outcome === 'sent') console.log(`${line.squad}: digest for the week of ${line.week_start} sent to ${line.sent_to}`);
+    else if (line.outcome === 'off') console.log(`${line.squad}: the coach switched the digest off; not sent`);
+    else {
       failures++;
       const hint = !config.smtpUrl ? ' (is the app running with its mail catcher? Or set SMTP_URL)' : '';
-      console.error(`${squad.name}: the digest could not be sent${hint}: ${(err as Error).message}`);
+      console.error(`${line.squad}: the digest could not be sent${hint}: ${line.error}`);
     }
   }
 } finally {

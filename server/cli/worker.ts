@@ -1,5 +1,5 @@
 /**
- * `npm run worker`: the background jobs (bulk imports, notice and plan-change e-mails, the orphan file
+ * `npm run worker`: the background jobs (bulk imports, notice and plan-change e-mails, weekly digests, the orphan file
  * sweep, the nightly fee reconcile) and no HTTP. Run any number beside web processes started with
  * ROLE=web, all on one DATABASE_URL (README "Scaling out"). Without DATABASE_URL it uses the embedded
  * PostgreSQL, as `npm start` does. Ctrl-C (or SIGTERM) finishes the files in hand and stops.

@@ -56,6 +56,12 @@ export async function startBackgroundJobs({ config, store, mailer, payments }: B
       sweepArchives: (now) => sweepLeftoverArchives(dataDir, now, graceSeconds),
     }),
   });
+  // The weekly digests on DIGEST_SCHEDULE (off: the schedule is removed); `npm run digest` sends them by hand.
+  const { startDigestJob } = await import('../weeks/digest-job.ts');
+  stops.push({
+    name: config.digestSchedule ? `weekly digests (${config.digestSchedule})` : 'weekly digests (off)',
+    ...(await startDigestJob(mailer, config)),
+  });
   // The nightly comparison with the payment service (server/features/fees/README.md).
   if (payments) {
     const { startReconcileJob } = await import('../fees/reconcile-job.ts');

@@ -9,5 +9,5 @@ export {
   squadCoachedOrJoinedBy,
   squadJoinedBy,
 } from './runner-access.ts';
-export { findCoachIdsOfRunner, findSquadById, listMembers } from './squad-reads.service.ts';
+export { findCoachIdsOfRunner, findSquadById, listMembers, listSquadsWithCoach } from './squad-reads.service.ts';
 export { invitationVouchesFor } from './squads.service.ts';

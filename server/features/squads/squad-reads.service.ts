@@ -20,3 +20,8 @@ export function listMembers(
 ): Promise<Array<{ id: string; name: string; email: string; joined_at: Date }>> {
   return squads.listMembers(squadId, trx);
 }
+
+/** Every squad with its coach (role, time zone, whether they take the weekly digest), oldest squad first. */
+export function listSquadsWithCoach(trx?: Db) {
+  return squads.listSquadsWithCoach(trx);
+}

@@ -1,3 +1,4 @@
+import type { Role } from '../../../shared/users/schemas.ts';
 import { db, type Db, type SquadRow, readDb } from '../../lib/db.ts';
 
 /** Ids of the coaches of every squad the runner belongs to now. */
@@ -12,6 +13,21 @@ export async function findCoachIdsOfRunner(runnerId: string, trx: Db = readDb())
 export async function insertSquad(coachId: string, name: string, trx: Db = db) {
   const [row] = await trx('squads').insert({ coach_id: coachId, name }).returning('*');
   return row!;
+}
+
+/** Every squad with its coach's role, time zone and digest switch: the weekly digests' round (primary: no lag). */
+export async function listSquadsWithCoach(trx: Db = db) {
+  return trx('squads')
+    .join('users', 'users.id', 'squads.coach_id')
+    .orderBy('squads.created_at')
+    .select<Array<{ id: string; name: string; coach_id: string; role: Role; time_zone: string; notify_on_digest: boolean }>>(
+      'squads.id',
+      'squads.name',
+      'users.id as coach_id',
+      'users.role',
+      'users.time_zone',
+      'users.notify_on_digest',
+    );
 }
 
 export async function findSquadById(id: string, trx: Db = readDb()) {

@@ -3,11 +3,13 @@ import { groupForDigest } from '../../../shared/weeks/csv.ts';
 import type { Unit } from '../../../shared/users/schemas.ts';
 import type { DigestReceipt } from '../../../shared/weeks/squad-overview.ts';
 import { formatDistanceIn } from '../../../shared/runs/display.ts';
+import { todayIn } from '../../../shared/runs/local-time.ts';
+import { addDays } from '../../../shared/weeks/weeks.ts';
 import type { AppConfig } from '../../config.ts';
 import { escapeHtml, type Mailer } from '../../lib/mailer.ts';
 import { NOTICE_KIND_INFO } from '../../../shared/notices/kinds.ts';
 import { unsubscribeHeaders, unsubscribeLinks } from '../notices/index.ts';
-import { squadCoachedBy } from '../squads/index.ts';
+import { listSquadsWithCoach, squadCoachedBy } from '../squads/index.ts';
 import { findUserById } from '../users/index.ts';
 import { buildSquadOverview, type OverviewRow } from './weeks.service.ts';
 
@@ -101,4 +103,44 @@ export async function sendSquadDigest(
     week_start: weekOf,
     groups: Object.fromEntries(sections.map((s) => [s.heading, s.rows.map((r) => r.runner.name)])),
   };
+}
+
+/** What the round did for one squad, for the command's output and the job's log. */
+export type DigestRoundLine =
+  | { squad: string; outcome: 'sent'; week_start: string; sent_to: string }
+  | { squad: string; outcome: 'off' }
+  | { squad: string; outcome: 'failed'; error: string };
+
+/**
+ * Which week a round sends: a day in it, or `'last'` for the week holding yesterday in the coach's time zone (the
+ * scheduled round: sent early on a Monday it reports the week just ended, not the one just begun).
+ */
+export type DigestRoundWeek = string | 'last' | undefined;
+
+/**
+ * The weekly digest of every squad to its coach (`npm run digest` and the scheduled job, server/features/jobs). A
+ * coach who switched the digest off is skipped ("send now" on the squad page still works); one squad's failure
+ * (mail server down) is reported and the round goes on.
+ */
+export async function sendDigestRound(
+  week: DigestRoundWeek,
+  mailer: Mailer,
+  config: AppConfig,
+  now = new Date(),
+): Promise<DigestRoundLine[]> {
+  const lines: DigestRoundLine[] = [];
+  for (const squad of await listSquadsWithCoach()) {
+    if (!squad.notify_on_digest) {
+      lines.push({ squad: squad.name, outcome: 'off' });
+      continue;
+    }
+    const day = week === 'last' ? addDays(todayIn(squad.time_zone, now.getTime()), -1) : week;
+    try {
+      const sent = await sendSquadDigest({ id: squad.coach_id, role: squad.role }, squad.id, day, mailer, config, now);
+      lines.push({ squad: squad.name, outcome: 'sent', week_start: sent.week_start, sent_to: sent.sent_to });
+    } catch (err) {
+      lines.push({ squad: squad.name, outcome: 'failed', error: (err as Error).message });
+    }
+  }
+  return lines;
 }

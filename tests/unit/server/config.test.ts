@@ -64,3 +64,21 @@ describe('loadConfig', () => {
       expect(() => loadConfig({ IMPORT_MAX_ATTEMPTS: bad })).toThrow(/IMPORT_MAX_ATTEMPTS must be a whole number/);
   });
 });
+
+describe('DIGEST_SCHEDULE', () => {
+  it('defaults to Monday 06:00 UTC, reads "off" as no schedule, keeps a five-field cron text', () => {
+    expect(loadConfig({}).digestSchedule).toBe('0 6 * * 1');
+    expect(loadConfig({ DIGEST_SCHEDULE: '' }).digestSchedule).toBe('0 6 * * 1');
+    expect(loadConfig({ DIGEST_SCHEDULE: 'off' }).digestSchedule).toBeNull();
+    expect(loadConfig({ DIGEST_SCHEDULE: ' OFF ' }).digestSchedule).toBeNull();
+    expect(loadConfig({ DIGEST_SCHEDULE: '30  17 * *  sun' }).digestSchedule).toBe('30 17 * * sun');
+    expect(loadConfig({ DIGEST_SCHEDULE: '*/15 6-8 1,15 * 1-5' }).digestSchedule).toBe('*/15 6-8 1,15 * 1-5');
+  });
+
+  it.each([['every monday'], ['0 6 * *'], ['0 0 6 * * 1'], ['0 6 * * 1; rm'], ['x'.repeat(101)]])(
+    'refuses "%s" with a sentence naming the variable',
+    (text) => {
+      expect(() => loadConfig({ DIGEST_SCHEDULE: text })).toThrow(/DIGEST_SCHEDULE must be "off" or a cron text of five fields/);
+    },
+  );
+});
