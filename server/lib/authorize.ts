@@ -9,6 +9,11 @@ export interface AuthLocals {
   sessionEnded?: boolean;
   /** The `sessions` row of a cookie-authenticated request; null for bearer tokens and the signed out. */
   sessionId?: string | null;
+  /**
+   * The signed-in user's input counter, read with their row (`week_input_counters`: bumped by every write to
+   * their runs, plans, notes and weeks); ready answers are served only while it is unchanged. Null when signed out.
+   */
+  inputsCounter?: string | null;
 }
 
 /**

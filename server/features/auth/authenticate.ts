@@ -4,8 +4,8 @@ import type { AppConfig } from '../../config.ts';
 import type { AuthLocals } from '../../lib/authorize.ts';
 import { UnauthorizedError } from '../../lib/errors.ts';
 import { verifySession } from '../../lib/session.ts';
-import { resolveApiTokenUser } from '../tokens/index.ts';
-import { findSessionUser } from './sessions.repository.ts';
+import { resolveApiToken } from '../tokens/index.ts';
+import { findSessionCaller } from './sessions.repository.ts';
 import { clearSessionCookie } from './sessions.service.ts';
 
 const BEARER = /^Bearer\s+(\S+)$/i;
@@ -20,21 +20,24 @@ export function authenticate(config: AppConfig): RequestHandler {
     const locals = res.locals as AuthLocals;
     locals.actor = null;
     locals.sessionId = null;
+    locals.inputsCounter = null;
     const authorization = req.get('authorization');
     if (authorization) {
       const token = BEARER.exec(authorization)?.[1];
-      // One query for the token and its user: the user row is still read on every request.
-      const user = token ? await resolveApiTokenUser(token) : null;
-      if (!user) throw new UnauthorizedError('This API token is not valid, has been revoked or has expired.', 'invalid-token');
-      locals.actor = user;
+      // One query for the token, its user and their input counter: the user row is still read on every request.
+      const caller = token ? await resolveApiToken(token) : null;
+      if (!caller) throw new UnauthorizedError('This API token is not valid, has been revoked or has expired.', 'invalid-token');
+      locals.actor = caller.user;
+      locals.inputsCounter = caller.inputsCounter;
       return next();
     }
     const sessionToken = (req.cookies as Record<string, string | undefined>)[SESSION_COOKIE];
     if (sessionToken) {
       const claims = verifySession(sessionToken, config);
-      const user = claims ? await findSessionUser(claims.sessionId, claims.userId, new Date()) : undefined;
-      if (user && claims) {
-        locals.actor = user;
+      const caller = claims ? await findSessionCaller(claims.sessionId, claims.userId, new Date()) : undefined;
+      if (caller && claims) {
+        locals.actor = caller.user;
+        locals.inputsCounter = caller.inputsCounter;
         locals.sessionId = claims.sessionId;
       } else {
         locals.sessionEnded = true;

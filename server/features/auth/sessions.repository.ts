@@ -12,13 +12,32 @@ export async function insertSession(userId: string, expiresAt: Date, trx: Db = d
  * every request so role changes and deletions apply at once; the join adds the session check).
  */
 export async function findSessionUser(sessionId: string, userId: string, now: Date, trx: Db = db): Promise<UserRow | undefined> {
+  return (await findSessionCaller(sessionId, userId, now, trx))?.user;
+}
+
+/**
+ * The user of a live session and their input counter (`week_input_counters`, 0 before their first counted
+ * write), in the one query every cookie request makes (ready answers check the counter, server/features/week-cache).
+ */
+export async function findSessionCaller(
+  sessionId: string,
+  userId: string,
+  now: Date,
+  trx: Db = db,
+): Promise<{ user: UserRow; inputsCounter: string } | undefined> {
   if (!UUID.test(sessionId) || !UUID.test(userId)) return undefined;
-  return (await trx('sessions')
+  const row = (await trx('sessions')
     .join('users', 'users.id', 'sessions.user_id')
+    .leftJoin('week_input_counters', 'week_input_counters.runner_id', 'users.id')
     .where('sessions.id', sessionId)
     .andWhere('sessions.user_id', userId)
     .andWhere('sessions.expires_at', '>', now)
-    .first('users.*')) as UserRow | undefined;
+    .first('users.*', trx.raw('coalesce(week_input_counters.counter, 0)::text as inputs_counter'))
+    // A named (prepared) statement: every cookie request sends it, and planning it cost more than running it.
+    .options({ name: 'authenticate-session' })) as (UserRow & { inputs_counter: string }) | undefined;
+  if (!row) return undefined;
+  const { inputs_counter: inputsCounter, ...user } = row;
+  return { user, inputsCounter };
 }
 
 export async function deleteSession(sessionId: string, trx: Db = db): Promise<void> {

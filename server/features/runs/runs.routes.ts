@@ -13,7 +13,7 @@ import {
   UploadRunsQuerySchema,
   StorageUsageSchema,
 } from '../../../shared/runs/schemas.ts';
-import { createApiRouter } from '../../lib/api-router.ts';
+import { createApiRouter, sendReadyJson } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
@@ -30,6 +30,8 @@ import {
   importFiles,
   listRuns,
   originalFileOf,
+  readyRunList,
+  readyRunPage,
   renameOwnRun,
   splitsCsvOf,
   storageOf,
@@ -114,7 +116,10 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       response: RunPageSchema,
     },
     async (_req, res) => {
-      res.json(await listRuns(requireActor(res), res.locals.query));
+      const actor = requireActor(res);
+      const { inputsCounter } = res.locals;
+      if (inputsCounter) sendReadyJson(res, await readyRunList(actor, inputsCounter, res.locals.query));
+      else res.json(await listRuns(actor, res.locals.query));
     },
   );
 
@@ -130,7 +135,10 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       params: { id: parseIdParam },
     },
     async (req, res) => {
-      res.json(await describeRun(requireActor(res), req.params.id));
+      const actor = requireActor(res);
+      const { inputsCounter } = res.locals;
+      if (inputsCounter) sendReadyJson(res, await readyRunPage(actor, inputsCounter, req.params.id));
+      else res.json(await describeRun(actor, req.params.id));
     },
   );
 

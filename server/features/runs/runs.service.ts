@@ -31,6 +31,7 @@ import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
 import { ComputeBusyError, ComputeCrashError, ComputeTimeoutError, computeImportJob } from '../compute/index.ts';
 import { assertCanReadRunner } from '../squads/index.ts';
+import { readyAnswer, type ReadyAnswer } from '../week-cache/index.ts';
 import { decodeColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
 import { findReadNoteIds } from '../notes/index.ts';
@@ -377,6 +378,27 @@ export async function describeRun(actor: Actor, runId: string) {
     // Stored JSON written at import (see above); the API tests parse every answer against RunDetailSchema.
     details: run.details as RunDetail['details'],
   };
+}
+
+/**
+ * The run page as ready JSON: kept per run for its owner at their input counter (server/features/week-cache,
+ * "Ready answers"); anyone else's read (a coach, an admin) is built and checked each time.
+ */
+export function readyRunPage(actor: Actor, inputsCounter: string, runId: string): Promise<ReadyAnswer> {
+  return readyAnswer(`run-page:${runId}`, actor.id, inputsCounter, async () => {
+    const answer = await describeRun(actor, runId);
+    return { owner: answer.owner_id, answer };
+  });
+}
+
+/** The runs list as ready JSON: the caller's own list is kept per query at their input counter; other lists are built each time. */
+export function readyRunList(actor: Actor, inputsCounter: string, query: ListRunsQuery): Promise<ReadyAnswer> {
+  const ownerId = query.runner_id ?? actor.id;
+  // The parsed query (every field, defaults filled in, in the schema's order) names the page.
+  return readyAnswer(`run-list:${actor.id}:${JSON.stringify(query)}`, actor.id, inputsCounter, async () => ({
+    owner: ownerId,
+    answer: await listRuns(actor, query),
+  }));
 }
 
 export async function splitsCsvOf(actor: Actor, runId: string, unit: SplitUnit): Promise<{ csv: string; filename: string }> {

@@ -21,21 +21,33 @@ export async function insertApiToken(
   return row as ApiTokenRow;
 }
 
-/** The user behind the live (unexpired) token with this hash, and when the token was last marked used. */
+/**
+ * The user behind the live (unexpired) token with this hash, when the token was last marked used, and the
+ * user's input counter (`week_input_counters`, 0 before their first counted write): the one query every
+ * bearer request makes, so ready answers (server/features/week-cache) need no query of their own to check it.
+ */
 export async function findLiveApiTokenUser(
   tokenHash: string,
   now: Date,
   trx: Db = db,
-): Promise<{ user: UserRow; tokenId: string; lastUsedAt: Date | null } | undefined> {
+): Promise<{ user: UserRow; tokenId: string; lastUsedAt: Date | null; inputsCounter: string } | undefined> {
   const row = (await trx('api_tokens')
     .join('users', 'users.id', 'api_tokens.user_id')
+    .leftJoin('week_input_counters', 'week_input_counters.runner_id', 'users.id')
     .where('api_tokens.token_hash', tokenHash)
     .andWhere('api_tokens.expires_at', '>', now)
-    .first('users.*', 'api_tokens.id as token_id', 'api_tokens.last_used_at as token_last_used_at')) as
-    (UserRow & { token_id: string; token_last_used_at: Date | null }) | undefined;
+    .first(
+      'users.*',
+      'api_tokens.id as token_id',
+      'api_tokens.last_used_at as token_last_used_at',
+      trx.raw('coalesce(week_input_counters.counter, 0)::text as inputs_counter'),
+    )
+    // A named (prepared) statement: every bearer request sends it, and planning it cost more than running it.
+    .options({ name: 'authenticate-api-token' })) as
+    (UserRow & { token_id: string; token_last_used_at: Date | null; inputs_counter: string }) | undefined;
   if (!row) return undefined;
-  const { token_id: tokenId, token_last_used_at: lastUsedAt, ...user } = row;
-  return { user, tokenId, lastUsedAt };
+  const { token_id: tokenId, token_last_used_at: lastUsedAt, inputs_counter: inputsCounter, ...user } = row;
+  return { user, tokenId, lastUsedAt, inputsCounter };
 }
 
 /** Marks the token used at `now`, unless that was already recorded after `since`. */

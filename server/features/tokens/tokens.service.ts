@@ -52,14 +52,22 @@ export async function issueApiToken(
  */
 const LAST_USED_RESOLUTION_MS = 60_000;
 
-/** The user behind a bearer token, or null when it is unknown, revoked or expired. */
-export async function resolveApiTokenUser(token: string, now = new Date()): Promise<UserRow | null> {
+/**
+ * The user behind a bearer token and their input counter (the change counter of their runs, plans and weeks,
+ * server/features/week-cache), or null when the token is unknown, revoked or expired.
+ */
+export async function resolveApiToken(token: string, now = new Date()): Promise<{ user: UserRow; inputsCounter: string } | null> {
   if (!token.startsWith(TOKEN_PREFIX)) return null;
   const found = await findLiveApiTokenUser(hashApiToken(token), now);
   if (!found) return null;
   const since = new Date(now.getTime() - LAST_USED_RESOLUTION_MS);
   if (!found.lastUsedAt || found.lastUsedAt < since) await markApiTokenUsed(found.tokenId, now, since);
-  return found.user;
+  return { user: found.user, inputsCounter: found.inputsCounter };
+}
+
+/** The user behind a bearer token, or null when it is unknown, revoked or expired. */
+export async function resolveApiTokenUser(token: string, now = new Date()): Promise<UserRow | null> {
+  return (await resolveApiToken(token, now))?.user ?? null;
 }
 
 export async function listTokensOf(userId: string, now = new Date()): Promise<ApiToken[]> {

@@ -13,3 +13,4 @@ export {
   type WeekCacheEntry,
   type WeekCacheKey,
 } from './week-cache.service.ts';
+export { forgetReadyAnswers, readyAnswer, type ReadyAnswer } from './ready-answers.ts';

@@ -90,3 +90,11 @@ export async function storeWeeks(
 export async function forgetWeeksNaming(userId: string, trx: Db = db): Promise<void> {
   await trx('assembled_weeks').whereRaw('strpos(body::text, ?) > 0', [userId]).delete();
 }
+
+/** One runner's input counter (0 before their first counted write); a replica may serve it. */
+export async function readInputsCounter(runnerId: string, trx: Db = readDb()): Promise<string> {
+  const row = (await trx('week_input_counters').where({ runner_id: runnerId }).first(trx.raw('counter::text as counter'))) as
+    | { counter: string }
+    | undefined;
+  return row?.counter ?? '0';
+}
