@@ -47,10 +47,14 @@ export interface WeekCacheEntry {
 
 export const weekCacheKeyText = (k: WeekCacheKey) => `${k.runner_id}|${k.week_start}|${k.variant}`;
 
-/** The runners' counters and their stored weeks still valid for them, in one query. */
+/**
+ * The runners' counters and their stored weeks still valid for them, in one query. `keptAt` (key text → counter)
+ * names weeks this process already keeps: their bodies are not read again while the counter is the same.
+ */
 export async function readWeekCache(
   keys: readonly WeekCacheKey[],
   codeVersion: string,
+  keptAt: ReadonlyMap<string, string> = new Map(),
   trx: Db = readDb(),
 ): Promise<Map<string, WeekCacheEntry>> {
   if (keys.length === 0) return new Map();
@@ -59,11 +63,18 @@ export async function readWeekCache(
   }>(
     `select k.runner_id, k.week_start::text as week_start, k.variant, coalesce(c.counter, 0)::text as counter,
             w.body, w.today::text as today
-     from unnest(?::uuid[], ?::date[], ?::text[]) as k(runner_id, week_start, variant)
+     from unnest(?::uuid[], ?::date[], ?::text[], ?::text[]) as k(runner_id, week_start, variant, kept_at)
      left join week_input_counters c on c.runner_id = k.runner_id
      left join assembled_weeks w on w.runner_id = k.runner_id and w.week_start = k.week_start and w.variant = k.variant
-       and w.counter = coalesce(c.counter, 0) and w.code_version = ?`,
-    [keys.map((k) => k.runner_id), keys.map((k) => k.week_start), keys.map((k) => k.variant), codeVersion],
+       and w.counter = coalesce(c.counter, 0) and w.code_version = ?
+       and k.kept_at is distinct from coalesce(c.counter, 0)::text`,
+    [
+      keys.map((k) => k.runner_id),
+      keys.map((k) => k.week_start),
+      keys.map((k) => k.variant),
+      keys.map((k) => keptAt.get(weekCacheKeyText(k)) ?? ''),
+      codeVersion,
+    ],
   );
   return new Map(
     rows.map((r) => [
@@ -86,15 +97,23 @@ export async function storeWeeks(
     .where('assembled_weeks.counter', '<=', trx.raw('excluded.counter'));
 }
 
-/** Drops every stored week that names the user (a coach's notes or review in a runner's week): account deletion. */
+/**
+ * Drops every stored week that names the user (a coach's notes or review in a runner's week): account deletion.
+ * Their runners' counters move on too, so no web process goes on serving a week it keeps in memory.
+ */
 export async function forgetWeeksNaming(userId: string, trx: Db = db): Promise<void> {
-  await trx('assembled_weeks').whereRaw('strpos(body::text, ?) > 0', [userId]).delete();
+  await trx.raw(
+    `with named as (delete from assembled_weeks where strpos(body::text, ?) > 0 returning runner_id)
+     insert into week_input_counters (runner_id, counter)
+     select distinct runner_id, 1 from named
+     on conflict (runner_id) do update set counter = week_input_counters.counter + 1`,
+    [userId],
+  );
 }
 
 /** One runner's input counter (0 before their first counted write); a replica may serve it. */
 export async function readInputsCounter(runnerId: string, trx: Db = readDb()): Promise<string> {
   const row = (await trx('week_input_counters').where({ runner_id: runnerId }).first(trx.raw('counter::text as counter'))) as
-    | { counter: string }
-    | undefined;
+    { counter: string } | undefined;
   return row?.counter ?? '0';
 }

@@ -27,9 +27,52 @@ export function bumpWeekInputsOfCoachedRunners(coachId: string, trx?: Db): Promi
 export function readWeekCache(
   keys: readonly WeekCacheKey[],
   codeVersion: string,
+  keptAt?: ReadonlyMap<string, string>,
   trx?: Db,
 ): Promise<Map<string, WeekCacheEntry>> {
-  return cache.readWeekCache(keys, codeVersion, trx);
+  return cache.readWeekCache(keys, codeVersion, keptAt, trx);
+}
+
+/** Assembled weeks this process keeps (beside the stored ones), so a week still valid is not read again. */
+export const KEPT_WEEKS_MAX = 4_000;
+
+interface KeptWeek {
+  counter: string;
+  codeVersion: string;
+  today: string;
+  body: unknown;
+}
+
+const keptWeeks = new Map<string, KeptWeek>();
+
+/** The week this process keeps for `key`, whatever its counter (the caller compares), or undefined. */
+export function keptWeek(key: WeekCacheKey): KeptWeek | undefined {
+  const text = cache.weekCacheKeyText(key);
+  const kept = keptWeeks.get(text);
+  if (kept) {
+    // Most recently used last: the map's order is the eviction order.
+    keptWeeks.delete(text);
+    keptWeeks.set(text, kept);
+  }
+  return kept;
+}
+
+/** Keeps a week built or read at `counter` (never replacing one kept at a newer counter). */
+export function keepWeek(key: WeekCacheKey, week: KeptWeek): void {
+  const text = cache.weekCacheKeyText(key);
+  const kept = keptWeeks.get(text);
+  if (kept && BigInt(kept.counter) > BigInt(week.counter)) return;
+  keptWeeks.delete(text);
+  keptWeeks.set(text, week);
+  for (const oldest of keptWeeks.keys()) {
+    if (keptWeeks.size <= KEPT_WEEKS_MAX) break;
+    keptWeeks.delete(oldest);
+  }
+}
+
+/** Forgets every kept week (account deletion: a kept week may name the deleted user). */
+export function forgetKeptWeeks(): void {
+  keptWeeks.clear();
 }
 
 /** Stores built weeks; a week built at an older counter never replaces one built at a newer. */
@@ -42,5 +85,6 @@ export function storeWeeks(
 
 /** Drops every stored week that names the user: account deletion. */
 export function forgetWeeksNaming(userId: string, trx?: Db): Promise<void> {
+  forgetKeptWeeks();
   return cache.forgetWeeksNaming(userId, trx);
 }

@@ -1,5 +1,30 @@
-import { db, type Db, type NoteConcern, readDb } from '../../lib/db.ts';
+import { db, type Db, type NoteConcern, readDb, type UserRow } from '../../lib/db.ts';
 import { bumpWeekInputs } from '../week-cache/index.ts';
+
+/**
+ * A runner's row, the coaches of their squads now (the access rule's input) and their input counter
+ * (`week_input_counters`, read before any of the week's data), in one prepared query; undefined when there is
+ * no such user.
+ */
+export async function findWeekRunner(
+  runnerId: string,
+  trx: Db = readDb(),
+): Promise<{ runner: UserRow; coachIds: string[]; counter: string } | undefined> {
+  const { rows } = await trx
+    .raw<{ rows: Array<UserRow & { coach_ids: string[]; inputs_counter: string }> }>(
+      `select u.*, coalesce(c.counter, 0)::text as inputs_counter,
+            array(select distinct s.coach_id from squad_members m join squads s on s.id = m.squad_id
+                  where m.runner_id = u.id and s.coach_id is not null) as coach_ids
+     from users u left join week_input_counters c on c.runner_id = u.id
+     where u.id = ?`,
+      [runnerId],
+    )
+    .options({ name: 'week-runner' });
+  const row = rows[0];
+  if (!row) return undefined;
+  const { coach_ids: coachIds, inputs_counter: counter, ...runner } = row;
+  return { runner, coachIds, counter };
+}
 
 /** Reviews of several runners' weeks (each runner's own week start is among `weekStarts`). */
 export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts: readonly string[], trx: Db = readDb()) {

@@ -1,5 +1,5 @@
 import type { SquadOverview, SquadOverviewRow } from '../../../shared/weeks/squad-overview.ts';
-import type { Actor } from '../../../shared/auth/permissions.ts';
+import { canReadRunnerData, type Actor } from '../../../shared/auth/permissions.ts';
 import { expandParts } from '../../../shared/plans/expand.ts';
 import { racePacesFor } from '../../../shared/plans/race-paces.ts';
 import { plannedVolume } from '../../../shared/plans/weeks.ts';
@@ -29,8 +29,15 @@ import { lastUploadsOf, listRunItemsOf, listRunLoadsOf, toRunListItem } from '..
 import { assertCanReadRunner, squadCoachedBy } from '../squads/index.ts';
 import { findCoachIdsOfRunner, listMembers } from '../squads/index.ts';
 import { findUserById, findUsersByIds } from '../users/index.ts';
-import { readWeekCache, storeWeeks, weekCacheKeyText } from '../week-cache/index.ts';
-import { deleteWeekReview, findWeekReviewsOf, insertWeekNote, listWeekNotes, upsertWeekReview } from './weeks.repository.ts';
+import { keepWeek, keptWeek, readWeekCache, storeWeeks, weekCacheKeyText } from '../week-cache/index.ts';
+import {
+  deleteWeekReview,
+  findWeekReviewsOf,
+  findWeekRunner,
+  insertWeekNote,
+  listWeekNotes,
+  upsertWeekReview,
+} from './weeks.repository.ts';
 
 const EASY_KINDS = new Set(['easy', 'recovery jog', 'warm-up', 'cool-down']);
 const TREND_WEEKS = 12;
@@ -293,13 +300,33 @@ function variantOf(frame: WeekFrame, forReview: boolean, viewer: WeekViewer): st
  * The counters are read before anything the weeks are built from, so a week is never stored under a counter
  * newer than its data.
  */
-async function cachedWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekViewer): Promise<RunnerWeek[]> {
+async function cachedWeeks(
+  frames: WeekFrame[],
+  forReview: boolean,
+  viewer: WeekViewer,
+  /** The runners' counters when the caller has just read them (before any of the weeks' data). */
+  knownCounters?: ReadonlyMap<string, string>,
+): Promise<RunnerWeek[]> {
   const version = weekCodeVersion();
   if (version === null) return withUnreadMarkers(await buildWeeks(frames, forReview, viewer), viewer);
   const keys = frames.map((f) => ({ runner_id: f.runner.id, week_start: f.start, variant: variantOf(f, forReview, viewer) }));
-  const cache = await readWeekCache(keys, version);
+  // Weeks this process keeps, still good for the runner's local date and this code.
+  const kept = keys.map((k, i) => {
+    const week = keptWeek(k);
+    return week && week.codeVersion === version && week.today === frames[i]!.today ? week : undefined;
+  });
+  const allKeptNow = knownCounters !== undefined && keys.every((k, i) => kept[i]?.counter === knownCounters.get(k.runner_id));
+  if (allKeptNow)
+    return withUnreadMarkers(
+      kept.map((w) => w!.body as RunnerWeek),
+      viewer,
+    );
+
+  const keptAt = new Map(keys.flatMap((k, i) => (kept[i] ? [[weekCacheKeyText(k), kept[i].counter] as const] : [])));
+  const cache = await readWeekCache(keys, version, keptAt);
   const entries = keys.map((k) => cache.get(weekCacheKeyText(k)));
-  const lacking = frames.filter((f, i) => entries[i]?.stored?.today !== f.today);
+  const fromKept = (i: number) => (kept[i] && kept[i].counter === entries[i]?.counter ? kept[i] : undefined);
+  const lacking = frames.filter((f, i) => !fromKept(i) && entries[i]?.stored?.today !== f.today);
   const built = new Map((await buildWeeks(lacking, forReview, viewer)).map((w) => [w.runner_id, w]));
   await storeWeeks(
     frames.flatMap((f, i) => {
@@ -309,7 +336,13 @@ async function cachedWeeks(frames: WeekFrame[], forReview: boolean, viewer: Week
         : [];
     }),
   ).catch((err: unknown) => logger.warn({ err }, 'storing assembled weeks failed'));
-  const weeks = frames.map((f, i) => built.get(f.runner.id) ?? (entries[i]!.stored!.body as RunnerWeek));
+  const weeks = frames.map((f, i) => {
+    const week =
+      built.get(f.runner.id) ?? (fromKept(i)?.body as RunnerWeek | undefined) ?? (entries[i]!.stored!.body as RunnerWeek);
+    // Kept at the counter read before the week's data, as it is stored.
+    keepWeek(keys[i]!, { counter: entries[i]?.counter ?? '0', codeVersion: version, today: f.today, body: week });
+    return week;
+  });
   return withUnreadMarkers(weeks, viewer);
 }
 
@@ -364,16 +397,20 @@ function fuelTakenSummary(row: FuelTakenRow, planned: WeekFuelTaken['planned']):
  * verdicts, totals, long run, load, flags (shared/weeks/week-review.ts), a 12-week trend, notes and reviews.
  */
 export async function buildRunnerWeek(
-  actor: Actor,
+  /** The reader: their row's unit when the caller has it (the signed-in user's row), else it is read. */
+  actor: Actor & { unit?: 'km' | 'mi' },
   runnerId: string,
   requestedStart: string | undefined,
   now = new Date(),
 ): Promise<RunnerWeek> {
-  await assertCanReadRunner(actor, runnerId);
-  const [runner, reader] = await Promise.all([findUserById(runnerId), findUserById(actor.id)]);
-  if (!runner) throw new NotFoundError();
-  const viewer = { id: actor.id, unit: reader?.unit ?? runner.unit };
-  const [week] = await cachedWeeks([frameOf(runner, requestedStart, now)], true, viewer);
+  // The runner, who coaches them and their counter in one query; the access rule is the one every read uses.
+  const found = await findWeekRunner(runnerId);
+  if (!canReadRunnerData(actor, runnerId, found?.coachIds ?? [])) throw new NotFoundError();
+  if (!found) throw new NotFoundError();
+  const { runner, counter } = found;
+  const readerUnit = actor.unit ?? (actor.id === runnerId ? runner.unit : (await findUserById(actor.id))?.unit);
+  const viewer = { id: actor.id, unit: readerUnit ?? runner.unit };
+  const [week] = await cachedWeeks([frameOf(runner, requestedStart, now)], true, viewer, new Map([[runnerId, counter]]));
   return week!;
 }
 
@@ -422,7 +459,8 @@ function missedKeySessions(week: RunnerWeek): number {
 
 /** One row per squad runner for the week containing `week` (each runner's own week start). */
 export async function buildSquadOverview(
-  actor: Actor,
+  /** The reader: their row's unit when the caller has it (the signed-in user's row), else it is read. */
+  actor: Actor & { unit?: 'km' | 'mi' },
   squadId: string,
   week: string | undefined,
   now = new Date(),
@@ -435,8 +473,8 @@ export async function buildSquadOverview(
     const user = users.get(m.id);
     return user ? [frameOf(user, week, now)] : [];
   });
-  const coach = await findUserById(actor.id);
-  const weeks = await cachedWeeks(frames, false, { id: actor.id, unit: coach?.unit ?? 'km' });
+  const coachUnit = actor.unit ?? (await findUserById(actor.id))?.unit;
+  const weeks = await cachedWeeks(frames, false, { id: actor.id, unit: coachUnit ?? 'km' });
   const rows: OverviewRow[] = weeks.map((w) => {
     const s = w.totals.sessions;
     return {
