@@ -35,11 +35,13 @@ import { gzipSync } from 'node:zlib';
 import autocannon from 'autocannon';
 import knexFactory from 'knex';
 import { LOAD_PASSWORD, loadCoachEmail, loadRunnerEmail } from '../../db/load/load-plan.ts';
+import { DEMO_PEOPLE } from '../../db/seeds/01_demo_people.ts';
 import { buildClientIfStale } from '../../server/cli/lib/client-build.ts';
 import { ROOT, startEmbeddedPostgres, withDatabase } from '../../server/cli/lib/postgres.ts';
 import { generateLakeRun, longRunPhases } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import type { UploadDriverMessage, UploadDriverReply, UploadDriverResult } from './upload-driver.ts';
+import { UploadTally } from './upload-tally.ts';
 
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
@@ -50,8 +52,6 @@ const UPLOADS_AT_ONCE_PER_RUNNER = 2;
 const ROUNDS = new Set((process.env.LOAD_ROUNDS ?? 'signin,runs,run,week,squad,busy,uploads').split(',').map((k) => k.trim()));
 /** Runners uploading 100-mile files, one file at a time each, during the `busy` rounds. */
 const UPLOADERS = Number(process.env.LOAD_UPLOADERS ?? 3);
-/** No single upload may take longer than this; the round as a whole is bounded by it too. */
-const UPLOAD_TIMEOUT_MS = 180_000;
 /** After a round, wait this long at most for requests the server still holds (Knex gives up on a connection after 60 s). */
 const DRAIN_TIMEOUT_MS = 75_000;
 
@@ -64,6 +64,9 @@ const TARGET_P99_MS: Record<string, number> = {
 };
 /** Issue 19: reads' p99 while 100-mile uploads run, at most this many times the same reads without them. */
 const TARGET_BUSY_RATIO = 2;
+/** The sign-in round's accounts on a `seed:load` data set: its runners 1…50 (the default LOAD_RUNNERS). */
+const SIGN_IN_ACCOUNTS = Number(process.env.LOAD_SIGN_IN_ACCOUNTS_COUNT ?? 50);
+const SIGN_IN_CLIENT = path.join(ROOT, 'tests/bench/sign-in-client.cjs');
 /** Issue 8. */
 const TARGET_FIRST_PAGE_GZIP_KB = 250;
 
@@ -77,6 +80,8 @@ interface RoundResult {
   p99_ms: number;
   max_ms: number;
   non_2xx: number;
+  /** Answers by status as the server sent them during the round (a non-2xx count says which). */
+  statuses: Record<string, number>;
   errors: number;
   timeouts: number;
   status_5xx: number;
@@ -120,7 +125,17 @@ const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-load-data-'));
 const loaded = process.env.LOAD_DATABASE_URL;
 
 async function prepareDatabase(): Promise<{ url: string; drop: (() => Promise<void>) | null }> {
-  if (loaded) return { url: loaded, drop: null };
+  if (loaded) {
+    // A data set built by an older checkout lacks the newer tables (sign-up answered 500 without them): migrate it first.
+    console.log('Migrating LOAD_DATABASE_URL to this checkout (nothing to do when it is up to date)…');
+    const migrated = spawnSync(process.execPath, ['--import', 'tsx', 'server/cli/db.ts', 'migrate'], {
+      cwd: ROOT,
+      stdio: 'inherit',
+      env: { ...process.env, DATABASE_URL: loaded },
+    });
+    if (migrated.status !== 0) throw new Error('migrating LOAD_DATABASE_URL failed; the load was not measured');
+    return { url: loaded, drop: null };
+  }
   const serverUrl = startEmbeddedPostgres([]);
   const name = `pacewright_load_${runId}`;
   const admin = knexFactory({ client: 'pg', connection: withDatabase(serverUrl, 'postgres') });
@@ -155,7 +170,7 @@ async function api<T>(base: string, method: string, urlPath: string, token: stri
 }
 
 /** Requests in the server and 5xx answers, counted on the server's side of the socket. */
-const serverSide = { inFlight: 0, status5xx: 0, uploadsInFlight: 0 };
+const serverSide = { inFlight: 0, status5xx: 0, uploadsInFlight: 0, statuses: {} as Record<string, number> };
 
 function watchServer(server: Server): void {
   server.prependListener('request', (req: IncomingMessage, res: ServerResponse) => {
@@ -172,6 +187,7 @@ function watchServer(server: Server): void {
         serverSide.inFlight--;
         if (upload) serverSide.uploadsInFlight--;
         if (res.statusCode >= 500) serverSide.status5xx++;
+        if (!upload) serverSide.statuses[res.statusCode] = (serverSide.statuses[res.statusCode] ?? 0) + 1;
       }
       return end(...args);
     }) as ServerResponse['end'];
@@ -229,12 +245,13 @@ function startCpuMeter(databaseUrl: string): () => Promise<void> {
 async function round(
   base: string,
   name: string,
-  options: { method?: 'GET' | 'POST'; path: string; token?: string; body?: unknown },
+  options: { method?: 'GET' | 'POST'; path: string; token?: string; body?: unknown; setupClient?: string },
 ) {
   const method = options.method ?? 'GET';
   const headers: Record<string, string> = { 'content-type': 'application/json' };
   if (options.token) headers.authorization = `Bearer ${options.token}`;
   const before5xx = serverSide.status5xx;
+  const statusesBefore = { ...serverSide.statuses };
   const cpuBefore = await cpuMeter.snapshot();
   const result = await autocannon({
     url: `${base}${options.path}`,
@@ -245,6 +262,8 @@ async function round(
     duration: SECONDS,
     workers: 1,
     timeout: 10,
+    // In workers mode autocannon takes the setup as a file its worker requires (its types know only the function form).
+    ...(options.setupClient ? { setupClient: options.setupClient as unknown as (client: autocannon.Client) => void } : {}),
   });
   const drained = await drain();
   const cpuAfter = await cpuMeter.snapshot();
@@ -253,6 +272,8 @@ async function round(
   // Backends that started during the round count from zero; one that ended during it is missed (the pool keeps them).
   let backendMs: number | null = cpuAfter.backends.size ? 0 : null;
   for (const [pid, ms] of cpuAfter.backends) backendMs! += ms - (cpuBefore.backends.get(pid) ?? 0);
+  const statuses = { ...serverSide.statuses };
+  for (const [status, n] of Object.entries(statusesBefore)) statuses[status] = (statuses[status] ?? 0) - n;
   const summary: RoundResult = {
     name,
     method,
@@ -263,6 +284,7 @@ async function round(
     p99_ms: result.latency.p99,
     max_ms: result.latency.max,
     non_2xx: result.non2xx,
+    statuses: Object.fromEntries(Object.entries(statuses).filter(([, n]) => n > 0)),
     errors: result.errors,
     timeouts: result.timeouts,
     status_5xx: result['5xx'],
@@ -277,6 +299,7 @@ async function round(
   };
   console.log(
     `  ${name.padEnd(28)} ${String(summary.rps).padStart(6)} req/s  p50 ${summary.p50_ms} ms  p99 ${summary.p99_ms} ms  non-2xx ${summary.non_2xx}` +
+      (summary.non_2xx > 0 ? ` (server sent ${JSON.stringify(summary.statuses)})` : '') +
       `  server 5xx ${summary.server_5xx}  still in the server at the end ${summary.in_flight_at_end} (drained in ${summary.drain_ms} ms)` +
       `  CPU per request: server ${summary.server_cpu_ms_per_request ?? '?'} ms, PostgreSQL ${summary.db_cpu_ms_per_request ?? '?'} ms` +
       `  load ${summary.load_average}`,
@@ -381,45 +404,20 @@ async function uploadRound(base: string): Promise<UploadResult> {
   for (let r = 0; r < Math.ceil(UPLOADS / UPLOADS_AT_ONCE_PER_RUNNER); r++)
     tokens.push(await freshRunnerToken(base, `upload-${r + 1}`));
   const files = Array.from({ length: UPLOADS }, (_, k) => threeHourFile(k));
-  const statuses: Record<string, number> = {};
-  const latencies: number[] = [];
-  let stored = 0;
+  const tally = new UploadTally();
   const t0 = performance.now();
   await Promise.all(
-    files.map(async (data, k) => {
-      const form = new FormData();
-      form.append('files', new Blob([data], { type: 'application/gpx+xml' }), `load-${k + 1}.gpx`);
-      const started = performance.now();
-      try {
-        const response = await fetch(`${base}/api/runs`, {
-          method: 'POST',
-          headers: { authorization: `Bearer ${tokens[Math.floor(k / UPLOADS_AT_ONCE_PER_RUNNER)]}` },
-          body: form,
-          signal: AbortSignal.timeout(UPLOAD_TIMEOUT_MS),
-        });
-        const body = (await response.json()) as { imported?: unknown[] };
-        statuses[response.status] = (statuses[response.status] ?? 0) + 1;
-        if (response.status === 201 && body.imported?.length === 1) stored++;
-      } catch (error) {
-        // fetch's TypeError says only "fetch failed"; its cause names the socket error.
-        const cause = error instanceof Error ? (error.cause as { code?: string; message?: string } | undefined) : undefined;
-        const key = error instanceof Error ? `${error.name}${cause ? ` (${cause.code ?? cause.message})` : ''}` : 'error';
-        statuses[key] = (statuses[key] ?? 0) + 1;
-      }
-      latencies.push(performance.now() - started);
-    }),
+    files.map((data, k) => tally.upload(base, tokens[Math.floor(k / UPLOADS_AT_ONCE_PER_RUNNER)]!, data, `load-${k + 1}.gpx`)),
   );
   const wall = performance.now() - t0;
-  latencies.sort((a, b) => a - b);
   let total = 0;
   for (const token of tokens) total += (await api<{ total: number }>(base, 'GET', '/api/runs', token)).total;
   return {
     files: UPLOADS,
-    stored,
-    statuses,
+    stored: tally.stored,
+    statuses: tally.statuses,
     wall_ms: Math.round(wall),
-    p50_ms: Math.round(latencies[Math.floor(latencies.length / 2)] ?? 0),
-    max_ms: Math.round(latencies[latencies.length - 1] ?? 0),
+    ...tally.spread(),
     runs_after: total,
   };
 }
@@ -465,6 +463,12 @@ async function main(): Promise<void> {
   const coach = loaded
     ? { email: loadCoachEmail(1), password: LOAD_PASSWORD }
     : { email: 'coach@harborline.test', password: 'harbor-coach-demo' };
+  // Each connection of the sign-in round signs in as its own account (sign-in-client.cjs says why).
+  process.env.LOAD_SIGN_IN_ACCOUNTS = JSON.stringify(
+    loaded
+      ? Array.from({ length: SIGN_IN_ACCOUNTS }, (_, k) => ({ email: loadRunnerEmail(k + 1), password: LOAD_PASSWORD }))
+      : DEMO_PEOPLE.map((p) => ({ email: p.email, password: p.password })),
+  );
   try {
     const runnerToken = (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, runner)).token;
     const coachToken = (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, coach)).token;
@@ -486,7 +490,11 @@ async function main(): Promise<void> {
     );
 
     const planned: Array<{ key: string; name: string; options: Parameters<typeof round>[2] }> = [
-      { key: 'signin', name: 'sign-in', options: { method: 'POST', path: '/api/auth/login', body: runner } },
+      {
+        key: 'signin',
+        name: 'sign-in',
+        options: { method: 'POST', path: '/api/auth/login', body: runner, setupClient: SIGN_IN_CLIENT },
+      },
       { key: 'runs', name: 'runs list', options: { path: '/api/runs', token: runnerToken } },
       { key: 'run', name: 'run page', options: { path: `/api/runs/${latest.id}`, token: runnerToken } },
       {

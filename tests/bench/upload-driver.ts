@@ -14,6 +14,7 @@
  */
 import { generateLakeRun, longRunPhases } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
+import { UploadTally } from './upload-tally.ts';
 
 export interface UploadDriverResult {
   /** Uploads answered (any status) while the round ran. */
@@ -29,7 +30,6 @@ export type UploadDriverMessage = { type: 'start'; base: string; tokens: string[
 export type UploadDriverReply = { type: 'ready' } | { type: 'started' } | { type: 'stopped'; result: UploadDriverResult };
 
 const START_T = Date.UTC(2024, 8, 14, 6, 30, 0);
-const UPLOAD_TIMEOUT_MS = 180_000;
 
 // The bench's 30 h GPX (import-bench.ts writeDocument, same seed and noise).
 const { points } = generateLakeRun({
@@ -56,34 +56,12 @@ function fileOfYear(year: number): Uint8Array<ArrayBuffer> {
 }
 
 let stopping = false;
-const statuses: Record<string, number> = {};
-const latencies: number[] = [];
-let stored = 0;
+let tally = new UploadTally();
 
 async function uploadLoop(base: string, token: string): Promise<void> {
   // A fresh account per uploader: years 2023, 2022, … keep each of its files a different run.
-  for (let year = 2023; !stopping && year > 1900; year--) {
-    const form = new FormData();
-    form.append('files', new Blob([fileOfYear(year)], { type: 'application/gpx+xml' }), `100-mile-${year}.gpx`);
-    const started = performance.now();
-    try {
-      const response = await fetch(`${base}/api/runs`, {
-        method: 'POST',
-        headers: { authorization: `Bearer ${token}` },
-        body: form,
-        signal: AbortSignal.timeout(UPLOAD_TIMEOUT_MS),
-      });
-      const body = (await response.json()) as { imported?: unknown[] };
-      statuses[response.status] = (statuses[response.status] ?? 0) + 1;
-      if (response.status === 201 && body.imported?.length === 1) stored++;
-    } catch (error) {
-      // fetch's TypeError says only "fetch failed"; its cause names the socket error.
-      const cause = error instanceof Error ? (error.cause as { code?: string; message?: string } | undefined) : undefined;
-      const key = error instanceof Error ? `${error.name}${cause ? ` (${cause.code ?? cause.message})` : ''}` : 'error';
-      statuses[key] = (statuses[key] ?? 0) + 1;
-    }
-    latencies.push(performance.now() - started);
-  }
+  for (let year = 2023; !stopping && year > 1900; year--)
+    await tally.upload(base, token, fileOfYear(year), `100-mile-${year}.gpx`);
 }
 
 let loops: Promise<void>[] = [];
@@ -91,21 +69,17 @@ let loops: Promise<void>[] = [];
 process.on('message', (message: UploadDriverMessage) => {
   if (message.type === 'start') {
     stopping = false;
-    stored = 0;
-    latencies.length = 0;
-    for (const key of Object.keys(statuses)) delete statuses[key];
+    tally = new UploadTally();
     loops = message.tokens.map((token) => uploadLoop(message.base, token));
     process.send!({ type: 'started' } satisfies UploadDriverReply);
   } else if (message.type === 'stop') {
     stopping = true;
     void Promise.all(loops).then(() => {
-      const sorted = [...latencies].sort((a, b) => a - b);
       const result: UploadDriverResult = {
-        uploads: sorted.length,
-        stored,
-        statuses: { ...statuses },
-        p50_ms: Math.round(sorted[Math.floor(sorted.length / 2)] ?? 0),
-        max_ms: Math.round(sorted[sorted.length - 1] ?? 0),
+        uploads: tally.latencies.length,
+        stored: tally.stored,
+        statuses: { ...tally.statuses },
+        ...tally.spread(),
         file_mb: Math.round((template.length / 1024 / 1024) * 10) / 10,
       };
       process.send!({ type: 'stopped', result } satisfies UploadDriverReply);
