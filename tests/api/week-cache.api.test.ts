@@ -265,9 +265,11 @@ describe('assembled weeks in the cache', { timeout: 60_000 }, () => {
     const counted = (pattern: RegExp) => sql.filter((s) => pattern.test(s) && !/api_tokens/.test(s)).length;
     await overview();
     expect(await db('assembled_weeks').count({ n: '*' }).first()).toEqual({ n: '4' });
-    // All four stored: one query for counters and weeks, none of the week's own tables read.
+    // All four stored (and kept by this process): one query for the runners and their counters, none of the
+    // week's own tables read, no stored week read again.
     await overview();
     expect(counted(/week_input_counters/)).toBe(1);
+    expect(counted(/assembled_weeks/)).toBe(0);
     expect(counted(/from "runs"|from runs/)).toBe(0);
     expect(counted(/session_plans/)).toBe(0);
     // One runner's plan changes: only that week is built again (the plans read once, for that runner).
@@ -286,7 +288,9 @@ describe('assembled weeks in the cache', { timeout: 60_000 }, () => {
       );
     });
     const body = await overview();
-    expect(counted(/week_input_counters/)).toBe(1);
+    // The runners with their counters, then the one changed runner's counter and stored week (it has none).
+    expect(counted(/week_input_counters/)).toBe(2);
+    expect(sql.find((s) => /assembled_weeks/.test(s) && !/insert/.test(s))).toMatch(/unnest/);
     expect(counted(/session_plans/)).toBeGreaterThan(0);
     const planQuery = sql.find((s) => /from "session_plans"/.test(s) && /"session_plans"\."runner_id" in \(\$\d+\)/.test(s));
     expect(planQuery, 'plans read for the one lacking runner only').toBeDefined();

@@ -65,7 +65,7 @@ const TARGET_P99_MS: Record<string, number> = {
 /** Issue 19: reads' p99 while 100-mile uploads run, at most this many times the same reads without them. */
 const TARGET_BUSY_RATIO = 2;
 /** The sign-in round's accounts on a `seed:load` data set: its runners 1…50 (the default LOAD_RUNNERS). */
-const SIGN_IN_ACCOUNTS = Number(process.env.LOAD_SIGN_IN_ACCOUNTS_COUNT ?? 50);
+const SIGN_IN_ACCOUNTS = 50;
 const SIGN_IN_CLIENT = path.join(ROOT, 'tests/bench/sign-in-client.cjs');
 /** Issue 8. */
 const TARGET_FIRST_PAGE_GZIP_KB = 250;

@@ -26,6 +26,27 @@ export async function findWeekRunner(
   return { runner, coachIds, counter };
 }
 
+/**
+ * A squad's runners (full rows, by name) with their input counters, in one prepared query: the squad overview
+ * reads them before any of the weeks' data. Who may read the squad is checked before (squadCoachedBy).
+ */
+export async function listSquadRunners(
+  squadId: string,
+  trx: Db = readDb(),
+): Promise<Array<{ runner: UserRow; counter: string }>> {
+  const { rows } = await trx
+    .raw<{ rows: Array<UserRow & { inputs_counter: string }> }>(
+      `select u.*, coalesce(c.counter, 0)::text as inputs_counter
+       from squad_members m join users u on u.id = m.runner_id
+       left join week_input_counters c on c.runner_id = u.id
+       where m.squad_id = ?
+       order by u.name, u.id`,
+      [squadId],
+    )
+    .options({ name: 'squad-runners' });
+  return rows.map(({ inputs_counter: counter, ...runner }) => ({ runner, counter }));
+}
+
 /** Reviews of several runners' weeks (each runner's own week start is among `weekStarts`). */
 export async function findWeekReviewsOf(runnerIds: readonly string[], weekStarts: readonly string[], trx: Db = readDb()) {
   if (runnerIds.length === 0) return [];

@@ -14,6 +14,7 @@ import { HIGH_SORENESS } from '../../../shared/notices/batching.ts';
 import { longRunPlanId, summariseWeek, type WeekPlan, type WeekRun } from '../../../shared/weeks/week-review.ts';
 import { addDays, weekDates, weekStart } from '../../../shared/weeks/weeks.ts';
 import type { FuelTakenRow, NoteConcern, SessionPlanRow, UserRow } from '../../lib/db.ts';
+import { replicaReadContext } from '../../lib/db.ts';
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { recordNoteNotice, type NoticeDeps } from '../notices/index.ts';
@@ -27,13 +28,14 @@ import { listDayMarksOf } from '../plans/index.ts';
 import { checkRuns, runnerCheckInputs, type RunnerCheckInputs } from '../plans/index.ts';
 import { lastUploadsOf, listRunItemsOf, listRunLoadsOf, toRunListItem } from '../runs/index.ts';
 import { assertCanReadRunner, squadCoachedBy } from '../squads/index.ts';
-import { findCoachIdsOfRunner, listMembers } from '../squads/index.ts';
-import { findUserById, findUsersByIds } from '../users/index.ts';
+import { findCoachIdsOfRunner } from '../squads/index.ts';
+import { findUserById } from '../users/index.ts';
 import { keepWeek, keptWeek, readWeekCache, storeWeeks, weekCacheKeyText } from '../week-cache/index.ts';
 import {
   deleteWeekReview,
   findWeekReviewsOf,
   findWeekRunner,
+  listSquadRunners,
   insertWeekNote,
   listWeekNotes,
   upsertWeekReview,
@@ -322,20 +324,39 @@ async function cachedWeeks(
       viewer,
     );
 
+  // Counters and stored weeks are read for the weeks not kept at the counters the caller just read.
+  const keptNow = (i: number) => knownCounters !== undefined && kept[i]?.counter === knownCounters.get(keys[i]!.runner_id);
+  const toRead = keys.filter((_, i) => !keptNow(i));
   const keptAt = new Map(keys.flatMap((k, i) => (kept[i] ? [[weekCacheKeyText(k), kept[i].counter] as const] : [])));
-  const cache = await readWeekCache(keys, version, keptAt);
-  const entries = keys.map((k) => cache.get(weekCacheKeyText(k)));
+  const cache = await readWeekCache(toRead, version, keptAt);
+  const entries = keys.map((k, i) => (keptNow(i) ? { counter: kept[i]!.counter, stored: null } : cache.get(weekCacheKeyText(k))));
   const fromKept = (i: number) => (kept[i] && kept[i].counter === entries[i]?.counter ? kept[i] : undefined);
-  const lacking = frames.filter((f, i) => !fromKept(i) && entries[i]?.stored?.today !== f.today);
-  const built = new Map((await buildWeeks(lacking, forReview, viewer)).map((w) => [w.runner_id, w]));
-  await storeWeeks(
-    frames.flatMap((f, i) => {
-      const week = built.get(f.runner.id);
-      return week
-        ? [{ ...keys[i]!, counter: entries[i]?.counter ?? '0', code_version: version, today: f.today, body: week }]
-        : [];
-    }),
-  ).catch((err: unknown) => logger.warn({ err }, 'storing assembled weeks failed'));
+  const lackingAt = frames.flatMap((f, i) => (!fromKept(i) && entries[i]?.stored?.today !== f.today ? [i] : []));
+  const built = await buildOnce(
+    lackingAt.map((i) => `${weekCacheKeyText(keys[i]!)}@${entries[i]?.counter ?? '0'}/${frames[i]!.today}`),
+    async () => {
+      const weeks = new Map(
+        (
+          await buildWeeks(
+            lackingAt.map((i) => frames[i]!),
+            forReview,
+            viewer,
+          )
+        ).map((w) => [w.runner_id, w]),
+      );
+      // Stored once by the request that built them, under the counters read before their data.
+      await storeWeeks(
+        lackingAt.map((i) => ({
+          ...keys[i]!,
+          counter: entries[i]?.counter ?? '0',
+          code_version: version,
+          today: frames[i]!.today,
+          body: weeks.get(frames[i]!.runner.id)!,
+        })),
+      ).catch((err: unknown) => logger.warn({ err }, 'storing assembled weeks failed'));
+      return weeks;
+    },
+  );
   const weeks = frames.map((f, i) => {
     const week =
       built.get(f.runner.id) ?? (fromKept(i)?.body as RunnerWeek | undefined) ?? (entries[i]!.stored!.body as RunnerWeek);
@@ -344,6 +365,24 @@ async function cachedWeeks(
     return week;
   });
   return withUnreadMarkers(weeks, viewer);
+}
+
+/** Builds of weeks under way in this process, by the weeks, counters, dates and the database read. */
+const weeksBuilding = new Map<string, Promise<Map<string, RunnerWeek>>>();
+
+/**
+ * Runs `build` once for requests arriving together that lack the same weeks at the same counters (a squad's
+ * first read of a week sends many such at once): the others wait for that build instead of repeating it.
+ */
+function buildOnce(weeks: string[], build: () => Promise<Map<string, RunnerWeek>>): Promise<Map<string, RunnerWeek>> {
+  if (weeks.length === 0) return Promise.resolve(new Map());
+  const key = `${replicaReadContext.getStore() ? 'replica' : 'primary'}|${weeks.join(',')}`;
+  let building = weeksBuilding.get(key);
+  if (!building) {
+    building = build().finally(() => weeksBuilding.delete(key));
+    weeksBuilding.set(key, building);
+  }
+  return building;
 }
 
 /** Marks the notes the viewer has not read (written by someone else, no read row), with one query for all weeks. */
@@ -466,15 +505,17 @@ export async function buildSquadOverview(
   now = new Date(),
 ): Promise<SquadOverview> {
   const squad = await squadCoachedBy(actor, squadId, { adminMayRead: true });
-  // Every member's data is readable here: the actor coaches this squad or is an admin.
-  const members = await listMembers(squadId);
-  const users = new Map((await findUsersByIds(members.map((m) => m.id))).map((u) => [u.id, u]));
-  const frames = members.flatMap((m) => {
-    const user = users.get(m.id);
-    return user ? [frameOf(user, week, now)] : [];
-  });
+  // Every member's data is readable here: the actor coaches this squad or is an admin. Their rows and counters
+  // come in one query, before any of the weeks' data.
+  const members = await listSquadRunners(squadId);
+  const frames = members.map((m) => frameOf(m.runner, week, now));
   const coachUnit = actor.unit ?? (await findUserById(actor.id))?.unit;
-  const weeks = await cachedWeeks(frames, false, { id: actor.id, unit: coachUnit ?? 'km' });
+  const weeks = await cachedWeeks(
+    frames,
+    false,
+    { id: actor.id, unit: coachUnit ?? 'km' },
+    new Map(members.map((m) => [m.runner.id, m.counter])),
+  );
   const rows: OverviewRow[] = weeks.map((w) => {
     const s = w.totals.sessions;
     return {
