@@ -168,6 +168,7 @@ export function thirdDifferenceVariance(
   segmentStart: ArrayLike<number>,
   lag: number,
   intervalMs: number,
+  counted?: { samples: number },
 ): number {
   const n = t.length;
   if (n < 3 * lag + 1 || !(intervalMs > 0)) return Number.NaN;
@@ -190,6 +191,7 @@ export function thirdDifferenceVariance(
     third[m++] = Math.abs(dLat * north);
     third[m++] = Math.abs(dLon * east);
   }
+  if (counted) counted.samples = m;
   if (m < 20) return Number.NaN;
   const spread = median(third, m) / 0.6744897501960817;
   return spread * spread;
@@ -203,6 +205,21 @@ export function thirdDifferenceVariance(
  * step noise by under 10 %.
  */
 export const WANDER_CORRELATION_S = 60;
+
+/**
+ * A wander is measured only when the lag-2 variance exceeds the lag-1 one by this many standard errors
+ * of their difference (common practice: a 3σ test).
+ */
+export const WANDER_SIGNIFICANCE = 3;
+
+/**
+ * Relative standard error of a variance estimated from m absolute values by their median (the MAD
+ * estimate of σ has asymptotic variance 1.3605 σ²/m for normal data: Rousseeuw & Croux 1993, JASA 88,
+ * "Alternatives to the median absolute deviation"; the variance's relative error is twice the σ's).
+ */
+function wanderVariableError(samples: number): number {
+  return samples > 0 ? 2 * Math.sqrt(1.3605 / samples) : Number.POSITIVE_INFINITY;
+}
 
 /**
  * Splits the file's own jitter into white jitter and a slow wander from third differences at lags of
@@ -221,9 +238,15 @@ export function measureWander(
   tauS = WANDER_CORRELATION_S,
 ): WanderModel | null {
   const intervalMs = jitter.median_interval_s * 1000;
-  const v1 = thirdDifferenceVariance(t, lat, lon, segmentStart, 1, intervalMs);
-  const v2 = thirdDifferenceVariance(t, lat, lon, segmentStart, 2, intervalMs);
+  const at1 = { samples: 0 };
+  const at2 = { samples: 0 };
+  const v1 = thirdDifferenceVariance(t, lat, lon, segmentStart, 1, intervalMs, at1);
+  const v2 = thirdDifferenceVariance(t, lat, lon, segmentStart, 2, intervalMs, at2);
   if (!Number.isFinite(v1) || !Number.isFinite(v2)) return null;
+  // A difference within the sampling error of the two variances is not a wander: on a short track of
+  // white jitter alone it would read as metres of wander (σ² = D·τ/2 multiplies the error by τ/(12 Δt)).
+  const standardError = Math.hypot(v1 * wanderVariableError(at1.samples), v2 * wanderVariableError(at2.samples));
+  if (v2 - v1 < WANDER_SIGNIFICANCE * standardError) return { white_m: Math.sqrt(v1 / 20), sigma_m: 0, tau_s: tauS };
   const density = Math.max(0, (v2 - v1) / (6 * jitter.median_interval_s));
   const white = Math.max(0, (2 * v1 - v2) / 20);
   return { white_m: Math.sqrt(white), sigma_m: Math.sqrt((density * tauS) / 2), tau_s: tauS };
@@ -475,6 +498,35 @@ export function findManoeuvres(
 }
 
 /**
+ * Points near a stop's edges: where the first pass's smoothed speed crosses `TURN_MIN_SPEED_MPS`,
+ * widened by half `TURN_WINDOW_S` and `TURN_MARGIN_S` either side. A runner stops and starts within a
+ * second or two, far above the cut-off of one process noise: the smoothed path would creep on into the
+ * stop for seconds (counted as moving time). Returns 1 per such point, or null when there is none.
+ */
+export function findStopEdges(
+  t: ArrayLike<number>,
+  east_mps: ArrayLike<number>,
+  north_mps: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+): Uint8Array | null {
+  const n = t.length;
+  const reachMs = (TURN_WINDOW_S / 2 + TURN_MARGIN_S) * 1000;
+  const min2 = TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS;
+  let marks: Uint8Array | null = null;
+  for (let i = 1; i < n; i++) {
+    if (segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S) continue;
+    const a = (east_mps[i - 1] as number) ** 2 + (north_mps[i - 1] as number) ** 2 >= min2;
+    const b = (east_mps[i] as number) ** 2 + (north_mps[i] as number) ** 2 >= min2;
+    if (a === b) continue;
+    marks ??= new Uint8Array(n);
+    const ti = t[i] as number;
+    for (let j = i; j >= 0 && (t[j] as number) >= ti - reachMs; j--) marks[j] = 1;
+    for (let j = i + 1; j < n && (t[j] as number) <= ti + reachMs; j++) marks[j] = 1;
+  }
+  return marks;
+}
+
+/**
  * `smoothPositions` that lets the velocity turn at turnarounds and tight corners. With one process
  * noise for the whole run, the smoother is a low-pass filter of cut-off ω_c = (q/r)^¼ (module comment):
  * a runner going round a 6 m turnaround at 3 m/s turns at 0.5 rad/s, near that cut-off, so the smoothed
@@ -505,14 +557,59 @@ export function smoothPositionsThroughTurns(
     east[i] = first.sv[2 * i] as number;
     north[i] = first.sv[2 * i + 1] as number;
   }
-  const marks = findManoeuvres(t, east, north, segmentStart);
-  if (!marks) return fromPlane(plane, first);
+  const turns = findManoeuvres(t, east, north, segmentStart);
+  const stops = findStopEdges(t, east, north, segmentStart);
+  const marks = turns && stops ? turns.map((mark, i) => mark | (stops[i] as number)) : (turns ?? stops);
+  if (!marks) return { ...fromPlane(plane, first), manoeuvre: null, turn: null };
   const qSteps = new Float64Array(n).fill(q);
   // The step into point i is inside the manoeuvre when both its ends are.
   const qTurn = Math.max(q, r * TURN_CUTOFF_RAD_S ** 4);
   for (let i = 1; i < n; i++) if (marks[i] && marks[i - 1]) qSteps[i] = qTurn;
   const second = smoothInPlane(t, plane, segmentStart, r, q, qSteps, { marks, into: first });
-  return fromPlane(plane, second);
+  const manoeuvre = new Uint8Array(n);
+  for (let i = 1; i < n; i++) manoeuvre[i] = qSteps[i] === q ? 0 : 1;
+  return { ...fromPlane(plane, second), manoeuvre, turn: turns };
+}
+
+/** Bends whose smoother gain is below this are not corrected by `bendGainFactors` (not a steady turn). */
+export const MIN_BEND_GAIN = 0.8;
+
+/**
+ * Factor by which each smoothed step (interval i) falls short of the runner's path on a steady bend.
+ * The smoother with one process noise is linear and time-invariant away from a stretch's ends, with
+ * frequency response H(ω) = 1 / (1 + (ω/ω_c)⁴), ω_c = (q/r)^¼ (module comment; the unit test checks it
+ * against the smoother's own weights). A circle run at angular rate ω is a complex exponential in the
+ * plane, so the smoother returns the same circle with its radius times H(ω): every step on a bend is
+ * H(ω) of the true one (a 400 m track's bend at 5 m/s with 0.75 m of jitter: −0.4 %). The step gets
+ * 1 / H(ω), with ω the turn of the smoothed velocity over the step. Steps inside a manoeuvre (their own
+ * process noise, a short turn, not a steady circle), slow steps (no heading), gaps, breaks and turns
+ * whose gain is under `MIN_BEND_GAIN` get 1.
+ */
+export function bendGainFactors(
+  t: ArrayLike<number>,
+  smooth: SmoothedPositions,
+  segmentStart: ArrayLike<number>,
+  moving: ArrayLike<number>,
+  sigmaM: number,
+  q = ACCELERATION_DENSITY,
+): Float64Array {
+  const n = t.length;
+  const factors = new Float64Array(n).fill(1);
+  const cutoff = (q / (sigmaM * sigmaM)) ** 0.25;
+  const minSpeed2 = TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS;
+  for (let i = 1; i < n; i++) {
+    const dt = ((t[i] as number) - (t[i - 1] as number)) / 1000;
+    if (!moving[i] || segmentStart[i] || dt > MAX_SMOOTHED_INTERVAL_S || smooth.manoeuvre?.[i]) continue;
+    const ax = smooth.east_mps[i - 1] as number;
+    const ay = smooth.north_mps[i - 1] as number;
+    const bx = smooth.east_mps[i] as number;
+    const by = smooth.north_mps[i] as number;
+    if (ax * ax + ay * ay < minSpeed2 || bx * bx + by * by < minSpeed2) continue;
+    const omega = Math.abs(Math.atan2(ax * by - ay * bx, ax * bx + ay * by)) / dt;
+    const loss = (omega / cutoff) ** 4;
+    if (1 / (1 + loss) >= MIN_BEND_GAIN) factors[i] = 1 + loss;
+  }
+  return factors;
 }
 
 export interface SmoothedPositions {
@@ -521,6 +618,10 @@ export interface SmoothedPositions {
   /** Smoothed velocity east and north, m/s (the second half of each smoothed state). */
   east_mps: Float64Array;
   north_mps: Float64Array;
+  /** From `smoothPositionsThroughTurns`: 1 where the step into point i had the manoeuvre's process noise. */
+  manoeuvre?: Uint8Array | null;
+  /** From `smoothPositionsThroughTurns`: 1 per point inside a turn (`findManoeuvres`), null without any. */
+  turn?: Uint8Array | null;
 }
 
 /** Filter and smooth points [from, to) of both axes; the covariances are shared by the axes. */

@@ -10,6 +10,7 @@ import { geodesicDistance } from './geodesy.ts';
 import type { PointColumns } from './point-columns.ts';
 import {
   arcFactors,
+  bendGainFactors,
   curveFactors,
   localDistance,
   MAX_SMOOTHED_INTERVAL_S,
@@ -133,10 +134,23 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       // Noisy 1–2 s track: moving time and distance from the smoothed path (position-smoother.ts),
       // so standing jitter neither counts as moving nor adds length; the raw sum is kept for the report.
       const smooth = smoothPositionsThroughTurns(t, lat, lon, segmentBreak, jitter.sigma_m);
-      const displacement = (a: number, b: number): number =>
+      const chord = (a: number, b: number): number =>
         approxDistance(smooth.lat[a] as number, smooth.lon[a] as number, smooth.lat[b] as number, smooth.lon[b] as number);
+      // Inside a turn the window is judged on the smoothed path's length, not the straight line between
+      // its ends: on a 6 m turnaround that line is the 12 m diameter whatever the speed, under the
+      // moving threshold of a file with about 1 m of jitter, and the running round it was lost.
+      const along = new Float64Array(n);
+      const turnsUpTo = new Int32Array(n);
+      for (let i = 1; i < n; i++) {
+        along[i] = (along[i - 1] as number) + chord(i - 1, i);
+        turnsUpTo[i] = (turnsUpTo[i - 1] as number) + (smooth.turn?.[i] ?? 0);
+      }
+      const displacement = (a: number, b: number): number =>
+        turnsUpTo[b] !== turnsUpTo[a] ? (along[b] as number) - (along[a] as number) : chord(a, b);
       classifyMoving(t, segmentOf, displacement, moving, noiseAwareMovingSpeed(jitter.sigma_m));
       const bends = arcFactors(t, smooth.lat, smooth.lon, segmentBreak, moving);
+      // The smoother draws a steady bend on a smaller radius (`bendGainFactors`): given back per step.
+      const gains = bendGainFactors(t, smooth, segmentBreak, moving, jitter.sigma_m);
       const chords = new Float64Array(n);
       for (let i = 1; i < n; i++)
         if (moving[i])
@@ -157,7 +171,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
           const dt = (t[i] as number) - (t[i - 1] as number);
           // Only steps of the usual interval: the variance is that of one such step.
           const noise = dt <= 1.5 * intervalMs ? stepNoise * (dt / intervalMs) ** 2 : 0;
-          step = (bends[i] as number) * stepWithoutNoise(chords[i] as number, noise);
+          step = (bends[i] as number) * (gains[i] as number) * stepWithoutNoise(chords[i] as number, noise);
           raw += localDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number);
         }
         d[i] = (d[i - 1] as number) + step;

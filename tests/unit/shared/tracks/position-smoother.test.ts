@@ -1,9 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { geodesicDistance } from '../../../../shared/tracks/geodesy.ts';
 import {
+  ACCELERATION_DENSITY,
   arcFactors,
+  bendGainFactors,
   curveFactors,
   findManoeuvres,
+  findStopEdges,
   hermiteLength,
   localDistance,
   measureJitter,
@@ -14,6 +17,7 @@ import {
   smoothedStepNoiseVariance,
   smoothPositions,
   smoothPositionsThroughTurns,
+  smootherWeights,
   stepWithoutNoise,
 } from '../../../../shared/tracks/position-smoother.ts';
 import { createPrng } from '../../../../shared/tracks/synthetic.ts';
@@ -304,6 +308,69 @@ describe('smoothPositionsThroughTurns (process noise raised at turnarounds and t
     const bendPlain = smoothPositions(t, lat, lon, segment, 0.7);
     expect(findManoeuvres(t, bendPlain.east_mps, bendPlain.north_mps, segment)).toBeNull();
     expect(smoothPositionsThroughTurns(t, lat, lon, segment, 0.7).lat).toEqual(bendPlain.lat);
+  });
+});
+
+describe('stop edges and steady bends (white jitter alone, shared/tracks/README.md)', () => {
+  it('findStopEdges marks both edges of a stop, and the smoothed path stops there instead of creeping on', () => {
+    // 120 s at 4.5 m/s, 60 s standing, 120 s at 4.5 m/s; no noise, so only the smoother's own response shows.
+    const scale = metresPerDegree(46);
+    const n = 301;
+    const along = (i: number) => 4.5 * (Math.min(i, 120) + Math.max(0, i - 180));
+    const t = Float64Array.from({ length: n }, (_, i) => i * 1000);
+    const lat = Float64Array.from({ length: n }, (_, i) => 46 + along(i) / scale.north);
+    const lon = Float64Array.from({ length: n }, () => 7);
+    const segment = new Uint8Array(n);
+    const plain = smoothPositions(t, lat, lon, segment, 0.8);
+    const marks = findStopEdges(t, plain.east_mps, plain.north_mps, segment)!;
+    const marked = [...marks.keys()].filter((i) => marks[i]);
+    expect(marked.some((i) => Math.abs(i - 120) <= 2)).toBe(true);
+    expect(marked.some((i) => Math.abs(i - 180) <= 2)).toBe(true);
+    expect(marked.every((i) => (i > 110 && i < 132) || (i > 168 && i < 190))).toBe(true);
+    // Metres the smoothed path still covers in the first 3 s of the stop: one process noise keeps going.
+    const sharp = smoothPositionsThroughTurns(t, lat, lon, segment, 0.8);
+    const creep = (path: { lat: Float64Array }) =>
+      Math.abs(((path.lat[123] as number) - (path.lat[120] as number)) * scale.north);
+    expect(creep(plain)).toBeGreaterThan(2.5); // measured 3.43 m (1.30 m with the stop edges marked)
+    expect(creep(sharp)).toBeLessThan(creep(plain) / 2);
+  });
+
+  it('bendGainFactors: the smoother draws a steady circle H(ω) = 1/(1 + (ω/ω_c)⁴) too small, and the factor gives it back', () => {
+    const sigma = 0.75;
+    const cutoff = (ACCELERATION_DENSITY / (sigma * sigma)) ** 0.25;
+    // The gain against the smoother's own weights (a linear time-invariant filter: H(ω) = Σ w(m) cos ωm).
+    const w = smootherWeights(1, sigma);
+    const half = (w.length - 1) / 2;
+    for (const omega of [0.05, 0.136, 0.2]) {
+      let gain = 0;
+      for (let m = -half; m <= half; m++) gain += (w[half + m] as number) * Math.cos(omega * m);
+      expect(gain).toBeCloseTo(1 / (1 + (omega / cutoff) ** 4), 4);
+    }
+    // A 400 m track's bend radius (36.8 m) run round and round at 5 m/s, clean: the smoothed path away
+    // from the ends is short by 1 − H; with the factors, within 0.02 % of the truth.
+    const scale = metresPerDegree(46);
+    const n = 400;
+    const angle = (i: number) => (i * 5) / 36.8;
+    const t = Float64Array.from({ length: n }, (_, i) => i * 1000);
+    const lat = Float64Array.from({ length: n }, (_, i) => 46 + (36.8 * Math.sin(angle(i))) / scale.north);
+    const lon = Float64Array.from({ length: n }, (_, i) => 7 + (36.8 * (1 - Math.cos(angle(i)))) / scale.east);
+    const segment = new Uint8Array(n);
+    const smooth = smoothPositions(t, lat, lon, segment, sigma);
+    const factors = bendGainFactors(t, smooth, segment, new Uint8Array(n).fill(1), sigma);
+    let smoothed = 0;
+    let corrected = 0;
+    for (let i = 101; i < 300; i++) {
+      const step = localDistance(smooth.lat[i - 1]!, smooth.lon[i - 1]!, smooth.lat[i]!, smooth.lon[i]!);
+      smoothed += step;
+      corrected += step * factors[i]!;
+    }
+    const truth = 199 * 2 * 36.8 * Math.sin(5 / 36.8 / 2);
+    expect(smoothed / truth - 1).toBeLessThan(-0.003);
+    expect(Math.abs(corrected / truth - 1)).toBeLessThan(0.0002);
+    // On a straight the factor is 1.
+    const line = straight(200, 3.5, 0, 2);
+    const lineSmooth = smoothPositions(line.t, line.lat, line.lon, line.segment, sigma);
+    expect(Math.max(...bendGainFactors(line.t, lineSmooth, line.segment, new Uint8Array(200).fill(1), sigma))).toBeCloseTo(1, 9);
   });
 });
 
