@@ -75,6 +75,8 @@ const MAX_SLOTS = 64;
 const MAX_TEMPLATES = 4;
 /** After this many points that could not become a template, stop trying (the file is not plain). */
 const MAX_REFUSED = 64;
+/** Nor learn more than this many templates in one file: a file of ever-changing shapes keeps the events. */
+const MAX_LEARNT = 256;
 
 const SLOT_TEXT = 0;
 const SLOT_ATTRIBUTE = 1;
@@ -233,6 +235,7 @@ function learnTemplate(
 export class TemplatePointReader {
   private templates: PointTemplate[] = [];
   private refused = 0;
+  private learnt = 0;
   private starts = new Int32Array(MAX_SLOTS);
   private ends = new Int32Array(MAX_SLOTS);
   /** The document last read, as a Buffer (for the rare value read from a string), plain bytes and a DataView. */
@@ -275,12 +278,13 @@ export class TemplatePointReader {
    * reading it here: learn its shape. True when a template now matches it.
    */
   learn(xml: Buffer, start: number, end: number, tokens: ScannedTokens): boolean {
-    if (this.refused >= MAX_REFUSED || this.rules.target() === null) return false;
+    if (this.refused >= MAX_REFUSED || this.learnt >= MAX_LEARNT || this.rules.target() === null) return false;
     const template = learnTemplate(xml, start, end, tokens, this.rules);
     if (template === null) {
       this.refused++;
       return false;
     }
+    this.learnt++;
     this.templates = [template, ...this.templates.slice(0, MAX_TEMPLATES - 1)];
     return true;
   }
