@@ -1,10 +1,15 @@
-import { mkdir, opendir, readFile, rm, rmdir, stat, writeFile } from 'node:fs/promises';
+import { copyFile, mkdir, opendir, readFile, rm, rmdir, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { StoredFileInfo } from '../../shared/runs/orphan-files.ts';
 
 /** Where original files are kept byte for byte. Keys are relative paths made by the app, never by users. */
 export interface FileStore {
   put(key: string, data: Buffer): Promise<void>;
+  /**
+   * Stores a file that waits on local disk (a streamed upload) without reading it into this process;
+   * a store without it is given the file's bytes through `put`.
+   */
+  putFile?(key: string, sourcePath: string): Promise<void>;
   get(key: string): Promise<Buffer>;
   delete(key: string): Promise<void>;
   /** Every stored file with its last-write time, a page at a time (the orphan sweeper reads this). */
@@ -40,19 +45,22 @@ export function createFsStore(dataDir: string): FileStore {
     checkKey(key);
     return path.join(root, key);
   };
-  return {
-    async put(key, data) {
-      const file = resolve(key);
-      // A folder emptied by `delete` may vanish between mkdir and write: make it again once.
-      for (let attempt = 0; ; attempt++) {
-        await mkdir(path.dirname(file), { recursive: true });
-        try {
-          return await writeFile(file, data);
-        } catch (err) {
-          if ((err as NodeJS.ErrnoException).code !== 'ENOENT' || attempt > 0) throw err;
-        }
+  /** Writes `key` with `write`; a folder emptied by `delete` may vanish between mkdir and write: make it again once. */
+  const writeInFolder = async (key: string, write: (file: string) => Promise<void>) => {
+    const file = resolve(key);
+    for (let attempt = 0; ; attempt++) {
+      await mkdir(path.dirname(file), { recursive: true });
+      try {
+        return await write(file);
+      } catch (err) {
+        if ((err as NodeJS.ErrnoException).code !== 'ENOENT' || attempt > 0) throw err;
       }
-    },
+    }
+  };
+  return {
+    put: (key, data) => writeInFolder(key, (file) => writeFile(file, data)),
+    // The kernel copies it (copy_file_range/sendfile on Linux): a 25 MB upload is never read into the event loop's heap.
+    putFile: (key, sourcePath) => writeInFolder(key, (file) => copyFile(sourcePath, file)),
     async get(key) {
       return readFile(resolve(key));
     },

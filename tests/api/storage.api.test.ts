@@ -1,5 +1,5 @@
 import { spawn } from 'node:child_process';
-import { mkdtempSync, utimesSync } from 'node:fs';
+import { mkdtempSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
@@ -65,6 +65,23 @@ async function listAll(store: FileStore) {
 describe('file storage adapters', () => {
   it('local disk keeps files byte for byte and refuses path tricks', async () => {
     await roundTrip(createFsStore(mkdtempSync(path.join(tmpdir(), 'pacewright-fs-'))));
+  });
+
+  it('local disk stores a waiting upload from its path byte for byte, and keeps it once the upload is removed', async () => {
+    const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-fs-'));
+    const store = createFsStore(dataDir);
+    const upload = path.join(dataDir, 'upload-1.part');
+    const bytes = Buffer.from(Array.from({ length: 70_000 }, (_, k) => (k * 31) % 256));
+    writeFileSync(upload, bytes);
+    await store.putFile!('user-1/def456', upload);
+    rmSync(upload);
+    expect(Buffer.compare(await store.get('user-1/def456'), bytes)).toBe(0);
+    // A folder emptied by delete is made again; unsafe keys are refused as by put.
+    await store.delete('user-1/def456');
+    writeFileSync(upload, bytes);
+    await store.putFile!('user-1/def456', upload);
+    expect((await store.get('user-1/def456')).length).toBe(bytes.length);
+    await expect(store.putFile!('../escape', upload)).rejects.toThrow(/unsafe/);
   });
 
   it('S3-compatible storage keeps files byte for byte (against s3rver)', async () => {

@@ -35,16 +35,13 @@ function countOpeningTags(chunk: Buffer): number {
 }
 
 /**
- * True once the (possibly gzip-compressed) file shows more than MAX_TRACK_POINTS point tags,
- * found while it is decompressed a chunk at a time: a file of a million points is refused after
- * reading a fraction of it, never decompressed whole. Unprefixed tags only, so it never over-counts;
- * the parser counts again, exactly, for whatever passes here.
+ * True once the gzip-compressed file shows more than MAX_TRACK_POINTS point tags, found while it is
+ * decompressed a chunk at a time: a file of a million points is refused after reading a fraction
+ * of it, never decompressed whole. Unprefixed tags only, so it never over-counts; the parser counts
+ * again, exactly, for whatever passes here.
  */
-async function showsTooManyPoints(data: Buffer): Promise<boolean> {
-  const gzipped = data[0] === 0x1f && data[1] === 0x8b;
-  const chunks: AsyncIterable<Buffer> = gzipped
-    ? Readable.from([data]).pipe(createGunzip({ chunkSize: 1024 * 1024 }))
-    : Readable.from([data]);
+async function compressedShowsTooManyPoints(data: Buffer): Promise<boolean> {
+  const chunks: AsyncIterable<Buffer> = Readable.from([data]).pipe(createGunzip({ chunkSize: 1024 * 1024 }));
   let count = 0;
   let tail = Buffer.alloc(0);
   let read = 0;
@@ -76,7 +73,10 @@ export async function computeImport(input: ImportComputeInput): Promise<ImportCo
     'path' in source
       ? await readFile(source.path)
       : Buffer.from(source.data.buffer, source.data.byteOffset, source.data.byteLength);
-  if (await showsTooManyPoints(data)) {
+  // A plain file is counted exactly by parseTrackFile before it is read (countTrackPointTags); only a
+  // compressed one needs counting while it is decompressed, so a zip bomb of points is never inflated whole.
+  const gzipped = data[0] === 0x1f && data[1] === 0x8b;
+  if (gzipped && (await compressedShowsTooManyPoints(data))) {
     return { ok: false, code: 'too-many-points', message: tooManyPointsReason(MAX_TRACK_POINTS + 1)! };
   }
   try {

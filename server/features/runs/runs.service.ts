@@ -255,7 +255,9 @@ export async function importFiles(
         // Last step inside the transaction: if storing the original fails, no row is committed.
         // The shared lock keeps the orphan sweeper off this file until the rows are committed.
         await holdOriginalFilesSharedLock(trx);
-        await store.put(storageKey, 'data' in file ? file.data : await readFile(file.path));
+        if ('data' in file) await store.put(storageKey, file.data);
+        else if (store.putFile) await store.putFile(storageKey, file.path);
+        else await store.put(storageKey, await readFile(file.path));
         return { inserted, sameRun };
       });
       result.duplicates.push(...outcome.sameRun);

@@ -13,7 +13,9 @@ export function encodeColumns(columns: Record<string, Float64Array>): { columns:
     if (column.length !== pointCount) throw new Error(`column ${name} has ${column.length} values, expected ${pointCount}`);
     Buffer.from(column.buffer, column.byteOffset, column.byteLength).copy(raw, c * pointCount * 8);
   });
-  return { columns: names, pointCount, data: gzipSync(raw, { level: 6 }) };
+  // Level 4, not zlib's default 6: on the 30 h bench files (6.9 MB of columns) it takes half the CPU
+  // (~70 against ~150 ms) for 0.6–0.9 % more bytes (2.52 against 2.51 MB, GPX); any level reads back alike.
+  return { columns: names, pointCount, data: gzipSync(raw, { level: 4 }) };
 }
 
 export function decodeColumns(names: readonly string[], pointCount: number, data: Buffer): Record<string, Float64Array> {
