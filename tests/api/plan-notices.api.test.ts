@@ -97,6 +97,11 @@ describe('the e-mail per editing burst', () => {
     expect(notice!.text).toContain(`${PUBLIC_URL}/plan?week=2027-01-04`);
     expect(notice!.text).toMatch(new RegExp(`Turn these e-mails off: ${PUBLIC_URL}/notices/off/uns_[A-Za-z0-9_-]+\\n`));
     expect(notice!.html).toContain('Open your plan');
+    // The HTML's way out is a link to the same page as the text's address, not the address as plain text.
+    const offPage = /Turn these e-mails off: (\S+)\n/.exec(notice!.text)![1]!;
+    expect(notice!.html).toContain(`<a href="${offPage}"`);
+    expect(notice!.html).toMatch(/<a href="[^"]+"[^>]*>Turn these e-mails off<\/a>/);
+    expect(notice!.html).not.toContain(`Turn these e-mails off: ${offPage}`);
 
     // Sent once: the next sweeps find nothing new.
     expect(await sendPlanChangeNotices(mailer, CONFIG, await afterLastChange(runner.id, 30))).toBe(0);

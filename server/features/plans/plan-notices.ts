@@ -66,12 +66,19 @@ async function noticeRunner(
     const notice = planChangeNotice(changes, runner.week_starts_on);
     const link = `${config.publicUrl}/plan?week=${notice.first_week}`;
     const offPage = unsubscribeLinks(config, runnerId, 'plan_change', now).page;
-    const off = `You get this e-mail because “${NOTICE_KIND_INFO.plan_change.label}” is on in your profile. Turn these e-mails off: ${offPage}`;
+    const why = `You get this e-mail because “${NOTICE_KIND_INFO.plan_change.label}” is on in your profile.`;
+    const off = `${why} Turn these e-mails off: ${offPage}`;
     await mailer.send({
       to: runner.email,
       subject: notice.subject,
       text: `${notice.intro}\n\n${notice.lines.join('\n')}\n\nOpen your plan: ${link}\n\n--\n${off}\n`,
-      html: htmlMessage(notice.intro, [...notice.lines, off], { href: link, label: 'Open your plan' }),
+      // The way out is a link in the HTML (the text part keeps the address).
+      html: htmlMessage(
+        notice.intro,
+        notice.lines,
+        { href: link, label: 'Open your plan' },
+        { text: why, href: offPage, label: 'Turn these e-mails off' },
+      ),
       headers: unsubscribeHeaders(config, runnerId, 'plan_change', now),
     });
     return 'sent';
