@@ -12,3 +12,7 @@ export const CaughtMessageSchema = z.object({
   sent_at: z.string(),
 });
 export type CaughtMessage = z.infer<typeof CaughtMessageSchema>;
+
+/** `GET /api/dev/outbox`: the messages the local catcher holds. */
+export const OutboxAnswerSchema = z.object({ messages: z.array(CaughtMessageSchema) });
+export type OutboxAnswer = z.infer<typeof OutboxAnswerSchema>;

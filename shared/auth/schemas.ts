@@ -47,6 +47,7 @@ export const LoginInputSchema = z
 export type LoginInput = z.infer<typeof LoginInputSchema>;
 
 export const UserResponseSchema = z.object({ user: UserSchema });
+export type UserResponse = z.infer<typeof UserResponseSchema>;
 
 /**
  * `POST /api/auth/register` (201). `confirmation: 'sent'` — the account is made when the e-mailed
@@ -91,6 +92,9 @@ export const ApiTokenSchema = z.object({
   last_used_at: z.string().nullable(),
 });
 export type ApiToken = z.infer<typeof ApiTokenSchema>;
+/** `GET /api/auth/tokens`: the account's live API tokens. */
+export const ApiTokenListAnswerSchema = z.object({ tokens: z.array(ApiTokenSchema) });
+export type ApiTokenListAnswer = z.infer<typeof ApiTokenListAnswerSchema>;
 
 /** Cookie and header names shared by server and client. */
 export const SESSION_COOKIE = 'pw_session';

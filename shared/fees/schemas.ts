@@ -93,6 +93,7 @@ export const NO_FEE: Fee = {
 };
 
 export const FeeAnswerSchema = z.object({ fee: FeeSchema });
+export type FeeAnswer = z.infer<typeof FeeAnswerSchema>;
 
 export const BillingStatusSchema = z.enum(['free', 'due', 'paid', 'overdue', 'cancelled', 'waived']);
 export type BillingStatus = z.infer<typeof BillingStatusSchema>;

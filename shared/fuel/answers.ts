@@ -184,6 +184,8 @@ export type FuelPlan = z.infer<typeof FuelPlanSchema>;
 /** `{ fuel_plan }` of the fuel-plan routes; null where none is set yet (GET). */
 export const FuelPlanAnswerSchema = z.object({ fuel_plan: FuelPlanSchema.nullable() });
 export const SavedFuelPlanAnswerSchema = z.object({ fuel_plan: FuelPlanSchema });
+export type FuelPlanAnswer = z.infer<typeof FuelPlanAnswerSchema>;
+export type SavedFuelPlanAnswer = z.infer<typeof SavedFuelPlanAnswerSchema>;
 
 const TakenEntrySchema = AmountsSchema.extend({
   kind: z.enum(['item', 'water', 'drink']),

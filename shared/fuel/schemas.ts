@@ -63,6 +63,12 @@ export const FuelItemSchema = z.object({
   fluid_ml: z.number(),
 });
 export type FuelItem = z.infer<typeof FuelItemSchema>;
+/** `GET /api/fuel-items`: the items the runner may pick from. */
+export const FuelItemListAnswerSchema = z.object({ items: z.array(FuelItemSchema) });
+export type FuelItemListAnswer = z.infer<typeof FuelItemListAnswerSchema>;
+/** `POST /api/fuel-items` and `PATCH /api/fuel-items/:id`: the item. */
+export const FuelItemAnswerSchema = z.object({ item: FuelItemSchema });
+export type FuelItemAnswer = z.infer<typeof FuelItemAnswerSchema>;
 
 const ItemIdSchema = z.uuid({ error: 'Not a fuel item id.' });
 

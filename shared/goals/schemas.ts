@@ -58,3 +58,16 @@ export const RaceResultSchema = z.object({
   time_s: z.number(),
 });
 export type RaceResult = z.infer<typeof RaceResultSchema>;
+
+/** `GET /api/me/goal-race`: the goal race, or null when none is set. */
+export const GoalRaceAnswerSchema = z.object({ goal_race: GoalRaceSchema.nullable() });
+export type GoalRaceAnswer = z.infer<typeof GoalRaceAnswerSchema>;
+/** `PUT /api/me/goal-race`: the goal race now stored. */
+export const SavedGoalRaceAnswerSchema = z.object({ goal_race: GoalRaceSchema });
+export type SavedGoalRaceAnswer = z.infer<typeof SavedGoalRaceAnswerSchema>;
+/** `GET /api/me/race-results`: the runner's race results. */
+export const RaceResultListAnswerSchema = z.object({ results: z.array(RaceResultSchema) });
+export type RaceResultListAnswer = z.infer<typeof RaceResultListAnswerSchema>;
+/** `POST /api/me/race-results`: the result added. */
+export const RaceResultAnswerSchema = z.object({ result: RaceResultSchema });
+export type RaceResultAnswer = z.infer<typeof RaceResultAnswerSchema>;

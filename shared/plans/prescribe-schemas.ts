@@ -217,3 +217,25 @@ export type CalendarFeedStatus = z.infer<typeof CalendarFeedStatusSchema>;
 /** `PUT /api/runners/:id/pace-tolerance`: the tolerance now stored, seconds per km. */
 export const PaceToleranceAnswerSchema = z.object({ pace_tolerance: z.number() });
 export type PaceToleranceAnswer = z.infer<typeof PaceToleranceAnswerSchema>;
+
+/** `GET /api/plans/:id/changes`: the plan's change log. */
+export const PlanChangesAnswerSchema = z.object({ changes: z.array(PlanChangeSchema) });
+export type PlanChangesAnswer = z.infer<typeof PlanChangesAnswerSchema>;
+
+/** `GET /api/library`: the coach's saved sessions. */
+export const LibrarySessionListAnswerSchema = z.object({ sessions: z.array(LibrarySessionSchema) });
+export type LibrarySessionListAnswer = z.infer<typeof LibrarySessionListAnswerSchema>;
+/** `POST /api/library` and `PATCH /api/library/:id`: the saved session. */
+export const LibrarySessionAnswerSchema = z.object({ session: LibrarySessionSchema });
+export type LibrarySessionAnswer = z.infer<typeof LibrarySessionAnswerSchema>;
+
+/** `GET /api/days?from&to[&runner_id]`: the day marks in the range. */
+export const DayMarkListAnswerSchema = z.object({ day_marks: z.array(DayMarkSchema) });
+export type DayMarkListAnswer = z.infer<typeof DayMarkListAnswerSchema>;
+/** `PUT /api/days/:date`: the day mark now stored. */
+export const DayMarkAnswerSchema = z.object({ day_mark: DayMarkSchema });
+export type DayMarkAnswer = z.infer<typeof DayMarkAnswerSchema>;
+
+/** `GET /api/runners/:id`: the runner a coach looks at. */
+export const RunnerSummaryAnswerSchema = z.object({ runner: RunnerSummarySchema });
+export type RunnerSummaryAnswer = z.infer<typeof RunnerSummaryAnswerSchema>;

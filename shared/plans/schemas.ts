@@ -253,6 +253,13 @@ export const PlanSchema = z.object({
 });
 export type Plan = z.infer<typeof PlanSchema>;
 
+/** `POST /api/plans`, `GET /api/plans/:id` and `PATCH /api/plans/:id`: the one plan. */
+export const PlanAnswerSchema = z.object({ plan: PlanSchema });
+export type PlanAnswer = z.infer<typeof PlanAnswerSchema>;
+/** `GET /api/plans?from&to[&runner_id]`: the plans dated in the range. */
+export const PlanListAnswerSchema = z.object({ plans: z.array(PlanSchema) });
+export type PlanListAnswer = z.infer<typeof PlanListAnswerSchema>;
+
 // The hand-written model in types.ts and these schemas must describe the same JSON.
 type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : false) : false;
 const PART_MATCHES: Same<z.infer<typeof PartSchema>, Part> = true;

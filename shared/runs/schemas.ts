@@ -67,6 +67,9 @@ export const RunListItemSchema = z.object({
   kind: ActivityKindSchema,
 });
 export type RunListItem = z.infer<typeof RunListItemSchema>;
+/** `PATCH /api/runs/:id`: the renamed run as the list shows it. */
+export const RunListItemAnswerSchema = z.object({ run: RunListItemSchema });
+export type RunListItemAnswer = z.infer<typeof RunListItemAnswerSchema>;
 
 export const ImportResultSchema = z.object({
   imported: z.array(RunListItemSchema.extend({ file: z.string() })),
@@ -115,6 +118,12 @@ export const RunNoteSchema = z.object({
   unread: z.boolean(),
 });
 export type RunNote = z.infer<typeof RunNoteSchema>;
+/** `GET /api/runs/:id/notes`: the run's notes. */
+export const RunNoteListAnswerSchema = z.object({ notes: z.array(RunNoteSchema) });
+export type RunNoteListAnswer = z.infer<typeof RunNoteListAnswerSchema>;
+/** `POST /api/runs/:id/notes`: the note added. */
+export const RunNoteAnswerSchema = z.object({ note: RunNoteSchema });
+export type RunNoteAnswer = z.infer<typeof RunNoteAnswerSchema>;
 
 /**
  * How a run's distance was measured (`details.distance` of `GET /api/runs/:id`; null for runs

@@ -56,6 +56,9 @@ export const ProfileSchema = UserSchema.extend({
   created_at: z.string(),
 });
 export type Profile = z.infer<typeof ProfileSchema>;
+/** `GET /api/me` and `PATCH /api/me`: the signed-in user's profile. */
+export const ProfileAnswerSchema = z.object({ profile: ProfileSchema });
+export type ProfileAnswer = z.infer<typeof ProfileAnswerSchema>;
 
 export const UpdateProfileInputSchema = z
   .object({
@@ -112,3 +115,6 @@ export type ChangeRoleInput = z.infer<typeof ChangeRoleInputSchema>;
 
 export const AdminUserSchema = UserSchema.extend({ created_at: z.string() });
 export type AdminUser = z.infer<typeof AdminUserSchema>;
+/** `GET /api/admin/users`: every account, for the admin. */
+export const AdminUserListAnswerSchema = z.object({ users: z.array(AdminUserSchema) });
+export type AdminUserListAnswer = z.infer<typeof AdminUserListAnswerSchema>;

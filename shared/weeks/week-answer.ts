@@ -39,6 +39,9 @@ export const AddedWeekNoteSchema = z.object({
   concern: z.enum(['pain', 'illness']).nullable(),
 });
 export type AddedWeekNote = z.infer<typeof AddedWeekNoteSchema>;
+/** `POST /api/runners/:id/weeks/:start/notes`: the note added to the week. */
+export const AddedWeekNoteAnswerSchema = z.object({ note: AddedWeekNoteSchema });
+export type AddedWeekNoteAnswer = z.infer<typeof AddedWeekNoteAnswerSchema>;
 
 /** Fuel taken on the run against its fuel plan, with how the stomach and energy felt (1–5). */
 export const WeekFuelTakenSchema = AmountsSchema.extend({

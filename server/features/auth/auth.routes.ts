@@ -1,24 +1,23 @@
 import { randomUUID } from 'node:crypto';
 import { rateLimit } from 'express-rate-limit';
-import { z } from 'zod';
 import {
-  ApiTokenSchema,
+  ApiTokenListAnswerSchema,
   ChangePasswordInputSchema,
   CreateTokenInputSchema,
   LoginInputSchema,
+  MessageResponseSchema,
   NamedTokenInputSchema,
   PasswordResetInputSchema,
   PasswordResetRequestSchema,
-  RegisterInputSchema,
   RESET_SENT_MESSAGE,
+  RegisterInputSchema,
   SIGN_UP_SENT_MESSAGE,
   SignUpAnswerSchema,
   SignUpConfirmedSchema,
-  type SignUpAnswer,
-  MessageResponseSchema,
   TokenResponseSchema,
-  type RegisterInput,
   UserResponseSchema,
+  type RegisterInput,
+  type SignUpAnswer,
 } from '../../../shared/auth/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
@@ -213,7 +212,7 @@ export function createAuthRouter(config: AppConfig, mailer: Mailer) {
       tag: 'auth',
       summary: "The signed-in user's live API tokens (never the tokens themselves)",
       access: 'own-data',
-      response: z.object({ tokens: z.array(ApiTokenSchema) }),
+      response: ApiTokenListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ tokens: await listTokensOf(requireActor(res).id) });

@@ -7,9 +7,10 @@ import {
 import { z } from 'zod';
 import {
   CheckinInputSchema,
+  FuelItemAnswerSchema,
   FuelItemInputSchema,
+  FuelItemListAnswerSchema,
   FuelItemPatchSchema,
-  FuelItemSchema,
   FuelPlanInputSchema,
   FuelTakenInputSchema,
 } from '../../../shared/fuel/schemas.ts';
@@ -48,7 +49,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
       summary: 'Fuel items (yours, or a squad runner’s with runner_id)',
       access: 'own-data',
       query: RunnerQuerySchema,
-      response: z.object({ items: z.array(FuelItemSchema) }),
+      response: FuelItemListAnswerSchema,
     },
     async (_req, res) => {
       const actor = requireActor(res);
@@ -65,7 +66,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
       summary: 'Add a fuel item: name, serving, and carbohydrate g, sodium mg, caffeine mg, fluid ml per serving',
       access: 'own-data',
       body: FuelItemInputSchema,
-      response: z.object({ item: FuelItemSchema }),
+      response: FuelItemAnswerSchema,
       status: 201,
     },
     async (req, res) => {
@@ -82,7 +83,7 @@ export function createFuelRouter(mailer: Mailer, config: AppConfig) {
       access: 'own-data',
       params: { id: parseIdParam },
       body: FuelItemPatchSchema,
-      response: z.object({ item: FuelItemSchema }),
+      response: FuelItemAnswerSchema,
     },
     async (req, res) => {
       res.json({ item: await changeItem(requireActor(res), req.params.id, req.body) });

@@ -1,5 +1,12 @@
 import { z } from 'zod';
-import { GoalRaceInputSchema, GoalRaceSchema, RaceResultInputSchema, RaceResultSchema } from '../../../shared/goals/schemas.ts';
+import {
+  GoalRaceAnswerSchema,
+  GoalRaceInputSchema,
+  RaceResultAnswerSchema,
+  RaceResultInputSchema,
+  RaceResultListAnswerSchema,
+  SavedGoalRaceAnswerSchema,
+} from '../../../shared/goals/schemas.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { NotFoundError } from '../../lib/errors.ts';
@@ -22,7 +29,7 @@ export function createGoalsRouter() {
       summary: 'The goal race (yours, or a squad runner’s with runner_id)',
       access: 'own-data',
       query: RunnerQuerySchema,
-      response: z.object({ goal_race: GoalRaceSchema.nullable() }),
+      response: GoalRaceAnswerSchema,
     },
     async (_req, res) => {
       const actor = requireActor(res);
@@ -41,7 +48,7 @@ export function createGoalsRouter() {
       summary: 'Set your goal race: name, date (today or later), distance and goal time',
       access: 'own-data',
       body: GoalRaceInputSchema,
-      response: z.object({ goal_race: GoalRaceSchema }),
+      response: SavedGoalRaceAnswerSchema,
     },
     async (req, res) => {
       res.json({ goal_race: toGoalRace(await setGoalRace(requireActor(res), req.body)) });
@@ -64,7 +71,7 @@ export function createGoalsRouter() {
       summary: 'Race results, newest first (yours, or a squad runner’s with runner_id)',
       access: 'own-data',
       query: RunnerQuerySchema,
-      response: z.object({ results: z.array(RaceResultSchema) }),
+      response: RaceResultListAnswerSchema,
     },
     async (_req, res) => {
       const actor = requireActor(res);
@@ -82,7 +89,7 @@ export function createGoalsRouter() {
       summary: 'Add a race result: date (today or earlier), distance, time',
       access: 'own-data',
       body: RaceResultInputSchema,
-      response: z.object({ result: RaceResultSchema }),
+      response: RaceResultAnswerSchema,
       status: 201,
     },
     async (req, res) => {

@@ -1,9 +1,8 @@
-import { z } from 'zod';
-import { CaughtMessageSchema } from '../../../shared/api/outbox.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { NotFoundError } from '../../lib/errors.ts';
 import { listCaughtMessages } from './outbox.repository.ts';
+import { OutboxAnswerSchema } from '../../../shared/api/outbox.ts';
 
 export function createOutboxRouter(config: AppConfig) {
   const api = createApiRouter();
@@ -14,7 +13,7 @@ export function createOutboxRouter(config: AppConfig) {
       tag: 'development',
       summary: 'Messages caught by the local mail catcher, newest first (404 in production)',
       access: 'public',
-      response: z.object({ messages: z.array(CaughtMessageSchema) }),
+      response: OutboxAnswerSchema,
     },
     async (_req, res) => {
       // Development only: the catcher holds every message the app sends, links and all.

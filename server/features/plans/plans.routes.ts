@@ -4,8 +4,9 @@ import {
   CreatePlanInputSchema,
   ParsePlanInputSchema,
   ParsedPlanSchema,
+  PlanAnswerSchema,
   PlanDateSchema,
-  PlanSchema,
+  PlanListAnswerSchema,
   UpdatePlanInputSchema,
 } from '../../../shared/plans/schemas.ts';
 import { PaceToleranceSchema } from '../../../shared/users/schemas.ts';
@@ -17,7 +18,6 @@ import { perUserRateLimit } from '../../lib/per-user-rate-limit.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import { PlanCheckAnswerSchema } from '../../../shared/plans/plan-check-answer.ts';
 import { planCheckToCsv } from '../../../shared/plans/plan-check-csv.ts';
-import { setPaceTolerance } from './plans.service.ts';
 import {
   changePlan,
   createPlan,
@@ -27,6 +27,7 @@ import {
   parsePlanText,
   planCheckOfRun,
   removePlan,
+  setPaceTolerance,
 } from './plans.service.ts';
 
 const ListPlansQuerySchema = z.object({
@@ -65,7 +66,7 @@ export function createPlansRouter(config: AppConfig) {
       summary: 'Create a session plan from shorthand (text) or parts; a coach may add runner_id for a squad runner',
       access: 'own-data',
       body: CreatePlanInputSchema,
-      response: z.object({ plan: PlanSchema }),
+      response: PlanAnswerSchema,
       status: 201,
     },
     async (req, res) => {
@@ -81,7 +82,7 @@ export function createPlansRouter(config: AppConfig) {
       summary: 'Session plans between two dates (yours, or a squad runner’s with runner_id)',
       access: 'own-data',
       query: ListPlansQuerySchema,
-      response: z.object({ plans: z.array(PlanSchema) }),
+      response: PlanListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ plans: await listPlansFor(requireActor(res), res.locals.query) });
@@ -96,7 +97,7 @@ export function createPlansRouter(config: AppConfig) {
       summary: 'One session plan',
       access: 'own-data',
       params: { id: parseIdParam },
-      response: z.object({ plan: PlanSchema }),
+      response: PlanAnswerSchema,
     },
     async (req, res) => {
       res.json({ plan: await getPlan(requireActor(res), req.params.id) });
@@ -112,7 +113,7 @@ export function createPlansRouter(config: AppConfig) {
       access: 'own-data',
       params: { id: parseIdParam },
       body: UpdatePlanInputSchema,
-      response: z.object({ plan: PlanSchema }),
+      response: PlanAnswerSchema,
     },
     async (req, res) => {
       res.json({ plan: await changePlan(requireActor(res), req.params.id, req.body) });

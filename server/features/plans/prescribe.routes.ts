@@ -4,12 +4,14 @@ import {
   AssignResultSchema,
   CopyWeekInputSchema,
   CreateLibrarySessionInputSchema,
-  DayMarkSchema,
-  LibrarySessionSchema,
+  DayMarkAnswerSchema,
+  DayMarkListAnswerSchema,
+  LibrarySessionAnswerSchema,
+  LibrarySessionListAnswerSchema,
   PlanBatchResultSchema,
-  PlanChangeSchema,
+  PlanChangesAnswerSchema,
   PutDayMarkInputSchema,
-  RunnerSummarySchema,
+  RunnerSummaryAnswerSchema,
   UpdateLibrarySessionInputSchema,
 } from '../../../shared/plans/prescribe-schemas.ts';
 import { PlanDateSchema } from '../../../shared/plans/schemas.ts';
@@ -105,7 +107,7 @@ export function createPrescribeRouter() {
       summary: 'Who changed a session, when and what, newest first',
       access: 'own-data',
       params: { id: parseIdParam },
-      response: z.object({ changes: z.array(PlanChangeSchema) }),
+      response: PlanChangesAnswerSchema,
     },
     async (req, res) => {
       res.json({ changes: await listChangesOfPlan(requireActor(res), req.params.id) });
@@ -119,7 +121,7 @@ export function createPrescribeRouter() {
       tag: 'library',
       summary: 'Your session library',
       access: 'own-data',
-      response: z.object({ sessions: z.array(LibrarySessionSchema) }),
+      response: LibrarySessionListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ sessions: await listLibraryOf(requireActor(res)) });
@@ -134,7 +136,7 @@ export function createPrescribeRouter() {
       summary: 'Keep a session under a name: {name, title?, text} or {name, plan_id} (with its fuel plan)',
       access: 'own-data',
       body: CreateLibrarySessionInputSchema,
-      response: z.object({ session: LibrarySessionSchema }),
+      response: LibrarySessionAnswerSchema,
       status: 201,
     },
     async (req, res) => {
@@ -151,7 +153,7 @@ export function createPrescribeRouter() {
       access: 'own-data',
       params: { id: parseIdParam },
       body: UpdateLibrarySessionInputSchema,
-      response: z.object({ session: LibrarySessionSchema }),
+      response: LibrarySessionAnswerSchema,
     },
     async (req, res) => {
       res.json({ session: await changeLibrarySession(requireActor(res), req.params.id, req.body) });
@@ -182,7 +184,7 @@ export function createPrescribeRouter() {
       summary: 'Day marks (rest, ill, injured, cross-training) between two dates, yours or a squad runner’s',
       access: 'own-data',
       query: DayMarksQuerySchema,
-      response: z.object({ day_marks: z.array(DayMarkSchema) }),
+      response: DayMarkListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ day_marks: await listDayMarks(requireActor(res), res.locals.query) });
@@ -198,7 +200,7 @@ export function createPrescribeRouter() {
       access: 'own-data',
       params: { date: parseDateParam },
       body: PutDayMarkInputSchema,
-      response: z.object({ day_mark: DayMarkSchema }),
+      response: DayMarkAnswerSchema,
     },
     async (req, res) => {
       res.json({ day_mark: await putDayMark(requireActor(res), req.params.date, req.body) });
@@ -231,7 +233,7 @@ export function createPrescribeRouter() {
       summary: 'A runner’s name, unit and plan-check tolerance (the runner, their coaches, admins)',
       access: 'own-data',
       params: { id: parseIdParam },
-      response: z.object({ runner: RunnerSummarySchema }),
+      response: RunnerSummaryAnswerSchema,
     },
     async (req, res) => {
       res.json({ runner: await runnerSummary(requireActor(res), req.params.id) });

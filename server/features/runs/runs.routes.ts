@@ -1,17 +1,17 @@
 import { RunDetailSchema, RunPageSchema, RunTrackSchema } from '../../../shared/runs/types.ts';
 import { ORIGINAL_CONTENT_TYPES } from '../../../shared/runs/original-download.ts';
 import { CSV } from '../../../shared/api/media-types.ts';
-import { z } from 'zod';
 import {
   ImportResultSchema,
   ListRunsQuerySchema,
   NewRunNoteInputSchema,
-  RunNoteSchema,
   RenameRunInputSchema,
-  RunListItemSchema,
+  RunListItemAnswerSchema,
+  RunNoteAnswerSchema,
+  RunNoteListAnswerSchema,
   SplitsCsvQuerySchema,
-  UploadRunsQuerySchema,
   StorageUsageSchema,
+  UploadRunsQuerySchema,
 } from '../../../shared/runs/schemas.ts';
 import { createApiRouter, sendReadyJson } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
@@ -201,7 +201,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       access: 'own-data',
       params: { id: parseIdParam },
       body: RenameRunInputSchema,
-      response: z.object({ run: RunListItemSchema }),
+      response: RunListItemAnswerSchema,
     },
     async (req, res) => {
       res.json({
@@ -234,7 +234,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       summary: 'Notes on a run, oldest first (the runner and their coaches)',
       access: 'own-data',
       params: { id: parseIdParam },
-      response: z.object({ notes: z.array(RunNoteSchema) }),
+      response: RunNoteListAnswerSchema,
     },
     async (req, res) => {
       res.json({ notes: await notesOf(requireActor(res), req.params.id) });
@@ -250,7 +250,7 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
       access: 'own-data',
       params: { id: parseIdParam },
       body: NewRunNoteInputSchema,
-      response: z.object({ note: RunNoteSchema }),
+      response: RunNoteAnswerSchema,
       status: 201,
     },
     async (req, res) => {

@@ -1,12 +1,11 @@
-import { z } from 'zod';
 import {
+  CoachAccessListAnswerSchema,
   CreateSquadInputSchema,
+  InvitationAnswerSchema,
   InvitationPreviewSchema,
-  InvitationSchema,
   InviteInputSchema,
-  SquadDetailSchema,
-  CoachAccessSchema,
-  SquadSchema,
+  SquadAnswerSchema,
+  SquadListAnswerSchema,
 } from '../../../shared/squads/schemas.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
@@ -35,7 +34,7 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       summary: 'Create a squad (coaches)',
       access: 'squads:manage',
       body: CreateSquadInputSchema,
-      response: z.object({ squad: SquadSchema }),
+      response: SquadAnswerSchema,
       status: 201,
     },
     async (req, res) => {
@@ -50,7 +49,7 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'Squads you coach (with members and invitations) or belong to',
       access: 'own-data',
-      response: z.object({ squads: z.array(SquadDetailSchema) }),
+      response: SquadListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ squads: await listMySquads(requireActor(res)) });
@@ -66,7 +65,7 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       access: 'squads:manage',
       params: { id: parseIdParam },
       body: InviteInputSchema,
-      response: z.object({ invitation: InvitationSchema }),
+      response: InvitationAnswerSchema,
       status: 201,
     },
     async (req, res) => {
@@ -132,7 +131,7 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       summary: 'Accept an invitation (signed in as a runner); 410 when used, withdrawn or expired',
       access: 'own-data',
       params: { token: readTokenParam },
-      response: z.object({ squad: SquadSchema }),
+      response: SquadAnswerSchema,
     },
     async (req, res) => {
       res.json({ squad: await acceptInvitation(requireActor(res), req.params.token) });
@@ -146,7 +145,7 @@ export function createSquadsRouter(mailer: Mailer, config: AppConfig) {
       tag: 'squads',
       summary: 'The coaches who can read your data, and the squads that give them access',
       access: 'own-data',
-      response: z.object({ coaches: z.array(CoachAccessSchema) }),
+      response: CoachAccessListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ coaches: await coachesOf(requireActor(res)) });

@@ -1,20 +1,17 @@
-import { z } from 'zod';
 import {
-  AdminUserSchema,
+  AdminUserListAnswerSchema,
   ChangeRoleInputSchema,
-  ProfileSchema,
+  ProfileAnswerSchema,
   UpdateProfileInputSchema,
-  UserSchema,
 } from '../../../shared/users/schemas.ts';
+import { UserResponseSchema } from '../../../shared/auth/schemas.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { parseIdParam } from '../../lib/ids.ts';
-import { toProfile } from './users.service.ts';
-import { changeRole, listAllUsers, updateProfile } from './users.service.ts';
+import { changeRole, listAllUsers, toProfile, updateProfile } from './users.service.ts';
 
 export function createUsersRouter() {
   const api = createApiRouter();
-  const ProfileResponseSchema = z.object({ profile: ProfileSchema });
 
   api.route(
     {
@@ -23,7 +20,7 @@ export function createUsersRouter() {
       tag: 'profile',
       summary: "The signed-in user's profile",
       access: 'own-data',
-      response: ProfileResponseSchema,
+      response: ProfileAnswerSchema,
     },
     (_req, res) => {
       res.json({ profile: toProfile(requireActor(res)) });
@@ -38,7 +35,7 @@ export function createUsersRouter() {
       summary: 'Change name, units, birth year, heart rates, weight or time zone',
       access: 'own-data',
       body: UpdateProfileInputSchema,
-      response: ProfileResponseSchema,
+      response: ProfileAnswerSchema,
     },
     async (req, res) => {
       res.json({ profile: await updateProfile(requireActor(res).id, req.body) });
@@ -52,7 +49,7 @@ export function createUsersRouter() {
       tag: 'admin',
       summary: 'Every user with their role (admins)',
       access: 'users:manage',
-      response: z.object({ users: z.array(AdminUserSchema) }),
+      response: AdminUserListAnswerSchema,
     },
     async (_req, res) => {
       res.json({ users: await listAllUsers() });
@@ -68,7 +65,7 @@ export function createUsersRouter() {
       access: 'users:manage',
       params: { id: parseIdParam },
       body: ChangeRoleInputSchema,
-      response: z.object({ user: UserSchema }),
+      response: UserResponseSchema,
     },
     async (req, res) => {
       res.json({ user: await changeRole(req.params.id, req.body.role) });

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { NewRunNoteInputSchema } from '../../../shared/runs/schemas.ts';
 import { overviewToCsv, weekToCsv } from '../../../shared/weeks/csv.ts';
 import { calendarDateSchema } from '../../../shared/api/calendar-date.ts';
-import { AddedWeekNoteSchema, RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
+import { AddedWeekNoteAnswerSchema, RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
 import { DigestReceiptSchema, SquadOverviewSchema } from '../../../shared/weeks/squad-overview.ts';
 import type { AppConfig } from '../../config.ts';
 import { createApiRouter } from '../../lib/api-router.ts';
@@ -67,7 +67,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     {
       method: 'post',
       path: '/runners/:id/weeks/:start/notes',
-      response: z.object({ note: AddedWeekNoteSchema }),
+      response: AddedWeekNoteAnswerSchema,
       tag: 'weeks',
       summary: 'Write a note on a week (the runner or their coach)',
       access: 'own-data',

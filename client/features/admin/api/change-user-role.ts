@@ -2,11 +2,12 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { AdminUser, ChangeRoleInput, User } from '../../../../shared/users/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { adminKeys } from './admin-keys.ts';
+import type { UserResponse } from '../../../../shared/auth/schemas.ts';
 
 type ChangeUserRole = ChangeRoleInput & { id: string };
 
 export async function changeUserRole({ id, role }: ChangeUserRole): Promise<User> {
-  const { user } = await api.patch<{ user: User }>(`/admin/users/${encodeURIComponent(id)}`, { role });
+  const { user } = await api.patch<UserResponse>(`/admin/users/${encodeURIComponent(id)}`, { role });
   return user;
 }
 

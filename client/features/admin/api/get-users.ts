@@ -1,10 +1,10 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import type { AdminUser } from '../../../../shared/users/schemas.ts';
+import type { AdminUser, AdminUserListAnswer } from '../../../../shared/users/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { adminKeys } from './admin-keys.ts';
 
 export async function getUsers(): Promise<AdminUser[]> {
-  const { users } = await api.get<{ users: AdminUser[] }>('/admin/users');
+  const { users } = await api.get<AdminUserListAnswer>('/admin/users');
   return users;
 }
 

@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { ApiToken } from '../../../../shared/auth/schemas.ts';
+import type { ApiToken, ApiTokenListAnswer } from '../../../../shared/auth/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { tokenKeys } from './token-keys.ts';
 
 export async function getTokens(): Promise<ApiToken[]> {
-  const { tokens } = await api.get<{ tokens: ApiToken[] }>('/auth/tokens');
+  const { tokens } = await api.get<ApiTokenListAnswer>('/auth/tokens');
   return tokens;
 }
 

@@ -1,4 +1,4 @@
-import type { CoachAccess } from '../../../../shared/squads/schemas.ts';
+import type { CoachAccess, CoachAccessListAnswer } from '../../../../shared/squads/schemas.ts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { coachKeys } from './coach-keys.ts';
@@ -7,7 +7,7 @@ export type { CoachAccess };
 
 /** The coaches who can read the signed-in runner's data, one entry per squad that gives them access. */
 export async function getMyCoaches(): Promise<CoachAccess[]> {
-  const { coaches } = await api.get<{ coaches: CoachAccess[] }>('/me/coaches');
+  const { coaches } = await api.get<CoachAccessListAnswer>('/me/coaches');
   return coaches;
 }
 

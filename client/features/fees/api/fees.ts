@@ -2,7 +2,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
 import type {
   BillingAnswer,
-  Fee,
+  FeeAnswer,
   FeeInput,
   FeeWaiverAnswer,
   MyFeesAnswerSchema,
@@ -30,7 +30,7 @@ export const billingCsvHref = (squadId: string) => `/api${squadPath(squadId)}/bi
 export function useSetFee(squadId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: FeeInput) => api.put<{ fee: Fee }>(`${squadPath(squadId)}/fee`, input),
+    mutationFn: (input: FeeInput) => api.put<FeeAnswer>(`${squadPath(squadId)}/fee`, input),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: feeKeys.all }),
   });
 }

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { FuelItem, FuelItemInput } from '../../../../shared/fuel/schemas.ts';
+import type { FuelItem, FuelItemAnswer, FuelItemInput } from '../../../../shared/fuel/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
 
 export async function createFuelItem(input: FuelItemInput): Promise<FuelItem> {
-  const { item } = await api.post<{ item: FuelItem }>('/fuel-items', input);
+  const { item } = await api.post<FuelItemAnswer>('/fuel-items', input);
   return item;
 }
 

@@ -1,7 +1,7 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys, type FuelPlanOwner } from './fuel-keys.ts';
-import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
+import type { FuelPlan, FuelPlanAnswer } from '../../../../shared/fuel/answers.ts';
 
 /** The API path of a fuel plan. */
 export function fuelPlanPath(owner: FuelPlanOwner): string {
@@ -10,7 +10,7 @@ export function fuelPlanPath(owner: FuelPlanOwner): string {
 
 /** A session plan's or the goal race's fuel plan; null when none is saved yet. */
 export async function getFuelPlan(owner: FuelPlanOwner): Promise<FuelPlan | null> {
-  const { fuel_plan } = await api.get<{ fuel_plan: FuelPlan | null }>(fuelPlanPath(owner));
+  const { fuel_plan } = await api.get<FuelPlanAnswer>(fuelPlanPath(owner));
   return fuel_plan;
 }
 

@@ -1,5 +1,5 @@
 import { queryOptions, useQueries, useQuery } from '@tanstack/react-query';
-import type { Plan } from '../../../../shared/plans/schemas.ts';
+import type { Plan, PlanListAnswer } from '../../../../shared/plans/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
 import { fuelPlanQueryOptions } from './get-fuel-plan.ts';
@@ -8,7 +8,7 @@ import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
 /** The session plans on one date (the candidates for the fuel plan a run rehearsed). */
 export async function getSessionsOn(date: string): Promise<Plan[]> {
   const params = new URLSearchParams({ from: date, to: date });
-  const { plans } = await api.get<{ plans: Plan[] }>(`/plans?${params}`);
+  const { plans } = await api.get<PlanListAnswer>(`/plans?${params}`);
   return plans;
 }
 

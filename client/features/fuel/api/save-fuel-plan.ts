@@ -3,11 +3,11 @@ import type { FuelPlanInput } from '../../../../shared/fuel/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys, type FuelPlanOwner } from './fuel-keys.ts';
 import { fuelPlanPath } from './get-fuel-plan.ts';
-import type { FuelPlan } from '../../../../shared/fuel/answers.ts';
+import type { FuelPlan, SavedFuelPlanAnswer } from '../../../../shared/fuel/answers.ts';
 
 /** Saves the inputs; the server computes the schedule, hourly totals, meals and cautions and returns them. */
 export async function saveFuelPlan(owner: FuelPlanOwner, input: FuelPlanInput): Promise<FuelPlan> {
-  const { fuel_plan } = await api.put<{ fuel_plan: FuelPlan }>(fuelPlanPath(owner), input);
+  const { fuel_plan } = await api.put<SavedFuelPlanAnswer>(fuelPlanPath(owner), input);
   return fuel_plan;
 }
 

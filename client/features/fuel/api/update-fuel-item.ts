@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { FuelItem, FuelItemPatch } from '../../../../shared/fuel/schemas.ts';
+import type { FuelItem, FuelItemAnswer, FuelItemPatch } from '../../../../shared/fuel/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { fuelKeys } from './fuel-keys.ts';
 
 export async function updateFuelItem(id: string, patch: FuelItemPatch): Promise<FuelItem> {
-  const { item } = await api.patch<{ item: FuelItem }>(`/fuel-items/${encodeURIComponent(id)}`, patch);
+  const { item } = await api.patch<FuelItemAnswer>(`/fuel-items/${encodeURIComponent(id)}`, patch);
   return item;
 }
 

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { RaceResult, RaceResultInput } from '../../../../shared/goals/schemas.ts';
+import type { RaceResult, RaceResultAnswer, RaceResultInput } from '../../../../shared/goals/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { goalKeys } from './goal-keys.ts';
 
 export async function addRaceResult(input: RaceResultInput): Promise<RaceResult> {
-  const { result } = await api.post<{ result: RaceResult }>('/me/race-results', input);
+  const { result } = await api.post<RaceResultAnswer>('/me/race-results', input);
   return result;
 }
 

@@ -1,11 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RaceResult } from '../../../../shared/goals/schemas.ts';
+import type { RaceResult, RaceResultListAnswer } from '../../../../shared/goals/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { goalKeys } from './goal-keys.ts';
 
 /** The signed-in runner's race results, newest first. */
 export async function getRaceResults(): Promise<RaceResult[]> {
-  const { results } = await api.get<{ results: RaceResult[] }>('/me/race-results');
+  const { results } = await api.get<RaceResultListAnswer>('/me/race-results');
   return results;
 }
 

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { GoalRace, GoalRaceInput } from '../../../../shared/goals/schemas.ts';
+import type { GoalRace, GoalRaceInput, SavedGoalRaceAnswer } from '../../../../shared/goals/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { goalKeys } from './goal-keys.ts';
 
 export async function saveGoalRace(input: GoalRaceInput): Promise<GoalRace> {
-  const { goal_race } = await api.put<{ goal_race: GoalRace }>('/me/goal-race', input);
+  const { goal_race } = await api.put<SavedGoalRaceAnswer>('/me/goal-race', input);
   return goal_race;
 }
 

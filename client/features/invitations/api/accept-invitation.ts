@@ -1,12 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Squad } from '../../../../shared/squads/schemas.ts';
+import type { Squad, SquadAnswer } from '../../../../shared/squads/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { invitationKeys } from './invitation-keys.ts';
 
 export type JoinedSquad = Squad;
 
 export async function acceptInvitation(token: string): Promise<JoinedSquad> {
-  const { squad } = await api.post<{ squad: JoinedSquad }>(`/invitations/${encodeURIComponent(token)}/accept`);
+  const { squad } = await api.post<SquadAnswer>(`/invitations/${encodeURIComponent(token)}/accept`);
   return squad;
 }
 

@@ -1,4 +1,4 @@
-import type { CaughtMessage } from '../../../../shared/api/outbox.ts';
+import type { CaughtMessage, OutboxAnswer } from '../../../../shared/api/outbox.ts';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { outboxKeys } from './outbox-keys.ts';
@@ -7,7 +7,7 @@ export type { CaughtMessage };
 
 /** Messages the local mail catcher holds, newest first; the API answers 404 in production. */
 export async function getOutbox(): Promise<CaughtMessage[]> {
-  const { messages } = await api.get<{ messages: CaughtMessage[] }>('/dev/outbox');
+  const { messages } = await api.get<OutboxAnswer>('/dev/outbox');
   return messages;
 }
 

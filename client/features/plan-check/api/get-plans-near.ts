@@ -1,11 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Plan } from '../../../../shared/plans/schemas.ts';
+import type { Plan, PlanListAnswer } from '../../../../shared/plans/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planCheckKeys, type PlanRange } from './plan-check-keys.ts';
 
 /** The signed-in runner's own session plans between two dates (inclusive). */
 export async function getPlansNear(range: PlanRange): Promise<Plan[]> {
-  const { plans } = await api.get<{ plans: Plan[] }>(`/plans?${new URLSearchParams(range)}`);
+  const { plans } = await api.get<PlanListAnswer>(`/plans?${new URLSearchParams(range)}`);
   return plans;
 }
 

@@ -1,12 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Plan } from '../../../../shared/plans/schemas.ts';
+import type { Plan, PlanAnswer } from '../../../../shared/plans/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
 export type CreatePlanBody = { date: string; title?: string; notes?: string; text: string; runner_id?: string };
 
 export async function createPlan(body: CreatePlanBody): Promise<Plan> {
-  const { plan } = await api.post<{ plan: Plan }>('/plans', body);
+  const { plan } = await api.post<PlanAnswer>('/plans', body);
   return plan;
 }
 

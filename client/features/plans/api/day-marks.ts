@@ -1,12 +1,12 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { DayMark, PutDayMarkInput } from '../../../../shared/plans/prescribe-schemas.ts';
+import type { DayMark, DayMarkAnswer, DayMarkListAnswer, PutDayMarkInput } from '../../../../shared/plans/prescribe-schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys, type PlanListFilters } from './plan-keys.ts';
 
 export async function getDayMarks(filters: PlanListFilters): Promise<DayMark[]> {
   const params = new URLSearchParams({ from: filters.from, to: filters.to });
   if (filters.runner_id) params.set('runner_id', filters.runner_id);
-  const { day_marks } = await api.get<{ day_marks: DayMark[] }>(`/days?${params}`);
+  const { day_marks } = await api.get<DayMarkListAnswer>(`/days?${params}`);
   return day_marks;
 }
 
@@ -18,7 +18,7 @@ export function useDayMarks(filters: PlanListFilters) {
 }
 
 export async function putDayMark({ date, ...body }: PutDayMarkInput & { date: string }): Promise<DayMark> {
-  const { day_mark } = await api.put<{ day_mark: DayMark }>(`/days/${encodeURIComponent(date)}`, body);
+  const { day_mark } = await api.put<DayMarkAnswer>(`/days/${encodeURIComponent(date)}`, body);
   return day_mark;
 }
 

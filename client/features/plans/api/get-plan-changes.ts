@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { PlanChange } from '../../../../shared/plans/prescribe-schemas.ts';
+import type { PlanChange, PlanChangesAnswer } from '../../../../shared/plans/prescribe-schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
 export async function getPlanChanges(planId: string): Promise<PlanChange[]> {
-  const { changes } = await api.get<{ changes: PlanChange[] }>(`/plans/${encodeURIComponent(planId)}/changes`);
+  const { changes } = await api.get<PlanChangesAnswer>(`/plans/${encodeURIComponent(planId)}/changes`);
   return changes;
 }
 

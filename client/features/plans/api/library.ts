@@ -2,13 +2,15 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import type {
   CreateLibrarySessionInput,
   LibrarySession,
+  LibrarySessionAnswer,
+  LibrarySessionListAnswer,
   UpdateLibrarySessionInput,
 } from '../../../../shared/plans/prescribe-schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
 export async function getLibrary(): Promise<LibrarySession[]> {
-  const { sessions } = await api.get<{ sessions: LibrarySession[] }>('/library');
+  const { sessions } = await api.get<LibrarySessionListAnswer>('/library');
   return sessions;
 }
 
@@ -19,12 +21,12 @@ export function useLibrary() {
 }
 
 export async function createLibrarySession(body: CreateLibrarySessionInput): Promise<LibrarySession> {
-  const { session } = await api.post<{ session: LibrarySession }>('/library', body);
+  const { session } = await api.post<LibrarySessionAnswer>('/library', body);
   return session;
 }
 
 export async function updateLibrarySession({ id, ...body }: UpdateLibrarySessionInput & { id: string }): Promise<LibrarySession> {
-  const { session } = await api.patch<{ session: LibrarySession }>(`/library/${encodeURIComponent(id)}`, body);
+  const { session } = await api.patch<LibrarySessionAnswer>(`/library/${encodeURIComponent(id)}`, body);
   return session;
 }
 

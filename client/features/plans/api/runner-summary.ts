@@ -1,10 +1,10 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
-import type { PaceToleranceAnswer, RunnerSummary } from '../../../../shared/plans/prescribe-schemas.ts';
+import type { PaceToleranceAnswer, RunnerSummary, RunnerSummaryAnswer } from '../../../../shared/plans/prescribe-schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { planKeys } from './plan-keys.ts';
 
 export async function getRunnerSummary(runnerId: string): Promise<RunnerSummary> {
-  const { runner } = await api.get<{ runner: RunnerSummary }>(`/runners/${encodeURIComponent(runnerId)}`);
+  const { runner } = await api.get<RunnerSummaryAnswer>(`/runners/${encodeURIComponent(runnerId)}`);
   return runner;
 }
 

@@ -1,10 +1,10 @@
 import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
-import type { Profile } from '../../../../shared/users/schemas.ts';
+import type { Profile, ProfileAnswer } from '../../../../shared/users/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { profileKeys } from './profile-keys.ts';
 
 export async function getProfile(): Promise<Profile> {
-  const { profile } = await api.get<{ profile: Profile }>('/me');
+  const { profile } = await api.get<ProfileAnswer>('/me');
   return profile;
 }
 

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
-import type { NewRunNoteInputSchema, RunNote } from '../../../../shared/runs/schemas.ts';
+import type { NewRunNoteInputSchema, RunNote, RunNoteAnswer } from '../../../../shared/runs/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { runNoteKeys } from './run-note-keys.ts';
 
 export async function addRunNote(runId: string, input: z.output<typeof NewRunNoteInputSchema>): Promise<RunNote> {
-  const { note } = await api.post<{ note: RunNote }>(`/runs/${encodeURIComponent(runId)}/notes`, input);
+  const { note } = await api.post<RunNoteAnswer>(`/runs/${encodeURIComponent(runId)}/notes`, input);
   return note;
 }
 

@@ -2,9 +2,10 @@ import { queryOptions, useSuspenseQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client.ts';
 import { squadKeys } from './squad-keys.ts';
 import type { SquadDetail } from './types.ts';
+import type { SquadListAnswer } from '../../../../shared/squads/schemas.ts';
 
 export async function getSquads(): Promise<SquadDetail[]> {
-  const { squads } = await api.get<{ squads: SquadDetail[] }>('/squads');
+  const { squads } = await api.get<SquadListAnswer>('/squads');
   return squads;
 }
 

@@ -1,13 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
-import type { InvitationSchema, InviteInputSchema } from '../../../../shared/squads/schemas.ts';
+import type { InvitationAnswer, InvitationSchema, InviteInputSchema } from '../../../../shared/squads/schemas.ts';
 import { api } from '../../../lib/api-client.ts';
 import { squadKeys } from './squad-keys.ts';
 
 type Invitation = z.output<typeof InvitationSchema>;
 
 export async function inviteRunner(squadId: string, input: z.output<typeof InviteInputSchema>): Promise<Invitation> {
-  const { invitation } = await api.post<{ invitation: Invitation }>(`/squads/${encodeURIComponent(squadId)}/invitations`, input);
+  const { invitation } = await api.post<InvitationAnswer>(`/squads/${encodeURIComponent(squadId)}/invitations`, input);
   return invitation;
 }
 
