@@ -20,6 +20,7 @@ import { createOutboxRouter } from './features/mail/outbox.routes.ts';
 import { createWeeksRouter } from './features/weeks/weeks.routes.ts';
 import { createNotesRouter } from './features/notes/notes.routes.ts';
 import { createNoticesRouter } from './features/notices/notices.routes.ts';
+import { warmPasswordPool } from './features/auth/password-pool.ts';
 import { warmComputePool } from './features/compute/compute-pool.ts';
 import { createHealthRouter } from './features/health/health.routes.ts';
 import { createHistoryRouter } from './features/history/history.routes.ts';
@@ -58,6 +59,8 @@ export function createApp({
 }: AppDeps): Express {
   // The compute pool's first thread starts loading now rather than on the first upload.
   warmComputePool();
+  // Likewise the password thread, before the first sign-in.
+  warmPasswordPool();
   const app = express();
   app.disable('x-powered-by');
   if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);

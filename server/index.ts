@@ -50,7 +50,13 @@ async function startServices(config: AppConfig, env: NodeJS.ProcessEnv) {
   // processes for single uploads and reads, workers for bulk imports.
   const { configureComputePool, stopComputePool } = await import('./features/compute/compute-pool.ts');
   configureComputePool({ threads: config.computeThreads });
-  return { store, catcher, mailer, stopComputePool };
+  // Bcrypt runs in a pool of its own (server/features/auth/README.md), closed with the compute pool.
+  const { stopPasswordPool } = await import('./features/auth/password-pool.ts');
+  const stopPools = async () => {
+    await stopComputePool();
+    await stopPasswordPool();
+  };
+  return { store, catcher, mailer, stopComputePool: stopPools };
 }
 
 /**

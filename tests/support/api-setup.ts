@@ -1,4 +1,5 @@
 import { afterAll, afterEach, beforeAll, beforeEach } from 'vitest';
+import { stopPasswordPool } from '../../server/features/auth/password-pool.ts';
 import { runComputeJob, stopComputePool, warmComputePool } from '../../server/features/compute/compute-pool.ts';
 import { checkAnswersWith, type AnswerMismatch } from '../../server/lib/api-router.ts';
 import { db } from '../../server/lib/db.ts';
@@ -25,6 +26,7 @@ beforeEach(async () => {
 
 afterAll(async () => {
   await stopComputePool();
+  await stopPasswordPool();
   await db.destroy();
 });
 

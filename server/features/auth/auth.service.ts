@@ -7,24 +7,28 @@ import { findUserByEmail, setPasswordHash } from '../users/index.ts';
 import type { LoginInput } from '../../../shared/auth/schemas.ts';
 import { limitPasswordCheck } from './credential-limiter.ts';
 import { useUpResetsOf } from './password-resets.repository.ts';
+import { compareInThread, hashInThread } from './password-pool.ts';
 import { endSessionsOf } from './sessions.service.ts';
 
 const WRONG_CREDENTIALS = 'That e-mail and password do not match an account.';
 
 // Compared against when the e-mail is unknown, so both failures take the same time; made at the
-// configured cost, the cost every stored hash is brought to at its next sign-in.
+// configured cost, the cost every stored hash is brought to at its next sign-in. Every hash and
+// compare runs in the password threads (password-pool.ts), never on the event loop.
 const dummyHashes = new Map<number, Promise<string>>();
 function dummyHash(cost: number): Promise<string> {
   let hash = dummyHashes.get(cost);
   if (!hash) {
-    hash = bcrypt.hash('not-a-real-password', cost);
+    hash = hashInThread('not-a-real-password', cost);
     dummyHashes.set(cost, hash);
+    // A refused or failed attempt is not remembered: the next sign-in makes it again.
+    hash.catch(() => dummyHashes.delete(cost));
   }
   return hash;
 }
 
 export async function hashPassword(password: string, config: AppConfig): Promise<string> {
-  return bcrypt.hash(password, config.bcryptCost);
+  return hashInThread(password, config.bcryptCost);
 }
 
 /** A hash made at another cost than the configured one is made again now that the password is known. */
@@ -41,7 +45,7 @@ async function rehashIfOutdated(user: UserRow, password: string, config: AppConf
 export async function checkCredentials(input: LoginInput, config: AppConfig, address: string | undefined): Promise<UserRow> {
   return limitPasswordCheck({ email: input.email, address }, config, async () => {
     const user = await findUserByEmail(input.email);
-    const matches = await bcrypt.compare(input.password, user?.password_hash ?? (await dummyHash(config.bcryptCost)));
+    const matches = await compareInThread(input.password, user?.password_hash ?? (await dummyHash(config.bcryptCost)));
     if (!user || !matches) throw new UnauthorizedError(WRONG_CREDENTIALS, 'wrong-credentials');
     await rehashIfOutdated(user, input.password, config);
     return user;
@@ -57,7 +61,7 @@ export async function confirmOwnPassword(
   wrongMessage: string,
 ): Promise<void> {
   await limitPasswordCheck({ email: user.email, address }, config, async () => {
-    if (!(await bcrypt.compare(password, user.password_hash))) throw new UnauthorizedError(wrongMessage, 'wrong-password');
+    if (!(await compareInThread(password, user.password_hash))) throw new UnauthorizedError(wrongMessage, 'wrong-password');
   });
 }
 
