@@ -1,6 +1,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { damage, excerpt } from '../../../support/damaged-xml.ts';
 import { decodeXml } from '../../../../server/features/runs/parse/detect.ts';
 import { ElementScanner } from '../../../../server/features/runs/parse/element-scanner.ts';
 import { readXmlEvents, XmlReadError } from '../../../../server/features/runs/parse/xml-events.ts';
@@ -113,50 +114,7 @@ describe('the track point scanner gives the events saxes gives', () => {
     if ('scanned' in outcome) expect(outcome.scanned).toBe(scanned);
   });
 
-  // Seeded, so a failure repeats. Damage aimed at what the scanner must refuse or leave to saxes.
-  const SNIPPETS = [
-    '<',
-    '>',
-    '&',
-    '&amp;',
-    ']]>',
-    '<!--x-->',
-    '<![CDATA[1]]>',
-    '\r',
-    '\u0000',
-    'é',
-    '"',
-    "'",
-    '=',
-    '/',
-    ' ',
-    '</',
-    '<a>',
-  ];
-  function damage(text: string, random: () => number): string {
-    const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)] as T;
-    // Aim at a track point most of the time: that is where the scanner works.
-    const marker = text.indexOf('<trkpt') >= 0 ? '<trkpt' : '<Trackpoint';
-    const near = text.indexOf(marker, Math.floor(random() * text.length));
-    const at = near >= 0 && random() < 0.8 ? near + Math.floor(random() * 300) : Math.floor(random() * text.length);
-    const kind = random();
-    if (kind < 0.1) return text.slice(0, at);
-    if (kind < 0.5) return text.slice(0, at) + pick(SNIPPETS) + text.slice(at);
-    if (kind < 0.7) return text.slice(0, at) + text.slice(at + 1 + Math.floor(random() * 8));
-    return text.slice(0, at) + String.fromCharCode(Math.floor(random() * 256)) + text.slice(at + 1);
-  }
-
-  /** The sample with only its first 20 points (still well-formed), so a thousand runs stay quick. */
-  function excerpt(file: string, text: string): string {
-    const element = pointElement(file);
-    let cut = -1;
-    for (let k = 0, at = text.indexOf(`<${element}`); k <= 20 && at !== -1; k++, at = text.indexOf(`<${element}`, at + 1)) {
-      cut = at;
-    }
-    const lastEnd = text.lastIndexOf(`</${element}>`);
-    if (cut === -1 || lastEnd < cut) return text;
-    return text.slice(0, cut) + text.slice(lastEnd + element.length + 3);
-  }
+  // Seeded, so a failure repeats (tests/support/damaged-xml.ts: damage aimed at track points).
 
   it('1 000 damaged samples: the same events or the same refusal, with and without the scanner', () => {
     const random = createPrng(8);

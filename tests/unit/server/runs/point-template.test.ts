@@ -7,6 +7,7 @@
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { damage, excerpt } from '../../../support/damaged-xml.ts';
 import { decodeXml, xmlBytesOf } from '../../../../server/features/runs/parse/detect.ts';
 import { readGpx } from '../../../../server/features/runs/parse/gpx-reader.ts';
 import { ImportRejection } from '../../../../server/features/runs/parse/import-rejection.ts';
@@ -388,48 +389,7 @@ describe('track points read by templates give exactly what the events give', () 
 });
 
 describe('damaged files: the same result or the same refusal with and without templates', () => {
-  // The damage of element-scanner.test.ts (same snippets, same seed), aimed at track points.
-  const SNIPPETS = [
-    '<',
-    '>',
-    '&',
-    '&amp;',
-    ']]>',
-    '<!--x-->',
-    '<![CDATA[1]]>',
-    '\r',
-    '\u0000',
-    'é',
-    '"',
-    "'",
-    '=',
-    '/',
-    ' ',
-    '</',
-    '<a>',
-  ];
-  function damage(text: string, random: () => number): string {
-    const pick = <T>(list: readonly T[]): T => list[Math.floor(random() * list.length)] as T;
-    const marker = text.indexOf('<trkpt') >= 0 ? '<trkpt' : '<Trackpoint';
-    const near = text.indexOf(marker, Math.floor(random() * text.length));
-    const at = near >= 0 && random() < 0.8 ? near + Math.floor(random() * 300) : Math.floor(random() * text.length);
-    const kind = random();
-    if (kind < 0.1) return text.slice(0, at);
-    if (kind < 0.5) return text.slice(0, at) + pick(SNIPPETS) + text.slice(at);
-    if (kind < 0.7) return text.slice(0, at) + text.slice(at + 1 + Math.floor(random() * 8));
-    return text.slice(0, at) + String.fromCharCode(Math.floor(random() * 256)) + text.slice(at + 1);
-  }
-  /** The first 20 points (still well-formed), so a thousand files stay quick. */
-  function excerpt(file: string, text: string): string {
-    const element = file.endsWith('.tcx') ? 'Trackpoint' : 'trkpt';
-    let cut = -1;
-    for (let k = 0, at = text.indexOf(`<${element}`); k <= 20 && at !== -1; k++, at = text.indexOf(`<${element}`, at + 1)) {
-      cut = at;
-    }
-    const lastEnd = text.lastIndexOf(`</${element}>`);
-    if (cut === -1 || lastEnd < cut) return text;
-    return text.slice(0, cut) + text.slice(lastEnd + element.length + 3);
-  }
+  // The same damage as element-scanner.test.ts (tests/support/damaged-xml.ts), same seed.
   const small = [
     ...SAMPLES.map((s) => ({ file: s.file, text: excerpt(s.file, decodeXml(s.bytes)) })),
     ...GENERATED.slice(0, 3).map((g) => ({ file: g.file, text: excerpt(g.file, g.bytes.toString('utf8')) })),
