@@ -42,6 +42,7 @@ import { generateLakeRun, longRunPhases } from '../../shared/tracks/synthetic.ts
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import type { UploadDriverMessage, UploadDriverReply, UploadDriverResult } from './upload-driver.ts';
 import { UploadTally } from './upload-tally.ts';
+import { api } from './json-api.ts';
 
 const SECONDS = Number(process.env.LOAD_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.LOAD_CONNECTIONS ?? 50);
@@ -157,16 +158,6 @@ async function prepareDatabase(): Promise<{ url: string; drop: (() => Promise<vo
     throw new Error('loading the demo data failed');
   }
   return { url, drop };
-}
-
-async function api<T>(base: string, method: string, urlPath: string, token: string | null, body?: unknown): Promise<T> {
-  const response = await fetch(`${base}${urlPath}`, {
-    method,
-    headers: { 'content-type': 'application/json', ...(token ? { authorization: `Bearer ${token}` } : {}) },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  if (!response.ok) throw new Error(`${method} ${urlPath}: ${response.status} ${await response.text()}`);
-  return (await response.json()) as T;
 }
 
 /** Requests in the server and 5xx answers, counted on the server's side of the socket. */

@@ -21,6 +21,7 @@ import type { IncomingMessage, Server } from 'node:http';
 import { tmpdir } from 'node:os';
 import { Session } from 'node:inspector/promises';
 import path from 'node:path';
+import { api } from './json-api.ts';
 import type { UploadClientReply, UploadClientRequest } from './upload-client.ts';
 
 export interface UploadCaseResult {
@@ -36,16 +37,6 @@ export interface UploadCaseResult {
   cpu_ms: number;
   /** The same per thread (Linux, 10 ms ticks): the event loop, the compute thread, libuv's and V8's helpers. */
   cpu_ms_by_thread: Record<string, number>;
-}
-
-async function api<T>(base: string, method: string, urlPath: string, token: string | null, body?: unknown): Promise<T> {
-  const response = await fetch(`${base}${urlPath}`, {
-    method,
-    headers: { 'content-type': 'application/json', ...(token ? { authorization: `Bearer ${token}` } : {}) },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  if (!response.ok) throw new Error(`${method} ${urlPath}: ${response.status} ${await response.text()}`);
-  return (await response.json()) as T;
 }
 
 /** A new runner (sign-up, the link the mail catcher kept, a bearer token). */
