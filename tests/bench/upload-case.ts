@@ -4,7 +4,7 @@
  *
  * the app started in this process on 127.0.0.1 against the bench's fresh, migrated database
  * (BENCH_DATABASE_URL, made once per `npm run bench`), a new runner signed up through the API, one
- * warm-up upload of a 12-minute file of the same format (so the compute thread is started and its hot
+ * warm-up upload of a one-hour file of the same format (a different run) (so the compute thread is started and its hot
  * paths compiled, like the pipeline case's warm-up), then the measured upload: `POST /api/runs` with
  * the file as a multipart part named "files", as the client sends it, timed from the request's start
  * to the whole answer. The client is its own process (upload-client.ts), as a browser would be. CPU is
