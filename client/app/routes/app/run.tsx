@@ -11,7 +11,7 @@ import { FuelTakenCard } from '../../../features/fuel/components/fuel-taken-card
 import { planCheckQueryOptions } from '../../../features/plan-check/api/get-plan-check.ts';
 import { PlanCheckCard } from '../../../features/plan-check/components/plan-check-card.tsx';
 import { useProfile } from '../../../features/profile/api/get-profile.ts';
-import { useUpdateProfile } from '../../../features/profile/api/update-profile.ts';
+import { useUnitChoice } from '../../../features/profile/api/use-unit-choice.ts';
 import { runNotesQueryOptions } from '../../../features/run-notes/api/get-run-notes.ts';
 import { RunNotesCard } from '../../../features/run-notes/components/run-notes-card.tsx';
 import { runQueryOptions, useRun } from '../../../features/runs/api/get-run.ts';
@@ -52,8 +52,7 @@ export default function RunRoute() {
   const profile = useProfile();
   // One unit setting (issue 17): this card's toggle saves it to the profile like the top bar's switch, so the
   // whole app moves together and it is remembered; the chosen unit shows while the save is in flight.
-  const saveUnit = useUpdateProfile();
-  const unit: Unit = (saveUnit.isPending && saveUnit.variables.unit) || profile.unit;
+  const { unit, choose: chooseUnit } = useUnitChoice();
   const isOwner = me?.id === run.owner_id;
   const { details } = run;
 
@@ -81,7 +80,7 @@ export default function RunRoute() {
       <Card
         title="Splits"
         description={`Per ${UNIT_WORDS[unit]}; pace from moving time. Sort by any column.`}
-        actions={<UnitToggle label="Split unit" value={unit} onChange={(next) => saveUnit.mutate({ unit: next })} />}
+        actions={<UnitToggle label="Split unit" value={unit} onChange={chooseUnit} />}
       >
         {run.splits[unit].length > 0 ? (
           <SplitTable splits={run.splits[unit]} unit={unit} unitLabel={UNIT_WORDS[unit]} />

@@ -1,5 +1,6 @@
 import { useId } from 'react';
 import { NOTICE_KIND_INFO, type NoticeKind } from '../../../../shared/notices/kinds.ts';
+import { useHeldChoice } from '../../../lib/use-held-choice.ts';
 import { useSetNoticeSwitch } from '../api/notice-switches.ts';
 
 /** One kind of notice e-mail, on or off; saved as soon as it is ticked or cleared. */
@@ -7,8 +8,8 @@ export function NoticeSwitch({ kind, on }: { kind: NoticeKind; on: boolean }) {
   const mutation = useSetNoticeSwitch(kind);
   const hintId = useId();
   const info = NOTICE_KIND_INFO[kind];
-  // Show the new choice while the save is in flight; on failure it falls back to the saved one.
-  const checked = mutation.isPending ? mutation.variables : on;
+  // The new choice shows at once and while the save is in flight; on failure it falls back to the saved one.
+  const { shown: checked, hold, release } = useHeldChoice(on);
 
   return (
     <li className="flex flex-col gap-1">
@@ -17,7 +18,10 @@ export function NoticeSwitch({ kind, on }: { kind: NoticeKind; on: boolean }) {
           type="checkbox"
           checked={checked}
           aria-describedby={hintId}
-          onChange={(event) => mutation.mutate(event.target.checked)}
+          onChange={(event) => {
+            hold(event.target.checked);
+            mutation.mutate(event.target.checked, { onError: release });
+          }}
           className="mt-1 size-4 accent-teal"
         />
         <span className="font-semibold">{info.label}</span>
