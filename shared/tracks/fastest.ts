@@ -16,40 +16,42 @@ export function fastestSection(series: TrackSeries, distanceM: number): FastestS
   const { t, d } = series;
   const n = t.length;
   if (n < 2 || !(distanceM > 0) || (d[n - 1] as number) - (d[0] as number) < distanceM) return null;
-  let best: FastestSection | null = null;
-  const consider = (startT: number, endT: number, startD: number): void => {
-    const time = (endT - startT) / 1000;
-    if (best === null || time < best.time_s) {
-      best = {
-        distance_m: distanceM,
-        time_s: time,
-        pace_s_per_km: time / (distanceM / 1000),
-        start_t: startT,
-        end_t: endT,
-        start_distance_m: startD,
-      };
-    }
-  };
+  // The best so far in plain numbers (no object or closure per point): time, start, end, start distance.
+  let found = false;
+  let bestTime = 0;
+  let bestStartT = 0;
+  let bestEndT = 0;
+  let bestStartD = 0;
 
   // Ends on a point j: start where distance d[j] − D was last held.
   let i = 0;
   for (let j = 1; j < n; j++) {
-    const target = (d[j] as number) - distanceM;
+    const dj = d[j] as number;
+    const target = dj - distanceM;
     if (target < (d[0] as number)) continue;
-    if ((d[j] as number) === (d[j - 1] as number)) continue; // the earliest arrival at d[j] is earlier
+    if (dj === (d[j - 1] as number)) continue; // the earliest arrival at d[j] is earlier
     while (i + 1 < j && (d[i + 1] as number) <= target) i++;
     const d0 = d[i] as number;
     const d1 = d[i + 1] as number;
     const t0 = t[i] as number;
     const startT = d1 > d0 ? t0 + ((target - d0) / (d1 - d0)) * ((t[i + 1] as number) - t0) : t0;
-    consider(startT, t[j] as number, target);
+    const endT = t[j] as number;
+    const time = (endT - startT) / 1000;
+    if (!found || time < bestTime) {
+      found = true;
+      bestTime = time;
+      bestStartT = startT;
+      bestEndT = endT;
+      bestStartD = target;
+    }
   }
 
   // Starts on a point s (as it leaves it): end where distance d[s] + D is first reached.
   let j = 1;
   for (let s = 0; s + 1 < n; s++) {
-    if ((d[s + 1] as number) === (d[s] as number)) continue; // still standing: a later start is faster
-    const target = (d[s] as number) + distanceM;
+    const ds = d[s] as number;
+    if ((d[s + 1] as number) === ds) continue; // still standing: a later start is faster
+    const target = ds + distanceM;
     if (target > (d[n - 1] as number)) break;
     if (j <= s) j = s + 1;
     while ((d[j] as number) < target) j++;
@@ -57,9 +59,25 @@ export function fastestSection(series: TrackSeries, distanceM: number): FastestS
     const d1 = d[j] as number;
     const t0 = t[j - 1] as number;
     const endT = d1 > d0 ? t0 + ((target - d0) / (d1 - d0)) * ((t[j] as number) - t0) : t0;
-    consider(t[s] as number, endT, d[s] as number);
+    const startT = t[s] as number;
+    const time = (endT - startT) / 1000;
+    if (!found || time < bestTime) {
+      found = true;
+      bestTime = time;
+      bestStartT = startT;
+      bestEndT = endT;
+      bestStartD = ds;
+    }
   }
-  return best;
+  if (!found) return null;
+  return {
+    distance_m: distanceM,
+    time_s: bestTime,
+    pace_s_per_km: bestTime / (distanceM / 1000),
+    start_t: bestStartT,
+    end_t: bestEndT,
+    start_distance_m: bestStartD,
+  };
 }
 
 /** Fastest sections for every standard distance the run covers, shortest first. */

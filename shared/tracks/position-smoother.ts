@@ -76,7 +76,12 @@ export function metresPerDegree(latDeg: number): { north: number; east: number }
  * used for the many short steps of a smoothed track.
  */
 export function localDistance(lat1: number, lon1: number, lat2: number, lon2: number): number {
-  const { north, east } = metresPerDegree((lat1 + lat2) / 2);
+  // `metresPerDegree` written out (the same operations): no object per step of a 100 000-point track.
+  const latDeg = (lat1 + lat2) / 2;
+  const s = Math.sin(latDeg * DEG);
+  const w = Math.sqrt(1 - WGS84_E2 * s * s);
+  const north = ((WGS84_A * (1 - WGS84_E2)) / (w * w * w)) * DEG;
+  const east = (WGS84_A / w) * Math.cos(latDeg * DEG) * DEG;
   let dLon = lon2 - lon1;
   if (dLon > 180) dLon -= 360;
   else if (dLon < -180) dLon += 360;
@@ -92,12 +97,47 @@ export interface JitterEstimate {
   samples: number;
 }
 
-/** Median of the first `count` values (reorders them). */
+/**
+ * The `k`-th smallest (0-based) of the first `count` values, which are finite: the value `sort()` would
+ * put at index k, found in linear expected time by partitioning around a pivot (Hoare's FIND, in Wirth's
+ * form: N. Wirth 1976, "Algorithms + Data Structures = Programs", §2.3.4). Reorders the values so that
+ * those before k are no larger and those after no smaller. Sorting the 20 000–100 000 values of a long
+ * run only to read its middle took several times longer.
+ */
+export function kthSmallest(values: Float64Array, count: number, k: number): number {
+  let lo = 0;
+  let hi = count - 1;
+  while (lo < hi) {
+    const pivot = values[k] as number;
+    let i = lo;
+    let j = hi;
+    do {
+      while ((values[i] as number) < pivot) i++;
+      while (pivot < (values[j] as number)) j--;
+      if (i <= j) {
+        const swap = values[i] as number;
+        values[i] = values[j] as number;
+        values[j] = swap;
+        i++;
+        j--;
+      }
+    } while (i <= j);
+    if (j < k) lo = i;
+    if (k < i) hi = j;
+  }
+  return values[k] as number;
+}
+
+/** Median of the first `count` values, which are finite (reorders them). */
 function median(values: Float64Array, count: number): number {
-  const view = values.subarray(0, count).sort();
   if (count === 0) return Number.NaN;
   const mid = count >> 1;
-  return count % 2 ? (view[mid] as number) : ((view[mid - 1] as number) + (view[mid] as number)) / 2;
+  if (count % 2) return kthSmallest(values, count, mid);
+  const below = kthSmallest(values, count, mid - 1);
+  // Everything after index mid − 1 is no smaller: the next value up is their least.
+  let above = values[mid] as number;
+  for (let i = mid + 1; i < count; i++) if ((values[i] as number) < above) above = values[i] as number;
+  return (below + above) / 2;
 }
 
 /**
@@ -265,7 +305,21 @@ export function smootherWeights(intervalS: number, filterSigmaM: number, q = ACC
   const z = new Float64Array(n);
   z[RESPONSE_HALF_WIDTH] = 1;
   const w = new Float64Array(n);
-  smoothStretch(t, z, new Float64Array(n), w, new Float64Array(n), new Float64Array(2 * n), 0, n, filterSigmaM * filterSigmaM, q);
+  const sv = new Float64Array(2 * n);
+  smoothStretch(
+    t,
+    z,
+    new Float64Array(n),
+    w,
+    new Float64Array(n),
+    sv,
+    0,
+    n,
+    filterSigmaM * filterSigmaM,
+    q,
+    null,
+    stretchWork(n),
+  );
   return w;
 }
 
@@ -345,7 +399,7 @@ export function smoothPositions(
   qSteps: Float64Array | null = null,
 ): SmoothedPositions {
   const plane = toPlane(lat, lon);
-  const states = smoothInPlane(t, plane, segmentStart, sigmaM * sigmaM, q, qSteps, null);
+  const states = smoothInPlane(t, plane, segmentStart, sigmaM * sigmaM, q, qSteps, null, stretchWork(t.length));
   return fromPlane(plane, states);
 }
 
@@ -411,6 +465,7 @@ function smoothInPlane(
   q: number,
   qSteps: Float64Array | null,
   redo: { marks: Uint8Array; into: PlaneStates } | null,
+  work: StretchWork,
 ): PlaneStates {
   const n = t.length;
   const states = redo ? redo.into : { sx: new Float64Array(n), sy: new Float64Array(n), sv: new Float64Array(2 * n) };
@@ -420,7 +475,7 @@ function smoothInPlane(
     if (redo && redo.marks[i - 1]) marked = true;
     const ends = i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
     if (!ends) continue;
-    if (!redo || marked) smoothStretch(t, plane.x, plane.y, states.sx, states.sy, states.sv, start, i, r, q, qSteps);
+    if (!redo || marked) smoothStretch(t, plane.x, plane.y, states.sx, states.sy, states.sv, start, i, r, q, qSteps, work);
     start = i;
     marked = false;
   }
@@ -549,26 +604,50 @@ export function smoothPositionsThroughTurns(
 ): SmoothedPositions {
   const plane = toPlane(lat, lon);
   const r = sigmaM * sigmaM;
-  const first = smoothInPlane(t, plane, segmentStart, r, q, null, null);
   const n = t.length;
+  const work = stretchWork(n);
+  const first = smoothInPlane(t, plane, segmentStart, r, q, null, null, work);
   const east = new Float64Array(n);
   const north = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    east[i] = first.sv[2 * i] as number;
-    north[i] = first.sv[2 * i + 1] as number;
-  }
+  splitVelocities(first.sv, east, north);
   const turns = findManoeuvres(t, east, north, segmentStart);
   const stops = findStopEdges(t, east, north, segmentStart);
-  const marks = turns && stops ? turns.map((mark, i) => mark | (stops[i] as number)) : (turns ?? stops);
+  const marks = turns && stops ? eitherMarked(turns, stops) : (turns ?? stops);
   if (!marks) return { ...fromPlane(plane, first), manoeuvre: null, turn: null };
-  const qSteps = new Float64Array(n).fill(q);
-  // The step into point i is inside the manoeuvre when both its ends are.
-  const qTurn = Math.max(q, r * TURN_CUTOFF_RAD_S ** 4);
-  for (let i = 1; i < n; i++) if (marks[i] && marks[i - 1]) qSteps[i] = qTurn;
-  const second = smoothInPlane(t, plane, segmentStart, r, q, qSteps, { marks, into: first });
+  const qSteps = new Float64Array(n);
   const manoeuvre = new Uint8Array(n);
-  for (let i = 1; i < n; i++) manoeuvre[i] = qSteps[i] === q ? 0 : 1;
+  // The step into point i is inside the manoeuvre when both its ends are.
+  manoeuvreNoise(marks, q, Math.max(q, r * TURN_CUTOFF_RAD_S ** 4), qSteps, manoeuvre);
+  const second = smoothInPlane(t, plane, segmentStart, r, q, qSteps, { marks, into: first }, work);
   return { ...fromPlane(plane, second), manoeuvre, turn: turns };
+}
+
+/** East and north velocities out of the interleaved smoothed velocities. */
+function splitVelocities(sv: Float64Array, east: Float64Array, north: Float64Array): void {
+  for (let i = 0; i < east.length; i++) {
+    east[i] = sv[2 * i] as number;
+    north[i] = sv[2 * i + 1] as number;
+  }
+}
+
+function eitherMarked(a: Uint8Array, b: Uint8Array): Uint8Array {
+  const marks = new Uint8Array(a.length);
+  for (let i = 0; i < a.length; i++) marks[i] = (a[i] as number) | (b[i] as number);
+  return marks;
+}
+
+/**
+ * Process noise of each step (`qTurn` where both ends are marked, else `q`) and 1 in `manoeuvre` where it
+ * is not `q`.
+ */
+function manoeuvreNoise(marks: Uint8Array, q: number, qTurn: number, qSteps: Float64Array, manoeuvre: Uint8Array): void {
+  const n = qSteps.length;
+  if (n > 0) qSteps[0] = q;
+  for (let i = 1; i < n; i++) {
+    const stepQ = marks[i] && marks[i - 1] ? qTurn : q;
+    qSteps[i] = stepQ;
+    manoeuvre[i] = stepQ === q ? 0 : 1;
+  }
 }
 
 /** Bends whose smoother gain is below this are not corrected by `bendGainFactors` (not a steady turn). */
@@ -624,7 +703,28 @@ export interface SmoothedPositions {
   turn?: Uint8Array | null;
 }
 
-/** Filter and smooth points [from, to) of both axes; the covariances are shared by the axes. */
+/**
+ * Room for the forward pass of `smoothStretch` over up to `capacity` points, made once per smoothing and
+ * reused by every stretch and by both passes of `smoothPositionsThroughTurns` (a 30 h file at 1 s is
+ * 108 000 points: fresh arrays per pass were a good part of the garbage collector's work).
+ */
+interface StretchWork {
+  /** Filtered state per point: east position, east velocity, north position, north velocity. */
+  filtered: Float64Array;
+  /** The RTS smoother gain Cₖ per point: c00, c01, c10, c11 (shared by both axes). */
+  gain: Float64Array;
+}
+
+function stretchWork(capacity: number): StretchWork {
+  return { filtered: new Float64Array(4 * capacity), gain: new Float64Array(4 * capacity) };
+}
+
+/**
+ * Filter and smooth points [from, to) of both axes; the covariances are shared by the axes. The smoother
+ * gain Cₖ = Pₖ Fᵀ (P⁻ₖ₊₁)⁻¹ is formed in the forward pass as soon as P⁻ₖ₊₁ is known (the same operations
+ * in the same order as forming it in the backward pass, so the same bits), and the predicted state
+ * x⁻ₖ₊₁ = F x̂ₖ is formed again in the backward pass from the filtered one: only 8 numbers per point are kept.
+ */
 function smoothStretch(
   t: ArrayLike<number>,
   x: Float64Array,
@@ -636,7 +736,8 @@ function smoothStretch(
   to: number,
   r: number,
   qAll: number,
-  qSteps: Float64Array | null = null,
+  qSteps: Float64Array | null,
+  work: StretchWork,
 ): void {
   const len = to - from;
   if (len < 3) {
@@ -654,97 +755,92 @@ function smoothStretch(
     }
     return;
   }
-  // Filtered state (position, velocity) per axis and covariance [p00, p01, p11]; predicted ones too.
-  const fx = new Float64Array(2 * len);
-  const fy = new Float64Array(2 * len);
-  const px = new Float64Array(2 * len);
-  const py = new Float64Array(2 * len);
-  const fP = new Float64Array(3 * len);
-  const pP = new Float64Array(3 * len);
+  const f = work.filtered;
+  const c = work.gain;
   // First point: position as measured, velocity unknown (10 m/s standard deviation).
   let a00 = r;
   let a01 = 0;
   let a11 = 100;
-  fx[0] = x[from] as number;
-  fx[1] = 0;
-  fy[0] = y[from] as number;
-  fy[1] = 0;
-  fP[0] = a00;
-  fP[1] = a01;
-  fP[2] = a11;
+  let xPos = x[from] as number;
+  let xVel = 0;
+  let yPos = y[from] as number;
+  let yVel = 0;
+  f[0] = xPos;
+  f[1] = xVel;
+  f[2] = yPos;
+  f[3] = yVel;
+  let tPrev = t[from] as number;
   for (let k = 1; k < len; k++) {
-    const dt = ((t[from + k] as number) - (t[from + k - 1] as number)) / 1000;
+    const tk = t[from + k] as number;
+    const dt = (tk - tPrev) / 1000;
+    tPrev = tk;
     const q = qSteps ? (qSteps[from + k] as number) : qAll;
     // Predict: P⁻ = F P Fᵀ + Q.
     const b00 = a00 + 2 * dt * a01 + dt * dt * a11 + (q * dt * dt * dt) / 3;
     const b01 = a01 + dt * a11 + (q * dt * dt) / 2;
     const b11 = a11 + q * dt;
-    pP[3 * k] = b00;
-    pP[3 * k + 1] = b01;
-    pP[3 * k + 2] = b11;
-    const xPos = (fx[2 * k - 2] as number) + dt * (fx[2 * k - 1] as number);
-    const xVel = fx[2 * k - 1] as number;
-    const yPos = (fy[2 * k - 2] as number) + dt * (fy[2 * k - 1] as number);
-    const yVel = fy[2 * k - 1] as number;
-    px[2 * k] = xPos;
-    px[2 * k + 1] = xVel;
-    py[2 * k] = yPos;
-    py[2 * k + 1] = yVel;
-    // Update with the measured position: gain K = P⁻Hᵀ / (HP⁻Hᵀ + r).
-    const s = b00 + r;
-    const k0 = b00 / s;
-    const k1 = b01 / s;
-    const ix = (x[from + k] as number) - xPos;
-    const iy = (y[from + k] as number) - yPos;
-    fx[2 * k] = xPos + k0 * ix;
-    fx[2 * k + 1] = xVel + k1 * ix;
-    fy[2 * k] = yPos + k0 * iy;
-    fy[2 * k + 1] = yVel + k1 * iy;
-    a00 = (1 - k0) * b00;
-    a01 = (1 - k0) * b01;
-    a11 = b11 - k1 * b01;
-    fP[3 * k] = a00;
-    fP[3 * k + 1] = a01;
-    fP[3 * k + 2] = a11;
-  }
-  // RTS backward pass: x̂ₖ = xₖ + Cₖ (x̂ₖ₊₁ − x⁻ₖ₊₁), Cₖ = Pₖ Fᵀ (P⁻ₖ₊₁)⁻¹.
-  let xPos = fx[2 * len - 2] as number;
-  let xVel = fx[2 * len - 1] as number;
-  let yPos = fy[2 * len - 2] as number;
-  let yVel = fy[2 * len - 1] as number;
-  sx[to - 1] = xPos;
-  sy[to - 1] = yPos;
-  sv[2 * (to - 1)] = xVel;
-  sv[2 * (to - 1) + 1] = yVel;
-  for (let k = len - 2; k >= 0; k--) {
-    const dt = ((t[from + k + 1] as number) - (t[from + k] as number)) / 1000;
-    const p00 = fP[3 * k] as number;
-    const p01 = fP[3 * k + 1] as number;
-    const p11 = fP[3 * k + 2] as number;
-    // P Fᵀ
-    const m00 = p00 + dt * p01;
-    const m01 = p01;
-    const m10 = p01 + dt * p11;
-    const m11 = p11;
-    const b00 = pP[3 * (k + 1)] as number;
-    const b01 = pP[3 * (k + 1) + 1] as number;
-    const b11 = pP[3 * (k + 1) + 2] as number;
+    // Smoother gain of point k − 1: P Fᵀ (P⁻)⁻¹.
+    const m00 = a00 + dt * a01;
+    const m01 = a01;
+    const m10 = a01 + dt * a11;
+    const m11 = a11;
     const det = b00 * b11 - b01 * b01;
     const i00 = b11 / det;
     const i01 = -b01 / det;
     const i11 = b00 / det;
-    const c00 = m00 * i00 + m01 * i01;
-    const c01 = m00 * i01 + m01 * i11;
-    const c10 = m10 * i00 + m11 * i01;
-    const c11 = m10 * i01 + m11 * i11;
-    const dxp = xPos - (px[2 * k + 2] as number);
-    const dxv = xVel - (px[2 * k + 3] as number);
-    const dyp = yPos - (py[2 * k + 2] as number);
-    const dyv = yVel - (py[2 * k + 3] as number);
-    xPos = (fx[2 * k] as number) + c00 * dxp + c01 * dxv;
-    xVel = (fx[2 * k + 1] as number) + c10 * dxp + c11 * dxv;
-    yPos = (fy[2 * k] as number) + c00 * dyp + c01 * dyv;
-    yVel = (fy[2 * k + 1] as number) + c10 * dyp + c11 * dyv;
+    const g = 4 * (k - 1);
+    c[g] = m00 * i00 + m01 * i01;
+    c[g + 1] = m00 * i01 + m01 * i11;
+    c[g + 2] = m10 * i00 + m11 * i01;
+    c[g + 3] = m10 * i01 + m11 * i11;
+    const xPred = xPos + dt * xVel;
+    const yPred = yPos + dt * yVel;
+    // Update with the measured position: gain K = P⁻Hᵀ / (HP⁻Hᵀ + r).
+    const s = b00 + r;
+    const k0 = b00 / s;
+    const k1 = b01 / s;
+    const ix = (x[from + k] as number) - xPred;
+    const iy = (y[from + k] as number) - yPred;
+    xPos = xPred + k0 * ix;
+    xVel = xVel + k1 * ix;
+    yPos = yPred + k0 * iy;
+    yVel = yVel + k1 * iy;
+    const at = 4 * k;
+    f[at] = xPos;
+    f[at + 1] = xVel;
+    f[at + 2] = yPos;
+    f[at + 3] = yVel;
+    a00 = (1 - k0) * b00;
+    a01 = (1 - k0) * b01;
+    a11 = b11 - k1 * b01;
+  }
+  // RTS backward pass: x̂ₖ = xₖ + Cₖ (x̂ₖ₊₁ − x⁻ₖ₊₁).
+  sx[to - 1] = xPos;
+  sy[to - 1] = yPos;
+  sv[2 * (to - 1)] = xVel;
+  sv[2 * (to - 1) + 1] = yVel;
+  let tNext = t[to - 1] as number;
+  for (let k = len - 2; k >= 0; k--) {
+    const tk = t[from + k] as number;
+    const dt = (tNext - tk) / 1000;
+    tNext = tk;
+    const at = 4 * k;
+    const fxPos = f[at] as number;
+    const fxVel = f[at + 1] as number;
+    const fyPos = f[at + 2] as number;
+    const fyVel = f[at + 3] as number;
+    const c00 = c[at] as number;
+    const c01 = c[at + 1] as number;
+    const c10 = c[at + 2] as number;
+    const c11 = c[at + 3] as number;
+    const dxp = xPos - (fxPos + dt * fxVel);
+    const dxv = xVel - fxVel;
+    const dyp = yPos - (fyPos + dt * fyVel);
+    const dyv = yVel - fyVel;
+    xPos = fxPos + c00 * dxp + c01 * dxv;
+    xVel = fxVel + c10 * dxp + c11 * dxv;
+    yPos = fyPos + c00 * dyp + c01 * dyv;
+    yVel = fyVel + c10 * dyp + c11 * dyv;
     sx[from + k] = xPos;
     sy[from + k] = yPos;
     sv[2 * (from + k)] = xVel;

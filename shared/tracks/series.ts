@@ -12,6 +12,7 @@ import {
   arcFactors,
   bendGainFactors,
   curveFactors,
+  kthSmallest,
   localDistance,
   MAX_SMOOTHED_INTERVAL_S,
   measureJitter,
@@ -101,8 +102,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
 
   const segmentBreak = new Uint8Array(n);
   for (const s of starts) if (s > 0 && s < n) segmentBreak[s] = 1;
-  const segmentOf = new Int32Array(n);
-  for (let i = 1; i < n; i++) segmentOf[i] = (segmentOf[i - 1] as number) + (segmentBreak[i] as number);
+  const segmentOf = segmentNumbers(segmentBreak);
 
   const d = new Float64Array(n);
   const moving = new Uint8Array(n);
@@ -116,14 +116,8 @@ export function buildSeries(track: CleanTrack): TrackSeries {
   };
   if (source === 'device') {
     const filled = fillMissing(t, withoutDistanceSpikes(t, points.column('distance_m'))) ?? new Float64Array(n);
-    const d0 = filled[0] ?? 0;
-    let level = 0;
-    for (let i = 0; i < n; i++) {
-      level = Math.max(level, (filled[i] as number) - d0);
-      d[i] = level;
-    }
-    const displacement = (a: number, b: number): number => (d[b] as number) - (d[a] as number);
-    classifyMoving(t, segmentOf, displacement, moving);
+    nonDecreasingFromStart(filled, d);
+    classifyMoving(t, segmentOf, { d, lat: null, lon: null, along: null, turnsUpTo: null }, moving);
     const total = n > 0 ? (d[n - 1] as number) : 0;
     report = { ...report, raw_distance_m: total, distance_m: total };
   } else if (source === 'geodesic') {
@@ -134,48 +128,31 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       // Noisy 1–2 s track: moving time and distance from the smoothed path (position-smoother.ts),
       // so standing jitter neither counts as moving nor adds length; the raw sum is kept for the report.
       const smooth = smoothPositionsThroughTurns(t, lat, lon, segmentBreak, jitter.sigma_m);
-      const chord = (a: number, b: number): number =>
-        approxDistance(smooth.lat[a] as number, smooth.lon[a] as number, smooth.lat[b] as number, smooth.lon[b] as number);
+      const sLat = smooth.lat;
+      const sLon = smooth.lon;
       // Inside a turn the window is judged on the smoothed path's length, not the straight line between
       // its ends: on a 6 m turnaround that line is the 12 m diameter whatever the speed, under the
       // moving threshold of a file with about 1 m of jitter, and the running round it was lost.
       const along = new Float64Array(n);
       const turnsUpTo = new Int32Array(n);
-      for (let i = 1; i < n; i++) {
-        along[i] = (along[i - 1] as number) + chord(i - 1, i);
-        turnsUpTo[i] = (turnsUpTo[i - 1] as number) + (smooth.turn?.[i] ?? 0);
-      }
-      const displacement = (a: number, b: number): number =>
-        turnsUpTo[b] !== turnsUpTo[a] ? (along[b] as number) - (along[a] as number) : chord(a, b);
-      classifyMoving(t, segmentOf, displacement, moving, noiseAwareMovingSpeed(jitter.sigma_m));
-      const bends = arcFactors(t, smooth.lat, smooth.lon, segmentBreak, moving);
+      pathAlong(sLat, sLon, smooth.turn ?? null, along, turnsUpTo);
+      classifyMoving(
+        t,
+        segmentOf,
+        { d: null, lat: sLat, lon: sLon, along, turnsUpTo },
+        moving,
+        noiseAwareMovingSpeed(jitter.sigma_m),
+      );
+      const bends = arcFactors(t, sLat, sLon, segmentBreak, moving);
       // The smoother draws a steady bend on a smaller radius (`bendGainFactors`): given back per step.
       const gains = bendGainFactors(t, smooth, segmentBreak, moving, jitter.sigma_m);
+      // Each moving step of the smoothed path, and the raw sum point to point kept for the report.
       const chords = new Float64Array(n);
-      for (let i = 1; i < n; i++)
-        if (moving[i])
-          chords[i] = localDistance(
-            smooth.lat[i - 1] as number,
-            smooth.lon[i - 1] as number,
-            smooth.lat[i] as number,
-            smooth.lon[i] as number,
-          );
+      const raw = movingSteps(moving, sLat, sLon, lat, lon, chords);
       // The slow wander the smoother lets through still adds length (position-smoother.ts,
       // `stepWithoutNoise`): taken out when it is large enough to matter (`MIN_CORRECTED_EXCESS`).
       const stepNoise = noiseToRemove(t, chords, moving, jitter, measureWander(t, lat, lon, segmentBreak, jitter));
-      const intervalMs = jitter.median_interval_s * 1000;
-      let raw = 0;
-      for (let i = 1; i < n; i++) {
-        let step = 0;
-        if (moving[i]) {
-          const dt = (t[i] as number) - (t[i - 1] as number);
-          // Only steps of the usual interval: the variance is that of one such step.
-          const noise = dt <= 1.5 * intervalMs ? stepNoise * (dt / intervalMs) ** 2 : 0;
-          step = (bends[i] as number) * (gains[i] as number) * stepWithoutNoise(chords[i] as number, noise);
-          raw += localDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number);
-        }
-        d[i] = (d[i - 1] as number) + step;
-      }
+      smoothedDistance(t, moving, bends, gains, chords, stepNoise, jitter.median_interval_s * 1000, d);
       report = {
         source,
         smoothed: true,
@@ -185,9 +162,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
         distance_m: n > 0 ? (d[n - 1] as number) : 0,
       };
     } else {
-      const displacement = (a: number, b: number): number =>
-        approxDistance(lat[a] as number, lon[a] as number, lat[b] as number, lon[b] as number);
-      classifyMoving(t, segmentOf, displacement, moving);
+      classifyMoving(t, segmentOf, { d: null, lat, lon, along: null, turnsUpTo: null }, moving);
       // Sparse track (points 2 s or more apart): chords cut bends by metres, so each step's chord is
       // lengthened to the curve the smoother's states give between its ends (position-smoother.ts,
       // `curveFactors`; the smoother's noise is the measured jitter, so noise is not taken for bends);
@@ -196,14 +171,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       const sparse = jitter.median_interval_s > MAX_SMOOTHED_INTERVAL_S;
       const curve = sparse ? smoothPositions(t, lat, lon, segmentBreak, Math.max(jitter.sigma_m, SPARSE_FLOOR_JITTER_M)) : null;
       const bends = curve ? curveFactors(t, curve, segmentBreak, moving) : arcFactors(t, lat, lon, segmentBreak, moving);
-      let raw = 0;
-      for (let i = 1; i < n; i++) {
-        const chord = moving[i]
-          ? geodesicDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number)
-          : 0;
-        raw += chord;
-        d[i] = (d[i - 1] as number) + chord * (bends[i] as number);
-      }
+      const raw = geodesicSteps(moving, lat, lon, bends, d);
       const total = n > 0 ? (d[n - 1] as number) : 0;
       report = {
         source,
@@ -229,12 +197,103 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     segment_break: segmentBreak,
     ele_smooth: eleSmooth,
     ele_filtered: eleFiltered,
-    hr: hr.some((v) => !Number.isNaN(v)) ? hr : null,
-    cad: cad.some((v) => !Number.isNaN(v)) ? cad : null,
+    hr: hasValue(hr) ? hr : null,
+    cad: hasValue(cad) ? cad : null,
     flat_d: eleSmooth ? flatEquivalentDistances(d, eleSmooth) : null,
     distance_source: source,
     distance_report: report,
   };
+}
+
+// The loops of `buildSeries`, each in a function of its own: a long track's first import compiles
+// each small loop on its own instead of the whole of `buildSeries` again and again (issue 19).
+
+/** segmentOf[i]: how many segment breaks come at or before point i. */
+function segmentNumbers(segmentBreak: Uint8Array): Int32Array {
+  const n = segmentBreak.length;
+  const segmentOf = new Int32Array(n);
+  for (let i = 1; i < n; i++) segmentOf[i] = (segmentOf[i - 1] as number) + (segmentBreak[i] as number);
+  return segmentOf;
+}
+
+/** d[i] = the largest of filled[0..i] − filled[0], and at least 0. */
+function nonDecreasingFromStart(filled: Float64Array, d: Float64Array): void {
+  const d0 = filled[0] ?? 0;
+  let level = 0;
+  for (let i = 0; i < d.length; i++) {
+    level = Math.max(level, (filled[i] as number) - d0);
+    d[i] = level;
+  }
+}
+
+/** Cumulative length of the smoothed path (`approxDistance` per step) and the count of turn points up to each point. */
+function pathAlong(
+  sLat: Float64Array,
+  sLon: Float64Array,
+  turn: Uint8Array | null,
+  along: Float64Array,
+  turnsUpTo: Int32Array,
+): void {
+  for (let i = 1; i < along.length; i++) {
+    along[i] =
+      (along[i - 1] as number) +
+      approxDistance(sLat[i - 1] as number, sLon[i - 1] as number, sLat[i] as number, sLon[i] as number);
+    turnsUpTo[i] = (turnsUpTo[i - 1] as number) + (turn ? (turn[i] as number) : 0);
+  }
+}
+
+/** Each moving step of the smoothed path into `chords`; returns the raw positions' moving length (for the report). */
+function movingSteps(
+  moving: Uint8Array,
+  sLat: Float64Array,
+  sLon: Float64Array,
+  lat: Float64Array,
+  lon: Float64Array,
+  chords: Float64Array,
+): number {
+  let raw = 0;
+  for (let i = 1; i < chords.length; i++)
+    if (moving[i]) {
+      chords[i] = localDistance(sLat[i - 1] as number, sLon[i - 1] as number, sLat[i] as number, sLon[i] as number);
+      raw += localDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number);
+    }
+  return raw;
+}
+
+/** Cumulative distance of a smoothed track: each moving step without its noise, times its bend and gain factors. */
+function smoothedDistance(
+  t: Float64Array,
+  moving: Uint8Array,
+  bends: Float64Array,
+  gains: Float64Array,
+  chords: Float64Array,
+  stepNoise: number,
+  intervalMs: number,
+  d: Float64Array,
+): void {
+  for (let i = 1; i < d.length; i++) {
+    let step = 0;
+    if (moving[i]) {
+      const dt = (t[i] as number) - (t[i - 1] as number);
+      // Only steps of the usual interval: the variance is that of one such step.
+      const noise = dt <= 1.5 * intervalMs ? stepNoise * (dt / intervalMs) ** 2 : 0;
+      step = (bends[i] as number) * (gains[i] as number) * stepWithoutNoise(chords[i] as number, noise);
+    }
+    d[i] = (d[i - 1] as number) + step;
+  }
+}
+
+/** Cumulative distance of an unsmoothed track (geodesic chord of each moving step times its bend factor); returns the raw sum. */
+function geodesicSteps(moving: Uint8Array, lat: Float64Array, lon: Float64Array, bends: Float64Array, d: Float64Array): number {
+  let raw = 0;
+  for (let i = 1; i < d.length; i++) {
+    const chord = moving[i]
+      ? geodesicDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number)
+      : 0;
+    raw += chord;
+    d[i] = (d[i - 1] as number) + chord * (bends[i] as number);
+  }
+  return raw;
 }
 
 /** `distance` with readings that jump ahead faster than `DEVICE_DISTANCE_MAX_SPEED_MPS` set to NaN. */
@@ -323,7 +382,7 @@ export function noiseToRemove(
     if (moving[i] && Math.abs((t[i] as number) - (t[i - 1] as number) - intervalMs) <= intervalMs * 0.01)
       steps[count++] = chords[i] as number;
   if (count === 0) return 0;
-  const typical = steps.subarray(0, count).sort()[count >> 1] as number;
+  const typical = kthSmallest(steps, count, count >> 1);
   return typical > 0 && variance / (2 * typical * typical) >= MIN_CORRECTED_EXCESS ? variance : 0;
 }
 
@@ -339,10 +398,35 @@ export function noiseAwareMovingSpeed(jitterM: number): number {
   return Math.max(MOVING_SPEED_MPS, (1.5 * drift) / MOVING_WINDOW_S);
 }
 
+/**
+ * What a moving window's displacement is measured on: the series' own distance (`d`), the straight line
+ * between two positions (`lat`, `lon`), and with `along` and `turnsUpTo` the path's length instead where
+ * a turn lies between the window's ends. One shape for every track, so the loops stay monomorphic.
+ */
+interface DisplacementSource {
+  d: Float64Array | null;
+  lat: ArrayLike<number> | null;
+  lon: ArrayLike<number> | null;
+  along: Float64Array | null;
+  turnsUpTo: Int32Array | null;
+}
+
+function displacementOf(source: DisplacementSource, a: number, b: number): number {
+  const { d, lat, lon, along, turnsUpTo } = source;
+  if (d) return (d[b] as number) - (d[a] as number);
+  if (along && turnsUpTo && turnsUpTo[b] !== turnsUpTo[a]) return (along[b] as number) - (along[a] as number);
+  return approxDistance(
+    (lat as ArrayLike<number>)[a] as number,
+    (lon as ArrayLike<number>)[a] as number,
+    (lat as ArrayLike<number>)[b] as number,
+    (lon as ArrayLike<number>)[b] as number,
+  );
+}
+
 function classifyMoving(
   t: Float64Array,
   segmentOf: Int32Array,
-  displacement: (a: number, b: number) => number,
+  source: DisplacementSource,
   moving: Uint8Array,
   threshold = MOVING_SPEED_MPS,
 ): void {
@@ -365,21 +449,16 @@ function classifyMoving(
       else b++;
     }
     const seconds = ((t[b] as number) - (t[a] as number)) / 1000;
-    moving[i] = displacement(a, b) / seconds >= threshold ? 1 : 0;
+    moving[i] = displacementOf(source, a, b) / seconds >= threshold ? 1 : 0;
   }
-  refineStopEdges(t, segmentOf, displacement, moving);
+  refineStopEdges(t, segmentOf, source, moving);
 }
 
-function refineStopEdges(
-  t: Float64Array,
-  segmentOf: Int32Array,
-  displacement: (a: number, b: number) => number,
-  moving: Uint8Array,
-): void {
+function refineStopEdges(t: Float64Array, segmentOf: Int32Array, source: DisplacementSource, moving: Uint8Array): void {
   const n = t.length;
   const reachMs = (MOVING_WINDOW_S * 1000) / 2;
   const slow = (k: number): boolean =>
-    displacement(k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000) < STOP_EDGE_SPEED_MPS;
+    displacementOf(source, k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000) < STOP_EDGE_SPEED_MPS;
   const original = moving.slice();
   for (let i = 1; i < n; i++) {
     if (original[i] || segmentOf[i - 1] !== segmentOf[i]) continue;
@@ -401,6 +480,11 @@ function refineStopEdges(
       }
     }
   }
+}
+
+function hasValue(values: Float64Array): boolean {
+  for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i] as number)) return true;
+  return false;
 }
 
 function flatEquivalentDistances(d: Float64Array, ele: Float64Array): Float64Array {

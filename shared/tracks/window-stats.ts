@@ -33,7 +33,8 @@ function valueAt(values: Float64Array, i: number, f: number): number {
  * consecutive stretches in linear total time.
  */
 export function measureWindow(series: TrackSeries, startT: number, endT: number, fromIndex = 1): WindowStats {
-  const { t, d, moving } = series;
+  // Columns in locals: one property read per window, not per interval.
+  const { t, d, moving, flat_d: flatD, ele_filtered: ele, hr, cad, segment_break: segmentBreak } = series;
   const n = t.length;
   let i = Math.max(1, fromIndex);
   while (i < n && (t[i] as number) <= startT) i++;
@@ -62,24 +63,24 @@ export function measureWindow(series: TrackSeries, startT: number, endT: number,
     const ms = b - a;
     distance += share * ((d[i] as number) - (d[i - 1] as number));
     if (moving[i]) movingMs += ms;
-    if (series.flat_d) flat += share * (series.flat_d[i] as number);
-    if (series.ele_filtered) {
-      const de = share * ((series.ele_filtered[i] as number) - (series.ele_filtered[i - 1] as number));
+    if (flatD) flat += share * (flatD[i] as number);
+    if (ele) {
+      const de = share * ((ele[i] as number) - (ele[i - 1] as number));
       if (de > 0) gain += de;
       else loss -= de;
     }
-    if (series.hr && !series.segment_break[i]) {
-      const ha = valueAt(series.hr, i, fa);
-      const hb = valueAt(series.hr, i, fb);
+    if (hr && !segmentBreak[i]) {
+      const ha = valueAt(hr, i, fa);
+      const hb = valueAt(hr, i, fb);
       if (!Number.isNaN(ha)) {
         hrSum += (ms * (ha + hb)) / 2;
         hrMs += ms;
         hrMax = Math.max(hrMax, ha, hb);
       }
     }
-    if (series.cad && moving[i]) {
-      const ca = valueAt(series.cad, i, fa);
-      const cb = valueAt(series.cad, i, fb);
+    if (cad && moving[i]) {
+      const ca = valueAt(cad, i, fa);
+      const cb = valueAt(cad, i, fb);
       if (!Number.isNaN(ca)) {
         cadSum += (ms * (ca + cb)) / 2;
         cadMs += ms;
