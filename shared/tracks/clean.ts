@@ -1,5 +1,5 @@
 import { isValidPosition } from './geodesy.ts';
-import { PointColumns } from './point-columns.ts';
+import { POINT_FIELDS, PointColumns } from './point-columns.ts';
 import type { CleanTrack, CleaningReport, TrackPoint } from './types.ts';
 
 /** Heart rates outside this range (bpm) are sensor errors and are dropped from the point. */
@@ -45,11 +45,23 @@ export function cleanTrack(segments: readonly (readonly TrackPoint[])[]): CleanT
   return cleanPoints(points, starts);
 }
 
+/** How `cleanPoints` may treat its input. */
+export interface CleanOptions {
+  /**
+   * The input columns are the caller's to give away (a file reader's, dropped after cleaning):
+   * the cleaned points are written over them instead of into new columns, sparing a second set of
+   * columns (eight arrays of 8 bytes a point) and its first-touch cost. Kept points only move
+   * towards the start, so nothing is overwritten before it is read.
+   */
+  reuseInput?: boolean;
+}
+
 /**
  * `cleanTrack` for points already in columns (as the file readers collect them);
  * `segmentStarts` are the indices where segments begin, increasing (repeats mean empty segments).
+ * The input is not modified unless `options.reuseInput` gives it away.
  */
-export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[]): CleanTrack {
+export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[], options: CleanOptions = {}): CleanTrack {
   const report: CleaningReport = {
     input_points: raw.length,
     dropped_untimed: 0,
@@ -58,13 +70,17 @@ export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[])
     dropped_no_position: 0,
     invalid_positions: 0,
   };
-  const out = new PointColumns(raw.length);
+  const reuse = options.reuseInput === true;
+  const out = reuse ? raw : new PointColumns(raw.length);
+  const total = raw.length;
+  /** Points kept so far: the next one goes to out[kept]. */
+  let kept = 0;
   const segment_starts: number[] = [];
   let lastT = Number.NEGATIVE_INFINITY;
   let nextSegment = 0;
   let segmentOpen = false;
 
-  for (let i = 0; i < raw.length; i++) {
+  for (let i = 0; i < total; i++) {
     while (nextSegment < segmentStarts.length && (segmentStarts[nextSegment] as number) <= i) {
       nextSegment++;
       segmentOpen = false;
@@ -94,7 +110,7 @@ export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[])
     if (t === lastT) {
       // Merge into the kept point: its own values win, the gaps are filled from this one.
       report.merged_duplicates++;
-      const k = out.length - 1;
+      const k = kept - 1;
       if (Number.isNaN(out.lat[k] as number)) {
         out.lat[k] = lat;
         out.lon[k] = lon;
@@ -108,10 +124,11 @@ export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[])
       continue;
     }
     if (!segmentOpen) {
-      segment_starts.push(out.length);
+      segment_starts.push(kept);
       segmentOpen = true;
     }
-    const k = out.add();
+    const k = reuse ? kept : out.add();
+    kept++;
     out.t[k] = t;
     out.lat[k] = lat;
     out.lon[k] = lon;
@@ -123,7 +140,15 @@ export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[])
     out.position_given[k] = positioned ? 1 : 0;
     lastT = t;
   }
+  if (reuse) keepFirst(raw, kept);
   return withPointObjects({ columns: out, segment_starts, report });
+}
+
+/** Cut columns written over in place to their first `length` points (views: nothing is copied). */
+function keepFirst(columns: PointColumns, length: number): void {
+  for (const field of POINT_FIELDS) columns[field] = columns[field].subarray(0, length);
+  columns.position_given = columns.position_given.subarray(0, length);
+  columns.length = length;
 }
 
 function fillGap(column: Float64Array, k: number, value: number): void {

@@ -37,7 +37,8 @@ function gpxTextField(tag: string, depth: number): PointField | null {
 
 /** The same rules as the events below, for a point read by a template (point-template.ts). */
 function planGpxPoint({ elements, slots }: TemplateShape): PointPlan | null {
-  if (elements.some((name, k) => k > 0 && STRUCTURE_NAMES.has(name))) return null;
+  // The marker `<trkpt` also finds `<trkpts>`, which the events never take for a point.
+  if (elements[0] !== 'trkpt' || elements.some((name, k) => k > 0 && STRUCTURE_NAMES.has(name))) return null;
   const fields = slots.map((slot) => {
     const depth = slot.path.length - 1;
     if (slot.kind === 'attribute') {
@@ -58,6 +59,7 @@ function planGpxPoint({ elements, slots }: TemplateShape): PointPlan | null {
  */
 export function readGpx(xml: XmlBytes, options: ReadOptions = {}): GpxContents {
   const points = new PointColumns(options.expectedPoints ?? pointCapacityFor(xml.bytes.length));
+  const { pointTags } = options;
   /** Where each segment begins in `points`; points always go to the segment opened last. */
   const segmentStarts: number[] = [];
   const stack: string[] = [];
@@ -76,6 +78,8 @@ export function readGpx(xml: XmlBytes, options: ReadOptions = {}): GpxContents {
       const parent = stack[stack.length - 1];
       return point === null && segmentOpen && (parent === 'trkseg' || parent === 'trk') ? points : null;
     },
+    counter: pointTags,
+    tag: pointTags?.tag,
   });
 
   readXmlEvents(
@@ -122,7 +126,7 @@ export function readGpx(xml: XmlBytes, options: ReadOptions = {}): GpxContents {
         stack.pop();
       },
     },
-    { repeatedElement: 'trkpt', pointReader: options.fastPoints === false ? undefined : pointReader },
+    { repeatedElement: 'trkpt', pointReader: options.fastPoints === false ? undefined : pointReader, pointTags },
   );
   return {
     track: {

@@ -1,10 +1,17 @@
-import { tinyTrackShareReason, tooLongReason, tooManyPointsReason } from '../../../../shared/runs/upload-limits.ts';
+import {
+  MAX_TRACK_POINTS,
+  tinyTrackShareReason,
+  tooLongReason,
+  tooManyPointsReason,
+} from '../../../../shared/runs/upload-limits.ts';
 import { cleanPoints } from '../../../../shared/tracks/clean.ts';
+import { pointCapacityFor } from '../../../../shared/tracks/point-columns.ts';
 import type { CleanTrack, DeviceLap, RawTrack } from '../../../../shared/tracks/types.ts';
 import { detectFormat, gunzipIfNeeded, rejectBinary, xmlBytesOf, type TrackFormat } from './detect.ts';
 import { readGpx } from './gpx-reader.ts';
 import { ImportRejection } from './import-rejection.ts';
 import type { ReadOptions } from './point-template.ts';
+import { countPointTagsIn, PointTagCounter, pointTagName } from './point-tags.ts';
 import { readTcx } from './tcx-reader.ts';
 import { XmlReadError, type XmlBytes } from './xml-events.ts';
 
@@ -36,17 +43,23 @@ export function parseTrackFile(input: Buffer, options: ReadOptions = {}): Parsed
   // Bytes, not text: the readers decode only what saxes reads (xml-events.ts), never the track points.
   const doc = xmlBytesOf(buffer);
   const format = detectFormat(doc);
-  // Counted before reading, so a file of a million points is refused in a fraction of its reading time.
-  const pointTags = countTrackPointTags(doc, format);
-  const tooMany = tooManyPointsReason(pointTags);
-  if (tooMany) throw new ImportRejection('too-many-points', tooMany);
+  // Point tags are counted while the file is read (point-tags.ts): a file over the limit is refused
+  // once its count passes it, before more points than that are kept, with no pass of its own.
+  const pointTags = new PointTagCounter(doc.bytes, format);
   try {
-    const readOptions = { ...options, expectedPoints: pointTags };
+    // Room for the points at once (one per 100 bytes, at most the limit); pages never written cost no memory.
+    const expectedPoints = Math.min(pointCapacityFor(doc.bytes.length), MAX_TRACK_POINTS);
+    const readOptions: ReadOptions = { expectedPoints, ...options, pointTags };
     const { runs, points } = format === 'gpx' ? runsFromGpx(doc, readOptions) : runsFromTcx(doc, readOptions);
     const tiny = tinyTrackShareReason(buffer.length, points);
     if (tiny) throw new ImportRejection('tiny-track-share', tiny);
     return runs;
   } catch (error) {
+    // Too many points is the answer whatever else is wrong with the file, as when the count came first.
+    if (!(error instanceof ImportRejection && error.code === 'too-many-points')) {
+      const tooMany = tooManyPointsReason(countTrackPointTags(doc, format));
+      if (tooMany) throw new ImportRejection('too-many-points', tooMany);
+    }
     if (error instanceof XmlReadError) {
       throw new ImportRejection(
         'malformed-xml',
@@ -62,19 +75,7 @@ export function parseTrackFile(input: Buffer, options: ReadOptions = {}): Parsed
  * indexOf: an upper bound of the points the reader will collect (comments are counted too).
  */
 export function countTrackPointTags({ bytes }: XmlBytes, format: TrackFormat): number {
-  const tag = Buffer.from(format === 'gpx' ? 'trkpt' : 'Trackpoint', 'latin1');
-  let count = 0;
-  // ASCII bytes are the same characters in every encoding xmlBytesOf gives, and never part of another character.
-  for (let at = bytes.indexOf(tag); at !== -1; at = bytes.indexOf(tag, at + tag.length)) {
-    const before = bytes[at - 1];
-    const after = bytes[at + tag.length];
-    // `<trkpt ` or `<ns:trkpt>`, never `</trkpt>` or a longer name such as `<trkpts`.
-    const opens =
-      before === 0x3c /* < */ || (before === 0x3a /* : */ && bytes.lastIndexOf(0x3c, at) > bytes.lastIndexOf(0x2f, at));
-    if (opens && (after === 0x20 || after === 0x3e || after === 0x09 || after === 0x0a || after === 0x0d || after === 0x2f))
-      count++;
-  }
-  return count;
+  return countPointTagsIn(bytes, Buffer.from(pointTagName(format), 'latin1'), 0, bytes.length);
 }
 
 function runsFromGpx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[]; points: number } {
@@ -85,7 +86,9 @@ function runsFromGpx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[];
     }
     throw new ImportRejection('empty-track', "This file's track is empty.");
   }
-  return { runs: [toRun(contents.track, 0)], points: contents.track.points.length };
+  // Counted before cleaning, which cleans the reader's columns in place.
+  const points = contents.track.points.length;
+  return { runs: [toRun(contents.track, 0)], points };
 }
 
 function runsFromTcx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[]; points: number } {
@@ -96,6 +99,8 @@ function runsFromTcx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[];
     }
     throw new ImportRejection('empty-track', 'This file has no recorded activity.');
   }
+  // Counted before cleaning, which cleans the reader's columns in place.
+  const points = contents.activities.reduce((sum, a) => sum + a.points.length, 0);
   const runs: ParsedRun[] = [];
   let firstRejection: ImportRejection | null = null;
   contents.activities.forEach((activity, index) => {
@@ -107,7 +112,7 @@ function runsFromTcx(text: XmlBytes, options: ReadOptions): { runs: ParsedRun[];
     }
   });
   if (runs.length === 0 && firstRejection) throw firstRejection;
-  return { runs, points: contents.activities.reduce((sum, a) => sum + a.points.length, 0) };
+  return { runs, points };
 }
 
 function toRun(raw: RawTrack, index: number): ParsedRun {
@@ -115,7 +120,8 @@ function toRun(raw: RawTrack, index: number): ParsedRun {
   if (total === 0) throw new ImportRejection('empty-track', "This file's track is empty.");
   const tooMany = tooManyPointsReason(total);
   if (tooMany) throw new ImportRejection('too-many-points', tooMany);
-  const track = cleanPoints(raw.points, raw.segment_starts);
+  // The reader's columns are dropped after cleaning: cleaned in place.
+  const track = cleanPoints(raw.points, raw.segment_starts, { reuseInput: true });
   const { report } = track;
   if (report.dropped_untimed === total) {
     throw new ImportRejection('no-timestamps', 'This file has no timestamps, so splits cannot be computed.');

@@ -21,13 +21,16 @@
 import { POINT_FIELDS, type PointColumns } from '../../../../shared/tracks/point-columns.ts';
 import { ATTRIBUTE, CLOSE, isAttributeValueByte, isTextByte, OPEN, TEXT, type ScannedTokens } from './element-scanner.ts';
 import { parseIsoTime, parseNumber, readCommonIsoTime, readPlainDecimal } from './parse-time.ts';
+import type { PointTagCounter } from './point-tags.ts';
 
 /** How a reader reads a file. */
 export interface ReadOptions {
   /** False sends every point through the events (tests compare the two ways: same result). */
   fastPoints?: boolean;
-  /** How many points the file may hold (its point tags, counted before reading): room made at once. */
+  /** How many points the file may hold: room made at once (else an estimate from its size). */
   expectedPoints?: number;
+  /** Counts the document's point tags while it is read, refusing a file over the limit (point-tags.ts). */
+  pointTags?: PointTagCounter;
 }
 
 /** One hole of a template, as the format's reader sees it. */
@@ -66,6 +69,9 @@ export interface PointReaderRules {
   plan(shape: TemplateShape): PointPlan | null;
   /** The columns a point read now would be added to, or null when the reader's state needs the events. */
   target(): PointColumns | null;
+  /** The document's tag counter, if it has one (point-tags.ts), and the bytes of the point's name it counts. */
+  counter?: PointTagCounter;
+  tag?: Buffer;
 }
 
 /** A template longer than this (bytes) or with more slots is not kept: not a track point. */
@@ -101,6 +107,13 @@ class PointTemplate {
     /** Per field (POINT_FIELDS order), the slot that sets it, or −1. */
     readonly fieldSlots: Int32Array,
     readonly positionGiven: boolean,
+    /**
+     * True when the literal bytes hold the point's own opening tag and no other that the tag
+     * counter could count (point-tags.ts): such a point counts as one tag plus any in its values.
+     */
+    readonly ownTagOnly: boolean,
+    /** Slots that set no field, whose values the counter must still look at. */
+    readonly unusedSlots: Int32Array,
   ) {
     // Comparing four bytes at a time is about four times quicker than byte by byte.
     const view = new DataView(literals.buffer, literals.byteOffset, literals.byteLength);
@@ -220,15 +233,50 @@ function learnTemplate(
   plan.fields.forEach((field, slot) => {
     if (field >= 0) fieldSlots[field] = slot;
   });
+  const unusedSlots = slots.map((_, slot) => slot).filter((slot) => !fieldSlots.includes(slot));
+  const kept = literals.slice(0, literalLength);
   return new PointTemplate(
-    literals.slice(0, literalLength),
+    kept,
     Int32Array.from(literalEnds),
     Uint8Array.from(kinds),
     Uint8Array.from(quotes),
     levels,
     fieldSlots,
     plan.positionGiven,
+    rules.tag === undefined ? false : holdsOwnTagOnly(kept, literalEnds, rules.tag),
+    Int32Array.from(unusedSlots),
   );
+}
+
+const LESS_THAN = 0x3c;
+const COLON = 0x3a;
+/** Bytes that may follow a point's name in its opening tag: whitespace, `>` or `/` (as point-tags.ts). */
+function endsName(code: number | undefined): boolean {
+  return code === 0x20 || code === 0x3e || code === 0x09 || code === 0x0a || code === 0x0d || code === 0x2f;
+}
+
+/**
+ * Whether the literals (literal s is literals[literalEnds[s − 1], literalEnds[s])) hold the point's
+ * opening tag `<tag` at their start and every other occurrence of `tag` in them is one the counter
+ * never counts whatever the values around it: a byte before it inside the literal that is neither
+ * `<` nor `:`, or a byte after it inside the literal that cannot end a name (`</trkpt>`, `TrackPointExtension`).
+ */
+function holdsOwnTagOnly(literals: Uint8Array, literalEnds: readonly number[], tag: Buffer): boolean {
+  const bytes = Buffer.from(literals.buffer, literals.byteOffset, literals.byteLength);
+  if (bytes[0] !== LESS_THAN || !bytes.subarray(1, 1 + tag.length).equals(tag) || !endsName(bytes[1 + tag.length])) return false;
+  let from = 0;
+  for (const end of literalEnds) {
+    for (let at = bytes.indexOf(tag, from); at !== -1 && at + tag.length <= end; at = bytes.indexOf(tag, at + 1)) {
+      if (at === 1) continue;
+      const before = at > from ? bytes[at - 1] : undefined;
+      const after = at + tag.length < end ? bytes[at + tag.length] : undefined;
+      const neverCounted =
+        (before !== undefined && before !== LESS_THAN && before !== COLON) || (after !== undefined && !endsName(after));
+      if (!neverCounted) return false;
+    }
+    from = end;
+  }
+  return true;
 }
 
 /** Reads track points by their templates; see the top of this file. */
@@ -244,6 +292,8 @@ export class TemplatePointReader {
   private view: DataView<ArrayBufferLike> = new DataView(new ArrayBuffer(0));
   /** Points read by a template. */
   read = 0;
+  /** The tag counter of the point being added, when it counts the values not read as plain numbers. */
+  private counting: PointTagCounter | undefined = undefined;
 
   constructor(private readonly rules: PointReaderRules) {}
 
@@ -265,7 +315,19 @@ export class TemplatePointReader {
       if (template.levels > depthLeft) continue;
       const end = template.match(this.codes, this.view, at, this.starts, this.ends);
       if (end >= 0) {
+        // Counted before the point is kept, so a file over the limit is refused first. A point whose
+        // tags are not this simple is left to the counter's next stretch, bytes and all.
+        const counter = template.ownTagOnly ? this.rules.counter : undefined;
+        this.counting = counter;
+        counter?.pointAt(at, end);
         this.add(template, columns);
+        if (counter) {
+          const unused = template.unusedSlots;
+          for (let k = 0; k < unused.length; k++) {
+            const slot = unused[k] as number;
+            counter.countIn(this.starts[slot] as number, this.ends[slot] as number);
+          }
+        }
         this.read++;
         return end;
       }
@@ -312,7 +374,10 @@ export class TemplatePointReader {
     }
     const start = this.starts[slot] as number;
     const end = this.ends[slot] as number;
-    if (!readPlainDecimal(this.codes, start, end, column, i)) column[i] = parseNumber(this.xml.toString('latin1', start, end));
+    if (!readPlainDecimal(this.codes, start, end, column, i)) {
+      column[i] = parseNumber(this.xml.toString('latin1', start, end));
+      this.counting?.countIn(start, end);
+    }
   }
 
   /** column[i] = parseIsoTime(slot's text), reading the common form from the bytes; NaN without a slot. */
@@ -323,7 +388,10 @@ export class TemplatePointReader {
     }
     const start = this.starts[slot] as number;
     const end = this.ends[slot] as number;
-    if (!readCommonIsoTime(this.codes, start, end, column, i)) column[i] = parseIsoTime(this.xml.toString('latin1', start, end));
+    if (!readCommonIsoTime(this.codes, start, end, column, i)) {
+      column[i] = parseIsoTime(this.xml.toString('latin1', start, end));
+      this.counting?.countIn(start, end);
+    }
   }
 }
 

@@ -50,7 +50,8 @@ const CADENCE = POINT_FIELDS.indexOf('cad');
 
 /** The same rules as the events below, for a point read by a template (point-template.ts). */
 function planTcxPoint({ elements, slots }: TemplateShape): PointPlan | null {
-  if (elements.some((name, k) => k > 0 && STRUCTURE_NAMES.has(name))) return null;
+  // The marker `<Trackpoint` also finds `<Trackpoints>`, which the events never take for a point.
+  if (elements[0] !== 'Trackpoint' || elements.some((name, k) => k > 0 && STRUCTURE_NAMES.has(name))) return null;
   let cadence = false;
   let position = false;
   const fields = slots.map((slot) => {
@@ -86,10 +87,13 @@ export function readTcx(xml: XmlBytes, options: ReadOptions = {}): TcxContents {
   let activity: RawTrack | null = null;
   let lap: DeviceLap | null = null;
   let point: TrackPoint | null = null;
+  const { pointTags } = options;
   const pointReader = new TemplatePointReader({
     plan: planTcxPoint,
     // A Trackpoint anywhere in an activity starts a point.
     target: () => (activity !== null && point === null ? (activity as RawTrack).points : null),
+    counter: pointTags,
+    tag: pointTags?.tag,
   });
 
   readXmlEvents(
@@ -151,7 +155,7 @@ export function readTcx(xml: XmlBytes, options: ReadOptions = {}): TcxContents {
         stack.pop();
       },
     },
-    { repeatedElement: 'Trackpoint', pointReader: options.fastPoints === false ? undefined : pointReader },
+    { repeatedElement: 'Trackpoint', pointReader: options.fastPoints === false ? undefined : pointReader, pointTags },
   );
   return { activities, courses, templatePoints: pointReader.read };
 }

@@ -20,6 +20,7 @@
 import { SaxesParser, type SaxesTagPlain } from 'saxes';
 import { documentBytes, ElementScanner, type ScannedElementSink } from './element-scanner.ts';
 import type { TemplatePointReader } from './point-template.ts';
+import type { PointTagCounter } from './point-tags.ts';
 
 /** A document's bytes in an ASCII-compatible encoding (UTF-16 is converted to UTF-8 first, detect.ts). */
 export interface XmlBytes {
@@ -83,6 +84,11 @@ export interface XmlReadOptions {
    * the scanner accepts, to learn from. What it does not read goes the usual way.
    */
   pointReader?: TemplatePointReader;
+  /**
+   * Told how far the document has been read before saxes or the scanner's events see it, so the
+   * point tags are counted in the same pass (point-tags.ts); the point reader tells it of its own points.
+   */
+  pointTags?: PointTagCounter;
 }
 
 /**
@@ -149,7 +155,9 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
   /** Characters given to saxes so far. */
   let written = 0;
   /** Decode bytes[from, to) (never inside a character: both ends are at ASCII bytes) and give it to saxes. */
+  const { pointTags } = options;
   const write = (from: number, to: number): void => {
+    pointTags?.countTo(to);
     if (from === to) return;
     const text = bytes.toString(encoding, from, to);
     const start = written;
@@ -181,7 +189,16 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
     if (depth > 0 && blankSinceTag) {
       // Only whitespace is pending here, which no event would carry.
       pending = '';
-      const [end, count] = readRepeatedElements(bytes, at, marker, scanner, sink, MAX_DEPTH - depth, options.pointReader);
+      const [end, count] = readRepeatedElements(
+        bytes,
+        at,
+        marker,
+        scanner,
+        sink,
+        MAX_DEPTH - depth,
+        options.pointReader,
+        pointTags,
+      );
       scanned += count;
       if (end > at) {
         fed = end;
@@ -209,6 +226,7 @@ function readRepeatedElements(
   sink: ScannedElementSink,
   depthLeft: number,
   pointReader: TemplatePointReader | undefined,
+  pointTags: PointTagCounter | undefined,
 ): [end: number, count: number] {
   let end = start;
   let at = start;
@@ -218,8 +236,10 @@ function readRepeatedElements(
     if (after < 0) {
       after = scanner.scan(xml, at, depthLeft);
       if (after < 0) return [end, count];
-      if (!pointReader?.learn(xml, at, after, scanner.tokens())) scanner.replay(xml, sink);
-      else if (pointReader.tryRead(xml, at, depthLeft) !== after) {
+      if (!pointReader?.learn(xml, at, after, scanner.tokens())) {
+        pointTags?.countTo(after);
+        scanner.replay(xml, sink);
+      } else if (pointReader.tryRead(xml, at, depthLeft) !== after) {
         // A template learnt from this very element matches it; anything else is a bug here.
         throw new Error('A learnt point template did not read the element it was learnt from.');
       }
