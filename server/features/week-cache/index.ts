@@ -16,4 +16,4 @@ export {
   type WeekCacheEntry,
   type WeekCacheKey,
 } from './week-cache.service.ts';
-export { forgetReadyAnswers, readyAnswer, type ReadyAnswer } from './ready-answers.ts';
+export { forgetReadyAnswers, keepAnswer, keptAnswer, readyAnswer, readyJson, type ReadyAnswer } from './ready-answers.ts';

@@ -20,8 +20,10 @@ export interface ReadyAnswer {
 }
 
 interface Entry extends ReadyAnswer {
-  owner: string;
-  counter: string;
+  /** What the answer was built at (owner and counter, or a route's own stamp): kept answers are served only under it. */
+  stamp: string;
+  /** What the route needs to know before checking the stamp (the week review: the note ids whose read markers it shows). */
+  extra: readonly string[];
 }
 
 const entries = new Map<string, Entry>();
@@ -52,6 +54,30 @@ function entityTag(body: Buffer): string {
   return `W/"${body.length.toString(16)}-${createHash('sha1').update(body).digest('base64').slice(0, 27)}"`;
 }
 
+/** An answer serialized once, with its entity tag. */
+export function readyJson(answer: unknown): ReadyAnswer {
+  const body = Buffer.from(JSON.stringify(answer));
+  return { body, etag: entityTag(body) };
+}
+
+/**
+ * The answer kept under `key`, whatever it was built at: the caller compares `stamp` with what it reads now
+ * (every input of the answer) before serving it. Counts as a use for the eviction order.
+ */
+export function keptAnswer(key: string): (ReadyAnswer & { stamp: string; extra: readonly string[] }) | undefined {
+  const kept = entries.get(key);
+  if (!kept) return undefined;
+  // Most recently used last: the map's order is the eviction order.
+  entries.delete(key);
+  entries.set(key, kept);
+  return kept;
+}
+
+/** Keeps `answer` under `key`, valid at `stamp` (see keptAnswer), within the same bounds as every ready answer. */
+export function keepAnswer(key: string, stamp: string, answer: ReadyAnswer, extra: readonly string[] = []): void {
+  remember(key, { ...answer, stamp, extra });
+}
+
 /**
  * The answer `key` of runner `owner` at input counter `counter` (the caller's, read with their user row): the
  * kept one when it was built at this counter, else built now by `build` and kept. `build` runs the route's own
@@ -64,13 +90,9 @@ export async function readyAnswer(
   counter: string,
   build: () => Promise<{ owner: string; answer: unknown }>,
 ): Promise<ReadyAnswer> {
-  const kept = entries.get(key);
-  if (kept && kept.owner === owner && kept.counter === counter) {
-    // Most recently used last: the map's order is the eviction order.
-    entries.delete(key);
-    entries.set(key, kept);
-    return kept;
-  }
+  const stampAt = (at: string) => `${owner}\u0000${at}`;
+  const kept = keptAnswer(key);
+  if (kept && kept.stamp === stampAt(counter)) return kept;
   const replica = replicaReadContext.getStore();
   // Requests that may share a build: same answer, same counter, same database (a replica's may be older).
   const flightKey = `${key}\u0000${owner}\u0000${counter}\u0000${replica ? 'replica' : 'primary'}`;
@@ -79,9 +101,8 @@ export async function readyAnswer(
     flight = (async () => {
       const builtAt = replica ? await readInputsCounter(owner, replica) : counter;
       const built = await build();
-      const body = Buffer.from(JSON.stringify(built.answer));
-      const ready = { body, etag: entityTag(body) };
-      if (built.owner === owner) remember(key, { ...ready, owner, counter: builtAt });
+      const ready = readyJson(built.answer);
+      if (built.owner === owner) keepAnswer(key, stampAt(builtAt), ready);
       return ready;
     })().finally(() => building.delete(flightKey));
     building.set(flightKey, flight);

@@ -3,6 +3,7 @@
 
 import type { Db } from '../../lib/db.ts';
 import * as cache from './week-cache.repository.ts';
+import { forgetReadyAnswers } from './ready-answers.ts';
 import type { WeekCacheEntry, WeekCacheKey } from './week-cache.repository.ts';
 
 export type { WeekCacheEntry, WeekCacheKey } from './week-cache.repository.ts';
@@ -70,9 +71,10 @@ export function keepWeek(key: WeekCacheKey, week: KeptWeek): void {
   }
 }
 
-/** Forgets every kept week (account deletion: a kept week may name the deleted user). */
+/** Forgets every kept week and ready answer (account deletion: a kept week may name the deleted user). */
 export function forgetKeptWeeks(): void {
   keptWeeks.clear();
+  forgetReadyAnswers();
 }
 
 /** Stores built weeks; a week built at an older counter never replaces one built at a newer. */

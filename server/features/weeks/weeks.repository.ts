@@ -2,28 +2,32 @@ import { db, type Db, type NoteConcern, readDb, type UserRow } from '../../lib/d
 import { bumpWeekInputs } from '../week-cache/index.ts';
 
 /**
- * A runner's row, the coaches of their squads now (the access rule's input) and their input counter
- * (`week_input_counters`, read before any of the week's data), in one prepared query; undefined when there is
- * no such user.
+ * A runner's row, the coaches of their squads now (the access rule's input), their input counter
+ * (`week_input_counters`, read before any of the week's data) and which of `noteIds` the reader has opened (the
+ * read markers of a kept week review), in one prepared query; undefined when there is no such user.
  */
 export async function findWeekRunner(
   runnerId: string,
+  reader: { id: string; noteIds: readonly string[] },
   trx: Db = readDb(),
-): Promise<{ runner: UserRow; coachIds: string[]; counter: string } | undefined> {
+): Promise<{ runner: UserRow; coachIds: string[]; counter: string; readNoteIds: string[] } | undefined> {
   const { rows } = await trx
-    .raw<{ rows: Array<UserRow & { coach_ids: string[]; inputs_counter: string }> }>(
+    .raw<{ rows: Array<UserRow & { coach_ids: string[]; inputs_counter: string; read_note_ids: string[] }> }>(
       `select u.*, coalesce(c.counter, 0)::text as inputs_counter,
             array(select distinct s.coach_id from squad_members m join squads s on s.id = m.squad_id
-                  where m.runner_id = u.id and s.coach_id is not null) as coach_ids
+                  where m.runner_id = u.id and s.coach_id is not null) as coach_ids,
+            array(select r.note_id::text from note_reads r
+                  where r.user_id = ?::uuid and r.note_id = any(?::uuid[])) as read_note_ids
      from users u left join week_input_counters c on c.runner_id = u.id
      where u.id = ?`,
-      [runnerId],
+      // A Postgres array literal of ids (uuids: no quoting needed), so the statement's text never changes.
+      [reader.id, `{${reader.noteIds.join(',')}}`, runnerId],
     )
     .options({ name: 'week-runner' });
   const row = rows[0];
   if (!row) return undefined;
-  const { coach_ids: coachIds, inputs_counter: counter, ...runner } = row;
-  return { runner, coachIds, counter };
+  const { coach_ids: coachIds, inputs_counter: counter, read_note_ids: readNoteIds, ...runner } = row;
+  return { runner, coachIds, counter, readNoteIds };
 }
 
 /**

@@ -6,13 +6,13 @@ import { calendarDateSchema } from '../../../shared/api/calendar-date.ts';
 import { AddedWeekNoteAnswerSchema, RunnerWeekSchema } from '../../../shared/weeks/week-answer.ts';
 import { DigestReceiptSchema, SquadOverviewSchema } from '../../../shared/weeks/squad-overview.ts';
 import type { AppConfig } from '../../config.ts';
-import { createApiRouter } from '../../lib/api-router.ts';
+import { createApiRouter, sendReadyJson } from '../../lib/api-router.ts';
 import { requireActor } from '../../lib/authorize.ts';
 import { BadRequestError } from '../../lib/errors.ts';
 import { parseIdParam } from '../../lib/ids.ts';
 import type { Mailer } from '../../lib/mailer.ts';
 import { sendSquadDigest } from './digest.service.ts';
-import { addWeekNote, buildRunnerWeek, buildSquadOverview, setWeekReviewed } from './weeks.service.ts';
+import { addWeekNote, buildRunnerWeek, buildSquadOverview, readyRunnerWeek, setWeekReviewed } from './weeks.service.ts';
 
 const DateSchema = calendarDateSchema();
 const WeekQuerySchema = z.object({ start: DateSchema.optional() });
@@ -41,7 +41,7 @@ export function createWeeksRouter(mailer: Mailer, config: AppConfig) {
     },
     async (req, res) => {
       const { start } = res.locals.query;
-      res.json(await buildRunnerWeek(requireActor(res), req.params.id, start));
+      sendReadyJson(res, await readyRunnerWeek(requireActor(res), req.params.id, start));
     },
   );
 

@@ -30,7 +30,17 @@ import { lastUploadsOf, listRunItemsOf, listRunLoadsOf, toRunListItem } from '..
 import { assertCanReadRunner, squadCoachedBy } from '../squads/index.ts';
 import { findCoachIdsOfRunner } from '../squads/index.ts';
 import { findUserById } from '../users/index.ts';
-import { keepWeek, keptWeek, readWeekCache, storeWeeks, weekCacheKeyText } from '../week-cache/index.ts';
+import {
+  keepAnswer,
+  keptAnswer,
+  keepWeek,
+  keptWeek,
+  readWeekCache,
+  readyJson,
+  storeWeeks,
+  weekCacheKeyText,
+  type ReadyAnswer,
+} from '../week-cache/index.ts';
 import {
   deleteWeekReview,
   findWeekReviewsOf,
@@ -443,7 +453,7 @@ export async function buildRunnerWeek(
   now = new Date(),
 ): Promise<RunnerWeek> {
   // The runner, who coaches them and their counter in one query; the access rule is the one every read uses.
-  const found = await findWeekRunner(runnerId);
+  const found = await findWeekRunner(runnerId, { id: actor.id, noteIds: [] });
   if (!canReadRunnerData(actor, runnerId, found?.coachIds ?? [])) throw new NotFoundError();
   if (!found) throw new NotFoundError();
   const { runner, counter } = found;
@@ -451,6 +461,49 @@ export async function buildRunnerWeek(
   const viewer = { id: actor.id, unit: readerUnit ?? runner.unit };
   const [week] = await cachedWeeks([frameOf(runner, requestedStart, now)], true, viewer, new Map([[runnerId, counter]]));
   return week!;
+}
+
+/** The notes of a week (on the week and on its runs) written by someone other than `viewerId`: the ones with read markers. */
+function notesByOthers(week: RunnerWeek, viewerId: string): Array<{ id: string; unread: boolean }> {
+  return [...week.notes, ...week.days.flatMap((d) => d.runs.flatMap((r) => r.notes))].filter((n) => n.author.id !== viewerId);
+}
+
+/**
+ * The week review as ready JSON (server/features/week-cache/README.md, "Ready answers"): kept per reader, runner,
+ * asked date and reader's unit, and served while its stamp holds: the runner's input counter, their local date
+ * and the week the asked date falls in, the code version, and which of the week's notes by others the reader has
+ * opened. Those are read with the access check in one query each time; the answer is built only when one moved.
+ */
+export async function readyRunnerWeek(
+  actor: Actor & { unit: 'km' | 'mi' },
+  runnerId: string,
+  requestedStart: string | undefined,
+  now = new Date(),
+): Promise<ReadyAnswer> {
+  const version = weekCodeVersion();
+  const key = `week-review:${runnerId}:${actor.id}:${actor.unit}:${requestedStart ?? ''}`;
+  const kept = version === null ? undefined : keptAnswer(key);
+  const found = await findWeekRunner(runnerId, { id: actor.id, noteIds: kept?.extra ?? [] });
+  if (!canReadRunnerData(actor, runnerId, found?.coachIds ?? [])) throw new NotFoundError();
+  if (!found) throw new NotFoundError();
+  const frame = frameOf(found.runner, requestedStart, now);
+  const stampOf = (readNoteIds: readonly string[]) =>
+    [found.counter, frame.today, frame.start, version, [...readNoteIds].sort().join(',')].join('|');
+  if (kept && kept.stamp === stampOf(found.readNoteIds)) return kept;
+  const viewer = { id: actor.id, unit: actor.unit };
+  const [week] = await cachedWeeks([frame], true, viewer, new Map([[runnerId, found.counter]]));
+  const ready = readyJson(week!);
+  if (version !== null) {
+    // Stamped with the read markers the answer shows (set after the counter was read, as the week's data was).
+    const marked = notesByOthers(week!, actor.id);
+    keepAnswer(
+      key,
+      stampOf(marked.filter((n) => !n.unread).map((n) => n.id)),
+      ready,
+      marked.map((n) => n.id),
+    );
+  }
+  return ready;
 }
 
 /** The runner and their coaches write notes on a week; the other side reads them. */
