@@ -88,6 +88,11 @@ interface RoundResult {
   status_5xx: number;
   /** 5xx the server sent, including to clients that had already given up (autocannon's 10 s timeout). */
   server_5xx: number;
+  /**
+   * Of those, the designed refusals: 503 with code `busy` and a Retry-After header (the password threads' full
+   * queue under the sign-in flood, server/features/auth/password-pool.ts). Excused in the sign-in round only.
+   */
+  designed_refusals: number;
   /** Requests still in the server when the round ended, and how long they took to drain. */
   in_flight_at_end: number;
   drain_ms: number;
@@ -161,7 +166,18 @@ async function prepareDatabase(): Promise<{ url: string; drop: (() => Promise<vo
 }
 
 /** Requests in the server and 5xx answers, counted on the server's side of the socket. */
-const serverSide = { inFlight: 0, status5xx: 0, uploadsInFlight: 0, statuses: {} as Record<string, number> };
+const serverSide = { inFlight: 0, status5xx: 0, designedRefusals: 0, uploadsInFlight: 0, statuses: {} as Record<string, number> };
+
+/** A 503 the server sends by design when a bounded queue is full: code `busy`, with a Retry-After header. */
+function isDesignedRefusal(res: ServerResponse, body: unknown): boolean {
+  if (res.statusCode !== 503 || res.getHeader('retry-after') === undefined) return false;
+  const text = typeof body === 'string' ? body : Buffer.isBuffer(body) ? body.toString('utf8') : '';
+  try {
+    return (JSON.parse(text) as { code?: unknown }).code === 'busy';
+  } catch {
+    return false;
+  }
+}
 
 function watchServer(server: Server): void {
   server.prependListener('request', (req: IncomingMessage, res: ServerResponse) => {
@@ -178,6 +194,7 @@ function watchServer(server: Server): void {
         serverSide.inFlight--;
         if (upload) serverSide.uploadsInFlight--;
         if (res.statusCode >= 500) serverSide.status5xx++;
+        if (isDesignedRefusal(res, args[0])) serverSide.designedRefusals++;
         if (!upload) serverSide.statuses[res.statusCode] = (serverSide.statuses[res.statusCode] ?? 0) + 1;
       }
       return end(...args);
@@ -233,6 +250,28 @@ function startCpuMeter(databaseUrl: string): () => Promise<void> {
   return () => monitor.destroy();
 }
 
+/**
+ * Bearer tokens this run made for the load data set's runner and coach, revoked when it ends: one account holds
+ * 20 live tokens at most (the server answers 409 `too-many-tokens` after that) and every run makes one each.
+ */
+const issuedTokens: Array<{ token: string; id: string }> = [];
+
+async function scriptToken(base: string, who: { email: string; password: string }): Promise<string> {
+  const issued = await api<{ token: string; id: string }>(base, 'POST', '/api/auth/token', null, who);
+  issuedTokens.push(issued);
+  return issued.token;
+}
+
+async function revokeScriptTokens(base: string): Promise<void> {
+  for (const { token, id } of issuedTokens.splice(0)) {
+    const response = await fetch(`${base}/api/auth/tokens/${id}`, {
+      method: 'DELETE',
+      headers: { authorization: `Bearer ${token}` },
+    });
+    if (response.status !== 204) console.warn(`  revoking this run's API token answered ${response.status}`);
+  }
+}
+
 async function round(
   base: string,
   name: string,
@@ -242,6 +281,7 @@ async function round(
   const headers: Record<string, string> = { 'content-type': 'application/json' };
   if (options.token) headers.authorization = `Bearer ${options.token}`;
   const before5xx = serverSide.status5xx;
+  const beforeRefusals = serverSide.designedRefusals;
   const statusesBefore = { ...serverSide.statuses };
   const cpuBefore = await cpuMeter.snapshot();
   const result = await autocannon({
@@ -280,6 +320,7 @@ async function round(
     timeouts: result.timeouts,
     status_5xx: result['5xx'],
     server_5xx: serverSide.status5xx - before5xx,
+    designed_refusals: serverSide.designedRefusals - beforeRefusals,
     in_flight_at_end: drained.inFlight,
     drain_ms: drained.ms,
     server_cpu_ms_per_request: perRequest(
@@ -291,7 +332,9 @@ async function round(
   console.log(
     `  ${name.padEnd(28)} ${String(summary.rps).padStart(6)} req/s  p50 ${summary.p50_ms} ms  p99 ${summary.p99_ms} ms  non-2xx ${summary.non_2xx}` +
       (summary.non_2xx > 0 ? ` (server sent ${JSON.stringify(summary.statuses)})` : '') +
-      `  server 5xx ${summary.server_5xx}  still in the server at the end ${summary.in_flight_at_end} (drained in ${summary.drain_ms} ms)` +
+      `  server 5xx ${summary.server_5xx}` +
+      (summary.designed_refusals > 0 ? ` (${summary.designed_refusals} designed refusals: 503 busy, Retry-After)` : '') +
+      `  still in the server at the end ${summary.in_flight_at_end} (drained in ${summary.drain_ms} ms)` +
       `  CPU per request: server ${summary.server_cpu_ms_per_request ?? '?'} ms, PostgreSQL ${summary.db_cpu_ms_per_request ?? '?'} ms` +
       `  load ${summary.load_average}`,
   );
@@ -461,8 +504,8 @@ async function main(): Promise<void> {
       : DEMO_PEOPLE.map((p) => ({ email: p.email, password: p.password })),
   );
   try {
-    const runnerToken = (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, runner)).token;
-    const coachToken = (await api<{ token: string }>(base, 'POST', '/api/auth/token', null, coach)).token;
+    const runnerToken = await scriptToken(base, runner);
+    const coachToken = await scriptToken(base, coach);
     const me = await api<{ user: { id: string } }>(base, 'GET', '/api/auth/me', runnerToken);
     const runs = await api<{ runs: Array<{ id: string; local_date: string }>; total: number }>(
       base,
@@ -527,6 +570,8 @@ async function main(): Promise<void> {
 
     const reads = rounds.filter((r) => r.name !== 'sign-in');
     const allRounds = [...rounds, ...busyRounds.map((b) => b.busy)];
+    const signIn = rounds.find((r) => r.name === 'sign-in');
+    const readRounds = allRounds.filter((r) => r !== signIn);
     const busyStatuses = busyRounds.flatMap((b) => Object.keys(b.uploads.statuses));
     const checks = [
       ...reads.map((r) => {
@@ -563,13 +608,23 @@ async function main(): Promise<void> {
           ]
         : []),
       {
-        target: 'nothing answered 5xx',
+        // Reads must answer no 5xx at all; the sign-in flood may meet the password threads' designed refusal (503 busy
+        // with Retry-After: autocannon sends again after its 10 s timeout while earlier bcrypts still queue), and
+        // nothing else: any other 5xx, in any round, is a miss.
+        target: 'nothing answered 5xx (sign-in: only the designed 503 busy)',
         met:
-          allRounds.every((r) => r.status_5xx === 0 && r.server_5xx === 0) &&
+          readRounds.every((r) => r.status_5xx === 0 && r.server_5xx === 0) &&
+          (signIn === undefined ||
+            (signIn.server_5xx === signIn.designed_refusals && signIn.status_5xx <= signIn.designed_refusals)) &&
           [...Object.keys(uploads?.statuses ?? {}), ...busyStatuses].every((s) => /^[1-4]\d\d$/.test(s)),
         detail:
-          `${allRounds.reduce((sum, r) => sum + r.status_5xx, 0)} received, ` +
-          `${allRounds.reduce((sum, r) => sum + r.server_5xx, 0)} sent by the server, uploads ${JSON.stringify(uploads?.statuses ?? {})}` +
+          `reads: ${readRounds.reduce((sum, r) => sum + r.status_5xx, 0)} received, ` +
+          `${readRounds.reduce((sum, r) => sum + r.server_5xx, 0)} sent by the server` +
+          (signIn
+            ? `; sign-in: ${signIn.designed_refusals} designed refusals (503 busy, Retry-After), ` +
+              `${signIn.server_5xx - signIn.designed_refusals} other 5xx sent, ${signIn.status_5xx} 5xx received`
+            : '') +
+          `; uploads ${JSON.stringify(uploads?.statuses ?? {})}` +
           (busyRounds.length ? `, 100-mile uploads ${busyRounds.map((b) => JSON.stringify(b.uploads.statuses)).join(' ')}` : ''),
       },
       {
@@ -600,6 +655,9 @@ async function main(): Promise<void> {
       }),
     );
   } finally {
+    await revokeScriptTokens(base).catch((err: unknown) =>
+      console.warn(`  revoking this run's API tokens failed: ${String(err)}`),
+    );
     await server.close();
     await stopCpuMeter();
     await database.drop?.();
