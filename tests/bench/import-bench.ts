@@ -200,7 +200,8 @@ function runApproach(approach: Approach, readBytes: () => Buffer, format: Format
 /** One case in this process: warm up on a short run, then measure the real file. */
 async function measureCase(path: string, approach: Approach): Promise<CaseResult> {
   const format: Format = path.endsWith('.tcx') ? 'tcx' : 'gpx';
-  // Compile the hot paths on a 12-minute run first, so the figures are not mostly JIT warm-up.
+  // Compile the hot paths on a one-hour run first (longRunPhases rounds the 0.2 h asked up to a whole
+  // hour: 59 min running + 1 min stop), so the figures are not mostly JIT warm-up.
   const warmUp = Buffer.from(writeDocument(format, 0.2, 3.2));
   runApproach(approach, () => warmUp, format);
 
