@@ -3,6 +3,7 @@ import { CONTROL_CLASSES } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { formatDate } from '../../../lib/format.ts';
+import { useHeldChoice } from '../../../lib/use-held-choice.ts';
 import { useChangeUserRole } from '../api/change-user-role.ts';
 import { useUsers } from '../api/get-users.ts';
 
@@ -51,8 +52,8 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
                 key={user.id}
                 user={user}
                 isSelf={user.id === currentUserId}
-                pendingRole={changeRole.isPending && changeRole.variables.id === user.id ? changeRole.variables.role : null}
-                onChangeRole={(role) => changeRole.mutate({ id: user.id, role })}
+                saving={changeRole.isPending && changeRole.variables.id === user.id}
+                onChangeRole={(role, onError) => changeRole.mutate({ id: user.id, role }, { onError })}
               />
             ))}
           </tbody>
@@ -65,11 +66,14 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
 type UserRowProps = {
   user: AdminUser;
   isSelf: boolean;
-  pendingRole: Role | null;
-  onChangeRole: (role: Role) => void;
+  saving: boolean;
+  onChangeRole: (role: Role, onError: () => void) => void;
 };
 
-function UserRow({ user, isSelf, pendingRole, onChangeRole }: UserRowProps) {
+function UserRow({ user, isSelf, saving, onChangeRole }: UserRowProps) {
+  // The chosen role shows in the same render as the choice (the mutation's pending state comes a tick
+  // later) and while it is saved; a refused change falls back to the saved role.
+  const { shown: role, hold, release } = useHeldChoice(user.role);
   return (
     <tr className="border-b border-line last:border-0">
       <th scope="row" className="py-2 pr-3 font-semibold" data-primary="">
@@ -83,9 +87,13 @@ function UserRow({ user, isSelf, pendingRole, onChangeRole }: UserRowProps) {
       <td className="py-2 pr-3" data-primary="">
         <select
           aria-label={`Role of ${user.name}`}
-          value={pendingRole ?? user.role}
-          disabled={isSelf || pendingRole !== null}
-          onChange={(event) => onChangeRole(event.target.value as Role)}
+          value={role}
+          disabled={isSelf || saving}
+          onChange={(event) => {
+            const chosen = event.target.value as Role;
+            hold(chosen);
+            onChangeRole(chosen, release);
+          }}
           className={cn(CONTROL_CLASSES, 'px-2 py-1 text-sm disabled:bg-paper')}
         >
           {ROLES.map((role) => (

@@ -1,5 +1,6 @@
 import { useId } from 'react';
 import { ACTIVITY_KIND_LABELS, ACTIVITY_KINDS, type ActivityKind } from '../../../../shared/runs/activity-kind.ts';
+import { useHeldChoice } from '../../../lib/use-held-choice.ts';
 import { useRenameRun } from '../api/rename-run.ts';
 
 /** The mark beside a ride or a hike in lists and headings; nothing for a run. */
@@ -19,6 +20,9 @@ export function ActivityKindMark({ kind }: { kind: ActivityKind }) {
 export function ActivityKindLine({ runId, kind, isOwner }: { runId: string; kind: ActivityKind; isOwner: boolean }) {
   const change = useRenameRun();
   const id = useId();
+  // The new kind shows at once and while it is saved (not the old one until the server answers); a refused
+  // change falls back to the saved kind.
+  const { shown, hold, release } = useHeldChoice(kind);
   const sentence =
     kind === 'run'
       ? null
@@ -31,9 +35,13 @@ export function ActivityKindLine({ runId, kind, isOwner }: { runId: string; kind
       </label>
       <select
         id={id}
-        value={kind}
+        value={shown}
         disabled={change.isPending}
-        onChange={(event) => change.mutate({ id: runId, kind: event.target.value as ActivityKind })}
+        onChange={(event) => {
+          const chosen = event.target.value as ActivityKind;
+          hold(chosen);
+          change.mutate({ id: runId, kind: chosen }, { onError: release });
+        }}
         className="min-h-11 rounded-md border border-line-strong bg-paper px-2"
       >
         {ACTIVITY_KINDS.map((k) => (
