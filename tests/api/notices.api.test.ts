@@ -332,11 +332,19 @@ describe('POST /api/notices/unsubscribe/:token (RFC 8058 one-click)', IMPORTS_TA
     expect(replay.status).toBe(409);
     expect(replay.body.error).toMatch(/back on after this e-mail was sent/);
     expect((await switchesOf(coach.user.id))!.notify_on_squad_leave).toBe(true);
+    // The page's read of the same link says so before any click, with the POST's status and sentence.
+    const read = await request(app).get(unsubscribePath);
+    expect(read.status).toBe(409);
+    expect(read.body).toMatchObject({ code: 'unsubscribe-link-outdated', error: replay.body.error });
+    expect((await switchesOf(coach.user.id))!.notify_on_squad_leave).toBe(true);
 
     await db('users').where({ id: coach.user.id }).delete();
     const gone = await request(app).post(unsubscribePath).type('form').send('List-Unsubscribe=One-Click');
     expect(gone.status).toBe(410);
     expect(gone.body.error).toMatch(/deleted/);
+    const readGone = await request(app).get(unsubscribePath);
+    expect(readGone.status).toBe(410);
+    expect(readGone.body).toMatchObject({ code: 'unsubscribe-account-gone', error: gone.body.error });
   });
 
   it('with every notice switched off, a password reset the user asks for still arrives', async () => {

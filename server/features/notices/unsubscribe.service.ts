@@ -5,7 +5,7 @@ import type { Db } from '../../lib/db.ts';
 import { AppError, NotFoundError } from '../../lib/errors.ts';
 import { findUserById } from '../users/index.ts';
 import { findSwitchChangedAt, insertSwitchChanges, toNoticeSwitches, updateNoticeSwitches } from './notices.repository.ts';
-import { readUnsubscribeToken } from './unsubscribe-token.ts';
+import { readUnsubscribeToken, type UnsubscribeClaim } from './unsubscribe-token.ts';
 
 export async function noticeSwitchesOf(userId: string): Promise<NoticeSwitches> {
   const user = await findUserById(userId);
@@ -38,10 +38,29 @@ async function linkTarget(token: string, config: AppConfig) {
   return { claim, user };
 }
 
-/** What an unsubscribe link would switch off, and whether that kind is on now (the page shows it before the click). */
+/**
+ * A link older than the user's last change to that switch (it was turned off and on again since the
+ * e-mail) no longer switches it off: the page's read and the one-click POST refuse it alike (409).
+ */
+async function refuseIfOutdated(userId: string, claim: UnsubscribeClaim, label: string): Promise<void> {
+  const changedAt = await findSwitchChangedAt(userId, claim.kind);
+  if (changedAt && changedAt > claim.issuedAt)
+    throw new AppError(
+      409,
+      'unsubscribe-link-outdated',
+      `You switched “${label}” back on after this e-mail was sent, so this old link changed nothing. Switch it off on your profile if you want it off.`,
+    );
+}
+
+/**
+ * What an unsubscribe link would switch off, and whether that kind is on now (the page shows it before
+ * the click). An outdated link is refused here as the POST would refuse it, so the page says so at once
+ * instead of offering a button that cannot work.
+ */
 export async function describeUnsubscribeLink(token: string, config: AppConfig): Promise<UnsubscribeAnswer> {
   const { claim, user } = await linkTarget(token, config);
   const info = NOTICE_KIND_INFO[claim.kind];
+  if (user[info.column]) await refuseIfOutdated(user.id, claim, info.label);
   return { kind: claim.kind, label: info.label, on: user[info.column] };
 }
 
@@ -54,13 +73,7 @@ export async function unsubscribeByLink(token: string, config: AppConfig, now = 
   const { claim, user } = await linkTarget(token, config);
   const info = NOTICE_KIND_INFO[claim.kind];
   if (!user[info.column]) return { kind: claim.kind, label: info.label, on: false };
-  const changedAt = await findSwitchChangedAt(user.id, claim.kind);
-  if (changedAt && changedAt > claim.issuedAt)
-    throw new AppError(
-      409,
-      'unsubscribe-link-outdated',
-      `You switched “${info.label}” back on after this e-mail was sent, so this old link changed nothing. Switch it off on your profile if you want it off.`,
-    );
+  await refuseIfOutdated(user.id, claim, info.label);
   const after = await updateNoticeSwitches(user.id, { [claim.kind]: false }, now);
   return { kind: claim.kind, label: info.label, on: after ? after[info.column] : false };
 }
