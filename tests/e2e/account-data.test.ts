@@ -46,9 +46,11 @@ describe('the profile’s data and account cards', () => {
       const line = page.getByText(/^Storage: .* used \(/);
       await expect.poll(() => line.count()).toBe(1);
       // The figures are the API's, in the file-size words of shared/units.ts.
-      expect(await line.textContent()).toBe(
-        `Storage: ${formatFileSize(usage.used_bytes)} of ${formatFileSize(usage.quota_bytes)} used (${usage.files} original files)`,
-      );
+      await expect
+        .poll(() => line.textContent())
+        .toBe(
+          `Storage: ${formatFileSize(usage.used_bytes)} of ${formatFileSize(usage.quota_bytes)} used (${usage.files} original files)`,
+        );
       const box = await line.boundingBox();
       expect(box && box.x >= 0 && box.x + box.width <= width).toBe(true);
       await screenshot(page, `profile-storage-${width}`);

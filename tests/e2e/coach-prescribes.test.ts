@@ -186,6 +186,8 @@ describe('The coach prescribes', () => {
     await expect.poll(() => ask.getByText(new RegExp(`already has ${before + source} sessions?`)).count(), WAIT).toBe(1);
     await screenshot(page, 'coach-copy-ask-375');
     await ask.getByRole('button', { name: 'Cancel' }).click();
+    // Read once the question has gone (the event), not in the same tick as the click.
+    await expect.poll(() => ask.count(), WAIT).toBe(0);
     expect(await count()).toBe(before + source);
 
     // "Move to…" lists the seven days as large buttons.
@@ -195,7 +197,7 @@ describe('The coach prescribes', () => {
       .getByRole('group', { name: /^Move .* to$/ })
       .first()
       .getByRole('button');
-    expect(await days.count()).toBe(7);
+    await expect.poll(() => days.count(), WAIT).toBe(7);
     expect(await noSideways(page)).toBeLessThanOrEqual(0);
     await screenshot(page, 'coach-runner-plan-375');
     expect(errors).toEqual([]);

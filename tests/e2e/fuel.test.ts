@@ -167,7 +167,7 @@ describe('Fuel', () => {
       };
     });
     await page.getByRole('button', { name: 'Print' }).click();
-    expect(await page.evaluate(() => (window as unknown as { printed: number }).printed)).toBe(1);
+    await expect.poll(() => page.evaluate(() => (window as unknown as { printed: number }).printed)).toBe(1);
     await page.emulateMedia({ media: 'print' });
     await screenshot(page, 'fuel-print');
     await page.emulateMedia({ media: 'screen' });
@@ -190,8 +190,8 @@ describe('Fuel', () => {
     // The planned drink is ticked off too; only half of it went down.
     const plannedDrink = taken.getByRole('checkbox', { name: /^bottle A, 200 ml at mi .* \(0:30:00\)$/ });
     await plannedDrink.check();
-    expect(await taken.getByLabel('Time, entry 2').inputValue()).toBe('0:30');
-    expect(await taken.getByLabel('Millilitres (ml), entry 2').inputValue()).toBe('200');
+    await expect.poll(() => taken.getByLabel('Time, entry 2').inputValue()).toBe('0:30');
+    await expect.poll(() => taken.getByLabel('Millilitres (ml), entry 2').inputValue()).toBe('200');
     await taken.getByLabel('Millilitres (ml), entry 2').fill('100');
     await taken.getByLabel('Stomach (1–5)').selectOption('4');
     await taken.getByLabel('Energy (1–5)').selectOption('3');

@@ -103,8 +103,8 @@ describe('joining a squad by invitation', () => {
 
     await page.getByRole('link', { name: 'Create an account' }).click();
     await page.waitForURL(/\/sign-up\?/);
-    expect(await page.getByLabel('E-mail').inputValue()).toBe(address);
-    expect(await page.getByRole('radio', { name: /Runner/ }).isChecked()).toBe(true);
+    await expect.poll(() => page.getByLabel('E-mail').inputValue()).toBe(address);
+    await expect.poll(() => page.getByRole('radio', { name: /Runner/ }).isChecked()).toBe(true);
     await page.getByLabel('Name').fill('Wren Halloway');
     await page.getByLabel('Password').fill(password);
     await page.getByRole('button', { name: 'Create account' }).click();

@@ -130,7 +130,7 @@ describe('one unit setting for every page', () => {
 
     // km on the splits card: the top bar's switch follows, the climb turns to metres.
     const topBar = page.getByRole('group', { name: 'Distance unit' });
-    expect(await topBar.getByRole('radio', { name: 'mi' }).isChecked()).toBe(true);
+    await expect.poll(() => topBar.getByRole('radio', { name: 'mi' }).isChecked()).toBe(true);
     await page.getByRole('group', { name: 'Split unit' }).getByRole('radio', { name: 'km' }).check();
     await expect.poll(() => topBar.getByRole('radio', { name: 'km' }).isChecked()).toBe(true);
     await expect.poll(() => climb.textContent()).toBe(`↑ ${Math.round(summary.ascent_m)} m ↓ ${Math.round(summary.descent_m)} m`);
@@ -147,7 +147,9 @@ describe('one unit setting for every page', () => {
     // Remembered: a reload keeps km on the card and in the top bar.
     await page.reload();
     await page.getByRole('table', { name: /^Splits per kilometre/ }).waitFor();
-    expect(await page.getByRole('group', { name: 'Distance unit' }).getByRole('radio', { name: 'km' }).isChecked()).toBe(true);
+    await expect
+      .poll(() => page.getByRole('group', { name: 'Distance unit' }).getByRole('radio', { name: 'km' }).isChecked())
+      .toBe(true);
     await screenshot(page, 'run-km-remembered-1280');
     expect(errors).toEqual([]);
     await page.close();

@@ -131,7 +131,7 @@ describe('plan check on the run page', () => {
     // The owner unlinks the plan, then goes back to the plan of the run's day.
     await page.getByRole('button', { name: 'Unlink' }).click();
     await page.getByText('No session plan on this day.').waitFor();
-    expect(await page.getByLabel('Link this run to a plan').textContent()).toContain('Track 6 × 800 m');
+    await expect.poll(() => page.getByLabel('Link this run to a plan').textContent()).toContain('Track 6 × 800 m');
     await page.getByRole('button', { name: 'Back to the same-day plan' }).click();
     await expect.poll(() => table.getByRole('rowheader').count()).toBe(13);
 

@@ -105,9 +105,9 @@ describe('the Log pages by cursor', () => {
       await page.goto(`${server.url}/log`);
       const pages = [await apiPage(page, 1), await apiPage(page, 2), await apiPage(page, 3)];
       expect(pages.map((p) => p.length)).toEqual([20, 20, 5]);
-      expect(await listedRuns(page)).toEqual(pages[0]);
+      await expect.poll(() => listedRuns(page), WAIT).toEqual(pages[0]);
       const pager = page.getByRole('navigation', { name: 'Pages of runs' });
-      expect(await pager.textContent()).toContain('Page 1 of 3');
+      await expect.poll(() => pager.textContent(), WAIT).toContain('Page 1 of 3');
 
       // Two pages on: each address carries the page number and the cursor, and the runs are the offset pages' runs.
       await pager.getByRole('link', { name: /Older/ }).click();
@@ -117,7 +117,7 @@ describe('the Log pages by cursor', () => {
       await pager.getByRole('link', { name: /Older/ }).click();
       await page.waitForURL(/\/log\?page=3&after=[\w-]+$/);
       await expect.poll(() => listedRuns(page), WAIT).toEqual(pages[2]);
-      expect(await pager.textContent()).toContain('Page 3 of 3');
+      await expect.poll(() => pager.textContent(), WAIT).toContain('Page 3 of 3');
       expect(await pager.getByRole('link', { name: /Older/ }).count()).toBe(0);
       await fitsWidth(page, size.width);
       await screenshot(page, `log-paging-page-3-${size.width}`);
@@ -171,7 +171,8 @@ describe('the Log pages by cursor', () => {
     await signInThroughPage(page, server.url, { email: runner.user.email, password: runner.password }, DESKTOP);
     const errors = watchErrors(page, [/status of 400/]);
     await page.goto(`${server.url}/log?sort=distance`);
-    expect(await listedRuns(page)).toEqual(await apiPage(page, 1, 'distance'));
+    const firstPage = await apiPage(page, 1, 'distance');
+    await expect.poll(() => listedRuns(page), WAIT).toEqual(firstPage);
     const pager = page.getByRole('navigation', { name: 'Pages of runs' });
     await pager.getByRole('link', { name: /Next/ }).click();
     await page.waitForURL(/\/log\?page=2&after=[\w-]+&sort=distance$/);
