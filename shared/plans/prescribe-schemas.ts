@@ -203,6 +203,8 @@ export const RunnerSummarySchema = z.object({
   unit: z.enum(['mi', 'km']),
   pace_tolerance: z.number(),
   week_starts_on: z.number().int(),
+  /** The runner's own time zone (IANA name): their plan marks "today" by their clock, not the reader's. */
+  time_zone: z.string(),
 });
 export type RunnerSummary = z.infer<typeof RunnerSummarySchema>;
 

@@ -1,6 +1,7 @@
 import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
+import { db } from '../../server/lib/db.ts';
 import { todayIn } from '../../shared/runs/local-time.ts';
 import { METRES_PER_FOOT } from '../../shared/units.ts';
 import { screenshot, watchErrors } from '../support/browser.ts';
@@ -100,6 +101,40 @@ describe('one time zone for the profile list and for "today"', () => {
     expect([longDay(expected), longDay(expectedNow)]).toContain(onPlan);
     expect(onMyWeek).toBe(onPlan);
     expect(onPlan).not.toBe(longDay(deviceDate));
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
+
+describe("a coach's view of a runner's plan", () => {
+  it('marks the runner’s today, not the coach’s, at 375 and 1280 px', async () => {
+    // The coach reads the device's zone (Pago_Pago), the runner lives in Kiritimati: 25 hours apart.
+    const stamp = Date.now().toString(36);
+    const coach = await createUser({ role: 'coach', name: 'Cleo Westwater', email: `cleo-${stamp}@example.test` });
+    const runner = await createUser({ name: 'Kai Eastmost', email: `kai-${stamp}@example.test` });
+    await db('users').where({ id: coach.user.id }).update({ time_zone: DEVICE_ZONE });
+    await db('users').where({ id: runner.user.id }).update({ time_zone: PROFILE_ZONE });
+    const [squad] = await db('squads')
+      .insert({ coach_id: coach.user.id, name: `Dateline squad ${stamp}` })
+      .returning('id');
+    await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.user.id });
+
+    const page = await session.browser.context.newPage();
+    await signInThroughPage(page, session.server.url, { email: coach.user.email, password: coach.password }, PHONE);
+    const errors = watchErrors(page);
+    for (const size of [PHONE, DESKTOP]) {
+      await page.setViewportSize(size);
+      const before = todayIn(PROFILE_ZONE);
+      await page.goto(`${session.server.url}/squad/${runner.user.id}/plan`);
+      await expect.poll(() => page.getByRole('heading', { name: `${runner.user.name}’s plan` }).count()).toBe(1);
+      const marked = await dayMarkedToday(page);
+      // A test that crosses Kiritimati's midnight accepts the later date; the coach's date is never one of them.
+      expect([longDay(before), longDay(todayIn(PROFILE_ZONE))]).toContain(marked);
+      expect(marked).not.toBe(longDay(todayIn(DEVICE_ZONE)));
+      const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+      expect(overflow).toBeLessThanOrEqual(0);
+      await screenshot(page, `coach-runner-plan-today-${size.width}`);
+    }
     expect(errors).toEqual([]);
     await page.close();
   });

@@ -346,6 +346,7 @@ export async function runnerSummary(actor: Actor, runnerId: string) {
     unit: runner.unit,
     pace_tolerance: runner.pace_tolerance,
     week_starts_on: runner.week_starts_on,
+    time_zone: runner.time_zone,
   };
 }
 

@@ -69,13 +69,16 @@ export const createLoader =
   async ({ request, params }: LoaderFunctionArgs) => {
     const runnerId = params.runnerId;
     if (runnerId) await requireAccess(queryClient, request, 'squads:manage');
-    const profile = await queryClient.ensureQueryData(profileQueryOptions());
-    const range = readView(new URL(request.url).searchParams, todayIn(profile.time_zone));
+    const [profile, runner] = await Promise.all([
+      queryClient.ensureQueryData(profileQueryOptions()),
+      runnerId ? queryClient.ensureQueryData(runnerSummaryQueryOptions(runnerId)) : null,
+    ]);
+    // The week shown first is the one holding the plan owner's today (the runner's, on a coach's view).
+    const range = readView(new URL(request.url).searchParams, todayIn(runner?.time_zone ?? profile.time_zone));
     await Promise.all([
       queryClient.ensureQueryData(goalRaceQueryOptions(runnerId)),
       queryClient.ensureQueryData(plansQueryOptions(planFilters(range, runnerId))),
       queryClient.ensureQueryData(runsQueryOptions(runFilters(range, runnerId))),
-      runnerId ? queryClient.ensureQueryData(runnerSummaryQueryOptions(runnerId)) : null,
     ]);
     return null;
   };
@@ -110,13 +113,15 @@ function RunnerPlan({ runnerId }: { runnerId: string }) {
   return <PlanPage key={runnerId} runner={runner} />;
 }
 
-function PlanPage({ runner }: { runner: { id: string; name: string; pace_tolerance: number } | null }) {
+function PlanPage({ runner }: { runner: { id: string; name: string; pace_tolerance: number; time_zone: string } | null }) {
   const runnerId = runner?.id;
   const [search, setSearch] = useSearchParams();
   const profile = useProfile();
-  // One clock for the page, read in the profile's time zone: today, and "changed Tue" in the bylines (issue 17).
+  // One clock for the page (issue 17). "Today" is the plan owner's: on a coach's view of a runner's plan it is
+  // the runner's day (the coach may be hours away), as in the week review; "changed Tue" in the bylines is
+  // read in the reader's own time zone.
   const now = new Date();
-  const today = todayIn(profile.time_zone, now.getTime());
+  const today = todayIn(runner?.time_zone ?? profile.time_zone, now.getTime());
   const range = readView(search, today);
   const me = useMe();
   const isCoach = me?.role === 'coach';
