@@ -1,5 +1,5 @@
 import { isValidPosition } from './geodesy.ts';
-import { POINT_FIELDS, PointColumns } from './point-columns.ts';
+import { PointColumns } from './point-columns.ts';
 import type { CleanTrack, CleaningReport, TrackPoint } from './types.ts';
 
 /** Heart rates outside this range (bpm) are sensor errors and are dropped from the point. */
@@ -146,7 +146,15 @@ export function cleanPoints(raw: PointColumns, segmentStarts: readonly number[],
 
 /** Cut columns written over in place to their first `length` points (views: nothing is copied). */
 function keepFirst(columns: PointColumns, length: number): void {
-  for (const field of POINT_FIELDS) columns[field] = columns[field].subarray(0, length);
+  // Each field by name: a store by computed key would make every later access to the columns generic.
+  columns.t = columns.t.subarray(0, length);
+  columns.lat = columns.lat.subarray(0, length);
+  columns.lon = columns.lon.subarray(0, length);
+  columns.ele = columns.ele.subarray(0, length);
+  columns.hr = columns.hr.subarray(0, length);
+  columns.cad = columns.cad.subarray(0, length);
+  columns.temp = columns.temp.subarray(0, length);
+  columns.distance_m = columns.distance_m.subarray(0, length);
   columns.position_given = columns.position_given.subarray(0, length);
   columns.length = length;
 }
