@@ -73,7 +73,7 @@ export async function computeImport(input: ImportComputeInput): Promise<ImportCo
     'path' in source
       ? await readFile(source.path)
       : Buffer.from(source.data.buffer, source.data.byteOffset, source.data.byteLength);
-  // A plain file is counted exactly by parseTrackFile before it is read (countTrackPointTags); only a
+  // A plain file is counted exactly by parseTrackFile while it is read (parse/point-tags.ts); only a
   // compressed one needs counting while it is decompressed, so a zip bomb of points is never inflated whole.
   const gzipped = data[0] === 0x1f && data[1] === 0x8b;
   if (gzipped && (await compressedShowsTooManyPoints(data))) {
