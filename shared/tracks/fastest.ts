@@ -13,71 +13,7 @@ export const FASTEST_SECTION_DISTANCES_M: readonly number[] = [400, 1000, METRES
  * Linear time in the number of points.
  */
 export function fastestSection(series: TrackSeries, distanceM: number): FastestSection | null {
-  const { t, d } = series;
-  const n = t.length;
-  if (n < 2 || !(distanceM > 0) || (d[n - 1] as number) - (d[0] as number) < distanceM) return null;
-  // The best so far in plain numbers (no object or closure per point): time, start, end, start distance.
-  let found = false;
-  let bestTime = 0;
-  let bestStartT = 0;
-  let bestEndT = 0;
-  let bestStartD = 0;
-
-  // Ends on a point j: start where distance d[j] − D was last held.
-  let i = 0;
-  for (let j = 1; j < n; j++) {
-    const dj = d[j] as number;
-    const target = dj - distanceM;
-    if (target < (d[0] as number)) continue;
-    if (dj === (d[j - 1] as number)) continue; // the earliest arrival at d[j] is earlier
-    while (i + 1 < j && (d[i + 1] as number) <= target) i++;
-    const d0 = d[i] as number;
-    const d1 = d[i + 1] as number;
-    const t0 = t[i] as number;
-    const startT = d1 > d0 ? t0 + ((target - d0) / (d1 - d0)) * ((t[i + 1] as number) - t0) : t0;
-    const endT = t[j] as number;
-    const time = (endT - startT) / 1000;
-    if (!found || time < bestTime) {
-      found = true;
-      bestTime = time;
-      bestStartT = startT;
-      bestEndT = endT;
-      bestStartD = target;
-    }
-  }
-
-  // Starts on a point s (as it leaves it): end where distance d[s] + D is first reached.
-  let j = 1;
-  for (let s = 0; s + 1 < n; s++) {
-    const ds = d[s] as number;
-    if ((d[s + 1] as number) === ds) continue; // still standing: a later start is faster
-    const target = ds + distanceM;
-    if (target > (d[n - 1] as number)) break;
-    if (j <= s) j = s + 1;
-    while ((d[j] as number) < target) j++;
-    const d0 = d[j - 1] as number;
-    const d1 = d[j] as number;
-    const t0 = t[j - 1] as number;
-    const endT = d1 > d0 ? t0 + ((target - d0) / (d1 - d0)) * ((t[j] as number) - t0) : t0;
-    const startT = t[s] as number;
-    const time = (endT - startT) / 1000;
-    if (!found || time < bestTime) {
-      found = true;
-      bestTime = time;
-      bestStartT = startT;
-      bestEndT = endT;
-      bestStartD = ds;
-    }
-  }
-  if (!found) return null;
-  return {
-    distance_m: distanceM,
-    time_s: bestTime,
-    pace_s_per_km: bestTime / (distanceM / 1000),
-    start_t: bestStartT,
-    end_t: bestEndT,
-    start_distance_m: bestStartD,
-  };
+  return fastestSectionsOf(series, [distanceM])[0] ?? null;
 }
 
 /** Fastest sections for every standard distance the run covers, shortest first. */
@@ -86,9 +22,111 @@ export function computeFastestSections(
   distancesM: readonly number[] = FASTEST_SECTION_DISTANCES_M,
 ): FastestSection[] {
   const out: FastestSection[] = [];
-  for (const distance of distancesM) {
-    const section = fastestSection(series, distance);
-    if (section) out.push(section);
+  for (const section of fastestSectionsOf(series, distancesM)) if (section) out.push(section);
+  return out;
+}
+
+/**
+ * `fastestSection` for several distances in the same two sweeps over the points (one pointer and one best
+ * per distance, each visiting the points in the same order as a sweep of its own, so the same result).
+ */
+function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): (FastestSection | null)[] {
+  const { t, d } = series;
+  const n = t.length;
+  const m = distancesM.length;
+  const distance = Float64Array.from(distancesM);
+  // Distances this run covers; the others stay null.
+  const covered = new Uint8Array(m);
+  for (let k = 0; k < m; k++) {
+    const D = distance[k] as number;
+    covered[k] = n >= 2 && D > 0 && (d[n - 1] as number) - (d[0] as number) >= D ? 1 : 0;
+  }
+  // The best so far per distance in plain numbers (no object or closure per point).
+  const found = new Uint8Array(m);
+  const bestTime = new Float64Array(m);
+  const bestStartT = new Float64Array(m);
+  const bestEndT = new Float64Array(m);
+  const bestStartD = new Float64Array(m);
+  const pointer = new Int32Array(m);
+
+  // Ends on a point j: start where distance d[j] − D was last held.
+  const d0 = n > 0 ? (d[0] as number) : 0;
+  for (let j = 1; j < n; j++) {
+    const dj = d[j] as number;
+    if (dj === (d[j - 1] as number)) continue; // the earliest arrival at d[j] is earlier
+    const endT = t[j] as number;
+    for (let k = 0; k < m; k++) {
+      if (!covered[k]) continue;
+      const target = dj - (distance[k] as number);
+      if (target < d0) continue;
+      let i = pointer[k] as number;
+      while (i + 1 < j && (d[i + 1] as number) <= target) i++;
+      pointer[k] = i;
+      const da = d[i] as number;
+      const db = d[i + 1] as number;
+      const ta = t[i] as number;
+      const startT = db > da ? ta + ((target - da) / (db - da)) * ((t[i + 1] as number) - ta) : ta;
+      const time = (endT - startT) / 1000;
+      if (!found[k] || time < (bestTime[k] as number)) {
+        found[k] = 1;
+        bestTime[k] = time;
+        bestStartT[k] = startT;
+        bestEndT[k] = endT;
+        bestStartD[k] = target;
+      }
+    }
+  }
+
+  // Starts on a point s (as it leaves it): end where distance d[s] + D is first reached.
+  pointer.fill(1);
+  const last = n > 0 ? (d[n - 1] as number) : 0;
+  for (let s = 0; s + 1 < n; s++) {
+    const ds = d[s] as number;
+    if ((d[s + 1] as number) === ds) continue; // still standing: a later start is faster
+    const startT = t[s] as number;
+    for (let k = 0; k < m; k++) {
+      if (!covered[k]) continue;
+      const target = ds + (distance[k] as number);
+      // Past the end for this distance: so for every later start too.
+      if (target > last) {
+        covered[k] = 2;
+        continue;
+      }
+      if (covered[k] === 2) continue;
+      let j = pointer[k] as number;
+      if (j <= s) j = s + 1;
+      while ((d[j] as number) < target) j++;
+      pointer[k] = j;
+      const da = d[j - 1] as number;
+      const db = d[j] as number;
+      const ta = t[j - 1] as number;
+      const endT = db > da ? ta + ((target - da) / (db - da)) * ((t[j] as number) - ta) : ta;
+      const time = (endT - startT) / 1000;
+      if (!found[k] || time < (bestTime[k] as number)) {
+        found[k] = 1;
+        bestTime[k] = time;
+        bestStartT[k] = startT;
+        bestEndT[k] = endT;
+        bestStartD[k] = ds;
+      }
+    }
+  }
+
+  const out: (FastestSection | null)[] = [];
+  for (let k = 0; k < m; k++) {
+    const D = distance[k] as number;
+    out.push(
+      found[k]
+        ? {
+            distance_m: distancesM[k] as number,
+            time_s: bestTime[k] as number,
+            pace_s_per_km: (bestTime[k] as number) / (D / 1000),
+            start_t: bestStartT[k] as number,
+            end_t: bestEndT[k] as number,
+            start_distance_m: bestStartD[k] as number,
+          }
+        : null,
+    );
   }
   return out;
 }
