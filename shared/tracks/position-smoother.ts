@@ -713,10 +713,12 @@ interface StretchWork {
   filtered: Float64Array;
   /** The RTS smoother gain Cₖ per point: c00, c01, c10, c11 (shared by both axes). */
   gain: Float64Array;
+  /** What one block of steps hands the next (`forwardBlock`, `backwardBlock`). */
+  state: Float64Array;
 }
 
 function stretchWork(capacity: number): StretchWork {
-  return { filtered: new Float64Array(4 * capacity), gain: new Float64Array(4 * capacity) };
+  return { filtered: new Float64Array(4 * capacity), gain: new Float64Array(4 * capacity), state: new Float64Array(8) };
 }
 
 /**
@@ -757,20 +759,70 @@ function smoothStretch(
   }
   const f = work.filtered;
   const c = work.gain;
+  const state = work.state;
   // First point: position as measured, velocity unknown (10 m/s standard deviation).
-  let a00 = r;
-  let a01 = 0;
-  let a11 = 100;
-  let xPos = x[from] as number;
-  let xVel = 0;
-  let yPos = y[from] as number;
-  let yVel = 0;
-  f[0] = xPos;
-  f[1] = xVel;
-  f[2] = yPos;
-  f[3] = yVel;
-  let tPrev = t[from] as number;
-  for (let k = 1; k < len; k++) {
+  state[FX] = x[from] as number;
+  state[FV] = 0;
+  state[FY] = y[from] as number;
+  state[FW] = 0;
+  state[P00] = r;
+  state[P01] = 0;
+  state[P11] = 100;
+  state[TIME] = t[from] as number;
+  f[0] = state[FX];
+  f[1] = 0;
+  f[2] = state[FY];
+  f[3] = 0;
+  // In blocks, so that the warm-up of a short run already compiles these loops for the next call.
+  for (let k = 1; k < len; k += SMOOTHER_BLOCK)
+    forwardBlock(t, x, y, from, k, Math.min(len, k + SMOOTHER_BLOCK), r, qAll, qSteps, f, c, state);
+  // RTS backward pass: x̂ₖ = xₖ + Cₖ (x̂ₖ₊₁ − x⁻ₖ₊₁).
+  sx[to - 1] = state[FX];
+  sy[to - 1] = state[FY];
+  sv[2 * (to - 1)] = state[FV];
+  sv[2 * (to - 1) + 1] = state[FW];
+  state[TIME] = t[to - 1] as number;
+  for (let k = len - 2; k >= 0; k -= SMOOTHER_BLOCK)
+    backwardBlock(t, from, k, Math.max(-1, k - SMOOTHER_BLOCK), f, c, sx, sy, sv, state);
+}
+
+/** Steps per call of `forwardBlock` and `backwardBlock`. */
+const SMOOTHER_BLOCK = 512;
+// Slots of `StretchWork.state`: the state (east position and velocity, north position and velocity), its
+// covariance and the time of the last point done.
+const FX = 0;
+const FV = 1;
+const FY = 2;
+const FW = 3;
+const P00 = 4;
+const P01 = 5;
+const P11 = 6;
+const TIME = 7;
+
+/** Kalman filter steps k ∈ [kFrom, kTo) of the stretch starting at `from`, carrying `state` (see `smoothStretch`). */
+function forwardBlock(
+  t: ArrayLike<number>,
+  x: Float64Array,
+  y: Float64Array,
+  from: number,
+  kFrom: number,
+  kTo: number,
+  r: number,
+  qAll: number,
+  qSteps: Float64Array | null,
+  f: Float64Array,
+  c: Float64Array,
+  state: Float64Array,
+): void {
+  let xPos = state[FX] as number;
+  let xVel = state[FV] as number;
+  let yPos = state[FY] as number;
+  let yVel = state[FW] as number;
+  let a00 = state[P00] as number;
+  let a01 = state[P01] as number;
+  let a11 = state[P11] as number;
+  let tPrev = state[TIME] as number;
+  for (let k = kFrom; k < kTo; k++) {
     const tk = t[from + k] as number;
     const dt = (tk - tPrev) / 1000;
     tPrev = tk;
@@ -814,13 +866,35 @@ function smoothStretch(
     a01 = (1 - k0) * b01;
     a11 = b11 - k1 * b01;
   }
-  // RTS backward pass: x̂ₖ = xₖ + Cₖ (x̂ₖ₊₁ − x⁻ₖ₊₁).
-  sx[to - 1] = xPos;
-  sy[to - 1] = yPos;
-  sv[2 * (to - 1)] = xVel;
-  sv[2 * (to - 1) + 1] = yVel;
-  let tNext = t[to - 1] as number;
-  for (let k = len - 2; k >= 0; k--) {
+  state[FX] = xPos;
+  state[FV] = xVel;
+  state[FY] = yPos;
+  state[FW] = yVel;
+  state[P00] = a00;
+  state[P01] = a01;
+  state[P11] = a11;
+  state[TIME] = tPrev;
+}
+
+/** RTS smoother steps k = kFrom down to kTo + 1 of the stretch starting at `from`, carrying the smoothed state in `state`. */
+function backwardBlock(
+  t: ArrayLike<number>,
+  from: number,
+  kFrom: number,
+  kTo: number,
+  f: Float64Array,
+  c: Float64Array,
+  sx: Float64Array,
+  sy: Float64Array,
+  sv: Float64Array,
+  state: Float64Array,
+): void {
+  let xPos = state[FX] as number;
+  let xVel = state[FV] as number;
+  let yPos = state[FY] as number;
+  let yVel = state[FW] as number;
+  let tNext = state[TIME] as number;
+  for (let k = kFrom; k > kTo; k--) {
     const tk = t[from + k] as number;
     const dt = (tNext - tk) / 1000;
     tNext = tk;
@@ -846,6 +920,11 @@ function smoothStretch(
     sv[2 * (from + k)] = xVel;
     sv[2 * (from + k) + 1] = yVel;
   }
+  state[FX] = xPos;
+  state[FV] = xVel;
+  state[FY] = yPos;
+  state[FW] = yVel;
+  state[TIME] = tNext;
 }
 
 /** Turns of more than this (radians) between two steps are not treated as part of a circle. */
