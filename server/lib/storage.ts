@@ -1,4 +1,4 @@
-import { copyFile, mkdir, opendir, readFile, rm, rmdir, stat, writeFile } from 'node:fs/promises';
+import { copyFile, link, mkdir, opendir, readFile, rm, rmdir, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { StoredFileInfo } from '../../shared/runs/orphan-files.ts';
 
@@ -38,6 +38,9 @@ async function* walkFiles(dir: string): AsyncGenerator<string> {
   }
 }
 
+/** Why a hard link may be refused where a copy still works. */
+const LINK_REFUSED = new Set(['EEXIST', 'EXDEV', 'EPERM', 'ENOTSUP', 'EOPNOTSUPP', 'EMLINK', 'EACCES']);
+
 /** Local disk under `DATA_DIR/files` (the default). */
 export function createFsStore(dataDir: string): FileStore {
   const root = path.join(dataDir, 'files');
@@ -59,8 +62,19 @@ export function createFsStore(dataDir: string): FileStore {
   };
   return {
     put: (key, data) => writeInFolder(key, (file) => writeFile(file, data)),
-    // The kernel copies it (copy_file_range/sendfile on Linux): a 25 MB upload is never read into the event loop's heap.
-    putFile: (key, sourcePath) => writeInFolder(key, (file) => copyFile(sourcePath, file)),
+    // A hard link: the stored name shares the waiting upload's bytes (uploads wait in DATA_DIR/uploads, the same
+    // disk), nothing is copied, and the upload's own name is removed afterwards. Where a link cannot be made
+    // (another filesystem, no links), or a file of that key is left from an interrupted upload, the kernel copies
+    // it (copy_file_range/sendfile on Linux): a 25 MB upload is never read into the event loop's heap either way.
+    putFile: (key, sourcePath) =>
+      writeInFolder(key, async (file) => {
+        try {
+          await link(sourcePath, file);
+        } catch (err) {
+          if (!LINK_REFUSED.has((err as NodeJS.ErrnoException).code ?? '')) throw err;
+          await copyFile(sourcePath, file);
+        }
+      }),
     async get(key) {
       return readFile(resolve(key));
     },

@@ -81,6 +81,13 @@ describe('file storage adapters', () => {
     writeFileSync(upload, bytes);
     await store.putFile!('user-1/def456', upload);
     expect((await store.get('user-1/def456')).length).toBe(bytes.length);
+    // A file of that key left half-written by an interrupted upload is replaced by the whole upload.
+    rmSync(upload);
+    writeFileSync(path.join(dataDir, 'files', 'user-1', 'def456'), bytes.subarray(0, 100));
+    writeFileSync(upload, bytes);
+    await store.putFile!('user-1/def456', upload);
+    rmSync(upload);
+    expect(Buffer.compare(await store.get('user-1/def456'), bytes)).toBe(0);
     await expect(store.putFile!('../escape', upload)).rejects.toThrow(/unsafe/);
   });
 

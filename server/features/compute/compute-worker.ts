@@ -4,8 +4,9 @@
  */
 import { setPriority } from 'node:os';
 import type { MessagePort } from 'node:worker_threads';
+import { Piscina } from 'piscina';
 import { computePlanCheck, type PlanCheckComputeInput } from '../plans/worker.ts';
-import { computeImport, type ImportComputeInput } from '../runs/worker.ts';
+import { computeImport, type ImportComputeInput, type ImportComputeOutput } from '../runs/worker.ts';
 
 /**
  * Niceness of a compute thread. On Linux a thread's nice value is its own (setpriority(2), "BUGS"),
@@ -31,12 +32,30 @@ export interface ComputeJob {
   started: MessagePort;
 }
 
+/**
+ * An import's answer with its tracks' packed columns (megabytes each) moved to the event loop's thread
+ * instead of copied (piscina's transferable: the list to move, and the value).
+ */
+function handedOver(output: ImportComputeOutput): ImportComputeOutput {
+  if (!output.ok) return output;
+  const buffers = output.records.map((r) => r.children.track.raw.buffer as ArrayBuffer);
+  const transferable = {
+    get [Piscina.transferableSymbol]() {
+      return buffers;
+    },
+    get [Piscina.valueSymbol]() {
+      return output;
+    },
+  };
+  return Piscina.move(transferable as unknown as Parameters<typeof Piscina.move>[0]) as unknown as ImportComputeOutput;
+}
+
 export default async function runComputeJob({ task, started }: ComputeJob): Promise<unknown> {
   // The pool closes the channel when the job ends.
   started.postMessage('started');
   switch (task.kind) {
     case 'import-file':
-      return computeImport(task.input);
+      return handedOver(await computeImport(task.input));
     case 'plan-check':
       return computePlanCheck(task.input);
     case 'spin': {

@@ -12,7 +12,7 @@ import { canonicalTimeZone } from '../../../shared/users/time-zones.ts';
 import type { RunRow, RunSplitRow, UserRow } from '../../lib/db.ts';
 import type { ParsedRun } from './parse/parse-track-file.ts';
 import type { RunChildren } from './runs.repository.ts';
-import { encodeColumns } from './track-blob.ts';
+import { packColumns } from './track-blob.ts';
 
 /** The profile fields an import reads (heart rates, weight, sex, time zone), sent to the compute workers. */
 export type RunOwnerProfile = Pick<UserRow, 'id' | 'time_zone' | 'max_hr' | 'resting_hr' | 'weight_kg' | 'sex'>;
@@ -75,10 +75,13 @@ function profileDependentFigures(user: RunOwnerProfile, analysis: RunAnalysis) {
   };
 }
 
-/** A run as it is about to be stored: its row (without the source file it came from) and its children. */
+/**
+ * A run as it is about to be stored: its row (without the source file it came from) and its children, the
+ * track's columns packed but not yet compressed (track-blob.ts).
+ */
 export interface RunRecord {
   run: Omit<RunRow, 'id' | 'created_at' | 'source_file_id'>;
-  children: RunChildren;
+  children: Omit<RunChildren, 'track'> & { track: { columns: string[]; point_count: number; raw: Uint8Array } };
 }
 
 /**
@@ -125,7 +128,8 @@ export function buildRunRecord(user: RunOwnerProfile, parsed: ParsedRun, analysi
   if (series.hr) columns.hr = series.hr;
   if (series.cad) columns.cad = series.cad;
   columns.moving = Float64Array.from(series.moving);
-  const blob = encodeColumns(columns);
+  // Packed, not yet compressed: the gzip runs beside the run's first statements (runs.service.ts).
+  const packed = packColumns(columns);
   const toSplitRow = (s: Split): Omit<RunSplitRow, 'run_id'> => ({
     unit: s.unit,
     split_index: s.index,
@@ -145,7 +149,7 @@ export function buildRunRecord(user: RunOwnerProfile, parsed: ParsedRun, analysi
   return {
     run,
     children: {
-      track: { columns: blob.columns, point_count: blob.pointCount, data: blob.data },
+      track: { columns: packed.columns, point_count: packed.pointCount, raw: packed.raw },
       splits: [...analysis.splits.mi, ...analysis.splits.km].map(toSplitRow),
       laps: parsed.laps.map((l, i) => ({
         lap_index: i + 1,

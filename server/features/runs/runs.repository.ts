@@ -60,7 +60,8 @@ export async function insertSourceFile(row: Omit<SourceFileRow, 'id' | 'created_
 }
 
 export interface RunChildren {
-  track: { columns: string[]; point_count: number; data: Buffer };
+  /** The blob may still be being compressed: it is awaited for the run's last statement. */
+  track: { columns: string[]; point_count: number; data: Buffer | Promise<Buffer> };
   splits: Omit<RunSplitRow, 'run_id'>[];
   laps: Omit<RunLapRow, 'run_id'>[];
   fastest: Omit<RunFastestSectionRow, 'run_id'>[];
@@ -72,7 +73,6 @@ export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, chi
   const runId = (row as RunRow).id;
   // Feeds the runner's assembled weeks (server/features/week-cache).
   await bumpWeekInputs([run.user_id], trx);
-  await trx('run_tracks').insert({ run_id: runId, ...children.track });
   // In chunks: a long track's splits (or a file's laps) can pass PostgreSQL's 65 535 parameters per statement.
   await insertInChunks(
     trx,
@@ -89,6 +89,8 @@ export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, chi
     'run_fastest_sections',
     children.fastest.map((f) => ({ run_id: runId, ...f })),
   );
+  // Last: the track's blob is compressed meanwhile (runs.service.ts starts it when the compute thread answers).
+  await trx('run_tracks').insert({ run_id: runId, ...children.track, data: await children.track.data });
   return row as RunRow;
 }
 

@@ -32,7 +32,7 @@ import type { FileStore } from '../../lib/storage.ts';
 import { ComputeBusyError, ComputeCrashError, ComputeTimeoutError, computeImportJob } from '../compute/index.ts';
 import { assertCanReadRunner } from '../squads/index.ts';
 import { readyAnswer, type ReadyAnswer } from '../week-cache/index.ts';
-import { decodeColumns } from './track-blob.ts';
+import { decodeColumns, gzipPackedColumns } from './track-blob.ts';
 import { insertRunNote, listRunNotes } from './run-notes.repository.ts';
 import { findReadNoteIds } from '../notes/index.ts';
 import { recordNoteNotice, type NoticeDeps } from '../notices/index.ts';
@@ -68,9 +68,11 @@ const GENERIC_REJECTION =
 
 /**
  * A file to import: bytes in memory (an archive entry, a script) or a streamed upload waiting on
- * disk with the SHA-256 taken while it arrived.
+ * disk with the SHA-256 taken while it arrived (and, when its request had room, the same bytes in
+ * memory shared with the compute threads: upload-to-disk.ts).
  */
-export type UploadedFile = { name: string; data: Buffer } | { name: string; path: string; size: number; sha256: string };
+export type UploadedFile =
+  { name: string; data: Buffer } | { name: string; path: string; size: number; sha256: string; bytes?: Uint8Array };
 
 export interface ImportOptions {
   /** Original files the user may keep, bytes; a file that does not fit is refused. No limit when absent. */
@@ -107,7 +109,8 @@ async function computeRuns(
 ): Promise<{ ok: true; format: string; records: RunRecord[] } | { ok: false; error: string }> {
   try {
     const out = await computeImportJob(user.id, {
-      source: 'data' in file ? { data: file.data } : { path: file.path },
+      // Bytes already in memory cross to the thread without a copy (shared memory) or a read back from disk.
+      source: 'data' in file ? { data: file.data } : file.bytes ? { data: file.bytes } : { path: file.path },
       owner: runOwnerProfile(user),
     });
     return out.ok ? out : { ok: false, error: out.message };
@@ -180,15 +183,16 @@ export async function importFiles(
     const records = computed.records;
     const size = sizeOf(file);
     const storageKey = existing?.storage_key ?? `${user.id}/${sha256}`;
-    // The track blob crossed from the worker as a Uint8Array.
+    // Each track's columns crossed from the thread packed (handed over, not copied); they are gzipped on
+    // libuv's pool from now on, beside the transaction's first statements, and awaited for the last one.
+    const blobs = new Map(records.map((record) => [record, gzipPackedColumns(record.children.track.raw)]));
+    // A blob no statement awaits (a refused or failed file) must not end as an unhandled rejection.
+    for (const blob of blobs.values()) blob.catch(() => undefined);
     const insertRecord = (record: RunRecord, sourceFileId: string, trx: Parameters<typeof insertRunWhole>[2]) => {
-      const track = record.children.track;
+      const { columns, point_count } = record.children.track;
       return insertRunWhole(
         { ...record.run, source_file_id: sourceFileId },
-        {
-          ...record.children,
-          track: { ...track, data: Buffer.from(track.data.buffer, track.data.byteOffset, track.data.byteLength) },
-        },
+        { ...record.children, track: { columns, point_count, data: blobs.get(record)! } },
         trx,
       );
     };

@@ -12,12 +12,43 @@ import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { multipartTextProblem } from '../../lib/validate.ts';
 
-/** An uploaded file as it waits on disk for the import: where, how big, and its SHA-256 (taken while it arrived). */
+/**
+ * An uploaded file as it waits on disk for the import: where, how big, and its SHA-256 (taken while it arrived);
+ * `bytes` are the same bytes in memory shared with the compute threads, when the request had room for them
+ * (see `ArrivingBytes`), so the parse starts without reading the file back from disk.
+ */
 export interface ReceivedFile {
   name: string;
   path: string;
   size: number;
   sha256: string;
+  bytes?: Uint8Array;
+}
+
+/**
+ * Bytes of arriving uploads the process keeps in memory at once (besides writing them to disk): above it a
+ * request's files are only written to disk and read back by the compute thread, as before. 192 MB is three
+ * requests of the 64 MB file limit; the limits themselves are unchanged.
+ */
+export const ARRIVING_IN_MEMORY_BYTES = 192 * 1024 * 1024;
+let arrivingInMemory = 0;
+
+/**
+ * The first file of a request kept in memory as it arrives: one SharedArrayBuffer sized by the request's
+ * declared Content-Length (already checked against the request limit; a part is a slice of the body, so it
+ * always fits), at most the per-file limit. Shared memory: the compute thread reads it without a copy. Only the first file: the parts of a
+ * request flow through their own streams, so a second part's bytes could arrive before the first's have all
+ * passed; the page sends one file per request, and further files of a request are read back from disk as before.
+ */
+interface ArrivingBytes {
+  memory: SharedArrayBuffer;
+  /** Taken by the request's first file part. */
+  taken: boolean;
+}
+
+/** Bytes of arriving uploads held in memory now (tests). */
+export function arrivingBytesInMemory(): number {
+  return arrivingInMemory;
 }
 
 /** Where uploads wait while their request is handled: `DATA_DIR/uploads/upload-<uuid>.part`. */
@@ -35,7 +66,22 @@ export interface ReceiveLimits {
 }
 
 const RECEIVED = Symbol('received bytes');
-type CountedRequest = Request & { [RECEIVED]?: number };
+const ARRIVING = Symbol('arriving bytes');
+type CountedRequest = Request & { [RECEIVED]?: number; [ARRIVING]?: ArrivingBytes };
+
+/** Keeps the request's body in memory as it arrives when its declared length fits the process's budget; freed when the answer has gone. */
+function keepArrivingInMemory(req: Request, res: Parameters<RequestHandler>[1], declared: number, maxFileBytes: number): void {
+  if (!Number.isSafeInteger(declared) || declared <= 0) return;
+  // One file is kept, and no file passes the per-file limit.
+  const bytes = Math.min(declared, maxFileBytes);
+  if (arrivingInMemory + bytes > ARRIVING_IN_MEMORY_BYTES) return;
+  arrivingInMemory += bytes;
+  (req as CountedRequest)[ARRIVING] = { memory: new SharedArrayBuffer(bytes), taken: false };
+  res.once('close', () => {
+    arrivingInMemory -= bytes;
+    delete (req as CountedRequest)[ARRIVING];
+  });
+}
 
 export class RequestTooLargeError extends AppError {
   constructor(maxBytes: number) {
@@ -68,6 +114,9 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
       const hash = createHash('sha256');
       const storage = limits.storageLeft(req);
       let size = 0;
+      // The first file's bytes in the request's shared memory; dropped if they ever would not fit.
+      let arriving = counted[ARRIVING]?.taken === false ? counted[ARRIVING] : undefined;
+      if (arriving) arriving.taken = true;
       const counter = new Transform({
         transform(chunk: Buffer, _encoding, done) {
           size += chunk.length;
@@ -75,6 +124,9 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
           if (counted[RECEIVED] > limits.maxRequestBytes) return done(new RequestTooLargeError(limits.maxRequestBytes));
           if (storage && counted[RECEIVED] > storage.left) return done(new StorageFullError(storage.used, storage.quota));
           hash.update(chunk);
+          if (arriving && size <= arriving.memory.byteLength) {
+            new Uint8Array(arriving.memory, size - chunk.length, chunk.length).set(chunk);
+          } else arriving = undefined;
           done(null, chunk);
         },
       });
@@ -88,7 +140,13 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
           return pipeline(counter, (out = createWriteStream(target)));
         })
         .then(
-          () => callback(null, { path: target, size, sha256: hash.digest('hex') } as Partial<Express.Multer.File>),
+          () =>
+            callback(null, {
+              path: target,
+              size,
+              sha256: hash.digest('hex'),
+              bytes: arriving ? new Uint8Array(arriving.memory, 0, size) : undefined,
+            } as Partial<Express.Multer.File>),
           async (err: unknown) => {
             // A stream stopped while still opening creates its file afterwards: remove it only once closed.
             if (out && !out.closed) await new Promise<void>((resolve) => out!.once('close', () => resolve()));
@@ -140,6 +198,7 @@ export function receiveUploads(limits: ReceiveLimits): RequestHandler {
       return next(new RequestTooLargeError(limits.maxRequestBytes));
     }
     removeWhenDone(req, res);
+    keepArrivingInMemory(req, res, declared, limits.maxFileBytes);
     upload(req, res, (err: unknown) => {
       if (!err) {
         const problem = multipartTextProblem(req, 'files');
@@ -176,11 +235,12 @@ export function receiveUploads(limits: ReceiveLimits): RequestHandler {
 
 /** The files `receiveUploads` put on disk, with names decoded as browsers send them. */
 export function receivedFiles(req: Request): ReceivedFile[] {
-  return ((req.files as Array<Express.Multer.File & { sha256: string }> | undefined) ?? []).map((f) => ({
+  return ((req.files as Array<Express.Multer.File & { sha256: string; bytes?: Uint8Array }> | undefined) ?? []).map((f) => ({
     // multer decodes names as latin1; browsers send UTF-8.
     name: Buffer.from(f.originalname, 'latin1').toString('utf8'),
     path: f.path,
     size: f.size,
     sha256: f.sha256,
+    bytes: f.bytes,
   }));
 }
