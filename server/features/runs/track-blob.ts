@@ -1,5 +1,5 @@
 import { promisify } from 'node:util';
-import { gunzipSync, gzip, gzipSync } from 'node:zlib';
+import { gunzipSync, gzip } from 'node:zlib';
 
 /**
  * Level 4, not zlib's default 6: on the 30 h bench files (6.9 MB of columns) it takes half the CPU
@@ -28,12 +28,6 @@ export function packColumns(columns: Record<string, Float64Array>): { columns: s
 /** The stored blob of packed columns: gzip on libuv's thread pool, never on the event loop. */
 export async function gzipPackedColumns(raw: Uint8Array): Promise<Buffer> {
   return gzipAsync(raw, GZIP_OPTIONS);
-}
-
-/** A run's point series stored as one compressed blob (packColumns, then gzip), at once. */
-export function encodeColumns(columns: Record<string, Float64Array>): { columns: string[]; pointCount: number; data: Buffer } {
-  const { columns: names, pointCount, raw } = packColumns(columns);
-  return { columns: names, pointCount, data: gzipSync(raw, GZIP_OPTIONS) };
 }
 
 export function decodeColumns(names: readonly string[], pointCount: number, data: Buffer): Record<string, Float64Array> {

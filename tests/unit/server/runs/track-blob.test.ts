@@ -1,10 +1,10 @@
 import { gunzipSync, gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
-import { decodeColumns, encodeColumns } from '../../../../server/features/runs/track-blob.ts';
+import { decodeColumns, gzipPackedColumns, packColumns } from '../../../../server/features/runs/track-blob.ts';
 import { generateLakeRun, longRunPhases } from '../../../../shared/tracks/synthetic.ts';
 
 describe('stored track columns (track-blob.ts)', () => {
-  it('read back bit for bit, NaN (unknown) included, whatever gzip level wrote them', () => {
+  it('read back bit for bit, NaN (unknown) included, whatever gzip level wrote them', async () => {
     const { points } = generateLakeRun({
       start_t: Date.UTC(2026, 2, 1, 7),
       phases: longRunPhases(0.5, 3.2),
@@ -20,7 +20,11 @@ describe('stored track columns (track-blob.ts)', () => {
       hr: Float64Array.from(points, (_, k) => (k % 7 === 0 ? Number.NaN : 120 + (k % 40))),
       edge: Float64Array.from(points, (_, k) => [Number.MAX_VALUE, -0, Number.MIN_VALUE, 1e-300][k % 4]!),
     };
-    const blob = encodeColumns(columns);
+    const packed = packColumns(columns);
+    // Packed in an ArrayBuffer of its own, so a compute thread can move it to the event loop without a copy.
+    expect(packed.raw.byteOffset).toBe(0);
+    expect(packed.raw.buffer.byteLength).toBe(packed.raw.byteLength);
+    const blob = { columns: packed.columns, pointCount: packed.pointCount, data: await gzipPackedColumns(packed.raw) };
     expect(blob.columns).toEqual(['t', 'lat', 'lon', 'hr', 'edge']);
     expect(blob.pointCount).toBe(points.length);
     // gzip's own check (RFC 1952): the blob is a gzip stream of 8 bytes × columns × points.
