@@ -12,12 +12,14 @@
  * and the client's are not in it.
  *
  * The server side is split where the request's body has fully arrived (`receive_ms`: multipart to
- * disk and its SHA-256) and the rest (`import_ms`: reading in the compute thread, analysis, rows,
- * one transaction, storing the original, the answer).
+ * disk and to memory, its SHA-256) and the rest (`import_ms`: parse and analysis in the compute thread,
+ * rows, one transaction, storing the original, the answer). Before the measured upload the same client
+ * sends the same file to a bare server that drops it (`bare_send_ms`): the client and the loopback alone.
  */
 import { fork, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import type { IncomingMessage, Server } from 'node:http';
+import { createServer, type IncomingMessage, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { tmpdir } from 'node:os';
 import { Session } from 'node:inspector/promises';
 import path from 'node:path';
@@ -33,6 +35,12 @@ export interface UploadCaseResult {
   receive_ms: number;
   /** The server saw the last byte → whole answer read. */
   import_ms: number;
+  /**
+   * The same client sending the same file to a bare node:http server in this process that drops the bytes and
+   * answers at once (request start → answer read): what the client and this machine's loopback take alone,
+   * the part of `receive_ms` no server work can shorten.
+   */
+  bare_send_ms: number;
   /** process.cpuUsage (user + system) of the server's process during the upload, ms. */
   cpu_ms: number;
   /** The same per thread (Linux, 10 ms ticks): the event loop, the compute thread, libuv's and V8's helpers. */
@@ -113,6 +121,22 @@ async function profileEventLoop(file: string | undefined): Promise<() => Promise
   };
 }
 
+/** The client's upload of `filePath` to a bare server that drops the body and answers 201 once it has all arrived. */
+async function bareSend(client: ChildProcess, filePath: string): Promise<number> {
+  const bare = createServer((req, res) => {
+    req.resume();
+    req.once('end', () => res.writeHead(201, { 'content-type': 'application/json' }).end('{"imported":[{}]}'));
+  });
+  await new Promise<void>((resolve) => bare.listen(0, '127.0.0.1', resolve));
+  try {
+    const base = `http://127.0.0.1:${(bare.address() as AddressInfo).port}`;
+    const answer = await upload(client, { base, token: 'none', path: filePath, name: path.basename(filePath) });
+    return Math.round(answer.answered_at - answer.started_at);
+  } finally {
+    await new Promise((resolve) => bare.close(resolve));
+  }
+}
+
 /** Has the client process send one file and waits for its answer; anything but 201 with one run is an error. */
 function upload(client: ChildProcess, ask: UploadClientRequest): Promise<UploadClientReply> {
   return new Promise((resolve, reject) => {
@@ -155,6 +179,7 @@ export async function measureUploadCase(filePath: string, warmUp: Buffer): Promi
     const warmUpPath = path.join(dataDir, `warm-up${path.extname(filePath)}`);
     writeFileSync(warmUpPath, warmUp);
     await upload(client, { base: server.url, token, path: warmUpPath, name: path.basename(warmUpPath) });
+    const bareSendMs = await bareSend(client, filePath);
     const stopProfile = await profileEventLoop(process.env.BENCH_PROFILE);
     const threads0 = threadCpu();
     const cpu0 = process.cpuUsage();
@@ -170,6 +195,7 @@ export async function measureUploadCase(filePath: string, warmUp: Buffer): Promi
       total_ms: Math.round(answer.answered_at - answer.started_at),
       receive_ms: Math.round(received - answer.started_at),
       import_ms: Math.round(answer.answered_at - received),
+      bare_send_ms: bareSendMs,
       cpu_ms: Math.round((cpu.user + cpu.system) / 1000),
       cpu_ms_by_thread: byThread,
     };
