@@ -23,6 +23,13 @@ export interface ComputeLimits {
   /** Jobs of one user in the pool at once; the rest of theirs wait their turn, so nobody fills the pool alone. */
   jobsAtOncePerUser: number;
   /**
+   * Jobs of one user waiting for their turn (besides their `jobsAtOncePerUser` in the pool) before the next
+   * is turned away at once with a 429 and Retry-After (ComputeAccountBusyError): without it one account's
+   * pile of jobs had no bound at all. Others' jobs never wait behind it: each user has at most
+   * `jobsAtOncePerUser` jobs in the shared queue, so a stranger's job still gets a place.
+   */
+  waitingPerUser: number;
+  /**
    * Jobs waiting for a free thread, across users, before new ones are turned away at once with a 503
    * and Retry-After (ComputeBusyError): the bound on waiting, now that waiting no longer eats a job's time.
    */
@@ -35,6 +42,8 @@ export const DEFAULT_COMPUTE_LIMITS: ComputeLimits = {
   threads: defaultComputeThreads(),
   jobTimeoutMs: 60_000,
   jobsAtOncePerUser: 2,
+  // A runner's own reads at once stay well under it: 2 uploads, 2 bulk-import files, a history page's 4 plan checks.
+  waitingPerUser: 8,
   maxQueue: 64,
   workerHeapMb: 1024,
 };
@@ -54,6 +63,24 @@ export class ComputeBusyError extends AppError {
       'Pacewright is reading a lot of files for other runners just now, so this one was not read or stored. Please send it again in half a minute.',
     );
     this.retryAfterSeconds = COMPUTE_BUSY_RETRY_AFTER_SECONDS;
+  }
+}
+
+/**
+ * Seconds a runner is asked to wait (Retry-After) when their own jobs fill their place in the pool: their
+ * 8 waiting jobs are ordinary files or plan checks of a fraction of a second each, 2 at a time.
+ */
+export const COMPUTE_ACCOUNT_BUSY_RETRY_AFTER_SECONDS = 30;
+
+/** This user already has `waitingPerUser` jobs waiting for their turn; they should send this one again shortly. */
+export class ComputeAccountBusyError extends AppError {
+  constructor(waitingJobs: number) {
+    super(
+      429,
+      'busy-with-your-files',
+      `Pacewright is still working through ${waitingJobs} earlier files or checks of yours, so this one was not done and nothing was stored. Please send it again in half a minute.`,
+    );
+    this.retryAfterSeconds = COMPUTE_ACCOUNT_BUSY_RETRY_AFTER_SECONDS;
   }
 }
 
@@ -91,6 +118,11 @@ export function computeJobsWaiting(): number {
   return threadQueue.length;
 }
 
+/** Jobs of `userId` waiting for their turn now (tests). */
+export function computeJobsWaitingForTurn(userId: string): number {
+  return waiting.get(userId)?.length ?? 0;
+}
+
 export function computeLimits(): ComputeLimits {
   return limits;
 }
@@ -114,11 +146,15 @@ export function warmComputePool(): void {
   thePool();
 }
 
-/** Waits until `userId` has fewer than `jobsAtOncePerUser` jobs in the pool, then counts this one. */
+/**
+ * Waits until `userId` has fewer than `jobsAtOncePerUser` jobs in the pool, then counts this one; refuses at
+ * once (ComputeAccountBusyError) when `waitingPerUser` of theirs wait already.
+ */
 async function takeTurn(userId: string): Promise<void> {
   if ((running.get(userId) ?? 0) >= limits.jobsAtOncePerUser) {
+    const queue = waiting.get(userId) ?? [];
+    if (queue.length >= limits.waitingPerUser) throw new ComputeAccountBusyError(queue.length);
     await new Promise<void>((resolve) => {
-      const queue = waiting.get(userId) ?? [];
       queue.push(resolve);
       waiting.set(userId, queue);
     });
@@ -164,7 +200,8 @@ function leaveThread(): void {
 
 /**
  * Runs one job for `userId` in the pool, within its time limit (its own run time, not its wait);
- * the caller's event loop stays free. Throws ComputeBusyError when too many jobs wait already.
+ * the caller's event loop stays free. Throws ComputeAccountBusyError when too many of this user's jobs wait
+ * already, ComputeBusyError when too many jobs of all users wait for a thread.
  */
 export async function runComputeJob<T>(userId: string, task: ComputeTask): Promise<T> {
   await takeTurn(userId);

@@ -2,6 +2,7 @@
 // Everything else in this folder is private to it (server/features/README.md).
 
 export {
+  ComputeAccountBusyError,
   ComputeBusyError,
   ComputeCrashError,
   ComputeTimeoutError,

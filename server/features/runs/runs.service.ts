@@ -29,7 +29,13 @@ import {
 import { NotFoundError, ValidationError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import type { FileStore } from '../../lib/storage.ts';
-import { ComputeBusyError, ComputeCrashError, ComputeTimeoutError, computeImportJob } from '../compute/index.ts';
+import {
+  ComputeAccountBusyError,
+  ComputeBusyError,
+  ComputeCrashError,
+  ComputeTimeoutError,
+  computeImportJob,
+} from '../compute/index.ts';
 import { assertCanReadRunner } from '../squads/index.ts';
 import { readyAnswer, type ReadyAnswer } from '../week-cache/index.ts';
 import { decodeColumns, gzipPackedColumns } from './track-blob.ts';
@@ -115,7 +121,7 @@ async function computeRuns(
     });
     return out.ok ? out : { ok: false, error: out.message };
   } catch (err) {
-    if (err instanceof ComputeBusyError) throw err;
+    if (err instanceof ComputeBusyError || err instanceof ComputeAccountBusyError) throw err;
     if (err instanceof ComputeTimeoutError) {
       return {
         ok: false,
