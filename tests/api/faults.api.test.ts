@@ -4,8 +4,9 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
 import request from 'supertest';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, onTestFinished } from 'vitest';
 import { createApp } from '../../server/app.ts';
+import { DEFAULT_COMPUTE_LIMITS, configureComputePool } from '../../server/features/compute/compute-pool.ts';
 import { db } from '../../server/lib/db.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
 import { createPrng, generateLakeRun } from '../../shared/tracks/synthetic.ts';
@@ -48,6 +49,11 @@ describe('concurrent uploads', () => {
   });
 
   it('50 different files at once give 50 runs, each with its own stored original', async () => {
+    // The test configuration lifts the uploads one account may send at once (2 in production) so 50 arrive
+    // together; the compute pool's bound on one account's waiting jobs (8, sized for those 2) is lifted alike,
+    // else 40 of them get its 429 (compute-queue-per-account.api.test.ts proves that bound).
+    configureComputePool({ waitingPerUser: 50 });
+    onTestFinished(() => configureComputePool({ waitingPerUser: DEFAULT_COMPUTE_LIMITS.waitingPerUser }));
     const { app, dataDir } = freshApp();
     const { auth } = await bearer(app);
     const files = Array.from({ length: 50 }, (_, i) => {
