@@ -62,10 +62,7 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
       let i = pointer[k] as number;
       while (i + 1 < j && (d[i + 1] as number) <= target) i++;
       pointer[k] = i;
-      const da = d[i] as number;
-      const db = d[i + 1] as number;
-      const ta = t[i] as number;
-      const startT = db > da ? ta + ((target - da) / (db - da)) * ((t[i + 1] as number) - ta) : ta;
+      const startT = timeAtDistance(d, t, i, target);
       const time = (endT - startT) / 1000;
       if (!found[k] || time < (bestTime[k] as number)) {
         found[k] = 1;
@@ -97,10 +94,7 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
       if (j <= s) j = s + 1;
       while ((d[j] as number) < target) j++;
       pointer[k] = j;
-      const da = d[j - 1] as number;
-      const db = d[j] as number;
-      const ta = t[j - 1] as number;
-      const endT = db > da ? ta + ((target - da) / (db - da)) * ((t[j] as number) - ta) : ta;
+      const endT = timeAtDistance(d, t, j - 1, target);
       const time = (endT - startT) / 1000;
       if (!found[k] || time < (bestTime[k] as number)) {
         found[k] = 1;
@@ -129,4 +123,12 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
     );
   }
   return out;
+}
+
+/** The time `target` metres were reached between points i and i + 1, by linear interpolation (the earlier time where they do not move). */
+function timeAtDistance(d: ArrayLike<number>, t: ArrayLike<number>, i: number, target: number): number {
+  const da = d[i] as number;
+  const db = d[i + 1] as number;
+  const ta = t[i] as number;
+  return db > da ? ta + ((target - da) / (db - da)) * ((t[i + 1] as number) - ta) : ta;
 }
