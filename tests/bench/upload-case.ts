@@ -6,8 +6,9 @@
  * (BENCH_DATABASE_URL, made once per `npm run bench`), a new runner signed up through the API, one
  * warm-up upload of a one-hour file of the same format (a different run) (so the compute thread is started and its hot
  * paths compiled, like the pipeline case's warm-up), then the measured upload: `POST /api/runs` with
- * the file as a multipart part named "files", as the client sends it, timed from the request's start
- * to the whole answer. The client is its own process (upload-client.ts), as a browser would be. CPU is
+ * the file as a multipart part named "files", as a browser sends it (node:http, the body built as a browser
+ * builds it, the file read from disk as it is sent), timed from the request's start to the whole answer.
+ * The client is its own process (upload-client.ts), as a browser would be. CPU is
  * `process.cpuUsage()` of the server's process (event loop and compute thread); PostgreSQL's own CPU
  * and the client's are not in it.
  *
@@ -24,7 +25,10 @@ import { tmpdir } from 'node:os';
 import { Session } from 'node:inspector/promises';
 import path from 'node:path';
 import { api } from './json-api.ts';
-import type { UploadClientReply, UploadClientRequest } from './upload-client.ts';
+import type { UploadClientKind, UploadClientReply, UploadClientRequest } from './upload-client.ts';
+
+/** How the client sends (upload-client.ts): node:http with a browser's multipart body, or `BENCH_UPLOAD_CLIENT=fetch`. */
+const CLIENT: UploadClientKind = process.env.BENCH_UPLOAD_CLIENT === 'fetch' ? 'fetch' : 'http';
 
 export interface UploadCaseResult {
   status: number;
@@ -41,6 +45,8 @@ export interface UploadCaseResult {
    * the part of `receive_ms` no server work can shorten.
    */
   bare_send_ms: number;
+  /** Which client sent it (upload-client.ts). */
+  client: UploadClientKind;
   /** process.cpuUsage (user + system) of the server's process during the upload, ms. */
   cpu_ms: number;
   /** The same per thread (Linux, 10 ms ticks): the event loop, the compute thread, libuv's and V8's helpers. */
@@ -148,7 +154,7 @@ function upload(client: ChildProcess, ask: UploadClientRequest): Promise<UploadC
         reject(new Error(`upload of ${ask.name}: ${reply.status} ${reply.problem}`));
       else resolve(reply);
     });
-    client.send(ask);
+    client.send({ ...ask, client: CLIENT });
   });
 }
 
@@ -196,6 +202,7 @@ export async function measureUploadCase(filePath: string, warmUp: Buffer): Promi
       receive_ms: Math.round(received - answer.started_at),
       import_ms: Math.round(answer.answered_at - received),
       bare_send_ms: bareSendMs,
+      client: CLIENT,
       cpu_ms: Math.round((cpu.user + cpu.system) / 1000),
       cpu_ms_by_thread: byThread,
     };
