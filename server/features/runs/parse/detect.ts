@@ -200,6 +200,23 @@ export function detectFormat(doc: XmlBytes): TrackFormat {
   return format;
 }
 
+/** Bytes that hold the first 4 096 characters `detectFormat` looks at, in any encoding `xmlBytesOf` gives. */
+export const HEAD_BYTES = 4096 * MAX_BYTES_PER_CHAR + 4;
+
+/**
+ * The format `detectFormat` would find from the document's first HEAD_BYTES alone (its root element),
+ * or null when that head looks like no track: the streaming reader's guess (parse-track-file.ts), which
+ * `detectFormat` confirms on the whole document once it has arrived.
+ */
+export function formatFromHead(doc: XmlBytes): TrackFormat | null {
+  const head = firstChars(doc, 4096);
+  if (/^\s*<!doctype\s+html|<html[\s>]/i.test(head)) return null;
+  const root = findRootName(head);
+  if (root === null) return null;
+  const local = root.includes(':') ? root.slice(root.indexOf(':') + 1) : root;
+  return local === 'gpx' ? 'gpx' : local === 'TrainingCenterDatabase' ? 'tcx' : null;
+}
+
 function findRootName(head: string): string | null {
   const re = /<([^?!\s/>][^\s/>]*)/g;
   let pos = 0;

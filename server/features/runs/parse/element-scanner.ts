@@ -140,6 +140,8 @@ class NameTable {
   /** As an attribute: its name without prefix, or null for a namespace declaration (dropped). */
   readonly attributeName: (string | null)[] = [];
   private readonly slots = new Int32Array(NAME_SLOTS).fill(-1);
+  /** The slot of each id, to forget names again (`forgetAfter`). */
+  private readonly slotOf: number[] = [];
 
   /** The id of the name at xml[start, end) whose characters hash to `hash`, or −1 when the table is full. */
   idOf(xml: Buffer, start: number, end: number, hash: number): number {
@@ -153,12 +155,26 @@ class NameTable {
     const name = xml.toString('latin1', start, end);
     const id = this.qualified.length;
     this.slots[slot] = id;
+    this.slotOf.push(slot);
     this.qualified.push(name);
     const colon = name.indexOf(':');
     const local = colon === -1 ? name : name.slice(colon + 1);
     this.local.push(local);
     this.attributeName.push(name === 'xmlns' || name.startsWith('xmlns:') ? null : local);
     return id;
+  }
+
+  /**
+   * Forget every name after the first `count`, newest first (so each freed slot ends a probe chain as
+   * it did before that name came): the table is as it was when it held `count` names.
+   */
+  forgetAfter(count: number): void {
+    while (this.qualified.length > count) {
+      this.slots[this.slotOf.pop() as number] = -1;
+      this.qualified.pop();
+      this.local.pop();
+      this.attributeName.pop();
+    }
   }
 }
 
@@ -286,6 +302,19 @@ export class ElementScanner {
       localName: (id) => names.local[id] as string,
       attributeName: (id) => names.attributeName[id] ?? null,
     };
+  }
+
+  /** How many names the scanner knows (see `forgetNamesAfter`). */
+  namesKnown(): number {
+    return this.names.qualified.length;
+  }
+
+  /**
+   * Forget the names learnt after the scanner knew `count`: a scan refused only because the document had
+   * not all arrived (xml-events.ts) leaves the scanner as if it had never run.
+   */
+  forgetNamesAfter(count: number): void {
+    this.names.forgetAfter(count);
   }
 
   /** Send the last element that `scan` accepted to `sink`, as saxes would have. */

@@ -126,7 +126,12 @@ export function readGpx(xml: XmlBytes, options: ReadOptions = {}): GpxContents {
         stack.pop();
       },
     },
-    { repeatedElement: 'trkpt', pointReader: options.fastPoints === false ? undefined : pointReader, pointTags },
+    {
+      repeatedElement: 'trkpt',
+      pointReader: options.fastPoints === false ? undefined : pointReader,
+      pointTags,
+      arrivalLookahead: options.arrivalLookahead,
+    },
   );
   return {
     track: {

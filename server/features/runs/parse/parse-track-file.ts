@@ -7,7 +7,16 @@ import {
 import { cleanPoints } from '../../../../shared/tracks/clean.ts';
 import { pointCapacityFor } from '../../../../shared/tracks/point-columns.ts';
 import type { CleanTrack, DeviceLap, RawTrack } from '../../../../shared/tracks/types.ts';
-import { detectFormat, gunzipIfNeeded, rejectBinary, xmlBytesOf, type TrackFormat } from './detect.ts';
+import { arrivalFrom, ArrivalStopped, type Arrival } from './arriving.ts';
+import {
+  detectFormat,
+  formatFromHead,
+  gunzipIfNeeded,
+  HEAD_BYTES,
+  rejectBinary,
+  xmlBytesOf,
+  type TrackFormat,
+} from './detect.ts';
 import { readGpx } from './gpx-reader.ts';
 import { ImportRejection } from './import-rejection.ts';
 import type { ReadOptions } from './point-template.ts';
@@ -67,6 +76,61 @@ export function parseTrackFile(input: Buffer, options: ReadOptions = {}): Parsed
       );
     }
     throw error;
+  }
+}
+
+/**
+ * `parseTrackFile` of a file still arriving (arriving.ts), read as its bytes come: the same runs, or the
+ * same refusal, as `parseTrackFile` of the whole file gives. Null when this file is read after it has
+ * arrived instead (gzip, UTF-16, a binary or a head that names no track: `parseTrackFile` decides). Throws
+ * `ArrivalStopped` when the bytes stop coming (the caller then reads the file after arrival, or not at all).
+ *
+ * How it stays the same: the encoding and the byte-order mark come from the first bytes, as in
+ * `xmlBytesOf`; the format is guessed from the head (its root element) and confirmed by `detectFormat`
+ * on the whole file before the runs are given; the reader (xml-events.ts) reads exactly the stretches
+ * and elements it reads on the whole file, waiting for bytes before it looks at them. Anything that goes
+ * wrong while it reads (a refusal, broken XML, too many points) is answered by `parseTrackFile` on the
+ * whole file once it has arrived, so every refusal is word for word today's. Only the room first made for
+ * the points differs (from the memory's size, not the file's), which no result shows.
+ */
+export function parseArrivingTrackFile(arrival: Arrival, options: ReadOptions = {}): ParsedRun[] | null {
+  const arrived = arrival.waitFor(HEAD_BYTES);
+  const whole = (): Buffer => {
+    while (arrival.length < 0) arrival.waitFor(Number.MAX_SAFE_INTEGER);
+    return arrival.memory.subarray(0, arrival.length);
+  };
+  // Small enough to have arrived with its head: nothing to overlap.
+  if (arrival.length >= 0) return parseTrackFile(whole(), options);
+  const head = arrival.memory.subarray(0, arrived);
+  if (head[0] === 0x1f && head[1] === 0x8b) return null;
+  if ((head[0] === 0xff && head[1] === 0xfe) || (head[0] === 0xfe && head[1] === 0xff)) return null;
+  try {
+    rejectBinary(head);
+  } catch {
+    return null;
+  }
+  const { bytes: headBytes, encoding } = xmlBytesOf(head);
+  const skipped = head.length - headBytes.length;
+  const format = formatFromHead({ bytes: headBytes, encoding });
+  if (format === null) return null;
+
+  const bytes = arrival.memory.subarray(skipped);
+  const doc = { bytes, encoding, arriving: arrivalFrom(arrival, skipped) };
+  const pointTags = new PointTagCounter(bytes, format, true);
+  try {
+    // The memory is a little longer than the file (the request's declared length): room for a few more points.
+    const expectedPoints = Math.min(pointCapacityFor(bytes.length), MAX_TRACK_POINTS);
+    const readOptions: ReadOptions = { expectedPoints, ...options, pointTags };
+    const { runs, points } = format === 'gpx' ? runsFromGpx(doc, readOptions) : runsFromTcx(doc, readOptions);
+    const file = whole();
+    // What parseTrackFile checks before it reads, now on the whole file; anything else than a match is its answer.
+    if (detectFormat({ bytes: file.subarray(skipped), encoding }) !== format) return parseTrackFile(file, options);
+    if (tinyTrackShareReason(file.length, points)) return parseTrackFile(file, options);
+    return runs;
+  } catch (error) {
+    if (error instanceof ArrivalStopped) throw error;
+    // Refused, damaged or over a limit: the whole file's reading gives the answer, in its words and order.
+    return parseTrackFile(whole(), options);
   }
 }
 

@@ -42,6 +42,9 @@ export function countPointTagsIn(bytes: Buffer, tag: Buffer, from: number, to: n
   return count;
 }
 
+/** How far past the reader an arriving document is searched: a new view every 4 KB, at most 4 KB of zeros searched. */
+const SEARCH_AHEAD_BYTES = 4096;
+
 /** The byte every point name holds (`k`): a value without it holds no tag. */
 const TAG_LETTER = 0x6b;
 
@@ -55,6 +58,11 @@ export class PointTagCounter {
   constructor(
     private readonly bytes: Buffer,
     format: TrackFormat,
+    /**
+     * The document is still arriving in `bytes` (parse/arriving.ts), zeros past what has arrived: searches
+     * then stop a few KB past where the reader is, never running through the rest of its memory.
+     */
+    private readonly arriving = false,
   ) {
     this.tag = Buffer.from(pointTagName(format), 'latin1');
     if (!this.tag.includes(TAG_LETTER)) throw new Error('point-tags.ts: a point name without its letter');
@@ -63,7 +71,7 @@ export class PointTagCounter {
   /** The reader has read bytes[0, to) (never inside a tag): count what it has not been told of. */
   countTo(to: number): void {
     // Too short to hold a tag (the whitespace between two points): nothing to search.
-    if (to - this.countedTo >= this.tag.length) this.add(countPointTagsIn(this.bytes, this.tag, this.countedTo, to));
+    if (to - this.countedTo >= this.tag.length) this.add(countPointTagsIn(this.searched(to), this.tag, this.countedTo, to));
     if (to > this.countedTo) this.countedTo = to;
   }
 
@@ -81,10 +89,20 @@ export class PointTagCounter {
   countIn(from: number, to: number): void {
     for (let at = from; at < to; at++) {
       if (this.bytes[at] === TAG_LETTER) {
-        this.add(countPointTagsIn(this.bytes, this.tag, from, to));
+        this.add(countPointTagsIn(this.searched(to), this.tag, from, to));
         return;
       }
     }
+  }
+
+  /** What is searched for tags up to `to` (the count reads at most bytes[to]: any longer view counts the same). */
+  private view: Buffer | null = null;
+  private searched(to: number): Buffer {
+    if (!this.arriving) return this.bytes;
+    if (this.view === null || this.view.length < to + 1) {
+      this.view = this.bytes.subarray(0, Math.min(this.bytes.length, to + 1 + SEARCH_AHEAD_BYTES));
+    }
+    return this.view;
   }
 
   private add(count: number): void {

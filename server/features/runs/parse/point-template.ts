@@ -31,6 +31,8 @@ export interface ReadOptions {
   expectedPoints?: number;
   /** Counts the document's point tags while it is read, refusing a file over the limit (point-tags.ts). */
   pointTags?: PointTagCounter;
+  /** Tests: bytes in hand past a point before it is read while the file arrives (xml-events.ts). */
+  arrivalLookahead?: number;
 }
 
 /** One hole of a template, as the format's reader sees it. */

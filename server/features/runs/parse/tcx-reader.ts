@@ -155,7 +155,12 @@ export function readTcx(xml: XmlBytes, options: ReadOptions = {}): TcxContents {
         stack.pop();
       },
     },
-    { repeatedElement: 'Trackpoint', pointReader: options.fastPoints === false ? undefined : pointReader, pointTags },
+    {
+      repeatedElement: 'Trackpoint',
+      pointReader: options.fastPoints === false ? undefined : pointReader,
+      pointTags,
+      arrivalLookahead: options.arrivalLookahead,
+    },
   );
   return { activities, courses, templatePoints: pointReader.read };
 }

@@ -26,7 +26,31 @@ import type { PointTagCounter } from './point-tags.ts';
 export interface XmlBytes {
   bytes: Buffer;
   encoding: 'utf8' | 'latin1';
+  /**
+   * Set while the document is still arriving (parse/arriving.ts): `bytes` is then the memory it arrives
+   * in, longer than the document, with 0 where nothing has arrived yet, and the reader waits for bytes
+   * before it reads them.
+   */
+  arriving?: ArrivingXml;
 }
+
+/** A document whose bytes are still arriving, as the reader sees it (parse/arriving.ts). */
+export interface ArrivingXml {
+  /**
+   * Blocks until bytes[0, end) have arrived or the whole document has; gives how many bytes have
+   * arrived (the document's length once all have). Throws `ArrivalStopped` when the bytes stop coming.
+   */
+  waitFor(end: number): number;
+  /** The document's length once all of it has arrived, else −1. */
+  readonly length: number;
+}
+
+/**
+ * Bytes the reader has in hand past an element before it reads the element while the document is still
+ * arriving: a track point is a few hundred bytes, so it is nearly always whole by then; one that is not
+ * (the template and the scanner both refuse it) is tried again once the whole document has arrived.
+ */
+export const ARRIVAL_LOOKAHEAD_BYTES = 64 * 1024;
 
 export interface XmlEventHandlers {
   /** An element starts; `name` has no namespace prefix; attribute names are unprefixed too. */
@@ -89,6 +113,8 @@ export interface XmlReadOptions {
    * point tags are counted in the same pass (point-tags.ts); the point reader tells it of its own points.
    */
   pointTags?: PointTagCounter;
+  /** Tests: bytes in hand past an element before it is read while the document arrives (ARRIVAL_LOOKAHEAD_BYTES). */
+  arrivalLookahead?: number;
 }
 
 /**
@@ -99,7 +125,9 @@ export interface XmlReadOptions {
  * scanner read (the rest of the document went through saxes). A string is read as its UTF-8 bytes.
  */
 export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers, options: XmlReadOptions = {}): number {
-  const { bytes, encoding } = typeof xml === 'string' ? { bytes: documentBytes(xml), encoding: 'utf8' as const } : xml;
+  const { bytes, encoding, arriving } =
+    typeof xml === 'string' ? { bytes: documentBytes(xml), encoding: 'utf8' as const, arriving: undefined } : xml;
+  const bytesIn = new ArrivedBytes(bytes, arriving, options.arrivalLookahead);
   const parser = new SaxesParser();
   let depth = 0;
   let pending = '';
@@ -168,7 +196,7 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
   };
 
   if (options.repeatedElement === undefined) {
-    write(0, bytes.length);
+    write(0, bytesIn.whole());
     parser.close();
     return 0;
   }
@@ -182,7 +210,7 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
   /** bytes[0, fed) has been read, by saxes or the scanner. */
   let fed = 0;
   let scanned = 0;
-  for (let at = bytes.indexOf(marker); at !== -1;) {
+  for (let at = bytesIn.indexOf(marker, 0); at !== -1;) {
     write(fed, at);
     fed = at;
     let next = at + 1;
@@ -198,6 +226,7 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
         MAX_DEPTH - depth,
         options.pointReader,
         pointTags,
+        bytesIn,
       );
       scanned += count;
       if (end > at) {
@@ -206,9 +235,9 @@ export function readXmlEvents(xml: string | XmlBytes, handlers: XmlEventHandlers
         next = end;
       }
     }
-    at = bytes.indexOf(marker, next);
+    at = bytesIn.indexOf(marker, next);
   }
-  write(fed, bytes.length);
+  write(fed, bytesIn.whole());
   parser.close();
   return scanned;
 }
@@ -227,14 +256,25 @@ function readRepeatedElements(
   depthLeft: number,
   pointReader: TemplatePointReader | undefined,
   pointTags: PointTagCounter | undefined,
+  bytesIn: ArrivedBytes,
 ): [end: number, count: number] {
   let end = start;
   let at = start;
   let count = 0;
   for (;;) {
+    bytesIn.ensure(at + bytesIn.lookahead);
     let after = pointReader ? pointReader.tryRead(xml, at, depthLeft) : -1;
     if (after < 0) {
+      const names = scanner.namesKnown();
       after = scanner.scan(xml, at, depthLeft);
+      if (after < 0 && !bytesIn.complete()) {
+        // Refused before the document is whole: perhaps only cut short. Tried again with twice the bytes
+        // past it (at last with the whole document, which decides), and the names that scan met are
+        // forgotten, so the scanner is as it would have been.
+        scanner.forgetNamesAfter(names);
+        bytesIn.more(at);
+        continue;
+      }
       if (after < 0) return [end, count];
       if (!pointReader?.learn(xml, at, after, scanner.tokens())) {
         pointTags?.countTo(after);
@@ -247,7 +287,12 @@ function readRepeatedElements(
     count++;
     end = after;
     at = after;
-    while (isBlankCode(xml[at] as number)) at++;
+    for (;;) {
+      while (isBlankCode(xml[at] as number)) at++;
+      // Bytes not arrived read as 0, which is no whitespace: wait for them (a no-op for a whole document).
+      if (bytesIn.has(at + marker.length)) break;
+      bytesIn.ensure(at + marker.length + bytesIn.lookahead);
+    }
     if (!startsWithAt(xml, marker, at)) return [end, count];
   }
 }
@@ -264,4 +309,62 @@ function isBlankFrom(text: string, from: number): boolean {
 function startsWithAt(xml: Buffer, marker: Buffer, at: number): boolean {
   for (let k = 0; k < marker.length; k++) if (xml[at + k] !== marker[k]) return false;
   return true;
+}
+
+/**
+ * The bytes of a document read so far: all of them, or, while it arrives, those arrived. Every read of the
+ * reader goes through here or stays inside what it checked has arrived; a whole document never waits.
+ */
+class ArrivedBytes {
+  /** bytes[0, available) have arrived. */
+  private available: number;
+
+  constructor(
+    private readonly bytes: Buffer,
+    private readonly arriving: ArrivingXml | undefined,
+    /** Bytes in hand past an element before it is read (tests make it small, to cut elements often). */
+    readonly lookahead = ARRIVAL_LOOKAHEAD_BYTES,
+  ) {
+    this.available = arriving ? arriving.waitFor(0) : bytes.length;
+  }
+
+  /** Waits until twice as many bytes past `at` have arrived as now (or the whole document). */
+  more(at: number): void {
+    this.ensure(at + 2 * Math.max(this.available - at, this.lookahead));
+  }
+
+  complete(): boolean {
+    return this.arriving === undefined || this.arriving.length >= 0;
+  }
+
+  /** True when bytes[0, end) have arrived, or the whole document has. */
+  has(end: number): boolean {
+    return end <= this.available || this.complete();
+  }
+
+  /** Waits until bytes[0, end) have arrived or the whole document has. */
+  ensure(end: number): void {
+    if (end > this.available && this.arriving !== undefined && this.arriving.length < 0) {
+      this.available = this.arriving.waitFor(end);
+    }
+  }
+
+  /** Waits for the whole document; gives its length. */
+  whole(): number {
+    if (this.arriving === undefined) return this.bytes.length;
+    while (this.arriving.length < 0) this.available = this.arriving.waitFor(Number.MAX_SAFE_INTEGER);
+    return this.arriving.length;
+  }
+
+  /** `bytes.indexOf(marker, from)` in the document, waiting for more bytes until it is found or all have arrived. */
+  indexOf(marker: Buffer, from: number): number {
+    if (this.arriving === undefined) return this.bytes.indexOf(marker, from);
+    for (let start = from; ;) {
+      const found = this.bytes.subarray(0, this.available).indexOf(marker, start);
+      if (found !== -1 || this.arriving.length >= 0) return found;
+      // A marker may straddle what has arrived and what has not.
+      start = Math.max(start, this.available - marker.length + 1);
+      this.available = this.arriving.waitFor(this.available + 1);
+    }
+  }
 }
