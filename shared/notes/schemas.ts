@@ -14,6 +14,8 @@ export const UnreadAnswerSchema = z.object({
       kind: z.enum(['run-note', 'week-note']),
       id: z.string(),
       runner_id: z.string(),
+      /** The runner's profile zone (IANA): when the note was written is shown on the runner's clock. */
+      runner_time_zone: z.string(),
       created_at: z.string(),
       author_name: z.string(),
       /** The first 140 characters of the note. */

@@ -112,6 +112,8 @@ const CleaningReportSchema = z.object({
 export const RunDetailSchema = z.object({
   id: z.string(),
   owner_id: z.string(),
+  /** The owner's profile zone (IANA): the run's notes and check-in are shown in it. The start is in `summary.time_zone`. */
+  owner_time_zone: z.string(),
   name: z.string(),
   sport: z.string().nullable(),
   /** Run, ride or hike (issue #14). */

@@ -129,6 +129,11 @@ export const RunnerWeekSchema = z.object({
   start: z.string(),
   end: z.string(),
   today: z.string(),
+  /**
+   * The runner's profile zone (IANA): the zone `today` and the week are read in, and the one the screens show
+   * the week's notes, check-ins and reviews in, whatever zone the reader's device is set to.
+   */
+  time_zone: z.string(),
   week_starts_on: z.number(),
   days: z.array(
     z.object({

@@ -11,6 +11,7 @@ import type { Mailer } from '../../server/lib/mailer.ts';
 import { generateLakeRun, type Phase } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { createUser } from '../support/factories.ts';
+import { UnreadAnswerSchema } from '../../shared/notes/schemas.ts';
 import { RunnerWeekSchema, WeekDayRunSchema } from '../../shared/weeks/week-answer.ts';
 import { DigestReceiptSchema, SquadOverviewRowSchema, SquadOverviewSchema } from '../../shared/weeks/squad-overview.ts';
 import { z } from 'zod';
@@ -163,6 +164,8 @@ describe('GET /api/runners/:id/week', { timeout: 30_000 }, () => {
     const runner = await person(app, 'runner', 'Wren Walker');
     const coach = await person(app, 'coach', 'Cass Coach');
     const stranger = await person(app, 'runner', 'Sol Stranger');
+    // The runner's profile zone, which the screens read notes on (client/README.md, "Whose clock").
+    await db('users').where({ id: runner.user.id }).update({ time_zone: 'America/Chicago' });
     const [squad] = await db('squads').insert({ coach_id: coach.user.id, name: 'S' }).returning('id');
     await db('squad_members').insert({ squad_id: squad!.id, runner_id: runner.user.id });
     await upload(app, runner.auth, '2026-11-24', 6);
@@ -180,9 +183,16 @@ describe('GET /api/runners/:id/week', { timeout: 30_000 }, () => {
     expect(coachConcern.status).toBe(400);
 
     const unread = (await request(app).get('/api/me/unread').set(coach.auth)).body;
-    expect(unread).toMatchObject({ count: 1, items: [{ kind: 'run-note', id: note.body.note.id, run_id: runId }] });
+    expect(unread).toMatchObject({
+      count: 1,
+      items: [{ kind: 'run-note', id: note.body.note.id, run_id: runId, runner_time_zone: 'America/Chicago' }],
+    });
+    expect(UnreadAnswerSchema.strict().safeParse(unread).success).toBe(true);
+    const runPage = (await request(app).get(`/api/runs/${runId}`).set(coach.auth)).body;
+    expect(runPage.owner_time_zone).toBe('America/Chicago');
     expect((await request(app).get('/api/me/unread').set(runner.auth)).body.count).toBe(0);
     const week = (await request(app).get(`/api/runners/${runner.user.id}/week?start=2026-11-23`).set(coach.auth)).body;
+    expect(week.time_zone).toBe('America/Chicago');
     expect(week.unread_notes).toBe(1);
     expect(week.days[1].unread_notes).toBe(1);
     expect(week.days[1].runs[0].notes[0]).toMatchObject({ text: 'Calf tight late on.', concern: 'pain', unread: true });

@@ -9,6 +9,7 @@ export interface UnreadNoteRow {
   run_id: string | null;
   week_start: string | null;
   runner_id: string;
+  runner_time_zone: string;
   created_at: Date;
   author_name: string;
   excerpt: string;
@@ -33,8 +34,8 @@ const UNREAD_SQL = `
      where n.runner_id in (select id from runners)
   )
   select kind, notes.id, run_id, to_char(week_start, 'YYYY-MM-DD') as week_start, runner_id, notes.created_at,
-         u.name as author_name, left(notes.text, 140) as excerpt
-    from notes join users u on u.id = notes.author_id
+         u.name as author_name, left(notes.text, 140) as excerpt, ru.time_zone as runner_time_zone
+    from notes join users u on u.id = notes.author_id join users ru on ru.id = notes.runner_id
    where author_id <> ?::uuid
      and not exists (select 1 from note_reads nr where nr.user_id = ?::uuid and nr.note_id = notes.id)`;
 

@@ -15,6 +15,7 @@ export async function unreadOf(actor: Actor): Promise<UnreadAnswer> {
       kind: n.kind,
       id: n.id,
       runner_id: n.runner_id,
+      runner_time_zone: n.runner_time_zone,
       created_at: n.created_at.toISOString(),
       author_name: n.author_name,
       excerpt: n.excerpt,

@@ -133,17 +133,20 @@ export async function findRunWithParts(id: string, trx: Db = readDb()) {
       trx.raw(
         "(select coalesce(json_agg(f order by f.distance_m), '[]') from run_fastest_sections f where f.run_id = runs.id) as parts_fastest",
       ),
+      trx.raw('(select u.time_zone from users u where u.id = runs.user_id) as owner_time_zone'),
     )) as
     | (RunRow & {
+        owner_time_zone: string;
         parts_splits: Array<Record<string, unknown>>;
         parts_laps: Array<Record<string, unknown>>;
         parts_fastest: Array<Record<string, unknown>>;
       })
     | undefined;
   if (!row) return undefined;
-  const { parts_splits: splits, parts_laps: laps, parts_fastest: fastest, ...run } = row;
+  const { parts_splits: splits, parts_laps: laps, parts_fastest: fastest, owner_time_zone: ownerTimeZone, ...run } = row;
   return {
     run: run as RunRow,
+    ownerTimeZone,
     parts: {
       splits: splits.map((r) => fromJsonRow<RunSplitRow>(r, ['start_at', 'end_at'], ['run_id', 'unit'])),
       laps: laps.map((r) => fromJsonRow<RunLapRow>(r, ['start_at'], ['run_id'])),

@@ -351,11 +351,12 @@ export async function describeRun(actor: Actor, runId: string) {
   // The run and its parts in one query; nothing of it is answered unless the actor may read it.
   const found = await findRunWithParts(runId);
   const run = await readableOr404(actor, found?.run);
-  const { parts } = found!;
+  const { parts, ownerTimeZone } = found!;
   const splits = parts.splits.map(toSplit);
   return {
     id: run.id,
     owner_id: run.user_id,
+    owner_time_zone: ownerTimeZone,
     name: run.name,
     sport: run.sport,
     kind: run.activity_kind,

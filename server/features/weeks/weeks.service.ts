@@ -277,6 +277,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
       start,
       end,
       today,
+      time_zone: runner.time_zone,
       week_starts_on: runner.week_starts_on,
       trend,
       last_upload: lastUpload ? lastUpload.toISOString() : null,
@@ -295,7 +296,7 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
  * Changes to how a week is assembled (this file, shared/weeks) that stored weeks must not outlive: raise it with
  * such a change. The plan-check code's own version (a hash of its source) is part of the key as well.
  */
-export const WEEK_ASSEMBLY_VERSION = 1;
+export const WEEK_ASSEMBLY_VERSION = 2;
 
 function weekCodeVersion(): string | null {
   return PLAN_CHECK_CODE_VERSION === null ? null : `${WEEK_ASSEMBLY_VERSION}-${PLAN_CHECK_CODE_VERSION}`;

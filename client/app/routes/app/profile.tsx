@@ -25,7 +25,8 @@ import { NoticeSwitchesCard } from '../../../features/profile/components/notice-
 import { PaceToleranceForm } from '../../../features/profile/components/pace-tolerance-form.tsx';
 import { ProfileForm } from '../../../features/profile/components/profile-form.tsx';
 import { WeekAndLoadForm } from '../../../features/profile/components/week-and-load-form.tsx';
-import { formatDate } from '../../../lib/format.ts';
+import { formatOnDevice } from '../../../lib/format.ts';
+import { DeviceClockNote } from '../../../components/ui/zoned-time.tsx';
 import { todayIn } from '../../../../shared/runs/local-time.ts';
 
 export const createLoader = (queryClient: QueryClient) => async () => {
@@ -60,9 +61,10 @@ export default function ProfileRoute() {
             <dt className="text-ink-muted">Role</dt>
             <dd className="capitalize">{profile.role}</dd>
             <dt className="text-ink-muted">Member since</dt>
-            <dd>{formatDate(profile.created_at)}</dd>
+            <dd>{formatOnDevice(profile.created_at)}</dd>
           </dl>
           <p className="mt-3 text-sm text-ink-muted">Distances show in the unit picked with the mi | km switch at the top.</p>
+          <DeviceClockNote />
         </Card>
         <Card title="About you">
           {/* The name also shows in the profile menu, which reads the session user. */}

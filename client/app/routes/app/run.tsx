@@ -127,7 +127,7 @@ export default function RunRoute() {
       </div>
 
       <div className="mt-4">
-        <RunNotesCard runId={run.id} myId={me?.id} ownerId={run.owner_id} />
+        <RunNotesCard runId={run.id} myId={me?.id} ownerId={run.owner_id} ownerZone={run.owner_time_zone} />
       </div>
 
       <div className="mt-4 grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">

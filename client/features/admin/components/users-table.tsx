@@ -2,7 +2,8 @@ import { ROLES, type AdminUser, type Role } from '../../../../shared/users/schem
 import { CONTROL_CLASSES } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { cn } from '../../../lib/cn.ts';
-import { formatDate } from '../../../lib/format.ts';
+import { formatOnDevice } from '../../../lib/format.ts';
+import { DeviceClockNote } from '../../../components/ui/zoned-time.tsx';
 import { useHeldChoice } from '../../../lib/use-held-choice.ts';
 import { useChangeUserRole } from '../api/change-user-role.ts';
 import { useUsers } from '../api/get-users.ts';
@@ -59,6 +60,7 @@ export function UsersTable({ currentUserId }: { currentUserId: string }) {
           </tbody>
         </table>
       </div>
+      <DeviceClockNote className="text-xs text-ink-muted" />
     </div>
   );
 }
@@ -81,7 +83,7 @@ function UserRow({ user, isSelf, saving, onChangeRole }: UserRowProps) {
         {isSelf && <span className="ml-1 font-normal text-ink-muted">(you)</span>}
         {/* Phones: e-mail and joining date under the name instead of in their own columns. */}
         <span className="block font-normal break-all text-ink-muted sm:hidden">{user.email}</span>
-        <span className="block font-normal text-ink-muted sm:hidden">joined {formatDate(user.created_at)}</span>
+        <span className="block font-normal text-ink-muted sm:hidden">joined {formatOnDevice(user.created_at)}</span>
       </th>
       <td className="hidden py-2 pr-3 break-all sm:table-cell">{user.email}</td>
       <td className="py-2 pr-3" data-primary="">
@@ -103,7 +105,7 @@ function UserRow({ user, isSelf, saving, onChangeRole }: UserRowProps) {
           ))}
         </select>
       </td>
-      <td className="hidden py-2 sm:table-cell">{formatDate(user.created_at)}</td>
+      <td className="hidden py-2 sm:table-cell">{formatOnDevice(user.created_at)}</td>
     </tr>
   );
 }

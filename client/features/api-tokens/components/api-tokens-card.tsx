@@ -5,7 +5,8 @@ import { Card } from '../../../components/ui/card.tsx';
 import { TextField } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
-import { formatDate } from '../../../lib/format.ts';
+import { formatOnDevice } from '../../../lib/format.ts';
+import { DeviceClockNote } from '../../../components/ui/zoned-time.tsx';
 import { useCreateToken } from '../api/create-token.ts';
 import { useTokens } from '../api/get-tokens.ts';
 import { useRevokeToken } from '../api/revoke-token.ts';
@@ -72,7 +73,7 @@ function NewTokenNotice({ token, expiresAt, onDone }: { token: string; expiresAt
     <div role="status" className="flex flex-col gap-2 rounded-md border-l-4 border-tartan bg-tartan-wash p-3">
       <p className="font-semibold text-tartan-deep">Copy this token now: it will not be shown again.</p>
       <code className="block overflow-x-auto rounded bg-card px-2 py-1.5 font-mono text-sm break-all">{token}</code>
-      <p className="text-sm">It works until {formatDate(expiresAt)}. Anyone holding it can act as you, so keep it secret.</p>
+      <p className="text-sm">It works until {formatOnDevice(expiresAt)}. Anyone holding it can act as you, so keep it secret.</p>
       <div className="flex flex-wrap gap-2">
         <Button
           variant="secondary"
@@ -147,9 +148,9 @@ function TokenList() {
                 <th scope="row" className="py-2 pr-3 font-semibold">
                   {token.name}
                 </th>
-                <td className="py-2 pr-3">{formatDate(token.created_at)}</td>
-                <td className="py-2 pr-3">{formatDate(token.expires_at)}</td>
-                <td className="py-2 pr-3">{token.last_used_at ? formatDate(token.last_used_at) : 'never'}</td>
+                <td className="py-2 pr-3">{formatOnDevice(token.created_at)}</td>
+                <td className="py-2 pr-3">{formatOnDevice(token.expires_at)}</td>
+                <td className="py-2 pr-3">{token.last_used_at ? formatOnDevice(token.last_used_at) : 'never'}</td>
                 <td className="py-2 text-right">
                   {confirmingId === token.id ? (
                     <span className="inline-flex flex-wrap items-center justify-end gap-2">
@@ -172,6 +173,7 @@ function TokenList() {
           </tbody>
         </table>
       </div>
+      <DeviceClockNote className="text-xs text-ink-muted" />
     </div>
   );
 }

@@ -2,7 +2,7 @@ import { useId, useState } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { formatDate } from '../../../lib/format.ts';
+import { deviceTimeZone, formatOnDevice } from '../../../lib/format.ts';
 import { useCalendarFeedStatus, useMakeCalendarFeed, useTurnOffCalendarFeed } from '../api/calendar-feed.ts';
 
 // Phones get 44 px targets; the desktop keeps the usual button height.
@@ -45,9 +45,12 @@ export function CalendarFeedCard({ isCoach }: { isCoach: boolean }) {
         {status.data?.on && (
           <>
             <p>
-              The calendar feed is on{status.data.since ? ` (address made ${formatDate(status.data.since)})` : ''}. Anyone who has
-              the address can read your plan: if it was shared by mistake, or you lost it, make a new one and the old one stops
-              working at once.
+              The calendar feed is on
+              {status.data.since
+                ? ` (address made ${formatOnDevice(status.data.since)}, on this device’s clock, ${deviceTimeZone()})`
+                : ''}
+              . Anyone who has the address can read your plan: if it was shared by mistake, or you lost it, make a new one and the
+              old one stops working at once.
             </p>
             {confirmingOff ? (
               <div role="group" aria-label="Turn the calendar feed off?" className="flex flex-col gap-2">

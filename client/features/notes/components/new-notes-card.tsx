@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Card } from '../../../components/ui/card.tsx';
+import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
 import { paths } from '../../../config/paths.ts';
-import { formatDateTime } from '../../../lib/format.ts';
 import { useUnread } from '../api/unread.ts';
 import { UnreadDot } from './unread-dot.tsx';
 
@@ -9,7 +9,7 @@ import { UnreadDot } from './unread-dot.tsx';
 const SHOWN = 5;
 
 type NewNotesCardProps = {
-  /** Keep only the notes about this runner (the signed-in runner on their Log)… */
+  /** Keep only the notes about this runner (the signed-in runner on their Log: their own clock)… */
   about?: string;
   /** …or leave out the notes about this runner (a coach's own, on the Squad page). */
   notAbout?: string;
@@ -38,7 +38,9 @@ export function NewNotesCard({ about, notAbout, weekHref }: NewNotesCardProps) {
             >
               {item.author_name} on {item.run_id ? 'a run' : 'a week'}
             </Link>
-            <span className="text-ink-muted">{formatDateTime(item.created_at)}</span>
+            <span className="text-ink-muted">
+              <ZonedTime iso={item.created_at} timeZone={item.runner_time_zone} viewerIsRunner={item.runner_id === about} />
+            </span>
             <span className="w-full break-words text-ink-muted">“{item.excerpt}”</span>
           </li>
         ))}

@@ -4,7 +4,7 @@ import { EmptyState } from '../../../components/ui/empty-state.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { isApiError } from '../../../lib/api-client.ts';
 import { cn } from '../../../lib/cn.ts';
-import { formatDateTime } from '../../../lib/format.ts';
+import { deviceTimeZone, formatOnDevice } from '../../../lib/format.ts';
 import { useOutbox, type CaughtMessage } from '../api/get-outbox.ts';
 import { MessageText } from './message-text.tsx';
 
@@ -44,7 +44,7 @@ export function OutboxView() {
     <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,3fr)] lg:items-start">
       <Card
         title="Caught messages"
-        description={`${messages.length} ${messages.length === 1 ? 'message' : 'messages'}, newest first.`}
+        description={`${messages.length} ${messages.length === 1 ? 'message' : 'messages'}, newest first; times on this device’s clock (${deviceTimeZone()}).`}
         actions={
           <button
             type="button"
@@ -69,7 +69,7 @@ export function OutboxView() {
               >
                 <span className="font-semibold">{message.subject}</span>
                 <span className="text-sm break-all text-ink-muted">
-                  to {message.to} · <time dateTime={message.sent_at}>{formatDateTime(message.sent_at)}</time>
+                  to {message.to} · <time dateTime={message.sent_at}>{formatOnDevice(message.sent_at, 'date-time')}</time>
                 </span>
               </button>
             </li>
@@ -91,7 +91,7 @@ function MessageReader({ message }: { message: CaughtMessage }) {
           <dd className="break-all">{message.to}</dd>
           <dt className="text-ink-muted">Sent</dt>
           <dd>
-            <time dateTime={message.sent_at}>{formatDateTime(message.sent_at)}</time>
+            <time dateTime={message.sent_at}>{formatOnDevice(message.sent_at, 'date-time')}</time>
           </dd>
         </dl>
         <MessageText text={message.text} />

@@ -4,27 +4,38 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { CONTROL_CLASSES, FieldShell } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
+import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
-import { formatDateTime } from '../../../lib/format.ts';
 import { useMarkReadOnOpen } from '../../notes/index.ts';
 import { UnreadDot } from '../../notes/index.ts';
 import { useAddRunNote } from '../api/add-run-note.ts';
 import { useRunNotes } from '../api/get-run-notes.ts';
 
+type RunNotesCardProps = {
+  runId: string;
+  myId: string | undefined;
+  ownerId?: string;
+  /** The runner's profile zone: when each note was written is shown on the runner's clock. */
+  ownerZone: string;
+};
+
 /** The thread between a runner and their coaches about one run. */
-export function RunNotesCard({ runId, myId, ownerId }: { runId: string; myId: string | undefined; ownerId?: string }) {
+export function RunNotesCard({ runId, myId, ownerId, ownerZone }: RunNotesCardProps) {
+  const clock = { timeZone: ownerZone, viewerIsRunner: ownerId !== undefined && ownerId === myId };
   return (
     <Card title="Notes" description="Between the runner and their coaches: nobody else reads them.">
       <div className="flex flex-col gap-4">
-        <NoteThread runId={runId} myId={myId} />
+        <NoteThread runId={runId} myId={myId} clock={clock} />
         <NoteForm runId={runId} canFlag={ownerId !== undefined && ownerId === myId} />
       </div>
     </Card>
   );
 }
 
-function NoteThread({ runId, myId }: { runId: string; myId: string | undefined }) {
+type Clock = { timeZone: string; viewerIsRunner: boolean };
+
+function NoteThread({ runId, myId, clock }: { runId: string; myId: string | undefined; clock: Clock }) {
   const { data: notes, isPending, error } = useRunNotes(runId);
   // Opening the run opens its notes: marked read now, their "new" marker kept for this visit.
   useMarkReadOnOpen((notes ?? []).filter((n) => n.unread).map((n) => n.id));
@@ -34,13 +45,13 @@ function NoteThread({ runId, myId }: { runId: string; myId: string | undefined }
   return (
     <ol aria-label="Notes on this run" className="flex flex-col gap-3">
       {notes.map((note) => (
-        <NoteItem key={note.id} note={note} mine={note.author.id === myId} />
+        <NoteItem key={note.id} note={note} mine={note.author.id === myId} clock={clock} />
       ))}
     </ol>
   );
 }
 
-function NoteItem({ note, mine }: { note: RunNote; mine: boolean }) {
+function NoteItem({ note, mine, clock }: { note: RunNote; mine: boolean; clock: Clock }) {
   return (
     <li
       className={cn('rounded-md border-l-4 bg-paper px-3 py-2', note.author.role === 'coach' ? 'border-tartan' : 'border-teal')}
@@ -50,7 +61,7 @@ function NoteItem({ note, mine }: { note: RunNote; mine: boolean }) {
         {note.author.role === 'coach' && <span className="text-ink-muted"> · coach</span>}
         <span className="text-ink-muted">
           {' · '}
-          <time dateTime={note.created_at}>{formatDateTime(note.created_at)}</time>
+          <ZonedTime iso={note.created_at} {...clock} />
         </span>
         {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
         {note.unread && <UnreadDot />}

@@ -1,7 +1,8 @@
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { formatDate } from '../../../lib/format.ts';
+import { formatOnDevice } from '../../../lib/format.ts';
+import { DeviceClockNote } from '../../../components/ui/zoned-time.tsx';
 import { useRemoveMember } from '../api/remove-member.ts';
 import type { SquadDetail } from '../api/types.ts';
 import { useWithdrawInvitation } from '../api/withdraw-invitation.ts';
@@ -16,9 +17,12 @@ const STATUS_WORDS = {
 /** The squad's runners (with "Remove from squad", confirmed) and its invitations (open ones can be withdrawn). */
 export function SquadPeople({ squad }: { squad: SquadDetail }) {
   return (
-    <div className="grid gap-5 md:grid-cols-2">
-      <Members squad={squad} />
-      <Invitations squad={squad} />
+    <div className="flex flex-col gap-2">
+      <div className="grid gap-5 md:grid-cols-2">
+        <Members squad={squad} />
+        <Invitations squad={squad} />
+      </div>
+      <DeviceClockNote className="text-xs text-ink-muted" />
     </div>
   );
 }
@@ -41,7 +45,7 @@ function Members({ squad }: { squad: SquadDetail }) {
               <div className="min-w-0">
                 <p className="font-semibold">{m.name}</p>
                 <p className="break-all text-ink-muted">
-                  {m.email} · joined {formatDate(m.joined_at)}
+                  {m.email} · joined {formatOnDevice(m.joined_at)}
                 </p>
               </div>
               {confirmingId === m.id ? (
@@ -93,7 +97,7 @@ function Invitations({ squad }: { squad: SquadDetail }) {
                 <p className="font-semibold break-all">{i.email}</p>
                 <p className="text-ink-muted">
                   {STATUS_WORDS[i.status]}
-                  {i.status === 'open' && ` · link valid until ${formatDate(i.expires_at)}`}
+                  {i.status === 'open' && ` · link valid until ${formatOnDevice(i.expires_at)}`}
                 </p>
               </div>
               {i.status === 'open' && (

@@ -47,7 +47,14 @@ export function WeekDays({ week, unit, meId }: WeekDaysProps) {
             </div>
             <div className="flex min-w-0 flex-col gap-2">
               {day.runs.map((run) => (
-                <WeekRunEntry key={run.id} run={run} unit={unit} meId={meId} runnerId={week.runner_id} />
+                <WeekRunEntry
+                  key={run.id}
+                  run={run}
+                  unit={unit}
+                  meId={meId}
+                  runnerId={week.runner_id}
+                  runnerZone={week.time_zone}
+                />
               ))}
               {day.runs.length === 0 && day.date <= week.today && <p className="text-sm text-ink-muted">No run.</p>}
             </div>

@@ -3,14 +3,12 @@ import { NewRunNoteInputSchema } from '../../../../shared/runs/schemas.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { CONTROL_CLASSES, FieldShell } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
+import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
-import { formatDate } from '../../../lib/format.ts';
 import { UnreadDot } from '../../notes/index.ts';
 import { useAddWeekNote } from '../api/add-week-note.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
-
-const TIME = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 
 /** The week's notes, oldest first, from the runner and their coaches; both sides read and write them. */
 export function WeekNotes({ week, meId, otherSide }: { week: RunnerWeek; meId: string; otherSide: string }) {
@@ -38,8 +36,8 @@ export function WeekNotes({ week, meId, otherSide }: { week: RunnerWeek; meId: s
             >
               <p className="text-xs text-ink-muted">
                 <span className="font-semibold text-ink">{note.author.id === meId ? 'You' : note.author.name}</span>
-                {note.author.role === 'coach' && note.author.id !== meId && ' (coach)'} · {formatDate(note.created_at)},{' '}
-                {TIME.format(new Date(note.created_at))}
+                {note.author.role === 'coach' && note.author.id !== meId && ' (coach)'} ·{' '}
+                <ZonedTime iso={note.created_at} timeZone={week.time_zone} viewerIsRunner={meId === week.runner_id} />
                 {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
                 {note.unread && <UnreadDot />}
               </p>

@@ -1,10 +1,10 @@
-import type { ReactNode } from 'react';
+import { Fragment, type ReactNode } from 'react';
 import type { Unit } from '../../../../shared/users/schemas.ts';
 import { addDays } from '../../../../shared/weeks/weeks.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { formatDate } from '../../../lib/format.ts';
+import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
 import { useMarkReadOnOpen } from '../../notes/index.ts';
 import { runnerWeekCsvHref } from '../api/get-runner-week.ts';
 import { useSetWeekReviewed } from '../api/set-week-reviewed.ts';
@@ -117,7 +117,14 @@ function Reviewers({ week, meId }: { week: RunnerWeek; meId: string }) {
         ✓{' '}
       </span>
       Reviewed by{' '}
-      {week.reviewed_by.map((r) => `${r.coach_id === meId ? 'you' : r.coach_name} on ${formatDate(r.reviewed_at)}`).join(', ')}.
+      {week.reviewed_by.map((r, i) => (
+        <Fragment key={r.coach_id}>
+          {i > 0 && ', '}
+          {r.coach_id === meId ? 'you' : r.coach_name} on{' '}
+          <ZonedTime iso={r.reviewed_at} timeZone={week.time_zone} viewerIsRunner={meId === week.runner_id} shape="date" />
+        </Fragment>
+      ))}
+      .
     </p>
   );
 }

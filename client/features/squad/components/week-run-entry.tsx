@@ -8,16 +8,25 @@ import { Button } from '../../../components/ui/button.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
-import { formatDate } from '../../../lib/format.ts';
+import { ClockWords, ZonedTime } from '../../../components/ui/zoned-time.tsx';
 import { UnreadDot } from '../../notes/index.ts';
 import { useReplyOnRun } from '../api/reply-on-run.ts';
 
-const TIME = new Intl.DateTimeFormat('en-GB', { hour: '2-digit', minute: '2-digit' });
 const one = (x: number) => (Math.round(x * 10) / 10).toString();
 
+type WeekRunEntryProps = {
+  run: WeekDayRun;
+  unit: Unit;
+  meId: string;
+  runnerId: string;
+  /** The runner's profile zone: the check-in and notes are shown on it (the start on the run's own zone). */
+  runnerZone: string;
+};
+
 /** One run of the week as the runner told it: figures, verdict and why, fuel, check-in, notes, and a reply box. */
-export function WeekRunEntry({ run, unit, meId, runnerId }: { run: WeekDayRun; unit: Unit; meId: string; runnerId: string }) {
+export function WeekRunEntry({ run, unit, meId, runnerId, runnerZone }: WeekRunEntryProps) {
   const pace = formatPaceIn(run.pace_s_per_km, unit);
+  const viewerIsRunner = meId === runnerId;
   return (
     <div className="flex flex-col gap-1 rounded-sm bg-paper px-2 py-1" data-run-id={run.id}>
       <Link
@@ -28,7 +37,10 @@ export function WeekRunEntry({ run, unit, meId, runnerId }: { run: WeekDayRun; u
         <span className="font-normal text-ink-muted"> · {run.name}</span>
       </Link>
       <p className="text-xs text-ink-muted tabular-nums">
-        {run.local_time} · {formatDuration(run.moving_s)} moving{pace && ` · ${pace}`}
+        {/* The start as the run is dated: in the zone it was run in (the stored local time, shown as is). */}
+        <time dateTime={run.started_at}>{run.local_time}</time>
+        <ClockWords iso={run.started_at} timeZone={run.time_zone} viewerIsRunner={viewerIsRunner} /> ·{' '}
+        {formatDuration(run.moving_s)} moving{pace && ` · ${pace}`}
         {run.trimp !== null && ` · TRIMP ${Math.round(run.trimp)}`}
         {run.avg_hr !== null && ` · ♥ ${Math.round(run.avg_hr)}`}
         {(run.goal_pace_s ?? 0) > 0 && ` · ${formatDuration(run.goal_pace_s ?? 0)} at goal pace`}
@@ -43,8 +55,8 @@ export function WeekRunEntry({ run, unit, meId, runnerId }: { run: WeekDayRun; u
       )}
       {run.reps_line && <p className="text-xs break-words text-ink tabular-nums">{run.reps_line}</p>}
       {run.fuel_taken && <FuelLine fuel={run.fuel_taken} />}
-      {run.checkin && <CheckinLine checkin={run.checkin} />}
-      <RunNotes notes={run.notes} meId={meId} />
+      {run.checkin && <CheckinLine checkin={run.checkin} timeZone={runnerZone} viewerIsRunner={viewerIsRunner} />}
+      <RunNotes notes={run.notes} meId={meId} timeZone={runnerZone} viewerIsRunner={viewerIsRunner} />
       <ReplyBox runId={run.id} runnerId={runnerId} />
     </div>
   );
@@ -66,7 +78,9 @@ function FuelLine({ fuel }: { fuel: WeekFuelTaken }) {
   );
 }
 
-function CheckinLine({ checkin }: { checkin: WeekCheckin }) {
+type Clock = { timeZone: string; viewerIsRunner: boolean };
+
+function CheckinLine({ checkin, timeZone, viewerIsRunner }: { checkin: WeekCheckin } & Clock) {
   const parts = [
     checkin.sleep_hours !== null && `sleep ${one(checkin.sleep_hours)} h`,
     checkin.soreness !== null && `soreness ${checkin.soreness}/5`,
@@ -83,12 +97,14 @@ function CheckinLine({ checkin }: { checkin: WeekCheckin }) {
       <span className="font-semibold">After the run:</span> {parts.join(' · ') || 'nothing filled in'}
       {sore && <span className="font-semibold text-tartan"> · high soreness</span>}
       {checkin.notes && <span className="block whitespace-pre-wrap text-ink-muted">“{checkin.notes}”</span>}
-      <span className="block text-ink-muted">checked in {formatDate(checkin.updated_at)}</span>
+      <span className="block text-ink-muted">
+        checked in <ZonedTime iso={checkin.updated_at} timeZone={timeZone} viewerIsRunner={viewerIsRunner} />
+      </span>
     </p>
   );
 }
 
-function RunNotes({ notes, meId }: { notes: WeekNote[]; meId: string }) {
+function RunNotes({ notes, meId, timeZone, viewerIsRunner }: { notes: WeekNote[]; meId: string } & Clock) {
   if (notes.length === 0) return null;
   return (
     <ol className="flex flex-col gap-1" aria-label="Notes on this run">
@@ -96,7 +112,7 @@ function RunNotes({ notes, meId }: { notes: WeekNote[]; meId: string }) {
         <li key={note.id} className="rounded-sm border border-line bg-white px-2 py-1 text-xs" data-note-id={note.id}>
           <p className="text-ink-muted">
             <span className="font-semibold text-ink">{note.author.id === meId ? 'You' : note.author.name}</span> ·{' '}
-            {formatDate(note.created_at)}, {TIME.format(new Date(note.created_at))}
+            <ZonedTime iso={note.created_at} timeZone={timeZone} viewerIsRunner={viewerIsRunner} />
             {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
             {note.unread && <UnreadDot />}
           </p>
