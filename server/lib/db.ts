@@ -607,6 +607,39 @@ export function readDb(): Knex {
   return replicaReadContext.getStore() ?? db;
 }
 
+/** A fixed SQL text with Knex's `?` placeholders as PostgreSQL's `$1, $2…` (the statement may hold no other `?`). */
+function positionalText(sql: string): string {
+  let n = 0;
+  return sql.replace(/\?/g, () => `$${++n}`);
+}
+
+/**
+ * A fixed, named (prepared) statement for the queries every request sends (who is calling, a week's runner): sent
+ * straight through a connection of the given Knex's pool, without Knex's query builder and runner, which cost the
+ * server's thread more than PostgreSQL spent running the statement (tests/bench/README.md, session 9). The pool,
+ * its timeouts and its errors are Knex's own; inside a transaction it goes through the transaction as usual.
+ */
+export function preparedStatement<Row>(name: string, sql: string) {
+  const text = positionalText(sql);
+  return async (values: readonly unknown[], on: Db): Promise<Row[]> => {
+    if (on.isTransaction) return (await on.raw<{ rows: Row[] }>(sql, values as Knex.RawBinding[]).options({ name })).rows;
+    const client = on.client as {
+      acquireConnection(): Promise<{ query(config: object): Promise<{ rows: Row[] }> }>;
+      releaseConnection(connection: unknown): Promise<void>;
+      emit(event: 'query', query: object): void;
+    };
+    // Knex's own `query` event, as its runner sends it, for whoever listens (tests count a request's queries).
+    if (on.listenerCount('query') > 0) client.emit('query', { method: 'raw', sql: text, bindings: values, options: { name } });
+    const connection = await client.acquireConnection();
+    try {
+      return (await connection.query({ name, text, values })).rows;
+    } finally {
+      // A connection that failed is marked by Knex's own listeners; the pool checks it before lending it again.
+      void client.releaseConnection(connection);
+    }
+  };
+}
+
 /**
  * A unit of work across repository calls: a service opens it and hands `trx` to each repository
  * function, so the queries themselves stay in repositories (only they, this file and db/ use Knex).

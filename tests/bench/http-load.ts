@@ -27,9 +27,12 @@
  * Prints a table, the issue 8 and 19 targets met or missed with the load average, and one JSON line.
  */
 import { fork, spawnSync, type ChildProcess } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { Session } from 'node:inspector/promises';
 import type { IncomingMessage, Server, ServerResponse } from 'node:http';
 import { loadavg, tmpdir } from 'node:os';
+import { PerformanceObserver, constants as perfConstants } from 'node:perf_hooks';
+import { getHeapStatistics } from 'node:v8';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
 import autocannon from 'autocannon';
@@ -53,6 +56,8 @@ const UPLOADS_AT_ONCE_PER_RUNNER = 2;
 const ROUNDS = new Set((process.env.LOAD_ROUNDS ?? 'signin,runs,run,week,squad,busy,uploads').split(',').map((k) => k.trim()));
 /** Runners uploading 100-mile files, one file at a time each, during the `busy` rounds. */
 const UPLOADERS = Number(process.env.LOAD_UPLOADERS ?? 3);
+/** LOAD_PROFILE_DIR: a CPU profile of the server's thread per round, `<dir>/<round>.cpuprofile` (cpu-profile-top.ts reads it). */
+const PROFILE_DIR = process.env.LOAD_PROFILE_DIR;
 /** After a round, wait this long at most for requests the server still holds (Knex gives up on a connection after 60 s). */
 const DRAIN_TIMEOUT_MS = 75_000;
 
@@ -108,6 +113,8 @@ interface RoundResult {
   db_cpu_ms_per_request: number | null;
   /** 1-minute load average at the end of the round. */
   load_average: number;
+  /** Cores busy on the machine and in which processes, PostgreSQL transactions per request, the server's GC. */
+  diagnostics: string;
 }
 
 interface BusyRoundResult {
@@ -217,6 +224,24 @@ async function drain(): Promise<{ inFlight: number; ms: number }> {
   return { inFlight, ms: Math.round(performance.now() - t0) };
 }
 
+/** Garbage collections of the server's thread (its heap is this process's), by kind: count and ms. */
+const gcTally = { minor: { n: 0, ms: 0 }, major: { n: 0, ms: 0 }, other: { n: 0, ms: 0 } };
+new PerformanceObserver((list) => {
+  for (const entry of list.getEntries()) {
+    const kind = (entry as PerformanceEntry & { detail?: { kind?: number } }).detail?.kind;
+    const slot =
+      kind === perfConstants.NODE_PERFORMANCE_GC_MINOR
+        ? gcTally.minor
+        : kind === perfConstants.NODE_PERFORMANCE_GC_MAJOR
+          ? gcTally.major
+          : gcTally.other;
+    slot.n++;
+    slot.ms += entry.duration;
+  }
+}).observe({ entryTypes: ['gc'] });
+const gcSnapshot = () => JSON.parse(JSON.stringify(gcTally)) as typeof gcTally;
+const heapMb = () => Math.round(getHeapStatistics().used_heap_size / 1e5) / 10;
+
 /** proc(5) counts CPU time in clock ticks: 100 per second on Linux (getconf CLK_TCK). */
 const CLOCK_TICKS_PER_S = 100;
 
@@ -232,9 +257,25 @@ function cpuMsOf(statPath: string): number | null {
   }
 }
 
+/**
+ * The whole machine's CPU time (ms, all cores, from /proc/stat): busy (user, nice, system, irq, softirq) and
+ * stolen by the hypervisor; null off Linux. With this process's own total (every thread) and the database's
+ * backends, a round shows what else ran on the machine while it was measured.
+ */
+function machineCpuMs(): { busy: number; steal: number } | null {
+  try {
+    const fields = readFileSync('/proc/stat', 'utf8').split('\n')[0]!.trim().split(/\s+/).slice(1).map(Number);
+    const [user = 0, nice = 0, system = 0, , , irq = 0, softirq = 0, steal = 0] = fields;
+    const toMs = (ticks: number) => (ticks * 1000) / CLOCK_TICKS_PER_S;
+    return { busy: toMs(user + nice + system + irq + softirq), steal: toMs(steal) };
+  } catch {
+    return null;
+  }
+}
+
 /** Reads the CPU time of the server's thread and of the backends serving the measured database. */
-let cpuMeter: { snapshot(): Promise<{ server: number | null; backends: Map<number, number> }> } = {
-  snapshot: async () => ({ server: null, backends: new Map() }),
+let cpuMeter: { snapshot(): Promise<{ server: number | null; backends: Map<number, number>; transactions: number | null }> } = {
+  snapshot: async () => ({ server: null, backends: new Map(), transactions: null }),
 };
 
 function startCpuMeter(databaseUrl: string): () => Promise<void> {
@@ -250,7 +291,13 @@ function startCpuMeter(databaseUrl: string): () => Promise<void> {
         const ms = cpuMsOf(`/proc/${pid}/stat`);
         if (ms !== null) backends.set(pid, ms);
       }
-      return { server: cpuMsOf(`/proc/self/task/${process.pid}/stat`), backends };
+      // Transactions of the measured database (each query outside a transaction is one): queries per request, roughly.
+      const stats = await monitor.raw<{ rows: Array<{ transactions: string }> }>(
+        'select xact_commit + xact_rollback as transactions from pg_stat_database where datname = ?',
+        [database],
+      );
+      const transactions = stats.rows[0] ? Number(stats.rows[0].transactions) : null;
+      return { server: cpuMsOf(`/proc/self/task/${process.pid}/stat`), backends, transactions };
     },
   };
   return () => monitor.destroy();
@@ -290,6 +337,17 @@ async function round(
   const beforeRefusals = serverSide.designedRefusals;
   const statusesBefore = { ...serverSide.statuses };
   const cpuBefore = await cpuMeter.snapshot();
+  const machineBefore = machineCpuMs();
+  const processBefore = cpuMsOf('/proc/self/stat');
+  const wallBefore = performance.now();
+  const gcBefore = gcSnapshot();
+  const heapBefore = heapMb();
+  const profiler = PROFILE_DIR ? new Session() : null;
+  if (profiler) {
+    profiler.connect();
+    await profiler.post('Profiler.enable');
+    await profiler.post('Profiler.start');
+  }
   const result = await autocannon({
     url: `${base}${options.path}`,
     method,
@@ -304,11 +362,39 @@ async function round(
   });
   const drained = await drain();
   const cpuAfter = await cpuMeter.snapshot();
+  const machineAfter = machineCpuMs();
+  const processAfter = cpuMsOf('/proc/self/stat');
+  const wallMs = performance.now() - wallBefore;
+  if (profiler && PROFILE_DIR) {
+    const { profile } = await profiler.post('Profiler.stop');
+    profiler.disconnect();
+    mkdirSync(PROFILE_DIR, { recursive: true });
+    writeFileSync(path.join(PROFILE_DIR, `${name.replace(/\W+/g, '-')}.cpuprofile`), JSON.stringify(profile));
+  }
   const answered = result.requests.total;
   const perRequest = (ms: number | null) => (ms === null || answered === 0 ? null : Math.round((ms / answered) * 100) / 100);
   // Backends that started during the round count from zero; one that ended during it is missed (the pool keeps them).
   let backendMs: number | null = cpuAfter.backends.size ? 0 : null;
   for (const [pid, ms] of cpuAfter.backends) backendMs! += ms - (cpuBefore.backends.get(pid) ?? 0);
+  const gcAfter = gcSnapshot();
+  const gc = (k: keyof typeof gcTally) =>
+    `${k} ${gcAfter[k].n - gcBefore[k].n} (${Math.round(gcAfter[k].ms - gcBefore[k].ms)} ms)`;
+  const transactions =
+    cpuAfter.transactions === null || cpuBefore.transactions === null || answered === 0
+      ? '?'
+      : ((cpuAfter.transactions - cpuBefore.transactions) / answered).toFixed(2);
+  // Cores' worth of CPU during the round: the whole machine, this process (server, its worker threads and the load
+  // generator's thread), the database's backends, and everything else (other programs, the kernel's own work).
+  const cores = (ms: number) => (ms / wallMs).toFixed(2);
+  let machineLine = 'machine CPU ?';
+  if (machineBefore && machineAfter && processBefore !== null && processAfter !== null && backendMs !== null) {
+    const busy = machineAfter.busy - machineBefore.busy;
+    const own = processAfter - processBefore;
+    machineLine =
+      `cores busy: machine ${cores(busy)} (this process ${cores(own)}, PostgreSQL ${cores(backendMs)}, ` +
+      `everything else ${cores(Math.max(0, busy - own - backendMs))}), stolen ${cores(machineAfter.steal - machineBefore.steal)}`;
+  }
+  const gcLine = `${machineLine}; PostgreSQL transactions per request ${transactions}; GC ${gc('minor')}, ${gc('major')}, ${gc('other')}; heap used ${heapBefore} → ${heapMb()} MB`;
   const statuses = { ...serverSide.statuses };
   for (const [status, n] of Object.entries(statusesBefore)) statuses[status] = (statuses[status] ?? 0) - n;
   const summary: RoundResult = {
@@ -334,6 +420,7 @@ async function round(
     ),
     db_cpu_ms_per_request: perRequest(backendMs),
     load_average: loadAverage(),
+    diagnostics: gcLine,
   };
   console.log(
     `  ${name.padEnd(28)} ${String(summary.rps).padStart(6)} req/s  p50 ${summary.p50_ms} ms  p99 ${summary.p99_ms} ms  non-2xx ${summary.non_2xx}` +
@@ -344,6 +431,7 @@ async function round(
       `  CPU per request: server ${summary.server_cpu_ms_per_request ?? '?'} ms, PostgreSQL ${summary.db_cpu_ms_per_request ?? '?'} ms` +
       `  load ${summary.load_average}`,
   );
+  console.log(`  ${''.padEnd(28)} ${summary.diagnostics}`);
   return summary;
 }
 

@@ -1,4 +1,4 @@
-import { db, type Db, type SessionRow, type UserRow } from '../../lib/db.ts';
+import { db, preparedStatement, type Db, type SessionRow, type UserRow } from '../../lib/db.ts';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -15,6 +15,16 @@ export async function findSessionUser(sessionId: string, userId: string, now: Da
   return (await findSessionCaller(sessionId, userId, now, trx))?.user;
 }
 
+/** Every cookie request sends it, named (prepared): planning it cost more than running it. */
+const sessionCaller = preparedStatement<UserRow & { inputs_counter: string }>(
+  'authenticate-session',
+  `select users.*, coalesce(week_input_counters.counter, 0)::text as inputs_counter
+   from sessions join users on users.id = sessions.user_id
+   left join week_input_counters on week_input_counters.runner_id = users.id
+   where sessions.id = ? and sessions.user_id = ? and sessions.expires_at > ?
+   limit 1`,
+);
+
 /**
  * The user of a live session and their input counter (`week_input_counters`, 0 before their first counted
  * write), in the one query every cookie request makes (ready answers check the counter, server/features/week-cache).
@@ -26,15 +36,7 @@ export async function findSessionCaller(
   trx: Db = db,
 ): Promise<{ user: UserRow; inputsCounter: string } | undefined> {
   if (!UUID.test(sessionId) || !UUID.test(userId)) return undefined;
-  const row = (await trx('sessions')
-    .join('users', 'users.id', 'sessions.user_id')
-    .leftJoin('week_input_counters', 'week_input_counters.runner_id', 'users.id')
-    .where('sessions.id', sessionId)
-    .andWhere('sessions.user_id', userId)
-    .andWhere('sessions.expires_at', '>', now)
-    .first('users.*', trx.raw('coalesce(week_input_counters.counter, 0)::text as inputs_counter'))
-    // A named (prepared) statement: every cookie request sends it, and planning it cost more than running it.
-    .options({ name: 'authenticate-session' })) as (UserRow & { inputs_counter: string }) | undefined;
+  const [row] = await sessionCaller([sessionId, userId, now], trx);
   if (!row) return undefined;
   const { inputs_counter: inputsCounter, ...user } = row;
   return { user, inputsCounter };

@@ -1,4 +1,4 @@
-import { db, type ApiTokenRow, type Db, type UserRow } from '../../lib/db.ts';
+import { db, preparedStatement, type ApiTokenRow, type Db, type UserRow } from '../../lib/db.ts';
 import type { ApiToken } from '../../../shared/auth/schemas.ts';
 
 export function toApiToken(row: ApiTokenRow): ApiToken {
@@ -21,6 +21,17 @@ export async function insertApiToken(
   return row as ApiTokenRow;
 }
 
+/** Every bearer request sends it, named (prepared): planning it cost more than running it. */
+const apiTokenCaller = preparedStatement<UserRow & { token_id: string; token_last_used_at: Date | null; inputs_counter: string }>(
+  'authenticate-api-token',
+  `select users.*, api_tokens.id as token_id, api_tokens.last_used_at as token_last_used_at,
+          coalesce(week_input_counters.counter, 0)::text as inputs_counter
+   from api_tokens join users on users.id = api_tokens.user_id
+   left join week_input_counters on week_input_counters.runner_id = users.id
+   where api_tokens.token_hash = ? and api_tokens.expires_at > ?
+   limit 1`,
+);
+
 /**
  * The user behind the live (unexpired) token with this hash, when the token was last marked used, and the
  * user's input counter (`week_input_counters`, 0 before their first counted write): the one query every
@@ -31,20 +42,7 @@ export async function findLiveApiTokenUser(
   now: Date,
   trx: Db = db,
 ): Promise<{ user: UserRow; tokenId: string; lastUsedAt: Date | null; inputsCounter: string } | undefined> {
-  const row = (await trx('api_tokens')
-    .join('users', 'users.id', 'api_tokens.user_id')
-    .leftJoin('week_input_counters', 'week_input_counters.runner_id', 'users.id')
-    .where('api_tokens.token_hash', tokenHash)
-    .andWhere('api_tokens.expires_at', '>', now)
-    .first(
-      'users.*',
-      'api_tokens.id as token_id',
-      'api_tokens.last_used_at as token_last_used_at',
-      trx.raw('coalesce(week_input_counters.counter, 0)::text as inputs_counter'),
-    )
-    // A named (prepared) statement: every bearer request sends it, and planning it cost more than running it.
-    .options({ name: 'authenticate-api-token' })) as
-    (UserRow & { token_id: string; token_last_used_at: Date | null; inputs_counter: string }) | undefined;
+  const [row] = await apiTokenCaller([tokenHash, now], trx);
   if (!row) return undefined;
   const { token_id: tokenId, token_last_used_at: lastUsedAt, inputs_counter: inputsCounter, ...user } = row;
   return { user, tokenId, lastUsedAt, inputsCounter };

@@ -1,5 +1,25 @@
-import { db, type Db, type NoteConcern, readDb, type UserRow } from '../../lib/db.ts';
+import { db, type Db, type NoteConcern, preparedStatement, readDb, type UserRow } from '../../lib/db.ts';
 import { bumpWeekInputs } from '../week-cache/index.ts';
+
+const weekRunner = preparedStatement<UserRow & { coach_ids: string[]; inputs_counter: string; read_note_ids: string[] }>(
+  'week-runner',
+  `select u.*, coalesce(c.counter, 0)::text as inputs_counter,
+          array(select distinct s.coach_id from squad_members m join squads s on s.id = m.squad_id
+                where m.runner_id = u.id and s.coach_id is not null) as coach_ids,
+          array(select r.note_id::text from note_reads r
+                where r.user_id = ?::uuid and r.note_id = any(?::uuid[])) as read_note_ids
+   from users u left join week_input_counters c on c.runner_id = u.id
+   where u.id = ?`,
+);
+
+const squadRunners = preparedStatement<UserRow & { inputs_counter: string }>(
+  'squad-runners',
+  `select u.*, coalesce(c.counter, 0)::text as inputs_counter
+   from squad_members m join users u on u.id = m.runner_id
+   left join week_input_counters c on c.runner_id = u.id
+   where m.squad_id = ?
+   order by u.name, u.id`,
+);
 
 /**
  * A runner's row, the coaches of their squads now (the access rule's input), their input counter
@@ -11,20 +31,8 @@ export async function findWeekRunner(
   reader: { id: string; noteIds: readonly string[] },
   trx: Db = readDb(),
 ): Promise<{ runner: UserRow; coachIds: string[]; counter: string; readNoteIds: string[] } | undefined> {
-  const { rows } = await trx
-    .raw<{ rows: Array<UserRow & { coach_ids: string[]; inputs_counter: string; read_note_ids: string[] }> }>(
-      `select u.*, coalesce(c.counter, 0)::text as inputs_counter,
-            array(select distinct s.coach_id from squad_members m join squads s on s.id = m.squad_id
-                  where m.runner_id = u.id and s.coach_id is not null) as coach_ids,
-            array(select r.note_id::text from note_reads r
-                  where r.user_id = ?::uuid and r.note_id = any(?::uuid[])) as read_note_ids
-     from users u left join week_input_counters c on c.runner_id = u.id
-     where u.id = ?`,
-      // A Postgres array literal of ids (uuids: no quoting needed), so the statement's text never changes.
-      [reader.id, `{${reader.noteIds.join(',')}}`, runnerId],
-    )
-    .options({ name: 'week-runner' });
-  const row = rows[0];
+  // A Postgres array literal of ids (uuids: no quoting needed), so the statement's text never changes.
+  const [row] = await weekRunner([reader.id, `{${reader.noteIds.join(',')}}`, runnerId], trx);
   if (!row) return undefined;
   const { coach_ids: coachIds, inputs_counter: counter, read_note_ids: readNoteIds, ...runner } = row;
   return { runner, coachIds, counter, readNoteIds };
@@ -38,16 +46,7 @@ export async function listSquadRunners(
   squadId: string,
   trx: Db = readDb(),
 ): Promise<Array<{ runner: UserRow; counter: string }>> {
-  const { rows } = await trx
-    .raw<{ rows: Array<UserRow & { inputs_counter: string }> }>(
-      `select u.*, coalesce(c.counter, 0)::text as inputs_counter
-       from squad_members m join users u on u.id = m.runner_id
-       left join week_input_counters c on c.runner_id = u.id
-       where m.squad_id = ?
-       order by u.name, u.id`,
-      [squadId],
-    )
-    .options({ name: 'squad-runners' });
+  const rows = await squadRunners([squadId], trx);
   return rows.map(({ inputs_counter: counter, ...runner }) => ({ runner, counter }));
 }
 
