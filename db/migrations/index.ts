@@ -24,6 +24,7 @@ import * as m20261205121100 from './20261205121100_runs_list_keyset.ts';
 import * as m20261205122000 from './20261205122000_shared_limits.ts';
 import * as m20261205123000 from './20261205123000_import_leases.ts';
 import * as m20261205124000 from './20261205124000_canonical_time_zones.ts';
+import * as m20261205201000 from './20261205201000_track_blob_storage.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -57,6 +58,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261205122000_shared_limits': m20261205122000,
   '20261205123000_import_leases': m20261205123000,
   '20261205124000_canonical_time_zones': m20261205124000,
+  '20261205201000_track_blob_storage': m20261205201000,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

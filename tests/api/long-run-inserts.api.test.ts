@@ -8,7 +8,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app.ts';
 import { insertRunWhole, type RunChildren } from '../../server/features/runs/runs.repository.ts';
 import { db, type RunRow } from '../../server/lib/db.ts';
-import { MAX_BIND_PARAMETERS, MAX_ROWS_PER_INSERT } from '../../server/lib/insert-in-chunks.ts';
+import { MAX_BIND_PARAMETERS } from '../../server/lib/insert-by-columns.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
 import type { DeviceLap, TrackPoint } from '../../shared/tracks/types.ts';
 import { writeTcx } from '../../shared/tracks/write-track.ts';
@@ -18,7 +18,9 @@ import { recordingMailer, testConfig } from '../support/test-app.ts';
 // Issue 13 #13: a track whose splits needed more than 65 535 bind parameters in one INSERT answered
 // "please try again", which could never work. PostgreSQL's protocol counts a statement's parameters
 // in an Int16 (documentation, "Message Formats", Bind), so 65 535 is the most one statement takes.
-// The parts of a run are now inserted in chunks of at most 1 000 rows and 65 535 parameters.
+// The parts of a run are inserted with one array per column (server/lib/insert-by-columns.ts): splits,
+// laps and fastest sections in one statement whose parameters are as many as their columns, whatever
+// the number of rows (session 9: one round trip instead of one statement per 1 000 rows and table).
 
 interface Statement {
   sql: string;
@@ -97,7 +99,7 @@ async function runRow(): Promise<Omit<RunRow, 'id' | 'created_at'>> {
   };
 }
 
-describe('the parts of a very long run are inserted in chunks (issue 13 #13)', () => {
+describe('the parts of a very long run are inserted whole (issue 13 #13)', () => {
   it('the limit is real: PostgreSQL refuses one INSERT of 4 600 splits (69 000 parameters)', async () => {
     const run = await runRow();
     const [row] = await db('runs').insert(run).returning('*');
@@ -108,7 +110,7 @@ describe('the parts of a very long run are inserted in chunks (issue 13 #13)', (
     expect(await db('run_splits').count({ n: '*' }).first()).toEqual({ n: '0' });
   });
 
-  it('4 600 splits (69 000 parameters) are stored whole in 5 statements, none over 1 000 rows or 65 535 parameters', async () => {
+  it('4 600 splits (69 000 values) are stored whole in one statement of 15 parameters, one per column', async () => {
     const run = await runRow();
     const watch = watchStatements();
     stopWatching = watch.stop;
@@ -121,13 +123,50 @@ describe('the parts of a very long run are inserted in chunks (issue 13 #13)', (
     );
     watch.stop();
     const splitInserts = watch.seen.filter((s) => /insert into "run_splits"/.test(s.sql));
-    expect(splitInserts.map((s) => s.parameters)).toEqual([15_000, 15_000, 15_000, 15_000, 9_000]);
+    expect(splitInserts.map((s) => s.parameters)).toEqual([15]);
     expect(Math.max(...watch.seen.map((s) => s.parameters))).toBeLessThanOrEqual(MAX_BIND_PARAMETERS);
-    expect(Math.max(...splitInserts.map((s) => s.parameters / 15))).toBeLessThanOrEqual(MAX_ROWS_PER_INSERT);
     expect(await db('run_splits').where({ run_id: stored.id }).count({ n: '*' }).first()).toEqual({ n: '4600' });
+    // Every value as it was sent: the last split's times and numbers read back equal.
+    const last = await db('run_splits').where({ run_id: stored.id, unit: 'km', split_index: 2_300 }).first();
+    expect(last).toMatchObject({
+      start_at: new Date(T0 + 4_598 * 300_000),
+      end_at: new Date(T0 + 4_599 * 300_000),
+      pace_s: 300,
+      avg_cad: 170,
+    });
   });
 
-  it('through the upload: a 200 000-point, 28-hour TCX with 10 000 device laps (70 000 parameters) imports, 201, every lap stored, no statement over 65 535', async () => {
+  it('NaN, ±Infinity, null and the millisecond of a time read back as they were sent', async () => {
+    const run = await runRow();
+    const [split] = splitRows(1);
+    const odd = {
+      ...split!,
+      start_at: new Date(T0 + 123),
+      pace_s: Number.NaN,
+      flat_pace_s: Number.POSITIVE_INFINITY,
+      elev_loss_m: Number.NEGATIVE_INFINITY,
+      avg_hr: null,
+      distance_m: 1000.0000000000001,
+    };
+    const stored = await db.transaction((trx: Knex.Transaction) =>
+      insertRunWhole(
+        run,
+        { track: { columns: ['t'], point_count: 0, data: Buffer.alloc(0) }, splits: [odd], laps: [], fastest: [] },
+        trx,
+      ),
+    );
+    const back = await db('run_splits').where({ run_id: stored.id }).first();
+    expect(back?.pace_s).toBeNaN();
+    expect(back).toMatchObject({
+      start_at: new Date(T0 + 123),
+      flat_pace_s: Number.POSITIVE_INFINITY,
+      elev_loss_m: Number.NEGATIVE_INFINITY,
+      avg_hr: null,
+      distance_m: 1000.0000000000001,
+    });
+  });
+
+  it('through the upload: a 200 000-point, 28-hour TCX with 10 000 device laps (70 000 values) imports, 201, every lap stored, in one statement', async () => {
     const dataDir = mkdtempSync(path.join(tmpdir(), 'pacewright-long-'));
     const app = createApp({ config: testConfig({ dataDir }), store: createFsStore(dataDir), mailer: recordingMailer });
     const { user, password } = await createUser();
@@ -158,7 +197,7 @@ describe('the parts of a very long run are inserted in chunks (issue 13 #13)', (
     expect(await db('run_laps').where({ run_id: runId }).count({ n: '*' }).first()).toEqual({ n: '10000' });
     expect(Number((await db('run_splits').where({ run_id: runId, unit: 'km' }).count({ n: '*' }).first())!.n)).toBe(240);
     const lapInserts = watch.seen.filter((s) => /insert into "run_laps"/.test(s.sql));
-    expect(lapInserts).toHaveLength(10);
+    expect(lapInserts).toHaveLength(1);
     expect(Math.max(...watch.seen.map((s) => s.parameters))).toBeLessThanOrEqual(MAX_BIND_PARAMETERS);
   }, 120_000);
 });

@@ -10,7 +10,7 @@ import {
 } from '../../lib/db.ts';
 import { bumpWeekInputs } from '../week-cache/index.ts';
 import type { Knex } from 'knex';
-import { insertInChunks } from '../../lib/insert-in-chunks.ts';
+import { insertRowsByColumns } from '../../lib/insert-by-columns.ts';
 import type { ListRunsQuery, RunListOrder, RunListSort } from '../../../shared/runs/schemas.ts';
 
 import { RUN_LIST_COLUMNS, type RunListRow } from './run-list.ts';
@@ -67,30 +67,35 @@ export interface RunChildren {
   fastest: Omit<RunFastestSectionRow, 'run_id'>[];
 }
 
-/** Inserts a run with all its parts; call inside a transaction so a run is stored whole or not at all. */
-export async function insertRunWhole(run: Omit<RunRow, 'id' | 'created_at'>, children: RunChildren, trx: Db): Promise<RunRow> {
+/**
+ * Inserts a run with all its parts; call inside a transaction so a run is stored whole or not at all.
+ * `mark` is told when each statement has answered (runs.service.ts logs the steps).
+ */
+export async function insertRunWhole(
+  run: Omit<RunRow, 'id' | 'created_at'>,
+  children: RunChildren,
+  trx: Db,
+  mark: (step: string) => void = () => undefined,
+): Promise<RunRow> {
   const [row] = await trx('runs').insert(run).returning('*');
   const runId = (row as RunRow).id;
+  mark('run row');
   // Feeds the runner's assembled weeks (server/features/week-cache).
   await bumpWeekInputs([run.user_id], trx);
-  // In chunks: a long track's splits (or a file's laps) can pass PostgreSQL's 65 535 parameters per statement.
-  await insertInChunks(
-    trx,
-    'run_splits',
-    children.splits.map((s) => ({ run_id: runId, ...s })),
-  );
-  await insertInChunks(
-    trx,
-    'run_laps',
-    children.laps.map((l) => ({ run_id: runId, ...l })),
-  );
-  await insertInChunks(
-    trx,
-    'run_fastest_sections',
-    children.fastest.map((f) => ({ run_id: runId, ...f })),
-  );
+  mark('week inputs bumped');
+  // One statement, one round trip for all three: each table's rows go as one array per column, so a long
+  // track's splits never pass PostgreSQL's 65 535 parameters per statement (lib/insert-by-columns.ts).
+  await insertRowsByColumns(trx, [
+    { table: 'run_splits', rows: children.splits.map((s) => ({ run_id: runId, ...s })) },
+    { table: 'run_laps', rows: children.laps.map((l) => ({ run_id: runId, ...l })) },
+    { table: 'run_fastest_sections', rows: children.fastest.map((f) => ({ run_id: runId, ...f })) },
+  ]);
+  mark('splits, laps, fastest sections');
+  const blob = await children.track.data;
+  mark('gzip awaited');
   // Last: the track's blob is compressed meanwhile (runs.service.ts starts it when the compute thread answers).
-  await trx('run_tracks').insert({ run_id: runId, ...children.track, data: await children.track.data });
+  await trx('run_tracks').insert({ run_id: runId, ...children.track, data: blob });
+  mark('track row');
   return row as RunRow;
 }
 

@@ -139,6 +139,23 @@ async function computeRuns(
   }
 }
 
+/**
+ * When each step of storing one file ended, ms after its import began (LOG_LEVEL=debug logs them per file:
+ * "import steps"): where the time between the body's last byte and the answer goes (tests/bench/README.md).
+ */
+function stepClock() {
+  const began = performance.now();
+  const steps: Record<string, number> = {};
+  return {
+    /** Ms since the epoch when the import began: comparable with another process's clock. */
+    beganAt: performance.timeOrigin + began,
+    steps,
+    mark: (step: string) => {
+      steps[step] = Math.round((performance.now() - began) * 10) / 10;
+    },
+  };
+}
+
 /** The same file was stored by another upload while this one was being read. */
 class StoredMeanwhile extends Error {
   constructor() {
@@ -168,6 +185,7 @@ export async function importFiles(
   const result: ImportResult = { imported: [], duplicates: [], rejected: [] };
   const sameFile = (file: string, runId: string) => ({ file, runId, reason: 'same file' as const, activity: null });
   for (const file of files) {
+    const clock = stepClock();
     const sha256 = await sha256Of(file);
     const existing = await findSourceFileBySha(user.id, sha256);
     // Activities of this very file already stored; with "import anyway" the others still come in
@@ -181,7 +199,9 @@ export async function importFiles(
       }
       for (const index of await findActivityIndexesOfSourceFile(existing.id)) present.add(index);
     }
+    clock.mark('checked');
     const computed = await computeRuns(user, file);
+    clock.mark('computed');
     if (!computed.ok) {
       result.rejected.push({ file: file.name, error: computed.error });
       continue;
@@ -192,18 +212,25 @@ export async function importFiles(
     // Each track's columns crossed from the thread packed (handed over, not copied); they are gzipped on
     // libuv's pool from now on, beside the transaction's first statements, and awaited for the last one.
     const blobs = new Map(records.map((record) => [record, gzipPackedColumns(record.children.track.raw)]));
-    // A blob no statement awaits (a refused or failed file) must not end as an unhandled rejection.
-    for (const blob of blobs.values()) blob.catch(() => undefined);
+    // When each blob is ready is a logged step; a blob no statement awaits (a refused or failed file) must
+    // not end as an unhandled rejection.
+    for (const blob of blobs.values())
+      blob.then(
+        () => clock.mark('gzipped'),
+        () => undefined,
+      );
     const insertRecord = (record: RunRecord, sourceFileId: string, trx: Parameters<typeof insertRunWhole>[2]) => {
       const { columns, point_count } = record.children.track;
       return insertRunWhole(
         { ...record.run, source_file_id: sourceFileId },
         { ...record.children, track: { columns, point_count, data: blobs.get(record)! } },
         trx,
+        clock.mark,
       );
     };
     try {
       const outcome = await inTransaction(async (trx) => {
+        clock.mark('transaction began');
         // The same-run check and the insert are one step per runner: two different files of one run
         // uploaded at the same instant (two requests, two compute workers) are checked one after the
         // other, and the second sees the first's committed run (lockRunsOf waits for its commit).
@@ -227,6 +254,7 @@ export async function importFiles(
         }
         const inserted: RunRow[] = [];
         if (keep.length === 0) return { inserted, sameRun };
+        clock.mark('same-run checked');
         const beforeCommit = async () => {
           if (!options.beforeCommit) return;
           try {
@@ -268,8 +296,11 @@ export async function importFiles(
         if ('data' in file) await store.put(storageKey, file.data);
         else if (store.putFile) await store.putFile(storageKey, file.path);
         else await store.put(storageKey, await readFile(file.path));
+        clock.mark('original stored');
         return { inserted, sameRun };
       });
+      clock.mark('committed');
+      logger.debug({ file: file.name, began_at: clock.beganAt, ms: clock.steps }, 'import steps');
       result.duplicates.push(...outcome.sameRun);
       if (outcome.inserted.length === 0) {
         // With "import anyway", only activities of this very file already stored are left out.
