@@ -3,6 +3,8 @@
  * running on slopes used for flat-equivalent pace.
  */
 
+import { BLOCK } from './blocks.ts';
+
 /** Half-width of the centred moving average applied to elevation, seconds (a 20 s window). */
 export const ELEVATION_SMOOTHING_HALF_WINDOW_S = 10;
 /**
@@ -20,7 +22,16 @@ export function fillMissing(t: Float64Array, values: Float64Array): Float64Array
   const n = values.length;
   const out = new Float64Array(n);
   let prev = -1;
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < n; i += BLOCK) prev = fillBlock(t, values, out, prev, i, Math.min(n, i + BLOCK));
+  if (prev === -1) return null;
+  out.fill(values[prev] as number, prev + 1);
+  return out;
+}
+
+/** `fillMissing` over points [from, to); `last` is the last known index before them (−1: none), returned updated. */
+function fillBlock(t: Float64Array, values: Float64Array, out: Float64Array, last: number, from: number, to: number): number {
+  let prev = last;
+  for (let i = from; i < to; i++) {
     const v = values[i] as number;
     if (Number.isNaN(v)) continue;
     if (prev === -1) {
@@ -34,9 +45,7 @@ export function fillMissing(t: Float64Array, values: Float64Array): Float64Array
     out[i] = v;
     prev = i;
   }
-  if (prev === -1) return null;
-  out.fill(values[prev] as number, prev + 1);
-  return out;
+  return prev;
 }
 
 /**
@@ -46,17 +55,37 @@ export function fillMissing(t: Float64Array, values: Float64Array): Float64Array
 export function smoothByTime(t: Float64Array, values: Float64Array, halfWindowS: number): Float64Array {
   const n = values.length;
   const out = new Float64Array(n);
-  const half = halfWindowS * 1000;
-  let lo = 0;
-  let hi = 0; // exclusive
-  let sum = 0;
-  for (let i = 0; i < n; i++) {
+  // The window [lo, hi) and its sum, carried from block to block.
+  const window = new Int32Array(2);
+  const sum = new Float64Array(1);
+  for (let i = 0; i < n; i += BLOCK)
+    movingAverageBlock(t, values, halfWindowS * 1000, out, window, sum, i, Math.min(n, i + BLOCK));
+  return out;
+}
+
+function movingAverageBlock(
+  t: Float64Array,
+  values: Float64Array,
+  half: number,
+  out: Float64Array,
+  window: Int32Array,
+  total: Float64Array,
+  from: number,
+  to: number,
+): void {
+  const n = values.length;
+  let lo = window[0] as number;
+  let hi = window[1] as number; // exclusive
+  let sum = total[0] as number;
+  for (let i = from; i < to; i++) {
     const ti = t[i] as number;
     while (hi < n && (t[hi] as number) <= ti + half) sum += values[hi++] as number;
     while ((t[lo] as number) < ti - half) sum -= values[lo++] as number;
     out[i] = sum / (hi - lo);
   }
-  return out;
+  window[0] = lo;
+  window[1] = hi;
+  total[0] = sum;
 }
 
 /**
@@ -80,25 +109,60 @@ export function hysteresisProfile(values: Float64Array, thresholdM: number): Flo
     const va = values[a] as number;
     const vb = values[b] as number;
     let level = va;
-    for (let i = a; i <= b; i++) {
-      const v = values[i] as number;
-      level = vb > va ? Math.min(vb, Math.max(level, v)) : Math.max(vb, Math.min(level, v));
-      out[i] = level;
-    }
+    for (let i = a; i <= b; i += BLOCK) level = legBlock(values, va, vb, level, out, i, Math.min(b + 1, i + BLOCK));
   }
   const last = turns[turns.length - 1];
   if (last !== undefined) out.fill(values[last] as number, last);
   return out;
 }
 
+/** One leg of `hysteresisProfile` over points [from, to), from `level`; returns the level reached. */
+function legBlock(
+  values: Float64Array,
+  va: number,
+  vb: number,
+  start: number,
+  out: Float64Array,
+  from: number,
+  to: number,
+): number {
+  let level = start;
+  for (let i = from; i < to; i++) {
+    const v = values[i] as number;
+    level = vb > va ? Math.min(vb, Math.max(level, v)) : Math.max(vb, Math.min(level, v));
+    out[i] = level;
+  }
+  return level;
+}
+
+// Slots of the state `turningBlock` carries from block to block.
+const DIRECTION = 0; // 0 unknown, 1 rising, -1 falling
+const MAX_I = 1;
+const MIN_I = 2;
+const CANDIDATE = 3;
+
 function findTurningPoints(values: Float64Array, threshold: number): number[] {
   const n = values.length;
   const turns: number[] = [];
-  let direction = 0; // 0 unknown, 1 rising, -1 falling
-  let maxI = 0;
-  let minI = 0;
-  let candidate = 0;
-  for (let i = 1; i < n; i++) {
+  const state = new Int32Array(4);
+  for (let i = 1; i < n; i += BLOCK) turningBlock(values, threshold, turns, state, i, Math.min(n, i + BLOCK));
+  if (state[DIRECTION] !== 0) turns.push(state[CANDIDATE] as number);
+  return turns;
+}
+
+function turningBlock(
+  values: Float64Array,
+  threshold: number,
+  turns: number[],
+  state: Int32Array,
+  from: number,
+  to: number,
+): void {
+  let direction = state[DIRECTION] as number;
+  let maxI = state[MAX_I] as number;
+  let minI = state[MIN_I] as number;
+  let candidate = state[CANDIDATE] as number;
+  for (let i = from; i < to; i++) {
     const v = values[i] as number;
     if (direction === 0) {
       if (v > (values[maxI] as number)) maxI = i;
@@ -126,8 +190,10 @@ function findTurningPoints(values: Float64Array, threshold: number): number[] {
       candidate = i;
     }
   }
-  if (direction !== 0) turns.push(candidate);
-  return turns;
+  state[DIRECTION] = direction;
+  state[MAX_I] = maxI;
+  state[MIN_I] = minI;
+  state[CANDIDATE] = candidate;
 }
 
 /** Sum of rises and of falls of a profile, metres. */

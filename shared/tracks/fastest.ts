@@ -1,4 +1,5 @@
 import { METRES_PER_MILE } from '../units.ts';
+import { BLOCK } from './blocks.ts';
 import type { FastestSection, TrackSeries } from './types.ts';
 
 /** The distances of fastest sections, metres: 400 m, 1 km, 1 mile, 5 km, 10 km, half, marathon. */
@@ -49,9 +50,57 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
   const bestStartD = new Float64Array(m);
   const pointer = new Int32Array(m);
 
+  const best: Best = { found, bestTime, bestStartT, bestEndT, bestStartD, pointer };
   // Ends on a point j: start where distance d[j] − D was last held.
-  const d0 = n > 0 ? (d[0] as number) : 0;
-  for (let j = 1; j < n; j++) {
+  for (let j = 1; j < n; j += BLOCK) endingSweep(t, d, distance, covered, best, j, Math.min(n, j + BLOCK));
+
+  // Starts on a point s (as it leaves it): end where distance d[s] + D is first reached.
+  pointer.fill(1);
+  for (let s = 0; s + 1 < n; s += BLOCK) startingSweep(t, d, distance, covered, best, s, Math.min(n - 1, s + BLOCK));
+
+  const out: (FastestSection | null)[] = [];
+  for (let k = 0; k < m; k++) {
+    const D = distance[k] as number;
+    out.push(
+      found[k]
+        ? {
+            distance_m: distancesM[k] as number,
+            time_s: bestTime[k] as number,
+            pace_s_per_km: (bestTime[k] as number) / (D / 1000),
+            start_t: bestStartT[k] as number,
+            end_t: bestEndT[k] as number,
+            start_distance_m: bestStartD[k] as number,
+          }
+        : null,
+    );
+  }
+  return out;
+}
+
+/** The best section so far per distance, and each distance's pointer into the points. */
+interface Best {
+  found: Uint8Array;
+  bestTime: Float64Array;
+  bestStartT: Float64Array;
+  bestEndT: Float64Array;
+  bestStartD: Float64Array;
+  pointer: Int32Array;
+}
+
+/** The sweep of sections ending on points j ∈ [from, to). */
+function endingSweep(
+  t: ArrayLike<number>,
+  d: ArrayLike<number>,
+  distance: Float64Array,
+  covered: Uint8Array,
+  best: Best,
+  from: number,
+  to: number,
+): void {
+  const { found, bestTime, bestStartT, bestEndT, bestStartD, pointer } = best;
+  const m = distance.length;
+  const d0 = d[0] as number;
+  for (let j = from; j < to; j++) {
     const dj = d[j] as number;
     if (dj === (d[j - 1] as number)) continue; // the earliest arrival at d[j] is earlier
     const endT = t[j] as number;
@@ -73,11 +122,22 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
       }
     }
   }
+}
 
-  // Starts on a point s (as it leaves it): end where distance d[s] + D is first reached.
-  pointer.fill(1);
-  const last = n > 0 ? (d[n - 1] as number) : 0;
-  for (let s = 0; s + 1 < n; s++) {
+/** The sweep of sections starting on points s ∈ [from, to) (to ≤ n − 1). */
+function startingSweep(
+  t: ArrayLike<number>,
+  d: ArrayLike<number>,
+  distance: Float64Array,
+  covered: Uint8Array,
+  best: Best,
+  from: number,
+  to: number,
+): void {
+  const { found, bestTime, bestStartT, bestEndT, bestStartD, pointer } = best;
+  const m = distance.length;
+  const last = d[d.length - 1] as number;
+  for (let s = from; s < to; s++) {
     const ds = d[s] as number;
     if ((d[s + 1] as number) === ds) continue; // still standing: a later start is faster
     const startT = t[s] as number;
@@ -105,24 +165,6 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
       }
     }
   }
-
-  const out: (FastestSection | null)[] = [];
-  for (let k = 0; k < m; k++) {
-    const D = distance[k] as number;
-    out.push(
-      found[k]
-        ? {
-            distance_m: distancesM[k] as number,
-            time_s: bestTime[k] as number,
-            pace_s_per_km: (bestTime[k] as number) / (D / 1000),
-            start_t: bestStartT[k] as number,
-            end_t: bestEndT[k] as number,
-            start_distance_m: bestStartD[k] as number,
-          }
-        : null,
-    );
-  }
-  return out;
 }
 
 /** The time `target` metres were reached between points i and i + 1, by linear interpolation (the earlier time where they do not move). */

@@ -28,6 +28,8 @@
  * Pure: no I/O, inputs are not modified.
  */
 
+import { BLOCK } from './blocks.ts';
+
 /**
  * Spectral density of the runner's acceleration in the motion model, m²/s³. Textbook guidance for
  * the white-noise acceleration model is √(q·T) of the order of the largest acceleration expected
@@ -162,13 +164,66 @@ export function measureJitter(
   const intervals = new Float64Array(n - 1);
   let count = 0;
   const stride = Math.max(1, Math.floor(n / JITTER_SAMPLE));
-  for (let i = 1; i < n; i += stride) if (!segmentStart[i]) intervals[count++] = (t[i] as number) - (t[i - 1] as number);
+  // Blocks of BLOCK samples (blocks.ts), each starting on the stride's own grid.
+  for (let i = 1; i < n; i += stride * BLOCK)
+    count = sampleIntervals(t, segmentStart, stride, intervals, count, i, Math.min(n, i + stride * BLOCK));
   const medianMs = median(intervals, count);
   if (!(medianMs > 0)) return { sigma_m: 0, median_interval_s: Number.NaN, samples: 0 };
   const { north, east } = metresPerDegree(lat[0] as number);
   const third = new Float64Array(2 * Math.ceil(n / stride) + 2);
   let m = 0;
-  for (let i = 3; i < n; i += stride) {
+  for (let i = 3; i < n; i += stride * BLOCK)
+    m = sampleThirdDifferences(
+      t,
+      lat,
+      lon,
+      segmentStart,
+      stride,
+      medianMs,
+      north,
+      east,
+      third,
+      m,
+      i,
+      Math.min(n, i + stride * BLOCK),
+    );
+  if (m < 20) return { sigma_m: 0, median_interval_s: medianMs / 1000, samples: m };
+  const spread = median(third, m) / 0.6744897501960817;
+  return { sigma_m: spread / Math.sqrt(20), median_interval_s: medianMs / 1000, samples: m };
+}
+
+/** Intervals at i = from, from + stride, … (< to) that do not start a segment, appended after `count`; returns the new count. */
+function sampleIntervals(
+  t: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  stride: number,
+  intervals: Float64Array,
+  count: number,
+  from: number,
+  to: number,
+): number {
+  let c = count;
+  for (let i = from; i < to; i += stride) if (!segmentStart[i]) intervals[c++] = (t[i] as number) - (t[i - 1] as number);
+  return c;
+}
+
+/** `measureJitter`'s third differences at i = from, from + stride, … (< to), appended after `count`; returns the new count. */
+function sampleThirdDifferences(
+  t: ArrayLike<number>,
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  stride: number,
+  medianMs: number,
+  north: number,
+  east: number,
+  third: Float64Array,
+  count: number,
+  from: number,
+  to: number,
+): number {
+  let m = count;
+  for (let i = from; i < to; i += stride) {
     if (segmentStart[i] || segmentStart[i - 1] || segmentStart[i - 2]) continue;
     const dt1 = (t[i - 2] as number) - (t[i - 3] as number);
     // Evenly spaced only (within 1 %): uneven spacing would leak velocity into the difference.
@@ -180,9 +235,7 @@ export function measureJitter(
     third[m++] = Math.abs(dLat * north);
     third[m++] = Math.abs(dLon * east);
   }
-  if (m < 20) return { sigma_m: 0, median_interval_s: medianMs / 1000, samples: m };
-  const spread = median(third, m) / 0.6744897501960817;
-  return { sigma_m: spread / Math.sqrt(20), median_interval_s: medianMs / 1000, samples: m };
+  return m;
 }
 
 /**
@@ -215,9 +268,48 @@ export function thirdDifferenceVariance(
   const { north, east } = metresPerDegree(lat[0] as number);
   const stride = Math.max(1, Math.floor(n / JITTER_SAMPLE));
   const third = new Float64Array(2 * Math.ceil(n / stride) + 2);
-  const span = 3 * lag * intervalMs;
   let m = 0;
-  for (let i = 3 * lag; i < n; i += stride) {
+  for (let i = 3 * lag; i < n; i += stride * BLOCK)
+    m = sampleLaggedDifferences(
+      t,
+      lat,
+      lon,
+      segmentStart,
+      lag,
+      intervalMs,
+      stride,
+      north,
+      east,
+      third,
+      m,
+      i,
+      Math.min(n, i + stride * BLOCK),
+    );
+  if (counted) counted.samples = m;
+  if (m < 20) return Number.NaN;
+  const spread = median(third, m) / 0.6744897501960817;
+  return spread * spread;
+}
+
+/** `thirdDifferenceVariance`'s differences at i = from, from + stride, … (< to), appended after `count`; returns the new count. */
+function sampleLaggedDifferences(
+  t: ArrayLike<number>,
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  lag: number,
+  intervalMs: number,
+  stride: number,
+  north: number,
+  east: number,
+  third: Float64Array,
+  count: number,
+  from: number,
+  to: number,
+): number {
+  const span = 3 * lag * intervalMs;
+  let m = count;
+  for (let i = from; i < to; i += stride) {
     // No segment break inside the span, and every one of its intervals the usual one (within 1 %).
     let even = Math.abs((t[i] as number) - (t[i - 3 * lag] as number) - span) <= span * 0.01;
     for (let j = i - 3 * lag + 1; even && j <= i; j++)
@@ -231,10 +323,7 @@ export function thirdDifferenceVariance(
     third[m++] = Math.abs(dLat * north);
     third[m++] = Math.abs(dLon * east);
   }
-  if (counted) counted.samples = m;
-  if (m < 20) return Number.NaN;
-  const spread = median(third, m) / 0.6744897501960817;
-  return spread * spread;
+  return m;
 }
 
 /**
@@ -426,14 +515,29 @@ function toPlane(lat: ArrayLike<number>, lon: ArrayLike<number>): Plane {
   const scale = metresPerDegree(lat0);
   const x = new Float64Array(n);
   const y = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
+  for (let i = 0; i < n; i += BLOCK) toPlaneBlock(lat, lon, lat0, lon0, scale.north, scale.east, x, y, i, Math.min(n, i + BLOCK));
+  return { lat0, lon0, scale, x, y };
+}
+
+function toPlaneBlock(
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  lat0: number,
+  lon0: number,
+  north: number,
+  east: number,
+  x: Float64Array,
+  y: Float64Array,
+  from: number,
+  to: number,
+): void {
+  for (let i = from; i < to; i++) {
     let dLon = (lon[i] as number) - lon0;
     if (dLon > 180) dLon -= 360;
     else if (dLon < -180) dLon += 360;
-    x[i] = dLon * scale.east;
-    y[i] = ((lat[i] as number) - lat0) * scale.north;
+    x[i] = dLon * east;
+    y[i] = ((lat[i] as number) - lat0) * north;
   }
-  return { lat0, lon0, scale, x, y };
 }
 
 function fromPlane(plane: Plane, states: PlaneStates): SmoothedPositions {
@@ -442,13 +546,32 @@ function fromPlane(plane: Plane, states: PlaneStates): SmoothedPositions {
   const outLon = new Float64Array(n);
   const eastMps = new Float64Array(n);
   const northMps = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    outLat[i] = plane.lat0 + (states.sy[i] as number) / plane.scale.north;
-    outLon[i] = plane.lon0 + (states.sx[i] as number) / plane.scale.east;
-    eastMps[i] = states.sv[2 * i] as number;
-    northMps[i] = states.sv[2 * i + 1] as number;
+  const { lat0, lon0 } = plane;
+  const { north, east } = plane.scale;
+  for (let i = 0; i < n; i += BLOCK) {
+    const to = Math.min(n, i + BLOCK);
+    fromPlaneBlock(lat0, lon0, north, east, states.sx, states.sy, outLat, outLon, i, to);
+    splitVelocities(states.sv, eastMps, northMps, i, to);
   }
   return { lat: outLat, lon: outLon, east_mps: eastMps, north_mps: northMps };
+}
+
+function fromPlaneBlock(
+  lat0: number,
+  lon0: number,
+  north: number,
+  east: number,
+  sx: Float64Array,
+  sy: Float64Array,
+  outLat: Float64Array,
+  outLon: Float64Array,
+  from: number,
+  to: number,
+): void {
+  for (let i = from; i < to; i++) {
+    outLat[i] = lat0 + (sy[i] as number) / north;
+    outLon[i] = lon0 + (sx[i] as number) / east;
+  }
 }
 
 /**
@@ -469,17 +592,43 @@ function smoothInPlane(
 ): PlaneStates {
   const n = t.length;
   const states = redo ? redo.into : { sx: new Float64Array(n), sy: new Float64Array(n), sv: new Float64Array(2 * n) };
+  const marks = redo ? redo.marks : null;
+  // marked[0]: 1 when a point of the stretch so far is marked (carried from block to block).
+  const marked = new Uint8Array(1);
   let start = 0;
-  let marked = false;
-  for (let i = 1; i <= n; i++) {
-    if (redo && redo.marks[i - 1]) marked = true;
-    const ends = i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
-    if (!ends) continue;
-    if (!redo || marked) smoothStretch(t, plane.x, plane.y, states.sx, states.sy, states.sv, start, i, r, q, qSteps, work);
-    start = i;
-    marked = false;
+  let from = 1;
+  while (from <= n) {
+    const end = stretchEnd(t, segmentStart, marks, marked, n, from, Math.min(n + 1, from + BLOCK));
+    if (end === -1) {
+      from += BLOCK;
+      continue;
+    }
+    if (!redo || marked[0]) smoothStretch(t, plane.x, plane.y, states.sx, states.sy, states.sv, start, end, r, q, qSteps, work);
+    start = end;
+    marked[0] = 0;
+    from = end + 1;
   }
   return states;
+}
+
+/**
+ * The first i in [from, to) where a stretch ends (i = n, a segment start or a smoothing gap before point i),
+ * or −1; sets marked[0] when marks[i − 1] is set for an i up to it.
+ */
+function stretchEnd(
+  t: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  marks: Uint8Array | null,
+  marked: Uint8Array,
+  n: number,
+  from: number,
+  to: number,
+): number {
+  for (let i = from; i < to; i++) {
+    if (marks && marks[i - 1]) marked[0] = 1;
+    if (i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S) return i;
+  }
+  return -1;
 }
 
 /**
@@ -520,8 +669,30 @@ export function findManoeuvres(
   const n = t.length;
   // Cumulative signed heading change up to each point (0 across breaks and where too slow to steer).
   const turned = new Float64Array(n);
-  let prevHeading = Number.NaN;
-  for (let i = 0; i < n; i++) {
+  const heading = new Float64Array([Number.NaN]);
+  for (let i = 0; i < n; i += BLOCK)
+    turnedBlock(t, east_mps, north_mps, segmentStart, turned, heading, i, Math.min(n, i + BLOCK));
+  // The window's ends, carried from block to block; marks made at the first manoeuvre.
+  const ends = new Int32Array(2);
+  const marks = new Uint8Array(n);
+  let found = false;
+  for (let i = 0; i < n; i += BLOCK) if (manoeuvreMarksBlock(t, turned, ends, marks, i, Math.min(n, i + BLOCK))) found = true;
+  return found ? marks : null;
+}
+
+/** Cumulative signed heading change of points [from, to); `prev[0]` carries the last heading. */
+function turnedBlock(
+  t: ArrayLike<number>,
+  east_mps: ArrayLike<number>,
+  north_mps: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  turned: Float64Array,
+  prev: Float64Array,
+  from: number,
+  to: number,
+): void {
+  let prevHeading = prev[0] as number;
+  for (let i = from; i < to; i++) {
     const vx = east_mps[i] as number;
     const vy = north_mps[i] as number;
     const broken = i === 0 || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
@@ -535,21 +706,35 @@ export function findManoeuvres(
     turned[i] = (i > 0 ? (turned[i - 1] as number) : 0) + change;
     prevHeading = heading;
   }
+  prev[0] = prevHeading;
+}
+
+function manoeuvreMarksBlock(
+  t: ArrayLike<number>,
+  turned: Float64Array,
+  ends: Int32Array,
+  marks: Uint8Array,
+  from: number,
+  to: number,
+): boolean {
+  const n = t.length;
   const halfMs = (TURN_WINDOW_S * 1000) / 2;
   const marginMs = TURN_MARGIN_S * 1000;
-  let marks: Uint8Array | null = null;
-  let lo = 0;
-  let hi = 0;
-  for (let i = 0; i < n; i++) {
+  let found = false;
+  let lo = ends[0] as number;
+  let hi = ends[1] as number;
+  for (let i = from; i < to; i++) {
     const ti = t[i] as number;
     while ((t[lo] as number) < ti - halfMs) lo++;
     while (hi + 1 < n && (t[hi + 1] as number) <= ti + halfMs) hi++;
     if (Math.abs((turned[hi] as number) - (turned[lo] as number)) < TURN_ANGLE) continue;
-    marks ??= new Uint8Array(n);
+    found = true;
     for (let j = i; j >= 0 && (t[j] as number) >= ti - halfMs - marginMs; j--) marks[j] = 1;
     for (let j = i + 1; j < n && (t[j] as number) <= ti + halfMs + marginMs; j++) marks[j] = 1;
   }
-  return marks;
+  ends[0] = lo;
+  ends[1] = hi;
+  return found;
 }
 
 /**
@@ -565,20 +750,38 @@ export function findStopEdges(
   segmentStart: ArrayLike<number>,
 ): Uint8Array | null {
   const n = t.length;
+  // Made here, not at the first edge: a block that met its first edge late deoptimised on the construction.
+  const marks = new Uint8Array(n);
+  let found = false;
+  for (let i = 1; i < n; i += BLOCK)
+    if (stopEdgesBlock(t, east_mps, north_mps, segmentStart, marks, i, Math.min(n, i + BLOCK))) found = true;
+  return found ? marks : null;
+}
+
+function stopEdgesBlock(
+  t: ArrayLike<number>,
+  east_mps: ArrayLike<number>,
+  north_mps: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  marks: Uint8Array,
+  from: number,
+  to: number,
+): boolean {
+  const n = t.length;
   const reachMs = (TURN_WINDOW_S / 2 + TURN_MARGIN_S) * 1000;
   const min2 = TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS;
-  let marks: Uint8Array | null = null;
-  for (let i = 1; i < n; i++) {
+  let found = false;
+  for (let i = from; i < to; i++) {
     if (segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S) continue;
     const a = (east_mps[i - 1] as number) ** 2 + (north_mps[i - 1] as number) ** 2 >= min2;
     const b = (east_mps[i] as number) ** 2 + (north_mps[i] as number) ** 2 >= min2;
     if (a === b) continue;
-    marks ??= new Uint8Array(n);
+    found = true;
     const ti = t[i] as number;
     for (let j = i; j >= 0 && (t[j] as number) >= ti - reachMs; j--) marks[j] = 1;
     for (let j = i + 1; j < n && (t[j] as number) <= ti + reachMs; j++) marks[j] = 1;
   }
-  return marks;
+  return found;
 }
 
 /**
@@ -609,7 +812,7 @@ export function smoothPositionsThroughTurns(
   const first = smoothInPlane(t, plane, segmentStart, r, q, null, null, work);
   const east = new Float64Array(n);
   const north = new Float64Array(n);
-  splitVelocities(first.sv, east, north);
+  for (let i = 0; i < n; i += BLOCK) splitVelocities(first.sv, east, north, i, Math.min(n, i + BLOCK));
   const turns = findManoeuvres(t, east, north, segmentStart);
   const stops = findStopEdges(t, east, north, segmentStart);
   const marks = turns && stops ? eitherMarked(turns, stops) : (turns ?? stops);
@@ -622,9 +825,9 @@ export function smoothPositionsThroughTurns(
   return { ...fromPlane(plane, second), manoeuvre, turn: turns };
 }
 
-/** East and north velocities out of the interleaved smoothed velocities. */
-function splitVelocities(sv: Float64Array, east: Float64Array, north: Float64Array): void {
-  for (let i = 0; i < east.length; i++) {
+/** East and north velocities of points [from, to) out of the interleaved smoothed velocities. */
+function splitVelocities(sv: Float64Array, east: Float64Array, north: Float64Array, from: number, to: number): void {
+  for (let i = from; i < to; i++) {
     east[i] = sv[2 * i] as number;
     north[i] = sv[2 * i + 1] as number;
   }
@@ -632,8 +835,12 @@ function splitVelocities(sv: Float64Array, east: Float64Array, north: Float64Arr
 
 function eitherMarked(a: Uint8Array, b: Uint8Array): Uint8Array {
   const marks = new Uint8Array(a.length);
-  for (let i = 0; i < a.length; i++) marks[i] = (a[i] as number) | (b[i] as number);
+  for (let i = 0; i < a.length; i += BLOCK) eitherMarkedBlock(a, b, marks, i, Math.min(a.length, i + BLOCK));
   return marks;
+}
+
+function eitherMarkedBlock(a: Uint8Array, b: Uint8Array, marks: Uint8Array, from: number, to: number): void {
+  for (let i = from; i < to; i++) marks[i] = (a[i] as number) | (b[i] as number);
 }
 
 /**
@@ -643,7 +850,19 @@ function eitherMarked(a: Uint8Array, b: Uint8Array): Uint8Array {
 function manoeuvreNoise(marks: Uint8Array, q: number, qTurn: number, qSteps: Float64Array, manoeuvre: Uint8Array): void {
   const n = qSteps.length;
   if (n > 0) qSteps[0] = q;
-  for (let i = 1; i < n; i++) {
+  for (let i = 1; i < n; i += BLOCK) manoeuvreNoiseBlock(marks, q, qTurn, qSteps, manoeuvre, i, Math.min(n, i + BLOCK));
+}
+
+function manoeuvreNoiseBlock(
+  marks: Uint8Array,
+  q: number,
+  qTurn: number,
+  qSteps: Float64Array,
+  manoeuvre: Uint8Array,
+  from: number,
+  to: number,
+): void {
+  for (let i = from; i < to; i++) {
     const stepQ = marks[i] && marks[i - 1] ? qTurn : q;
     qSteps[i] = stepQ;
     manoeuvre[i] = stepQ === q ? 0 : 1;
@@ -675,20 +894,48 @@ export function bendGainFactors(
   const n = t.length;
   const factors = new Float64Array(n).fill(1);
   const cutoff = (q / (sigmaM * sigmaM)) ** 0.25;
+  const manoeuvre = smooth.manoeuvre ?? null;
+  for (let i = 1; i < n; i += BLOCK)
+    bendGainBlock(
+      t,
+      smooth.east_mps,
+      smooth.north_mps,
+      manoeuvre,
+      segmentStart,
+      moving,
+      cutoff,
+      factors,
+      i,
+      Math.min(n, i + BLOCK),
+    );
+  return factors;
+}
+
+function bendGainBlock(
+  t: ArrayLike<number>,
+  eastMps: Float64Array,
+  northMps: Float64Array,
+  manoeuvre: Uint8Array | null,
+  segmentStart: ArrayLike<number>,
+  moving: ArrayLike<number>,
+  cutoff: number,
+  factors: Float64Array,
+  from: number,
+  to: number,
+): void {
   const minSpeed2 = TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS;
-  for (let i = 1; i < n; i++) {
+  for (let i = from; i < to; i++) {
     const dt = ((t[i] as number) - (t[i - 1] as number)) / 1000;
-    if (!moving[i] || segmentStart[i] || dt > MAX_SMOOTHED_INTERVAL_S || smooth.manoeuvre?.[i]) continue;
-    const ax = smooth.east_mps[i - 1] as number;
-    const ay = smooth.north_mps[i - 1] as number;
-    const bx = smooth.east_mps[i] as number;
-    const by = smooth.north_mps[i] as number;
+    if (!moving[i] || segmentStart[i] || dt > MAX_SMOOTHED_INTERVAL_S || manoeuvre?.[i]) continue;
+    const ax = eastMps[i - 1] as number;
+    const ay = northMps[i - 1] as number;
+    const bx = eastMps[i] as number;
+    const by = northMps[i] as number;
     if (ax * ax + ay * ay < minSpeed2 || bx * bx + by * by < minSpeed2) continue;
     const omega = Math.abs(Math.atan2(ax * by - ay * bx, ax * bx + ay * by)) / dt;
     const loss = (omega / cutoff) ** 4;
     if (1 / (1 + loss) >= MIN_BEND_GAIN) factors[i] = 1 + loss;
   }
-  return factors;
 }
 
 export interface SmoothedPositions {
@@ -955,10 +1202,32 @@ export function arcFactors(
   const cosRef = Math.cos((lat[0] as number) * DEG);
   // Turn at each point i (between interval i and i + 1); NaN where unusable.
   const turn = new Float64Array(n).fill(Number.NaN);
-  let px = Number.NaN;
-  let py = Number.NaN;
-  let pdt = Number.NaN;
-  for (let i = 1; i < n; i++) {
+  // The last step's east and north and the last interval, carried from block to block.
+  const last = new Float64Array([Number.NaN, Number.NaN, Number.NaN]);
+  for (let i = 1; i < n; i += BLOCK)
+    arcTurnsBlock(t, lat, lon, segmentStart, moving, north, east, cosRef, turn, last, i, Math.min(n, i + BLOCK));
+  for (let i = 1; i < n; i += BLOCK) arcFactorsBlock(turn, factors, i, Math.min(n, i + BLOCK));
+  return factors;
+}
+
+function arcTurnsBlock(
+  t: ArrayLike<number>,
+  lat: ArrayLike<number>,
+  lon: ArrayLike<number>,
+  segmentStart: ArrayLike<number>,
+  moving: ArrayLike<number>,
+  north: number,
+  east: number,
+  cosRef: number,
+  turn: Float64Array,
+  last: Float64Array,
+  from: number,
+  to: number,
+): void {
+  let px = last[0] as number;
+  let py = last[1] as number;
+  let pdt = last[2] as number;
+  for (let i = from; i < to; i++) {
     const dt = (t[i] as number) - (t[i - 1] as number);
     // Only steps of like duration form the chords of one bend (a recording gap is a long chord).
     if (!moving[i] || segmentStart[i] || !(dt <= 1.5 * pdt && pdt <= 1.5 * dt)) px = Number.NaN;
@@ -979,14 +1248,19 @@ export function arcFactors(
     px = x;
     py = y;
   }
-  for (let i = 1; i < n; i++) {
+  last[0] = px;
+  last[1] = py;
+  last[2] = pdt;
+}
+
+function arcFactorsBlock(turn: Float64Array, factors: Float64Array, from: number, to: number): void {
+  for (let i = from; i < to; i++) {
     const a = turn[i - 1] as number;
     const b = turn[i] as number;
     if (Number.isNaN(a) || Number.isNaN(b) || a > MAX_ARC_ANGLE || b > MAX_ARC_ANGLE) continue;
     const half = (a + b) / 4;
     if (half > 1e-4) factors[i] = half / Math.sin(half);
   }
-  return factors;
 }
 
 /** Gauss–Legendre nodes and weights on [0, 1], five points: exact for polynomials up to degree 9. */

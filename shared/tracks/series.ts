@@ -7,6 +7,7 @@ import {
   smoothByTime,
 } from './elevation.ts';
 import { geodesicDistance } from './geodesy.ts';
+import { BLOCK } from './blocks.ts';
 import type { PointColumns } from './point-columns.ts';
 import {
   arcFactors,
@@ -65,9 +66,10 @@ export const GRADE_WINDOW_M = 20;
 export function chooseDistanceSource(points: PointColumns): DistanceSource {
   let device = 0;
   let positioned = 0;
-  for (let i = 0; i < points.length; i++) {
-    if (!Number.isNaN(points.distance_m[i] as number)) device++;
-    if (!Number.isNaN(points.lat[i] as number)) positioned++;
+  for (let i = 0; i < points.length; i += BLOCK) {
+    const to = Math.min(points.length, i + BLOCK);
+    device += countPresent(points.distance_m, i, to);
+    positioned += countPresent(points.lat, i, to);
   }
   if (device >= 2 && device >= points.length * DEVICE_DISTANCE_MIN_SHARE) return 'device';
   if (positioned >= 2) return 'geodesic';
@@ -205,6 +207,20 @@ export function buildSeries(track: CleanTrack): TrackSeries {
   };
 }
 
+/** How many of values[from..to) are not NaN. */
+function countPresent(values: Float64Array, from: number, to: number): number {
+  let count = 0;
+  for (let i = from; i < to; i++) if (!Number.isNaN(values[i] as number)) count++;
+  return count;
+}
+
+/** The first index in [from, to) whose value is NaN, or `to`. */
+function firstMissing(values: Float64Array, from: number, to: number): number {
+  let i = from;
+  while (i < to && !Number.isNaN(values[i] as number)) i++;
+  return i;
+}
+
 // The loops of `buildSeries`, each in a function of its own: a long track's first import compiles
 // each small loop on its own instead of the whole of `buildSeries` again and again (issue 19).
 
@@ -212,8 +228,12 @@ export function buildSeries(track: CleanTrack): TrackSeries {
 function segmentNumbers(segmentBreak: Uint8Array): Int32Array {
   const n = segmentBreak.length;
   const segmentOf = new Int32Array(n);
-  for (let i = 1; i < n; i++) segmentOf[i] = (segmentOf[i - 1] as number) + (segmentBreak[i] as number);
+  for (let i = 1; i < n; i += BLOCK) segmentNumbersBlock(segmentBreak, segmentOf, i, Math.min(n, i + BLOCK));
   return segmentOf;
+}
+
+function segmentNumbersBlock(segmentBreak: Uint8Array, segmentOf: Int32Array, from: number, to: number): void {
+  for (let i = from; i < to; i++) segmentOf[i] = (segmentOf[i - 1] as number) + (segmentBreak[i] as number);
 }
 
 /** d[i] = the largest of filled[0..i] − filled[0], and at least 0. */
@@ -234,7 +254,20 @@ function pathAlong(
   along: Float64Array,
   turnsUpTo: Int32Array,
 ): void {
-  for (let i = 1; i < along.length; i++) {
+  for (let i = 1; i < along.length; i += BLOCK)
+    pathAlongBlock(sLat, sLon, turn, along, turnsUpTo, i, Math.min(along.length, i + BLOCK));
+}
+
+function pathAlongBlock(
+  sLat: Float64Array,
+  sLon: Float64Array,
+  turn: Uint8Array | null,
+  along: Float64Array,
+  turnsUpTo: Int32Array,
+  from: number,
+  to: number,
+): void {
+  for (let i = from; i < to; i++) {
     along[i] =
       (along[i - 1] as number) +
       approxDistance(sLat[i - 1] as number, sLon[i - 1] as number, sLat[i] as number, sLon[i] as number);
@@ -252,7 +285,24 @@ function movingSteps(
   chords: Float64Array,
 ): number {
   let raw = 0;
-  for (let i = 1; i < chords.length; i++)
+  for (let i = 1; i < chords.length; i += BLOCK)
+    raw = movingStepsBlock(moving, sLat, sLon, lat, lon, chords, raw, i, Math.min(chords.length, i + BLOCK));
+  return raw;
+}
+
+/** `movingSteps` over points [from, to), adding to `raw` (returned). */
+function movingStepsBlock(
+  moving: Uint8Array,
+  sLat: Float64Array,
+  sLon: Float64Array,
+  lat: Float64Array,
+  lon: Float64Array,
+  chords: Float64Array,
+  raw: number,
+  from: number,
+  to: number,
+): number {
+  for (let i = from; i < to; i++)
     if (moving[i]) {
       chords[i] = localDistance(sLat[i - 1] as number, sLon[i - 1] as number, sLat[i] as number, sLon[i] as number);
       raw += localDistance(lat[i - 1] as number, lon[i - 1] as number, lat[i] as number, lon[i] as number);
@@ -271,7 +321,23 @@ function smoothedDistance(
   intervalMs: number,
   d: Float64Array,
 ): void {
-  for (let i = 1; i < d.length; i++) {
+  for (let i = 1; i < d.length; i += BLOCK)
+    smoothedDistanceBlock(t, moving, bends, gains, chords, stepNoise, intervalMs, d, i, Math.min(d.length, i + BLOCK));
+}
+
+function smoothedDistanceBlock(
+  t: Float64Array,
+  moving: Uint8Array,
+  bends: Float64Array,
+  gains: Float64Array,
+  chords: Float64Array,
+  stepNoise: number,
+  intervalMs: number,
+  d: Float64Array,
+  from: number,
+  to: number,
+): void {
+  for (let i = from; i < to; i++) {
     let step = 0;
     if (moving[i]) {
       const dt = (t[i] as number) - (t[i - 1] as number);
@@ -319,7 +385,11 @@ export function withoutDistanceSpikes(t: Float64Array, distance: Float64Array): 
 function keepPositioned(points: PointColumns, starts: readonly number[]): { points: PointColumns; starts: number[] } {
   const { lat, lon } = points;
   let firstUnpositioned = 0;
-  while (firstUnpositioned < points.length && !Number.isNaN(lat[firstUnpositioned] as number)) firstUnpositioned++;
+  while (firstUnpositioned < points.length) {
+    const to = Math.min(points.length, firstUnpositioned + BLOCK);
+    firstUnpositioned = firstMissing(lat, firstUnpositioned, to);
+    if (firstUnpositioned < to) break;
+  }
   // Usually every point has a position: nothing to copy then.
   if (firstUnpositioned === points.length) return { points, starts: [...starts] };
   const kept: number[] = [];
@@ -378,12 +448,29 @@ export function noiseToRemove(
   const intervalMs = jitter.median_interval_s * 1000;
   const steps = new Float64Array(chords.length);
   let count = 0;
-  for (let i = 1; i < chords.length; i++)
-    if (moving[i] && Math.abs((t[i] as number) - (t[i - 1] as number) - intervalMs) <= intervalMs * 0.01)
-      steps[count++] = chords[i] as number;
+  for (let i = 1; i < chords.length; i += BLOCK)
+    count = usualSteps(t, chords, moving, intervalMs, steps, count, i, Math.min(chords.length, i + BLOCK));
   if (count === 0) return 0;
   const typical = kthSmallest(steps, count, count >> 1);
   return typical > 0 && variance / (2 * typical * typical) >= MIN_CORRECTED_EXCESS ? variance : 0;
+}
+
+/** Moving steps of the usual interval among [from, to) appended to `steps` after its first `count`; returns the new count. */
+function usualSteps(
+  t: ArrayLike<number>,
+  chords: Float64Array,
+  moving: Uint8Array,
+  intervalMs: number,
+  steps: Float64Array,
+  count: number,
+  from: number,
+  to: number,
+): number {
+  let m = count;
+  for (let i = from; i < to; i++)
+    if (moving[i] && Math.abs((t[i] as number) - (t[i - 1] as number) - intervalMs) <= intervalMs * 0.01)
+      steps[m++] = chords[i] as number;
+  return m;
 }
 
 /**
@@ -431,8 +518,23 @@ function classifyMoving(
   threshold = MOVING_SPEED_MPS,
 ): void {
   const n = t.length;
+  for (let i = 1; i < n; i += BLOCK) classifyBlock(t, segmentOf, source, moving, threshold, i, Math.min(n, i + BLOCK));
+  refineStopEdges(t, segmentOf, source, moving);
+}
+
+/** Step 1 of `classifyMoving` for intervals [from, to). */
+function classifyBlock(
+  t: Float64Array,
+  segmentOf: Int32Array,
+  source: DisplacementSource,
+  moving: Uint8Array,
+  threshold: number,
+  from: number,
+  to: number,
+): void {
+  const n = t.length;
   const windowMs = MOVING_WINDOW_S * 1000;
-  for (let i = 1; i < n; i++) {
+  for (let i = from; i < to; i++) {
     const seg = segmentOf[i] as number;
     if ((segmentOf[i - 1] as number) !== seg) continue;
     let a = i - 1;
@@ -451,16 +553,32 @@ function classifyMoving(
     const seconds = ((t[b] as number) - (t[a] as number)) / 1000;
     moving[i] = displacementOf(source, a, b) / seconds >= threshold ? 1 : 0;
   }
-  refineStopEdges(t, segmentOf, source, moving);
 }
 
 function refineStopEdges(t: Float64Array, segmentOf: Int32Array, source: DisplacementSource, moving: Uint8Array): void {
   const n = t.length;
-  const reachMs = (MOVING_WINDOW_S * 1000) / 2;
-  const slow = (k: number): boolean =>
-    displacementOf(source, k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000) < STOP_EDGE_SPEED_MPS;
   const original = moving.slice();
-  for (let i = 1; i < n; i++) {
+  for (let i = 1; i < n; i += BLOCK) refineBlock(t, segmentOf, source, original, moving, i, Math.min(n, i + BLOCK));
+}
+
+/** Whether interval k is slower than `STOP_EDGE_SPEED_MPS`. */
+function slowStep(t: Float64Array, source: DisplacementSource, k: number): boolean {
+  return displacementOf(source, k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000) < STOP_EDGE_SPEED_MPS;
+}
+
+/** `refineStopEdges` for the stopped intervals in [from, to) (it may clear moving intervals outside it). */
+function refineBlock(
+  t: Float64Array,
+  segmentOf: Int32Array,
+  source: DisplacementSource,
+  original: Uint8Array,
+  moving: Uint8Array,
+  from: number,
+  to: number,
+): void {
+  const n = t.length;
+  const reachMs = (MOVING_WINDOW_S * 1000) / 2;
+  for (let i = from; i < to; i++) {
     if (original[i] || segmentOf[i - 1] !== segmentOf[i]) continue;
     const seg = segmentOf[i];
     const isStart = i === 1 || original[i - 1] || segmentOf[i - 2] !== seg;
@@ -468,14 +586,14 @@ function refineStopEdges(t: Float64Array, segmentOf: Int32Array, source: Displac
     if (isStart) {
       const edge = t[i - 1] as number;
       for (let k = i - 1; k >= 1 && segmentOf[k - 1] === seg && original[k]; k--) {
-        if (edge - (t[k - 1] as number) > reachMs || !slow(k)) break;
+        if (edge - (t[k - 1] as number) > reachMs || !slowStep(t, source, k)) break;
         moving[k] = 0;
       }
     }
     if (isEnd) {
       const edge = t[i] as number;
       for (let k = i + 1; k < n && segmentOf[k] === seg && original[k]; k++) {
-        if ((t[k] as number) - edge > reachMs || !slow(k)) break;
+        if ((t[k] as number) - edge > reachMs || !slowStep(t, source, k)) break;
         moving[k] = 0;
       }
     }
@@ -490,9 +608,24 @@ function hasValue(values: Float64Array): boolean {
 function flatEquivalentDistances(d: Float64Array, ele: Float64Array): Float64Array {
   const n = d.length;
   const out = new Float64Array(n);
-  let a = 0;
-  let b = 0;
-  for (let i = 1; i < n; i++) {
+  // The window's two ends, carried from block to block.
+  const ends = new Int32Array(2);
+  for (let i = 1; i < n; i += BLOCK) flatEquivalentBlock(d, ele, out, ends, i, Math.min(n, i + BLOCK));
+  return out;
+}
+
+function flatEquivalentBlock(
+  d: Float64Array,
+  ele: Float64Array,
+  out: Float64Array,
+  ends: Int32Array,
+  from: number,
+  to: number,
+): void {
+  const n = d.length;
+  let a = ends[0] as number;
+  let b = ends[1] as number;
+  for (let i = from; i < to; i++) {
     const step = (d[i] as number) - (d[i - 1] as number);
     if (step <= 0) continue;
     // Centred distance window of at least GRADE_WINDOW_M around the interval, by two pointers.
@@ -506,7 +639,8 @@ function flatEquivalentDistances(d: Float64Array, ele: Float64Array): Float64Arr
     const grade = run > 0 ? ((ele[b] as number) - (ele[a] as number)) / run : 0;
     out[i] = step * flatEquivalentFactor(grade);
   }
-  return out;
+  ends[0] = a;
+  ends[1] = b;
 }
 
 /**

@@ -1,3 +1,4 @@
+import { BLOCK } from './blocks.ts';
 import type { TrackSeries } from './types.ts';
 
 /** Totals over a stretch of time of a run; see `measureWindow`. */
@@ -38,21 +39,79 @@ export function measureWindow(series: TrackSeries, startT: number, endT: number,
   const n = t.length;
   let i = Math.max(1, fromIndex);
   while (i < n && (t[i] as number) <= startT) i++;
-  let movingMs = 0;
-  let distance = 0;
-  let flat = 0;
-  let gain = 0;
-  let loss = 0;
-  let hrSum = 0;
-  let hrMs = 0;
-  let hrMax = Number.NEGATIVE_INFINITY;
-  let cadSum = 0;
-  let cadMs = 0;
-  let next = i;
-  for (; i < n; i++) {
+  const sums = new Float64Array(SUMS);
+  sums[HR_MAX] = Number.NEGATIVE_INFINITY;
+  sums[NEXT] = i;
+  for (; i < n; i += BLOCK) {
+    if (!windowBlock(t, d, moving, flatD, ele, hr, cad, segmentBreak, startT, endT, sums, i, Math.min(n, i + BLOCK))) break;
+  }
+  const movingMs = sums[MOVING_MS] as number;
+  const hrMs = sums[HR_MS] as number;
+  const cadMs = sums[CAD_MS] as number;
+  const hasEle = series.ele_filtered !== null;
+  return {
+    elapsed_s: (endT - startT) / 1000,
+    moving_s: movingMs / 1000,
+    distance_m: sums[DISTANCE] as number,
+    flat_distance_m: series.flat_d ? (sums[FLAT] as number) : null,
+    avg_hr: hrMs > 0 ? (sums[HR_SUM] as number) / hrMs : null,
+    max_hr: hrMs > 0 ? (sums[HR_MAX] as number) : null,
+    avg_cad: cadMs > 0 ? (sums[CAD_SUM] as number) / cadMs : null,
+    elev_gain_m: hasEle ? (sums[GAIN] as number) : null,
+    elev_loss_m: hasEle ? (sums[LOSS] as number) : null,
+    next_index: Math.max(1, sums[NEXT] as number),
+  };
+}
+
+// Slots of the sums `windowBlock` carries from block to block.
+const MOVING_MS = 0;
+const DISTANCE = 1;
+const FLAT = 2;
+const GAIN = 3;
+const LOSS = 4;
+const HR_SUM = 5;
+const HR_MS = 6;
+const HR_MAX = 7;
+const CAD_SUM = 8;
+const CAD_MS = 9;
+const NEXT = 10;
+const SUMS = 11;
+
+/** `measureWindow` over intervals [from, to), adding to `sums`; false once an interval starts at or after `endT`. */
+function windowBlock(
+  t: Float64Array,
+  d: Float64Array,
+  moving: Uint8Array,
+  flatD: Float64Array | null,
+  ele: Float64Array | null,
+  hr: Float64Array | null,
+  cad: Float64Array | null,
+  segmentBreak: Uint8Array,
+  startT: number,
+  endT: number,
+  sums: Float64Array,
+  from: number,
+  to: number,
+): boolean {
+  let movingMs = sums[MOVING_MS] as number;
+  let distance = sums[DISTANCE] as number;
+  let flat = sums[FLAT] as number;
+  let gain = sums[GAIN] as number;
+  let loss = sums[LOSS] as number;
+  let hrSum = sums[HR_SUM] as number;
+  let hrMs = sums[HR_MS] as number;
+  let hrMax = sums[HR_MAX] as number;
+  let cadSum = sums[CAD_SUM] as number;
+  let cadMs = sums[CAD_MS] as number;
+  let next = sums[NEXT] as number;
+  let more = true;
+  for (let i = from; i < to; i++) {
     const t0 = t[i - 1] as number;
     const t1 = t[i] as number;
-    if (t0 >= endT) break;
+    if (t0 >= endT) {
+      more = false;
+      break;
+    }
     const a = Math.max(t0, startT);
     const b = Math.min(t1, endT);
     if (b <= a) continue;
@@ -88,17 +147,16 @@ export function measureWindow(series: TrackSeries, startT: number, endT: number,
     }
     next = t1 > endT ? i : i + 1;
   }
-  const hasEle = series.ele_filtered !== null;
-  return {
-    elapsed_s: (endT - startT) / 1000,
-    moving_s: movingMs / 1000,
-    distance_m: distance,
-    flat_distance_m: series.flat_d ? flat : null,
-    avg_hr: hrMs > 0 ? hrSum / hrMs : null,
-    max_hr: hrMs > 0 ? hrMax : null,
-    avg_cad: cadMs > 0 ? cadSum / cadMs : null,
-    elev_gain_m: hasEle ? gain : null,
-    elev_loss_m: hasEle ? loss : null,
-    next_index: Math.max(1, next),
-  };
+  sums[MOVING_MS] = movingMs;
+  sums[DISTANCE] = distance;
+  sums[FLAT] = flat;
+  sums[GAIN] = gain;
+  sums[LOSS] = loss;
+  sums[HR_SUM] = hrSum;
+  sums[HR_MS] = hrMs;
+  sums[HR_MAX] = hrMax;
+  sums[CAD_SUM] = cadSum;
+  sums[CAD_MS] = cadMs;
+  sums[NEXT] = next;
+  return more;
 }
