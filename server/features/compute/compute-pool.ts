@@ -36,6 +36,15 @@ export interface ComputeLimits {
   maxQueue: number;
   /** Heap of one worker, MB: a job that needs more ends its worker instead of the process. */
   workerHeapMb: number;
+  /**
+   * Read an upload's first file while it arrives (`tryRunArrivingJob`; READ_WHILE_ARRIVING=0 turns it off):
+   * such a job waits in its thread for the bytes, so it only ever takes a thread that is free, at most
+   * max(1, threads − 1) of them at once, and gives it back as soon as another job waits for one.
+   */
+  readWhileArriving: boolean;
+  /** Such a job gives its thread back when no byte came for this long, or it has waited this long in all (ms). */
+  arrivalStallMs: number;
+  arrivalWaitMs: number;
 }
 
 export const DEFAULT_COMPUTE_LIMITS: ComputeLimits = {
@@ -46,6 +55,9 @@ export const DEFAULT_COMPUTE_LIMITS: ComputeLimits = {
   waitingPerUser: 8,
   maxQueue: 64,
   workerHeapMb: 1024,
+  readWhileArriving: process.env.READ_WHILE_ARRIVING !== '0',
+  arrivalStallMs: 2_000,
+  arrivalWaitMs: 10_000,
 };
 
 /**
@@ -103,6 +115,8 @@ const waiting = new Map<string, Array<() => void>>();
 /** Jobs handed to a thread now (never more than `threads`), and those waiting for one, first come first served. */
 let jobsInThreads = 0;
 const threadQueue: Array<() => void> = [];
+/** Jobs reading a file while it arrives, each with the way to ask it to give its thread back. */
+const arrivingJobs = new Set<() => void>();
 
 /** Changes the limits (server start, tests); a pool already running is replaced on its next job. */
 export function configureComputePool(next: Partial<ComputeLimits>): void {
@@ -139,6 +153,11 @@ function thePool(): Piscina<ComputeJob, unknown> {
     resourceLimits: { maxOldGenerationSizeMb: limits.workerHeapMb },
   });
   return pool;
+}
+
+/** Jobs reading a file while it arrives now (tests). */
+export function arrivingJobsNow(): number {
+  return arrivingJobs.size;
 }
 
 /** Starts the pool's first thread now, so the first upload does not wait for it (app start). */
@@ -190,6 +209,8 @@ async function takeThread(): Promise<void> {
     return;
   }
   if (threadQueue.length >= limits.maxQueue) throw new ComputeBusyError();
+  // A job waiting for bytes gives its thread back to this one (its file is then read after it has arrived).
+  for (const askToYield of arrivingJobs) askToYield();
   await new Promise<void>((resolve) => threadQueue.push(resolve));
 }
 
@@ -211,6 +232,32 @@ export async function runComputeJob<T>(userId: string, task: ComputeTask): Promi
     endTurn(userId);
     throw err;
   }
+  return runInThread<T>(userId, task);
+}
+
+/** Most jobs reading a file while it arrives at once: one thread fewer than the pool has, at least one. */
+export function arrivingJobsAtOnce(): number {
+  return limits.readWhileArriving ? Math.max(1, limits.threads - 1) : 0;
+}
+
+/**
+ * Starts a job that reads a file while it arrives, only if it can start now: this user's turn and a thread
+ * are free, nobody waits for a thread, and fewer than `arrivingJobsAtOnce()` such jobs run; else null (the
+ * file is read after it has arrived, as before). While it runs, a job that has to wait for a thread calls
+ * `askToYield`: the arriving job then stops waiting for bytes and gives its thread back.
+ */
+export function tryRunArrivingJob<T>(userId: string, task: ComputeTask, askToYield: () => void): Promise<T> | null {
+  if (arrivingJobs.size >= arrivingJobsAtOnce()) return null;
+  if ((running.get(userId) ?? 0) >= limits.jobsAtOncePerUser) return null;
+  if (jobsInThreads >= limits.threads || threadQueue.length > 0) return null;
+  running.set(userId, (running.get(userId) ?? 0) + 1);
+  jobsInThreads++;
+  arrivingJobs.add(askToYield);
+  return runInThread<T>(userId, task).finally(() => arrivingJobs.delete(askToYield));
+}
+
+/** Runs a job that holds its user's turn and a thread, within its time limit; gives both back when it ends. */
+async function runInThread<T>(userId: string, task: ComputeTask): Promise<T> {
   const timeoutMs = limits.jobTimeoutMs;
   const stop = new AbortController();
   // The clock starts when the thread starts the job (it says so on `started`), so neither the wait for a
@@ -241,6 +288,15 @@ export async function runComputeJob<T>(userId: string, task: ComputeTask): Promi
 
 export function computeImportJob(userId: string, input: ImportComputeInput): Promise<ImportComputeOutput> {
   return runComputeJob<ImportComputeOutput>(userId, { kind: 'import-file', input });
+}
+
+/** `tryRunArrivingJob` of an import: null when it cannot start now. */
+export function computeArrivingImportJob(
+  userId: string,
+  input: ImportComputeInput,
+  askToYield: () => void,
+): Promise<ImportComputeOutput> | null {
+  return tryRunArrivingJob<ImportComputeOutput>(userId, { kind: 'import-file', input }, askToYield);
 }
 
 export function computePlanCheckJob(userId: string, input: PlanCheckComputeInput): Promise<PlanCheckComputeOutput> {

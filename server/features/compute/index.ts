@@ -6,6 +6,8 @@ export {
   ComputeBusyError,
   ComputeCrashError,
   ComputeTimeoutError,
+  computeArrivingImportJob,
   computeImportJob,
+  computeLimits,
   computePlanCheckJob,
 } from './compute-pool.ts';

@@ -6,17 +6,30 @@ import { analyseTrack } from '../../../shared/tracks/analyse.ts';
 import { lapCoverageProblem } from '../../../shared/tracks/lap-coverage.ts';
 import { MAX_DOCUMENT_BYTES, type TrackFormat } from './parse/detect.ts';
 import { ImportRejection } from './parse/import-rejection.ts';
-import { parseTrackFile } from './parse/parse-track-file.ts';
+import { ArrivalStopped, SharedArrival, type ArrivalWaitLimits } from './parse/arriving.ts';
+import { parseArrivingTrackFile, parseTrackFile, type ParsedRun } from './parse/parse-track-file.ts';
 import { buildRunRecord, type RunOwnerProfile, type RunRecord } from './run-record.ts';
 
-/** One file to turn into runs: a file on disk (a streamed upload) or bytes (an archive entry). */
+/**
+ * One file to turn into runs: a file on disk (a streamed upload), bytes (an archive entry, or an upload
+ * that has arrived in memory), or an upload's first file still arriving in shared memory (parse/arriving.ts).
+ */
 export interface ImportComputeInput {
-  source: { path: string } | { data: Uint8Array };
+  source:
+    | { path: string }
+    | { data: Uint8Array }
+    | { arriving: { memory: SharedArrayBuffer; control: SharedArrayBuffer; limits?: ArrivalWaitLimits } };
   owner: RunOwnerProfile;
 }
 
 export type ImportComputeOutput =
   { ok: true; format: TrackFormat; records: RunRecord[] } | { ok: false; code: string; message: string };
+
+/**
+ * The answer of a job that did not read its arriving file (gzip or UTF-16, bytes stopped or too slow, its
+ * thread needed elsewhere): the file is to be read after it has arrived, the usual way. Never a refusal.
+ */
+export const NOT_READ_WHILE_ARRIVING = 'not-read-while-arriving';
 
 const POINT_TAGS = [Buffer.from('<trkpt'), Buffer.from('<Trackpoint')];
 /** Bytes a tag may straddle between two chunks. */
@@ -69,6 +82,19 @@ async function compressedShowsTooManyPoints(data: Buffer): Promise<boolean> {
  */
 export async function computeImport(input: ImportComputeInput): Promise<ImportComputeOutput> {
   const { source } = input;
+  if ('arriving' in source) {
+    let parsed: ParsedRun[] | null;
+    try {
+      const { memory, control, limits } = source.arriving;
+      parsed = parseArrivingTrackFile(new SharedArrival(memory, control, limits));
+    } catch (err) {
+      if (err instanceof ArrivalStopped) return { ok: false, code: NOT_READ_WHILE_ARRIVING, message: err.reason };
+      if (err instanceof ImportRejection) return { ok: false, code: err.code, message: err.message };
+      throw err;
+    }
+    if (parsed === null) return { ok: false, code: NOT_READ_WHILE_ARRIVING, message: 'read after arrival' };
+    return analysedRuns(input, parsed);
+  }
   const data =
     'path' in source
       ? await readFile(source.path)
@@ -79,8 +105,19 @@ export async function computeImport(input: ImportComputeInput): Promise<ImportCo
   if (gzipped && (await compressedShowsTooManyPoints(data))) {
     return { ok: false, code: 'too-many-points', message: tooManyPointsReason(MAX_TRACK_POINTS + 1)! };
   }
+  let parsed: ParsedRun[];
   try {
-    const parsed = parseTrackFile(data);
+    parsed = parseTrackFile(data);
+  } catch (err) {
+    if (err instanceof ImportRejection) return { ok: false, code: err.code, message: err.message };
+    throw err;
+  }
+  return analysedRuns(input, parsed);
+}
+
+/** Analyses the runs read from a file and builds their rows; a track its own laps contradict is refused. */
+function analysedRuns(input: ImportComputeInput, parsed: ParsedRun[]): ImportComputeOutput {
+  try {
     const analyses = parsed.map((p) => analyseTrack(p.track));
     // A track that cannot be what its own laps record is refused whole: nothing half-imported.
     parsed.forEach((p, i) => {

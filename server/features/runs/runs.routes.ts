@@ -28,6 +28,7 @@ import {
   describeRun,
   notesOf,
   importFiles,
+  startArrivingImport,
   listRuns,
   originalFileOf,
   readyRunList,
@@ -66,6 +67,8 @@ export function createRunsRouter(store: FileStore, config: AppConfig, mailer: Ma
           maxRequestBytes: config.uploadMaxRequestBytes,
           maxFiles: MAX_FILES_PER_UPLOAD,
           storageLeft: (req) => (req.res?.locals as StorageLocals | undefined)?.storage,
+          // The first file is read while it arrives when a compute thread is free (runs README).
+          onArriving: (req, arriving, writer) => startArrivingImport(requireActor(req.res!), arriving, writer),
         }),
       ],
     },

@@ -34,8 +34,11 @@ import {
   ComputeBusyError,
   ComputeCrashError,
   ComputeTimeoutError,
+  computeArrivingImportJob,
   computeImportJob,
+  computeLimits,
 } from '../compute/index.ts';
+import { NOT_READ_WHILE_ARRIVING, type ImportComputeOutput } from './import-compute.ts';
 import { assertCanReadRunner } from '../squads/index.ts';
 import { readyAnswer, type ReadyAnswer } from '../week-cache/index.ts';
 import { decodeColumns, gzipPackedColumns } from './track-blob.ts';
@@ -78,7 +81,18 @@ const GENERIC_REJECTION =
  * memory shared with the compute threads: upload-to-disk.ts).
  */
 export type UploadedFile =
-  { name: string; data: Buffer } | { name: string; path: string; size: number; sha256: string; bytes?: Uint8Array };
+  | { name: string; data: Buffer }
+  | {
+      name: string;
+      path: string;
+      size: number;
+      sha256: string;
+      bytes?: Uint8Array;
+      /** Keeps `bytes`' memory counted while a job reads it (upload-to-disk.ts). */
+      holdBytes?: () => () => void;
+      /** The job that read the file while it arrived (`startArrivingImport`), if one did. */
+      early?: Promise<unknown>;
+    };
 
 export interface ImportOptions {
   /** Original files the user may keep, bytes; a file that does not fit is refused. No limit when absent. */
@@ -108,17 +122,49 @@ async function sha256Of(file: UploadedFile): Promise<string> {
 
 const sizeOf = (file: UploadedFile) => ('data' in file ? file.data.length : file.size);
 
+let readWhileArriving = 0;
+/** Files whose runs (or refusal) came from the job that read them while they arrived, since start (tests, bench). */
+export function filesReadWhileArriving(): number {
+  return readWhileArriving;
+}
+
+/**
+ * Starts reading an upload's first file while it arrives (parse/arriving.ts), when a compute thread is free
+ * now; undefined when none is (the file is then read after it has arrived, as before). `computeRuns` takes
+ * its answer; a file that turns out a duplicate never needs it, so its failure is never left unhandled.
+ */
+export function startArrivingImport(
+  user: UserRow,
+  arriving: { memory: SharedArrayBuffer; control: SharedArrayBuffer },
+  writer: { askToYield(): void },
+): Promise<ImportComputeOutput> | undefined {
+  const { arrivalStallMs, arrivalWaitMs } = computeLimits();
+  const limits = { stallMs: arrivalStallMs, totalWaitMs: arrivalWaitMs };
+  const input = { source: { arriving: { ...arriving, limits } }, owner: runOwnerProfile(user) };
+  const job = computeArrivingImportJob(user.id, input, () => writer.askToYield());
+  if (!job) return undefined;
+  job.catch(() => undefined);
+  return job;
+}
+
 /** Parsing and analysis in a compute worker; a rejection of the file comes back as a sentence. */
 async function computeRuns(
   user: UserRow,
   file: UploadedFile,
 ): Promise<{ ok: true; format: string; records: RunRecord[] } | { ok: false; error: string }> {
+  // The memory the bytes wait in stays counted while the job reads them, even if the client has gone.
+  const letGo = 'holdBytes' in file ? file.holdBytes?.() : undefined;
   try {
-    const out = await computeImportJob(user.id, {
-      // Bytes already in memory cross to the thread without a copy (shared memory) or a read back from disk.
-      source: 'data' in file ? { data: file.data } : file.bytes ? { data: file.bytes } : { path: file.path },
-      owner: runOwnerProfile(user),
-    });
+    // Read while it arrived, unless that job gave up (then it is read now, as any file).
+    let out = 'early' in file && file.early ? ((await file.early) as ImportComputeOutput) : undefined;
+    if (out && !(!out.ok && out.code === NOT_READ_WHILE_ARRIVING)) readWhileArriving++;
+    else {
+      out = await computeImportJob(user.id, {
+        // Bytes already in memory cross to the thread without a copy (shared memory) or a read back from disk.
+        source: 'data' in file ? { data: file.data } : file.bytes ? { data: file.bytes } : { path: file.path },
+        owner: runOwnerProfile(user),
+      });
+    }
     return out.ok ? out : { ok: false, error: out.message };
   } catch (err) {
     if (err instanceof ComputeBusyError || err instanceof ComputeAccountBusyError) throw err;
@@ -136,6 +182,8 @@ async function computeRuns(
     }
     logger.warn({ err, file: file.name }, 'import failed unexpectedly');
     return { ok: false, error: GENERIC_REJECTION };
+  } finally {
+    letGo?.();
   }
 }
 

@@ -11,6 +11,7 @@ import { formatFileSize } from '../../../shared/units.ts';
 import { AppError, BadRequestError } from '../../lib/errors.ts';
 import { logger } from '../../lib/logger.ts';
 import { multipartTextProblem } from '../../lib/validate.ts';
+import { ArrivalWriter, newArrivalControl } from './parse/arriving.ts';
 
 /**
  * An uploaded file as it waits on disk for the import: where, how big, and its SHA-256 (taken while it arrived);
@@ -23,6 +24,13 @@ export interface ReceivedFile {
   size: number;
   sha256: string;
   bytes?: Uint8Array;
+  /**
+   * Keeps `bytes`' memory counted against the process's allowance until the returned function is called
+   * (a compute job reading them): the allowance is handed back when the answer has gone AND every holder is done.
+   */
+  holdBytes?: () => () => void;
+  /** What `ReceiveLimits.onArriving` started for this file while it arrived (a job reading it), if anything. */
+  early?: Promise<unknown>;
 }
 
 /**
@@ -44,6 +52,8 @@ interface ArrivingBytes {
   memory: SharedArrayBuffer;
   /** Taken by the request's first file part. */
   taken: boolean;
+  /** Counts one more user of the memory (a compute job); the function ends that use. */
+  hold: () => () => void;
 }
 
 /** Bytes of arriving uploads held in memory now (tests). */
@@ -63,22 +73,51 @@ export interface ReceiveLimits {
   maxFiles: number;
   /** Bytes this user may still store (quota minus what they keep), read before the body. */
   storageLeft: (req: Request) => { left: number; used: number; quota: number } | undefined;
+  /**
+   * Called when the request's first file starts arriving in memory (after the guards and the limits that run
+   * before the body): `memory` receives its bytes as they come and `control` says how many have (see
+   * parse/arriving.ts; `writer` is this side of it). May start a job reading it; what it gives is the file's `early`.
+   */
+  onArriving?: (
+    req: Request,
+    arriving: { memory: SharedArrayBuffer; control: SharedArrayBuffer },
+    writer: ArrivalWriter,
+  ) => Promise<unknown> | undefined;
 }
 
 const RECEIVED = Symbol('received bytes');
 const ARRIVING = Symbol('arriving bytes');
 type CountedRequest = Request & { [RECEIVED]?: number; [ARRIVING]?: ArrivingBytes };
 
-/** Keeps the request's body in memory as it arrives when its declared length fits the process's budget; freed when the answer has gone. */
+/**
+ * Keeps the request's body in memory as it arrives when its declared length fits the process's budget. The
+ * budget is handed back when the answer has gone and every compute job reading the memory is done (a job may
+ * outlive the answer: a client that goes away does not stop a thread that reads its bytes at once).
+ */
 function keepArrivingInMemory(req: Request, res: Parameters<RequestHandler>[1], declared: number, maxFileBytes: number): void {
   if (!Number.isSafeInteger(declared) || declared <= 0) return;
   // One file is kept, and no file passes the per-file limit.
   const bytes = Math.min(declared, maxFileBytes);
   if (arrivingInMemory + bytes > ARRIVING_IN_MEMORY_BYTES) return;
   arrivingInMemory += bytes;
-  (req as CountedRequest)[ARRIVING] = { memory: new SharedArrayBuffer(bytes), taken: false };
+  /** The answer, and each job reading the memory. */
+  let users = 1;
+  const release = (): void => {
+    if (--users === 0) arrivingInMemory -= bytes;
+  };
+  const hold = (): (() => void) => {
+    // Held again after everyone let go (a job started after the answer closed): counted again.
+    if (users++ === 0) arrivingInMemory += bytes;
+    let done = false;
+    return () => {
+      if (done) return;
+      done = true;
+      release();
+    };
+  };
+  (req as CountedRequest)[ARRIVING] = { memory: new SharedArrayBuffer(bytes), taken: false, hold };
   res.once('close', () => {
-    arrivingInMemory -= bytes;
+    release();
     delete (req as CountedRequest)[ARRIVING];
   });
 }
@@ -117,6 +156,25 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
       // The first file's bytes in the request's shared memory; dropped if they ever would not fit.
       let arriving = counted[ARRIVING]?.taken === false ? counted[ARRIVING] : undefined;
       if (arriving) arriving.taken = true;
+      // A job may read the file as it arrives; the writer tells it how far the bytes have come.
+      let writer: ArrivalWriter | undefined;
+      let early: Promise<unknown> | undefined;
+      if (arriving && limits.onArriving) {
+        const control = newArrivalControl();
+        writer = new ArrivalWriter(control);
+        const letGo = arriving.hold();
+        early = limits.onArriving(req, { memory: arriving.memory, control }, writer);
+        if (early) {
+          // The memory stays counted until the job is done with it, whatever the request does meanwhile.
+          early.then(letGo, letGo);
+          // The client going away, or anything ending the request before the file is whole, stops the job.
+          const stop = writer;
+          req.res?.once('close', () => stop.stop());
+        } else {
+          letGo();
+          writer = undefined;
+        }
+      }
       const counter = new Transform({
         transform(chunk: Buffer, _encoding, done) {
           size += chunk.length;
@@ -126,7 +184,12 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
           hash.update(chunk);
           if (arriving && size <= arriving.memory.byteLength) {
             new Uint8Array(arriving.memory, size - chunk.length, chunk.length).set(chunk);
-          } else arriving = undefined;
+            writer?.arrived(size);
+          } else {
+            arriving = undefined;
+            // Larger than the memory: read from disk after arrival instead.
+            writer?.stop();
+          }
           done(null, chunk);
         },
       });
@@ -140,14 +203,19 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
           return pipeline(counter, (out = createWriteStream(target)));
         })
         .then(
-          () =>
+          () => {
+            writer?.complete(size);
             callback(null, {
               path: target,
               size,
               sha256: hash.digest('hex'),
               bytes: arriving ? new Uint8Array(arriving.memory, 0, size) : undefined,
-            } as Partial<Express.Multer.File>),
+              holdBytes: arriving?.hold,
+              early,
+            } as Partial<Express.Multer.File>);
+          },
           async (err: unknown) => {
+            writer?.stop();
             // A stream stopped while still opening creates its file afterwards: remove it only once closed.
             if (out && !out.closed) await new Promise<void>((resolve) => out!.once('close', () => resolve()));
             await rm(target, { force: true });
@@ -235,12 +303,15 @@ export function receiveUploads(limits: ReceiveLimits): RequestHandler {
 
 /** The files `receiveUploads` put on disk, with names decoded as browsers send them. */
 export function receivedFiles(req: Request): ReceivedFile[] {
-  return ((req.files as Array<Express.Multer.File & { sha256: string; bytes?: Uint8Array }> | undefined) ?? []).map((f) => ({
+  type Received = Express.Multer.File & Pick<ReceivedFile, 'sha256' | 'bytes' | 'holdBytes' | 'early'>;
+  return ((req.files as Received[] | undefined) ?? []).map((f) => ({
     // multer decodes names as latin1; browsers send UTF-8.
     name: Buffer.from(f.originalname, 'latin1').toString('utf8'),
     path: f.path,
     size: f.size,
     sha256: f.sha256,
     bytes: f.bytes,
+    holdBytes: f.holdBytes,
+    early: f.early,
   }));
 }
