@@ -273,6 +273,39 @@ function machineCpuMs(): { busy: number; steal: number } | null {
   }
 }
 
+/** A quiet round starts once this process (every thread) and the database's backends together use less than this… */
+const SETTLED_CORES = 0.1;
+/** …over this window… */
+const SETTLE_WINDOW_MS = 250;
+/** …or after this long, whatever they still do (the round line says how long it waited and whether it settled). */
+const SETTLE_MAX_MS = 30_000;
+
+/**
+ * Waits until the work a previous round left has finished: password threads still hashing a sign-in flood's
+ * last attempts, compute threads, garbage collection, PostgreSQL's own work on the measured database
+ * (autovacuum workers show there too). Each round then starts from the same steady state instead of paying for
+ * the one before it.
+ */
+async function settle(): Promise<{ ms: number; settled: boolean }> {
+  const t0 = performance.now();
+  const busyMs = async () => {
+    const { backends } = await cpuMeter.snapshot();
+    let ms = cpuMsOf('/proc/self/stat') ?? 0;
+    for (const backend of backends.values()) ms += backend;
+    return ms;
+  };
+  let last = await busyMs();
+  while (performance.now() - t0 < SETTLE_MAX_MS) {
+    await new Promise((resolve) => setTimeout(resolve, SETTLE_WINDOW_MS));
+    const now = await busyMs();
+    // A backend that ended in between makes the sum smaller: that window counts as busy.
+    const used = now - last;
+    last = now;
+    if (used >= 0 && used < SETTLED_CORES * SETTLE_WINDOW_MS) return { ms: Math.round(performance.now() - t0), settled: true };
+  }
+  return { ms: Math.round(performance.now() - t0), settled: false };
+}
+
 /** Reads the CPU time of the server's thread and of the backends serving the measured database. */
 let cpuMeter: { snapshot(): Promise<{ server: number | null; backends: Map<number, number>; transactions: number | null }> } = {
   snapshot: async () => ({ server: null, backends: new Map(), transactions: null }),
@@ -329,8 +362,11 @@ async function round(
   base: string,
   name: string,
   options: { method?: 'GET' | 'POST'; path: string; token?: string; body?: unknown; setupClient?: string },
+  /** False for the with-uploads twin, which starts while its uploads already run. */
+  settleFirst = true,
 ) {
   const method = options.method ?? 'GET';
+  const settled = settleFirst ? await settle() : null;
   const headers: Record<string, string> = { 'content-type': 'application/json' };
   if (options.token) headers.authorization = `Bearer ${options.token}`;
   const before5xx = serverSide.status5xx;
@@ -394,7 +430,8 @@ async function round(
       `cores busy: machine ${cores(busy)} (this process ${cores(own)}, PostgreSQL ${cores(backendMs)}, ` +
       `everything else ${cores(Math.max(0, busy - own - backendMs))}), stolen ${cores(machineAfter.steal - machineBefore.steal)}`;
   }
-  const gcLine = `${machineLine}; PostgreSQL transactions per request ${transactions}; GC ${gc('minor')}, ${gc('major')}, ${gc('other')}; heap used ${heapBefore} → ${heapMb()} MB`;
+  const settledLine = settled ? `started ${settled.settled ? 'idle' : 'NOT idle'} after ${settled.ms} ms; ` : '';
+  const gcLine = `${settledLine}${machineLine}; PostgreSQL transactions per request ${transactions}; GC ${gc('minor')}, ${gc('major')}, ${gc('other')}; heap used ${heapBefore} → ${heapMb()} MB`;
   const statuses = { ...serverSide.statuses };
   for (const [status, n] of Object.entries(statusesBefore)) statuses[status] = (statuses[status] ?? 0) - n;
   const summary: RoundResult = {
@@ -514,7 +551,7 @@ async function busyRound(
     await new Promise((resolve) => setTimeout(resolve, 20));
   }
   const stopped = nextReply(driver, 'stopped');
-  const busy = await round(base, `${quiet.name} during uploads`, options);
+  const busy = await round(base, `${quiet.name} during uploads`, options, false);
   driver.send({ type: 'stop' } satisfies UploadDriverMessage);
   const { result: uploads } = await stopped;
   const answered = busy.requests > 0 && quiet.requests > 0;
