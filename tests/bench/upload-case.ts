@@ -51,6 +51,8 @@ export interface UploadCaseResult {
   cpu_ms: number;
   /** The same per thread (Linux, 10 ms ticks): the event loop, the compute thread, libuv's and V8's helpers. */
   cpu_ms_by_thread: Record<string, number>;
+  /** Per thread, as above: ms it was ready to run but waited for a core (Linux schedstat; the compute thread runs at nice 5). */
+  wait_ms_by_thread: Record<string, number>;
 }
 
 /** A new runner (sign-up, the link the mail catcher kept, a bearer token). */
@@ -82,8 +84,8 @@ function watchBodyEnds(server: Server): () => number | undefined {
 }
 
 /** CPU ms of each thread of this process by thread id (Linux /proc; empty elsewhere), with the thread's name. */
-function threadCpu(): Map<string, { name: string; ms: number }> {
-  const out = new Map<string, { name: string; ms: number }>();
+function threadCpu(): Map<string, ThreadTimes> {
+  const out = new Map<string, ThreadTimes>();
   if (!existsSync('/proc/self/task')) return out;
   for (const tid of readdirSync('/proc/self/task')) {
     try {
@@ -91,7 +93,11 @@ function threadCpu(): Map<string, { name: string; ms: number }> {
       const name = stat.slice(stat.indexOf('(') + 1, stat.lastIndexOf(')'));
       const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
       // utime and stime, fields 14 and 15 of stat(5), in clock ticks (100 per second on Linux).
-      out.set(tid, { name, ms: (Number(fields[11]) + Number(fields[12])) * 10 });
+      // Time runnable but waiting for a core (schedstat's second field, ns; Linux's scheduler statistics).
+      const waitNs = existsSync(`/proc/self/task/${tid}/schedstat`)
+        ? Number(readFileSync(`/proc/self/task/${tid}/schedstat`, 'utf8').split(' ')[1])
+        : 0;
+      out.set(tid, { name, ms: (Number(fields[11]) + Number(fields[12])) * 10, waitMs: waitNs / 1e6 });
     } catch {
       // The thread ended meanwhile.
     }
@@ -99,14 +105,29 @@ function threadCpu(): Map<string, { name: string; ms: number }> {
   return out;
 }
 
-/** CPU ms per thread between two threadCpu() readings, largest first, as "name tid: ms". */
-function threadCpuSince(before: Map<string, { name: string; ms: number }>): Record<string, number> {
-  const spent: Array<[string, number]> = [];
+interface ThreadTimes {
+  name: string;
+  ms: number;
+  waitMs: number;
+}
+
+/**
+ * CPU ms per thread between two threadCpu() readings, largest first, as "name tid: ms"; and, for the same
+ * threads, the ms each was ready to run but waited for a core (a compute thread at nice 5 waits longer
+ * than the event loop only when the cores are busy: on a quiet machine this stays near 0).
+ */
+function threadCpuSince(before: Map<string, ThreadTimes>): { cpu: Record<string, number>; wait: Record<string, number> } {
+  const spent: Array<[string, number, number]> = [];
   for (const [tid, now] of threadCpu()) {
     const ms = now.ms - (before.get(tid)?.ms ?? 0);
-    if (ms > 0) spent.push([`${now.name} ${tid}`, ms]);
+    const waitMs = Math.round(now.waitMs - (before.get(tid)?.waitMs ?? 0));
+    if (ms > 0) spent.push([`${now.name} ${tid}`, ms, waitMs]);
   }
-  return Object.fromEntries(spent.sort((a, b) => b[1] - a[1]));
+  spent.sort((a, b) => b[1] - a[1]);
+  return {
+    cpu: Object.fromEntries(spent.map(([key, ms]) => [key, ms])),
+    wait: Object.fromEntries(spent.map(([key, , waitMs]) => [key, waitMs])),
+  };
 }
 
 /**
@@ -204,7 +225,8 @@ export async function measureUploadCase(filePath: string, warmUp: Buffer): Promi
       bare_send_ms: bareSendMs,
       client: CLIENT,
       cpu_ms: Math.round((cpu.user + cpu.system) / 1000),
-      cpu_ms_by_thread: byThread,
+      cpu_ms_by_thread: byThread.cpu,
+      wait_ms_by_thread: byThread.wait,
     };
   } finally {
     client.kill();
