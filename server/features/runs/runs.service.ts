@@ -159,6 +159,7 @@ async function computeRuns(
     let out = 'early' in file && file.early ? ((await file.early) as ImportComputeOutput) : undefined;
     if (out && !(!out.ok && out.code === NOT_READ_WHILE_ARRIVING)) readWhileArriving++;
     else {
+      if (out) logger.debug({ file: file.name, reason: out.message }, 'not read while arriving');
       out = await computeImportJob(user.id, {
         // Bytes already in memory cross to the thread without a copy (shared memory) or a read back from disk.
         source: 'data' in file ? { data: file.data } : file.bytes ? { data: file.bytes } : { path: file.path },
