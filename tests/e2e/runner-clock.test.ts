@@ -80,6 +80,8 @@ describe("the runner's clock on a device set to a far zone", () => {
       text: 'Late loop after work, legs fine.',
     });
     await callApi(page, 'PUT', `/api/runs/${runId}/checkin`, { soreness: 2, notes: '' });
+    // A session on Wednesday: its record of changes ("Added …") is read on the runner's clock too.
+    await callApi(page, 'POST', '/api/plans', { date: '2026-11-25', title: 'Steady hour', text: '60 min steady' });
     const noteAt = note.note.created_at;
     // The two clocks always read a note differently (15 hours apart): the words must show.
     expect(runnerClock(noteAt)).not.toBe(deviceClock(noteAt));
@@ -142,6 +144,15 @@ async function coachReads(page: Page, runnerId: string, runId: string, noteAt: s
     await expect.poll(() => notes.textContent(), WAIT).toContain(`${runnerClock(noteAt)} ${COACH_WORDS}`);
     await noSidewaysScroll(page);
     await screenshot(page, `runner-clock-run-coach-${size.width}`);
+
+    await page.goto(`${session.server.url}/squad/${runnerId}/plan?week=${WEEK}`);
+    const edit = page.getByRole('button', { name: /^Edit Steady hour on / });
+    await expect.poll(() => edit.count(), WAIT).toBe(1);
+    await edit.click();
+    const changes = page.getByRole('region', { name: 'Changes to this session' });
+    await expect.poll(() => changes.textContent(), WAIT).toContain(COACH_WORDS);
+    await noSidewaysScroll(page);
+    await screenshot(page, `runner-clock-plan-changes-coach-${size.width}`);
   }
   expect(errors).toEqual([]);
   await page.close();

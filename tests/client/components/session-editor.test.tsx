@@ -19,7 +19,15 @@ const SESSION = '2 mi warm-up, 4 x 400 m @ 1:30-1:35 w/ 200 m jog, 1 mi cool-dow
 function showEditor(onDone = vi.fn()) {
   const view = renderAt(
     '/plan',
-    <SessionEditor plan={null} date="2026-12-07" userId={USER_ID} runnerId={RUNNER_ID} onClose={() => {}} onDone={onDone} />,
+    <SessionEditor
+      plan={null}
+      date="2026-12-07"
+      userId={USER_ID}
+      runnerId={RUNNER_ID}
+      ownerZone="UTC"
+      onClose={() => {}}
+      onDone={onDone}
+    />,
   );
   return { ...view, onDone };
 }

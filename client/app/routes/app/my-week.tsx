@@ -32,7 +32,6 @@ export default function MyWeekRoute() {
       <WeekReview
         week={week}
         unit={profile.unit}
-        timeZone={profile.time_zone}
         meId={meId}
         viewer="runner"
         weekHref={(date) => paths.myWeek.getHref(date)}

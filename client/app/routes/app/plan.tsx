@@ -322,6 +322,7 @@ function PlanPage({ runner }: { runner: { id: string; name: string; pace_toleran
             date={editor.date}
             userId={me?.id ?? ''}
             runnerId={runnerId}
+            ownerZone={runner?.time_zone ?? profile.time_zone}
             onClose={() => showEditor(null)}
             onDone={onDone}
           />

@@ -38,7 +38,6 @@ export default function WeekReviewRoute() {
       <WeekReview
         week={week}
         unit={profile.unit}
-        timeZone={profile.time_zone}
         meId={me?.id ?? ''}
         viewer="coach"
         weekHref={(date) => paths.weekReview.getHref(runnerId, date ?? week.today)}

@@ -26,6 +26,8 @@ type SessionEditorProps = {
   userId: string;
   /** A squad runner's plan (coaches): new sessions are written for them. */
   runnerId?: string;
+  /** The plan owner's profile zone (the runner's, or the signed-in person's own): its record of changes is read on it. */
+  ownerZone: string;
   onClose: () => void;
   /** After a save, with the stored plan; after a delete, with null. */
   onDone: (plan: Plan | null, message: string) => void;
@@ -56,7 +58,7 @@ function highestRow(items: readonly DraftItem[]): number {
  * keystroke, and the form builder. A readable shorthand rebuilds the builder; a builder whose
  * fields can all be read rewrites the shorthand. The shorthand is what is sent.
  */
-export function SessionEditor({ plan, date: initialDate, userId, runnerId, onClose, onDone }: SessionEditorProps) {
+export function SessionEditor({ plan, date: initialDate, userId, runnerId, ownerZone, onClose, onDone }: SessionEditorProps) {
   const fresh = (): EditorDraft => ({
     date: plan?.date ?? initialDate,
     title: plan?.title ?? '',
@@ -331,7 +333,7 @@ export function SessionEditor({ plan, date: initialDate, userId, runnerId, onClo
       {plan && (
         <div className="mt-4 flex flex-col gap-4 border-t border-line pt-4">
           <SaveToLibrary planId={plan.id} defaultName={plan.title} />
-          <PlanChangesList planId={plan.id} />
+          <PlanChangesList planId={plan.id} ownerZone={ownerZone} viewerIsRunner={runnerId === undefined} />
         </div>
       )}
     </Card>

@@ -22,8 +22,6 @@ import { WeekTotals } from './week-totals.tsx';
 type WeekReviewProps = {
   week: RunnerWeek;
   unit: Unit;
-  /** The viewer's profile time zone, for "last upload … days ago". */
-  timeZone: string;
   meId: string;
   /** The coach sees "Mark reviewed"; the runner sees who reviewed. */
   viewer: 'coach' | 'runner';
@@ -34,7 +32,7 @@ type WeekReviewProps = {
 };
 
 /** One runner's week: the days, totals, load, flags, notes, and how every number is made. */
-export function WeekReview({ week, unit, timeZone, meId, viewer, weekHref, lead }: WeekReviewProps) {
+export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekReviewProps) {
   // Opening the week opens its notes: they are marked read now and keep their "new" marker for this visit.
   useMarkReadOnOpen([
     ...week.notes.filter((n) => n.unread).map((n) => n.id),
@@ -64,7 +62,8 @@ export function WeekReview({ week, unit, timeZone, meId, viewer, weekHref, lead 
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
         <div className="flex min-w-0 flex-col gap-4">
           <Card title="Planned and run">
-            <WeekTotals week={week} unit={unit} timeZone={timeZone} />
+            {/* "Last upload … days ago" counts the runner's days, as the week's "today" does (client/README.md, "Whose clock"). */}
+            <WeekTotals week={week} unit={unit} timeZone={week.time_zone} />
           </Card>
           <Card title="Flags">
             <WeekFlags week={week} />
