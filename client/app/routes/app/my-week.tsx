@@ -29,13 +29,7 @@ export default function MyWeekRoute() {
       <PageHeader title="My week">
         Your week as your coach sees it: planned against run, the load, any flags, and notes between you and your coach.
       </PageHeader>
-      <WeekReview
-        week={week}
-        unit={profile.unit}
-        meId={meId}
-        viewer="runner"
-        weekHref={(date) => paths.myWeek.getHref(date)}
-      />
+      <WeekReview week={week} unit={profile.unit} meId={meId} viewer="runner" weekHref={(date) => paths.myWeek.getHref(date)} />
     </>
   );
 }
