@@ -540,12 +540,21 @@ function toPlaneBlock(
   }
 }
 
-function fromPlane(plane: Plane, states: PlaneStates): SmoothedPositions {
+/**
+ * Latitude and longitude of the smoothed states, written over their plane positions (`states.sy`, `states.sx`:
+ * each is read once, at its own index, before it is written), and their velocities split into `eastMps` and
+ * `northMps` (new arrays unless given). Fewer fresh arrays: a 30 h file's first analysis paid for every fresh
+ * page it touched (tests/bench/README.md, "Session 9").
+ */
+function fromPlane(
+  plane: Plane,
+  states: PlaneStates,
+  eastMps = new Float64Array(plane.x.length),
+  northMps = new Float64Array(plane.x.length),
+): SmoothedPositions {
   const n = plane.x.length;
-  const outLat = new Float64Array(n);
-  const outLon = new Float64Array(n);
-  const eastMps = new Float64Array(n);
-  const northMps = new Float64Array(n);
+  const outLat = states.sy;
+  const outLon = states.sx;
   const { lat0, lon0 } = plane;
   const { north, east } = plane.scale;
   for (let i = 0; i < n; i += BLOCK) {
@@ -816,13 +825,14 @@ export function smoothPositionsThroughTurns(
   const turns = findManoeuvres(t, east, north, segmentStart);
   const stops = findStopEdges(t, east, north, segmentStart);
   const marks = turns && stops ? eitherMarked(turns, stops) : (turns ?? stops);
-  if (!marks) return { ...fromPlane(plane, first), manoeuvre: null, turn: null };
+  // `east` and `north` are not read again: they take the smoothed velocities.
+  if (!marks) return { ...fromPlane(plane, first, east, north), manoeuvre: null, turn: null, scratch: work.filtered };
   const qSteps = new Float64Array(n);
   const manoeuvre = new Uint8Array(n);
   // The step into point i is inside the manoeuvre when both its ends are.
   manoeuvreNoise(marks, q, Math.max(q, r * TURN_CUTOFF_RAD_S ** 4), qSteps, manoeuvre);
   const second = smoothInPlane(t, plane, segmentStart, r, q, qSteps, { marks, into: first }, work);
-  return { ...fromPlane(plane, second), manoeuvre, turn: turns };
+  return { ...fromPlane(plane, second, east, north), manoeuvre, turn: turns, scratch: work.filtered };
 }
 
 /** East and north velocities of points [from, to) out of the interleaved smoothed velocities. */
@@ -948,6 +958,12 @@ export interface SmoothedPositions {
   manoeuvre?: Uint8Array | null;
   /** From `smoothPositionsThroughTurns`: 1 per point inside a turn (`findManoeuvres`), null without any. */
   turn?: Uint8Array | null;
+  /**
+   * From `smoothPositionsThroughTurns`: room for 4 numbers per point that the smoother no longer reads (its
+   * forward pass's states), for the caller's own temporary columns, so they need no fresh memory. Holds
+   * leftovers of this track's smoothing: whoever carves a column out of it sets every value it reads.
+   */
+  scratch?: Float64Array | null;
 }
 
 /**

@@ -135,7 +135,9 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       // Inside a turn the window is judged on the smoothed path's length, not the straight line between
       // its ends: on a 6 m turnaround that line is the 12 m diameter whatever the speed, under the
       // moving threshold of a file with about 1 m of jitter, and the running round it was lost.
-      const along = new Float64Array(n);
+      // Temporary columns carved out of the smoother's leftover room (no fresh pages), zeroed where read.
+      const room = smooth.scratch && smooth.scratch.length >= 3 * n ? smooth.scratch : new Float64Array(3 * n);
+      const along = room.subarray(0, n).fill(0);
       const turnsUpTo = new Int32Array(n);
       pathAlong(sLat, sLon, smooth.turn ?? null, along, turnsUpTo);
       classifyMoving(
@@ -149,11 +151,18 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       // The smoother draws a steady bend on a smaller radius (`bendGainFactors`): given back per step.
       const gains = bendGainFactors(t, smooth, segmentBreak, moving, jitter.sigma_m);
       // Each moving step of the smoothed path, and the raw sum point to point kept for the report.
-      const chords = new Float64Array(n);
+      const chords = room.subarray(n, 2 * n).fill(0);
       const raw = movingSteps(moving, sLat, sLon, lat, lon, chords);
       // The slow wander the smoother lets through still adds length (position-smoother.ts,
       // `stepWithoutNoise`): taken out when it is large enough to matter (`MIN_CORRECTED_EXCESS`).
-      const stepNoise = noiseToRemove(t, chords, moving, jitter, measureWander(t, lat, lon, segmentBreak, jitter));
+      const stepNoise = noiseToRemove(
+        t,
+        chords,
+        moving,
+        jitter,
+        measureWander(t, lat, lon, segmentBreak, jitter),
+        room.subarray(2 * n, 3 * n),
+      );
       smoothedDistance(t, moving, bends, gains, chords, stepNoise, jitter.median_interval_s * 1000, d);
       report = {
         source,
@@ -442,11 +451,12 @@ export function noiseToRemove(
   moving: Uint8Array,
   jitter: JitterEstimate,
   wander: WanderModel | null,
+  /** Room for one number per point (only the values written here are read). */
+  steps: Float64Array = new Float64Array(chords.length),
 ): number {
   if (!wander) return 0;
   const variance = smoothedStepNoiseVariance(jitter.median_interval_s, jitter.sigma_m, wander);
   const intervalMs = jitter.median_interval_s * 1000;
-  const steps = new Float64Array(chords.length);
   let count = 0;
   for (let i = 1; i < chords.length; i += BLOCK)
     count = usualSteps(t, chords, moving, intervalMs, steps, count, i, Math.min(chords.length, i + BLOCK));
