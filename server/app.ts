@@ -1,8 +1,9 @@
 import cookieParser from 'cookie-parser';
-import express, { type Express } from 'express';
+import express, { type Express, type RequestHandler } from 'express';
 import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
 import { existsSync } from 'node:fs';
+import type { IncomingMessage } from 'node:http';
 import path from 'node:path';
 import type Stripe from 'stripe';
 import type { AppConfig } from './config.ts';
@@ -49,6 +50,31 @@ export interface AppDeps {
 
 const API_VERSION = '0.1.0';
 
+/**
+ * pino-http's request lines (at 'info'). It builds a child logger per request and serialises the request
+ * into it even when the line will be dropped, about 3-5 % of a kept read's CPU (tests/bench/README.md,
+ * session 9): below 'info' (tests, `npm run load`) a request gets only its id, from the same counter.
+ * The level is read per request, so `captureLogLines` still sees every line it saw before.
+ */
+function requestLogs(): RequestHandler {
+  let lastRequestId = 0;
+  // pino-http's own default: 1, 2, 3… wrapping at 2^31 - 1.
+  const nextRequestId = (req: IncomingMessage) => req.id || (lastRequestId = (lastRequestId + 1) & 0x7fffffff);
+  const withLines = pinoHttp({
+    logger,
+    genReqId: nextRequestId,
+    autoLogging: { ignore: (req) => req.url === '/api/health' },
+    serializers: { req: (req: { url?: string }) => ({ ...req, url: req.url && loggableUrl(req.url) }) },
+  });
+  return (req, res, next) => {
+    if (withLines.logger.isLevelEnabled('info')) return withLines(req, res, next);
+    req.id = nextRequestId(req);
+    // No server code reads req.log; it stays a logger (without the request's bindings) for any that would.
+    req.log = res.log = withLines.logger;
+    next();
+  };
+}
+
 /** Builds the Express app: middleware, feature routers under /api, the API docs, the client, then errors. */
 export function createApp({
   config,
@@ -66,13 +92,7 @@ export function createApp({
   if (process.env.TRUST_PROXY) app.set('trust proxy', process.env.TRUST_PROXY);
 
   app.use(helmet());
-  app.use(
-    pinoHttp({
-      logger,
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      serializers: { req: (req: { url?: string }) => ({ ...req, url: req.url && loggableUrl(req.url) }) },
-    }),
-  );
+  app.use(requestLogs());
   // The payment service signs the exact bytes it sends: its webhook gets the raw body (same size limit).
   app.use('/api/payments/webhook', express.raw({ type: () => true, limit: config.jsonLimit }));
   app.use(express.json({ limit: config.jsonLimit }));
