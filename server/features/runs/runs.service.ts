@@ -70,6 +70,7 @@ import {
   renameRun,
 } from './runs.repository.ts';
 import { toRunListItem } from './run-list.ts';
+import type { ReceivedFile } from './upload-to-disk.ts';
 import { lockStorageOf, storageUsedBy } from './storage-quota.repository.ts';
 
 const GENERIC_REJECTION =
@@ -80,19 +81,7 @@ const GENERIC_REJECTION =
  * disk with the SHA-256 taken while it arrived (and, when its request had room, the same bytes in
  * memory shared with the compute threads: upload-to-disk.ts).
  */
-export type UploadedFile =
-  | { name: string; data: Buffer }
-  | {
-      name: string;
-      path: string;
-      size: number;
-      sha256: string;
-      bytes?: Uint8Array;
-      /** Keeps `bytes`' memory counted while a job reads it (upload-to-disk.ts). */
-      holdBytes?: () => () => void;
-      /** The job that read the file while it arrived (`startArrivingImport`), if one did. */
-      early?: Promise<unknown>;
-    };
+export type UploadedFile = { name: string; data: Buffer } | ReceivedFile;
 
 export interface ImportOptions {
   /** Original files the user may keep, bytes; a file that does not fit is refused. No limit when absent. */
