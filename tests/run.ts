@@ -79,6 +79,8 @@ let passed = 0;
 let failed = failedChecks;
 // Skipped and todo tests are reported; CI runs every test, so any of them fails the run.
 let pending = 0;
+// CI shows only the tail of the log, so the last lines name every failed test.
+const failedNames: string[] = [];
 
 try {
   for (const layer of layers) {
@@ -117,6 +119,7 @@ try {
       numTodoTests: number;
       numTotalTests: number;
       success: boolean;
+      testResults?: { name: string; status?: string; assertionResults?: { fullName: string; status: string }[] }[];
     };
     renameSync(outputFile, path.join(resultsDir, `vitest-${layer}.json`)); // the latest report keeps the usual name
     passed += report.numPassedTests;
@@ -125,6 +128,7 @@ try {
     const unfinished =
       report.numTotalTests - report.numPassedTests - report.numFailedTests - report.numPendingTests - report.numTodoTests;
     failed += report.numFailedTests + Math.max(0, unfinished);
+    failedNames.push(...failedTestNames(layer, report.testResults ?? []));
     const reportedFailure = report.numFailedTests > 0 || unfinished > 0;
     // An unhandled error fails the run even when every test passed (vitest exits non-zero).
     if (report.numTotalTests === 0 || ((!report.success || vitest.status !== 0) && !reportedFailure)) failed++;
@@ -138,7 +142,21 @@ try {
   rmSync(dataDir, { recursive: true, force: true });
 }
 
+if (failedNames.length) console.log(`\nFailed:\n${failedNames.map((name) => `  × ${name}`).join('\n')}`);
 if (failedChecks) console.log(`\n${failedChecks} static check(s) failed (counted as failures).`);
 if (pending) console.log(`\n${pending} test(s) skipped or todo (counted as failures: every test runs in CI).`);
 console.log(`\n${passed} passed, ${failed + pending} failed, ${pending} skipped`);
 process.exit(failed + pending === 0 ? 0 : 1);
+
+function failedTestNames(
+  layer: string,
+  files: { name: string; status?: string; assertionResults?: { fullName: string; status: string }[] }[],
+): string[] {
+  return files.flatMap((file) => {
+    const where = `${layer} ${path.relative(ROOT, file.name)}`;
+    const tests = (file.assertionResults ?? []).filter((test) => test.status === 'failed');
+    // A file that failed outside any test (it did not load, or an error after its tests) is named alone.
+    if (tests.length === 0) return file.status === 'failed' ? [`${where} (the file itself)`] : [];
+    return tests.map((test) => `${where} › ${test.fullName}`);
+  });
+}
