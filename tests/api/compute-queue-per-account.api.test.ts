@@ -21,9 +21,11 @@ import {
 } from '../../server/features/compute/compute-pool.ts';
 import { db } from '../../server/lib/db.ts';
 import { createFsStore } from '../../server/lib/storage.ts';
+import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
+import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { waitUntil } from '../support/poll.ts';
 import { recordingMailer, testConfig } from '../support/test-app.ts';
-import { person } from '../support/test-world.ts';
+import { buildWorld, freshApp, person, type App, type World } from '../support/test-world.ts';
 
 const { jobsAtOncePerUser, waitingPerUser } = DEFAULT_COMPUTE_LIMITS;
 
@@ -118,5 +120,99 @@ describe('compute pool: one account cannot fill it alone', () => {
     expect(accepted.status).toBe(201);
     expect(accepted.body.imported).toHaveLength(1);
     await expect(Promise.all(busyRunnersJobs)).resolves.toHaveLength(jobsAtOncePerUser + waitingPerUser);
+  }, 60_000);
+});
+
+/** buildWorld's runner, coached in a squad, with one run on the planned day (2026-11-24) and no stored plan check. */
+async function coachedRunnerWithRun(app: App): Promise<World & { runId: string }> {
+  const world = await buildWorld(app);
+  const { points } = generateLakeRun({
+    start_t: Date.parse('2026-11-24T07:00:00Z'),
+    phases: [{ kind: 'run', duration_s: 45 * 60, speed_mps: 3 }],
+    seed: 11,
+    sample_s: 5,
+  });
+  const upload = await request(app)
+    .post('/api/runs')
+    .set(world.runner.auth)
+    .attach('files', Buffer.from(writeGpx('Easy 45', [points])), 'easy.gpx');
+  expect(upload.status).toBe(201);
+  const runId = upload.body.imported[0].id as string;
+  // The next read has to compute the check (a tolerance change, a new plan or new code make a stored one stale).
+  await db('plan_check_results').where({ run_id: runId }).delete();
+  return { ...world, runId };
+}
+
+describe("plan checks recomputed by a read are charged to the reader, not to the runner (session 9's note)", () => {
+  it("a coach's reads take the coach's turn: with the runner's place full they wait and answer, and the runner's place is untouched", async () => {
+    const app = freshApp('charge-reader');
+    const { runner, coach, runId } = await coachedRunnerWithRun(app);
+    const { blocker } = await oneBusyThread();
+    const runnersJobs = fillAccount(runner.id);
+
+    // Before: both reads were charged to the runner and refused at once with the runner's "files or checks of yours".
+    const settled: string[] = [];
+    const weekRead = request(app)
+      .get(`/api/runners/${runner.id}/week?start=2026-11-24`)
+      .set(coach.auth)
+      .then((r) => (settled.push('week'), r));
+    const checkRead = request(app)
+      .get(`/api/runs/${runId}/plan-check`)
+      .set(coach.auth)
+      .then((r) => (settled.push('check'), r));
+    // The coach's two checks hold the coach's 2 places and wait for the thread behind the runner's 2.
+    await waitUntil(
+      () => settled.length > 0 || computeJobsWaiting() === 2 * jobsAtOncePerUser,
+      "the coach's plan checks queued for the thread",
+    );
+    expect(settled).toEqual([]);
+    expect(computeJobsWaitingForTurn(runner.id)).toBe(waitingPerUser);
+    expect(computeJobsWaitingForTurn(coach.id)).toBe(0);
+
+    await releaseThread(blocker);
+    const [week, check] = await Promise.all([weekRead, checkRead]);
+    expect(week.status).toBe(200);
+    expect(check.status).toBe(200);
+    expect(check.body.session_verdict).not.toBe('unplanned');
+    const weekRun = week.body.days
+      .flatMap((d: { runs: Array<{ id: string }> }) => d.runs)
+      .find((r: { id: string }) => r.id === runId);
+    expect(weekRun.session_verdict).toBe(check.body.session_verdict);
+    await expect(Promise.all(runnersJobs)).resolves.toHaveLength(jobsAtOncePerUser + waitingPerUser);
+  }, 60_000);
+
+  it("with the coach's place full, the coach's read is refused in the coach's words while the runner's own upload is stored", async () => {
+    const app = freshApp('charge-reader-full');
+    const { runner, coach, runId } = await coachedRunnerWithRun(app);
+    const { blocker } = await oneBusyThread();
+    const coachesJobs = fillAccount(coach.id);
+
+    // Before: charged to the runner, whose place was free, so it was queued for the thread (and answered 200 later).
+    let answered = false;
+    const reading = request(app)
+      .get(`/api/runs/${runId}/plan-check`)
+      .set(coach.auth)
+      .then((r) => ((answered = true), r));
+    await waitUntil(() => answered || computeJobsWaiting() > jobsAtOncePerUser, "the coach's read answered or queued");
+    expect(answered).toBe(true);
+    const refused = await reading;
+    expect(refused.status).toBe(429);
+    expect(refused.body.code).toBe('busy-with-your-files');
+    expect(refused.headers['retry-after']).toBe(String(COMPUTE_ACCOUNT_BUSY_RETRY_AFTER_SECONDS));
+    expect(computeJobsWaitingForTurn(runner.id)).toBe(0);
+
+    const uploading = request(app)
+      .post('/api/runs')
+      .set(runner.auth)
+      .attach('files', readFileSync('fixtures/gps-samples/run-hr-4s.gpx'), 'run.gpx')
+      .then((r) => r);
+    await waitUntil(() => computeJobsWaiting() === jobsAtOncePerUser + 1, "the runner's file queued");
+    await releaseThread(blocker);
+    const uploaded = await uploading;
+    expect(uploaded.status).toBe(201);
+    await expect(Promise.all(coachesJobs)).resolves.toHaveLength(jobsAtOncePerUser + waitingPerUser);
+    // Once the coach's own checks are done, the read is answered.
+    const again = await request(app).get(`/api/runs/${runId}/plan-check`).set(coach.auth);
+    expect(again.status).toBe(200);
   }, 60_000);
 });

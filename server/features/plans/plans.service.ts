@@ -125,12 +125,12 @@ export async function removePlan(actor: Actor, id: string): Promise<void> {
 export type PlanCheckResponse = PlanCheckAnswer;
 
 export async function planCheckOfRun(actor: Actor, runId: string): Promise<PlanCheckResponse> {
-  return checkRun(await getReadableRun(actor, runId));
+  return checkRun(await getReadableRun(actor, runId), actor.id);
 }
 
-/** The plan check of a run the caller may read. */
-export async function checkRun(run: RunRow): Promise<PlanCheckResponse> {
-  const checks = await checkRuns([run], await loadRunnerCheckInputs([run.user_id]));
+/** The plan check of a run the caller (`readerId`, whose compute turn a recompute takes) may read. */
+export async function checkRun(run: RunRow, readerId: string): Promise<PlanCheckResponse> {
+  const checks = await checkRuns([run], await loadRunnerCheckInputs([run.user_id]), readerId);
   return toPlanCheckResponse(checks.get(run.id)!);
 }
 
@@ -212,10 +212,16 @@ function sha256(text: string): string {
  * result is computed from the run's track only when no stored result has the key of its current
  * inputs (plan, resolved targets, tolerance, plan-check code); computed results are stored for the
  * next read. `inputsOf` must hold every run's runner.
+ *
+ * A result computed here is charged to `readerId`, the account whose read asked for it: it takes that account's
+ * turn in the compute pool (`jobsAtOncePerUser`, `waitingPerUser`), never the runner's, so a coach reading a
+ * squad's weeks cannot use up a runner's place and have the runner's own upload refused with "files or checks
+ * of yours" (server/features/runs/README.md, "One account's waiting jobs have a number too").
  */
 export async function checkRuns(
   runs: ReadonlyArray<Pick<RunRow, 'id' | 'user_id' | 'local_date' | 'activity_kind'>>,
   inputsOf: ReadonlyMap<string, RunnerCheckInputs>,
+  readerId: string,
 ): Promise<Map<string, RunCheck>> {
   const runIds = runs.map((r) => r.id);
   const links = new Map((await findRunPlanLinks(runIds)).map((l) => [l.run_id, l]));
@@ -262,8 +268,8 @@ export async function checkRuns(
   for (let i = 0; i < toCompute.length; i += COMPUTE_BATCH) {
     await Promise.all(
       toCompute.slice(i, i + COMPUTE_BATCH).map(async (p) => {
-        // Reading and decoding the stored track and checking it is CPU work: a compute worker does it, in the runner's turn.
-        const out = await computePlanCheckJob(p.run.user_id, {
+        // Reading and decoding the stored track and checking it is CPU work: a compute worker does it, in the reader's turn.
+        const out = await computePlanCheckJob(readerId, {
           parts: p.parts,
           runId: p.run.id,
           databaseUrl,

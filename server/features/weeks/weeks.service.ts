@@ -164,7 +164,8 @@ async function buildWeeks(frames: WeekFrame[], forReview: boolean, viewer: WeekV
   const weekRuns = [...weekRunsOf.values()].flat();
   const weekRunIds = weekRuns.map((r) => r.id);
   const [checks, notes, fuelTaken, checkins, runNotes] = await Promise.all([
-    checkRuns(weekRuns, inputsOf),
+    // Recomputed checks are charged to the reader (a coach's read never takes the runner's compute turn).
+    checkRuns(weekRuns, inputsOf, viewer.id),
     forReview ? listWeekNotes(frames[0]!.runner.id, frames[0]!.start) : [],
     forReview ? findFuelTakenOf(weekRunIds) : [],
     findRunCheckinsOf(weekRunIds),
