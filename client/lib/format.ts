@@ -1,3 +1,5 @@
+import { calendarDaysAgo } from '../../shared/runs/local-time.ts';
+
 /**
  * Dates and times on the screens, always read in a named IANA time zone (client/README.md, "Whose clock").
  * Anything a runner did (a run, a note, a check-in, a review of their week) is read in the runner's zone, the one
@@ -57,6 +59,29 @@ export function formatOnDevice(iso: string, shape: Shape = 'date'): string {
  */
 export function readsDifferently(iso: string, timeZone: string, viewerZone: string, shape: Shape): boolean {
   return formatInZone(iso, timeZone, shape) !== formatInZone(iso, viewerZone, shape);
+}
+
+/**
+ * When something last happened, in calendar days of `timeZone` (the instant and today both read there, never
+ * on the device's clock): "today", "yesterday", "3 days ago"; "never" for null. Counted in dates, not hours, so
+ * last night's upload is "yesterday".
+ */
+export function formatDaysAgo(iso: string | null, timeZone: string, now: number = Date.now()): string {
+  if (!iso) return 'never';
+  const days = calendarDaysAgo(Date.parse(iso), timeZone, now);
+  if (days <= 0) return 'today';
+  if (days === 1) return 'yesterday';
+  return `${days} days ago`;
+}
+
+/** Whether "… days ago" counted on `timeZone`'s calendar would read otherwise on `viewerZone`'s (readsDifferently's twin). */
+export function daysAgoReadsDifferently(
+  iso: string | null,
+  timeZone: string,
+  viewerZone: string,
+  now: number = Date.now(),
+): boolean {
+  return formatDaysAgo(iso, timeZone, now) !== formatDaysAgo(iso, viewerZone, now);
 }
 
 /**

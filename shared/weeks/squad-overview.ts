@@ -16,6 +16,11 @@ export const SquadOverviewRowSchema = z.object({
   planned_duration_s: z.number(),
   flags: z.array(z.object({ code: z.string(), message: z.string() })),
   last_upload: z.string().nullable(),
+  /**
+   * The runner's profile zone (IANA), the one their week and today are read in: "last upload" counts the
+   * runner's calendar days in it, not the coach's (client/README.md, "Whose clock"). Added in session 10.
+   */
+  time_zone: z.string(),
   reviewed: z.boolean(),
   /** Metres per week, oldest first; the last is this week. */
   volume_12_weeks: z.array(z.number()),

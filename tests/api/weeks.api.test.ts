@@ -233,6 +233,8 @@ describe('squad overview and weekly digest', { timeout: 30_000 }, () => {
     await upload(app, jumper.auth, '2026-11-17', 5);
     await upload(app, jumper.auth, '2026-11-24', 9);
     await upload(app, unplanned.auth, '2026-11-24', 24.3);
+    // A runner on another clock than the coach's: the row says which, so "last upload" counts the runner's days.
+    await db('users').where({ id: jumper.user.id }).update({ time_zone: 'America/Chicago' });
 
     const overview = await request(app).get(`/api/squads/${squad!.id}/overview?week=2026-11-23`).set(coach.auth);
     expect(overview.status).toBe(200);
@@ -247,6 +249,8 @@ describe('squad overview and weekly digest', { timeout: 30_000 }, () => {
       'Sage Steady',
     ]);
     expect(overview.body.rows[1].volume_12_weeks).toHaveLength(12);
+    expect(overview.body.rows[1].time_zone).toBe('America/Chicago');
+    expect(overview.body.rows[0].time_zone).toBe('UTC'); // the profile's default zone (users migration)
     // Time-based plans keep their time: 2 × 45 min, not "0.0 planned".
     expect(overview.body.rows[3]).toMatchObject({ planned_distance_m: 0, planned_duration_s: 5400, sessions_due: 2 });
 

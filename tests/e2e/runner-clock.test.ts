@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { db } from '../../server/lib/db.ts';
-import { localDateTime } from '../../shared/runs/local-time.ts';
+import { calendarDaysAgo, localDateTime } from '../../shared/runs/local-time.ts';
 import { generateLakeRun } from '../../shared/tracks/synthetic.ts';
 import { writeGpx } from '../../shared/tracks/write-track.ts';
 import { screenshot, watchErrors } from '../support/browser.ts';
@@ -24,6 +24,9 @@ const SIZES = [
 const WAIT = { timeout: 15_000 };
 const COACH_WORDS = `(runner's clock, ${RUNNER_ZONE})`;
 const RUNNER_WORDS = `(${RUNNER_ZONE} clock)`;
+/** Said once per card (session 10), not after every line. */
+const COACH_CARD_WORDS = `Dates and times on the runner's clock, ${RUNNER_ZONE}.`;
+const RUNNER_CARD_WORDS = `Dates and times on the ${RUNNER_ZONE} clock.`;
 
 const session = useBrowserSession({ timezoneId: DEVICE_ZONE });
 
@@ -40,6 +43,36 @@ function eveningRun(): Buffer {
 /** "HH:mm" of an instant on the runner's clock, by the server's own dating code (not the client's formatter). */
 const runnerClock = (iso: string) => localDateTime(Date.parse(iso), RUNNER_ZONE).time;
 const deviceClock = (iso: string) => localDateTime(Date.parse(iso), DEVICE_ZONE).time;
+
+/** "today", "yesterday", "N days ago" for a day count, as the screens word "last upload". */
+const daysAgoWords = (days: number) => (days <= 0 ? 'today' : days === 1 ? 'yesterday' : `${days} days ago`);
+
+/**
+ * An upload moment that the runner's calendar and this device's count differently for the next half hour (the two
+ * are 15 hours apart, so some hour of the last two days always is), by the server's own date code. The squad
+ * overview counted it on the coach's calendar before session 10.
+ */
+function uploadTheCalendarsCountApart(now: number): { at: Date; runnerDays: string; deviceDays: string } {
+  for (let hoursBack = 1; hoursBack < 48; hoursBack++) {
+    const at = now - hoursBack * 3_600_000;
+    const checks = [0, 10, 20, 30].map((minutes) => now + minutes * 60_000);
+    const apart = checks.every(
+      (t) => daysAgoWords(calendarDaysAgo(at, RUNNER_ZONE, t)) !== daysAgoWords(calendarDaysAgo(at, DEVICE_ZONE, t)),
+    );
+    const steady = checks.every((t) => calendarDaysAgo(at, RUNNER_ZONE, t) === calendarDaysAgo(at, RUNNER_ZONE, now));
+    if (apart && steady) {
+      return {
+        at: new Date(at),
+        runnerDays: daysAgoWords(calendarDaysAgo(at, RUNNER_ZONE, now)),
+        deviceDays: daysAgoWords(calendarDaysAgo(at, DEVICE_ZONE, now)),
+      };
+    }
+  }
+  throw new Error('no hour of the last two days is counted apart by the two calendars');
+}
+
+/** How many times `words` appear in `text`. */
+const occurrences = (text: string | null, words: string) => (text ?? '').split(words).length - 1;
 
 async function noSidewaysScroll(page: Page): Promise<void> {
   expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
@@ -76,9 +109,19 @@ describe("the runner's clock on a device set to a far zone", () => {
       `/api/runs/${runId}`,
     );
     expect(run.summary).toMatchObject({ local_date: '2026-11-23', local_time: '21:30', time_zone: RUNNER_ZONE });
+    // The upload moved to an hour the two calendars count apart, before the notes and check-in below (their writes
+    // move the runner's week counter on, so no week assembled before this change is served).
+    const lastUpload = uploadTheCalendarsCountApart(Date.now());
+    expect(lastUpload.runnerDays).not.toBe(lastUpload.deviceDays);
+    await db('runs').where({ id: runId }).update({ created_at: lastUpload.at });
     const note = await callApi<{ note: { created_at: string } }>(page, 'POST', `/api/runs/${runId}/notes`, {
       text: 'Late loop after work, legs fine.',
     });
+    // Several notes on the run and on the week: the runner's clock is named once per card, not on every line.
+    await callApi(page, 'POST', `/api/runs/${runId}/notes`, { text: 'Second half felt easier.' });
+    for (const text of ['Busy week at work.', 'Slept short on Sunday.']) {
+      await callApi(page, 'POST', `/api/runners/${runner.user.id}/weeks/${WEEK}/notes`, { text });
+    }
     await callApi(page, 'PUT', `/api/runs/${runId}/checkin`, { soreness: 2, notes: '' });
     // A session on Wednesday: its record of changes ("Added …") is read on the runner's clock too.
     await callApi(page, 'POST', '/api/plans', { date: '2026-11-25', title: 'Steady hour', text: '60 min steady' });
@@ -87,20 +130,32 @@ describe("the runner's clock on a device set to a far zone", () => {
     expect(runnerClock(noteAt)).not.toBe(deviceClock(noteAt));
 
     const notes = page.getByRole('list', { name: 'Notes on this run' });
+    const cardWords = page.locator('[data-clock="card"]', { hasText: RUNNER_CARD_WORDS });
     for (const size of SIZES) {
       await page.setViewportSize(size);
       await page.goto(`${session.server.url}/runs/${runId}`);
-      // The start line names the run's zone; the note says whose clock its time is on.
+      // The start line names the run's zone; the notes card names whose clock once, its two notes show bare times.
       await expect
         .poll(() => page.locator('time', { hasText: 'Mon 23 Nov 2026, 21:30 (America/Chicago)' }).count(), WAIT)
         .toBe(1);
-      await expect.poll(() => notes.textContent(), WAIT).toContain(`${runnerClock(noteAt)} ${RUNNER_WORDS}`);
+      await expect.poll(() => notes.locator('li').count(), WAIT).toBe(2);
+      expect(await notes.textContent()).toContain(runnerClock(noteAt));
+      expect(await notes.textContent()).not.toContain('clock');
+      await expect.poll(() => cardWords.count(), WAIT).toBe(1);
       await noSidewaysScroll(page);
       await screenshot(page, `runner-clock-run-runner-${size.width}`);
 
       await page.goto(`${session.server.url}/week/${WEEK}`);
       const monday = page.getByRole('listitem', { name: 'Monday 23 November' });
-      await expect.poll(() => monday.textContent(), WAIT).toContain(`21:30 ${RUNNER_WORDS}`);
+      await expect.poll(() => monday.textContent(), WAIT).toContain('21:30');
+      expect(await monday.textContent()).not.toContain('clock');
+      // Once for the days card and once for the notes card; the week's two notes show bare times.
+      await expect.poll(() => cardWords.count(), WAIT).toBe(2);
+      const weekNotes = page.getByRole('list', { name: 'Notes on this week' });
+      await expect.poll(() => weekNotes.locator('li').count(), WAIT).toBe(2);
+      expect(await weekNotes.textContent()).not.toContain('clock');
+      // "Last upload" counts the runner's own days, and says whose when this device would count otherwise.
+      expect(await page.locator('body').textContent()).toContain(`${lastUpload.runnerDays} ${RUNNER_WORDS}`);
       await noSidewaysScroll(page);
       await screenshot(page, `runner-clock-my-week-${size.width}`);
     }
@@ -111,13 +166,22 @@ describe("the runner's clock on a device set to a far zone", () => {
     // The coach, on the same far clock.
     const coachPage = await session.browser.context.newPage();
     await signInThroughPage(coachPage, session.server.url, { email: coach.user.email, password: coach.password }, SIZES[0]!);
-    await coachReads(coachPage, runner.user.id, runId, noteAt);
+    await coachReads(coachPage, { squadId: squad!.id as string, runnerId: runner.user.id, runId, noteAt, lastUpload });
   });
 });
 
-async function coachReads(page: Page, runnerId: string, runId: string, noteAt: string): Promise<void> {
+type CoachView = {
+  squadId: string;
+  runnerId: string;
+  runId: string;
+  noteAt: string;
+  lastUpload: { runnerDays: string; deviceDays: string };
+};
+
+async function coachReads(page: Page, { squadId, runnerId, runId, noteAt, lastUpload }: CoachView): Promise<void> {
   const errors = watchErrors(page);
   const notes = page.getByRole('list', { name: 'Notes on this run' });
+  const cardWords = page.locator('[data-clock="card"]', { hasText: COACH_CARD_WORDS });
   const week = await callApi<{ time_zone: string; days: Array<{ runs: Array<{ checkin: { updated_at: string } | null }> }> }>(
     page,
     'GET',
@@ -127,21 +191,48 @@ async function coachReads(page: Page, runnerId: string, runId: string, noteAt: s
   const checkedAt = week.days[0]!.runs[0]!.checkin!.updated_at;
   for (const size of SIZES) {
     await page.setViewportSize(size);
+    // The squad overview's "last upload" counts the runner's days (before: the coach's), naming whose when they differ.
+    await page.goto(`${session.server.url}/squad?squad=${squadId}&week=${WEEK}`);
+    const overview = page.getByRole('table', { name: /one row per runner/ });
+    await expect.poll(() => overview.locator('tbody tr').count(), WAIT).toBeGreaterThan(0);
+    if (size.width < 640) await page.getByRole('button', { name: 'All figures: Lio Homeward' }).click();
+    await expect.poll(() => overview.textContent(), WAIT).toContain(`${lastUpload.runnerDays} ${COACH_WORDS}`);
+    expect(await overview.textContent()).not.toContain(lastUpload.deviceDays);
+    // The new-notes card lists the runner's four notes until the coach opens them (below, in the first round): it
+    // names the runner's clock once in its heading.
+    const newNotes = page.locator('section', { has: page.getByRole('heading', { name: /^New notes/ }) });
+    if (size === SIZES[0]) {
+      await expect.poll(() => newNotes.locator('li').count(), WAIT).toBe(4);
+      expect(occurrences(await newNotes.textContent(), COACH_CARD_WORDS)).toBe(1);
+      expect(occurrences(await newNotes.textContent(), 'clock')).toBe(1);
+    }
+    await noSidewaysScroll(page);
+    await screenshot(page, `runner-clock-squad-overview-coach-${size.width}`);
+
     await page.goto(`${session.server.url}/squad/${runnerId}/week/${WEEK}`);
-    // The run is on the runner's Monday (the coach's clock says Tuesday 12:30), at 21:30 with whose clock it is.
+    // The run is on the runner's Monday (the coach's clock says Tuesday 12:30), at 21:30; the days card says whose
+    // clock once above the days, and the run's start, check-in and two notes show bare times.
     const monday = page.getByRole('listitem', { name: 'Monday 23 November' });
     const entry = monday.locator(`[data-run-id="${runId}"]`);
-    await expect.poll(() => entry.textContent(), WAIT).toContain(`21:30 ${COACH_WORDS}`);
+    await expect.poll(() => entry.textContent(), WAIT).toContain(runnerClock(checkedAt));
     expect(await entry.locator('time').first().textContent()).toBe('21:30');
     const text = (await entry.textContent()) ?? '';
-    expect(text).toContain(`${runnerClock(noteAt)} ${COACH_WORDS}`);
-    expect(text).toContain(`${runnerClock(checkedAt)} ${COACH_WORDS}`);
+    expect(text).toContain(runnerClock(noteAt));
+    expect(text).not.toContain('clock');
+    expect(await entry.getByRole('list', { name: 'Notes on this run' }).locator('li').count()).toBe(2);
+    await expect.poll(() => cardWords.count(), WAIT).toBe(2);
+    expect(occurrences(await page.locator('main').textContent(), COACH_WORDS)).toBe(1); // the last upload's alone
+    expect(await page.getByRole('list', { name: 'Notes on this week' }).textContent()).not.toContain('clock');
+    expect(await page.locator('main').textContent()).toContain(`${lastUpload.runnerDays} ${COACH_WORDS}`);
     await noSidewaysScroll(page);
     await screenshot(page, `runner-clock-week-review-coach-${size.width}`);
 
     await page.goto(`${session.server.url}/runs/${runId}`);
     await expect.poll(() => page.locator('time', { hasText: 'Mon 23 Nov 2026, 21:30 (America/Chicago)' }).count(), WAIT).toBe(1);
-    await expect.poll(() => notes.textContent(), WAIT).toContain(`${runnerClock(noteAt)} ${COACH_WORDS}`);
+    await expect.poll(() => notes.locator('li').count(), WAIT).toBe(2);
+    expect(await notes.textContent()).toContain(runnerClock(noteAt));
+    expect(await notes.textContent()).not.toContain('clock');
+    await expect.poll(() => cardWords.count(), WAIT).toBe(1);
     await noSidewaysScroll(page);
     await screenshot(page, `runner-clock-run-coach-${size.width}`);
 
@@ -150,7 +241,8 @@ async function coachReads(page: Page, runnerId: string, runId: string, noteAt: s
     await expect.poll(() => edit.count(), WAIT).toBe(1);
     await edit.click();
     const changes = page.getByRole('region', { name: 'Changes to this session' });
-    await expect.poll(() => changes.textContent(), WAIT).toContain(COACH_WORDS);
+    await expect.poll(() => changes.textContent(), WAIT).toContain(COACH_CARD_WORDS);
+    expect(await changes.locator('li').first().textContent()).not.toContain('clock');
     await noSidewaysScroll(page);
     await screenshot(page, `runner-clock-plan-changes-coach-${size.width}`);
   }

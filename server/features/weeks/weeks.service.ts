@@ -588,6 +588,8 @@ export async function buildSquadOverview(
       missed_key_sessions: missedKeySessions(w),
       flags: w.flags.map((f) => ({ code: f.code, message: f.message })),
       last_upload: w.last_upload,
+      // Read from the assembled week (no query of its own): its days and today are counted in this zone.
+      time_zone: w.time_zone,
       reviewed: w.reviewed_by.some((r) => r.coach_id === squad.coach_id),
       volume_12_weeks: w.trend.map((t) => t.run_distance_m),
     };

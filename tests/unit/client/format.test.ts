@@ -3,7 +3,15 @@
  * moments on the runner's clock, and the words "runner's clock" appear only when the two clocks read differently.
  */
 import { describe, expect, it } from 'vitest';
-import { formatDate, formatDateTime, formatInZone, readsDifferently, whoseClock } from '../../../client/lib/format.ts';
+import {
+  daysAgoReadsDifferently,
+  formatDate,
+  formatDateTime,
+  formatDaysAgo,
+  formatInZone,
+  readsDifferently,
+  whoseClock,
+} from '../../../client/lib/format.ts';
 
 const RUNNER = 'America/Chicago';
 const FAR_COACH = 'Asia/Tokyo';
@@ -39,6 +47,26 @@ describe('formatDate / formatDateTime in a named zone', () => {
   it('words the clock for the runner and for a coach', () => {
     expect(whoseClock(RUNNER, false)).toBe("runner's clock, America/Chicago");
     expect(whoseClock(RUNNER, true)).toBe('America/Chicago clock');
+  });
+});
+
+describe('"last upload … days ago" on the runner’s calendar (the squad overview and the week review)', () => {
+  // 5 Dec 2026 02:00 UTC: 4 Dec, 20:00 in Chicago (CST, UTC−6); 5 Dec, 11:00 in Tokyo (JST, UTC+9).
+  const now = Date.UTC(2026, 11, 5, 2, 0);
+  const evening = '2026-12-04T03:30:00.000Z'; // 3 Dec, 21:30 in Chicago; 4 Dec, 12:30 in Tokyo
+
+  it('counts the runner’s days, which a far-away coach’s calendar counts otherwise', () => {
+    expect(formatDaysAgo(evening, RUNNER, now)).toBe('yesterday');
+    expect(formatDaysAgo(evening, FAR_COACH, now)).toBe('yesterday');
+    const lunch = '2026-12-04T18:00:00.000Z'; // 4 Dec, 12:00 in Chicago (today there); 5 Dec, 03:00 in Tokyo (today)
+    expect(formatDaysAgo(lunch, RUNNER, now)).toBe('today');
+    const lateNight = '2026-12-04T14:30:00.000Z'; // 4 Dec, 08:30 in Chicago (today); 4 Dec, 23:30 in Tokyo (yesterday)
+    expect(formatDaysAgo(lateNight, RUNNER, now)).toBe('today');
+    expect(formatDaysAgo(lateNight, FAR_COACH, now)).toBe('yesterday');
+    expect(daysAgoReadsDifferently(lateNight, RUNNER, FAR_COACH, now)).toBe(true);
+    expect(daysAgoReadsDifferently(evening, RUNNER, FAR_COACH, now)).toBe(false);
+    expect(daysAgoReadsDifferently(null, RUNNER, FAR_COACH, now)).toBe(false);
+    expect(formatDaysAgo('2026-11-30T15:00:00.000Z', RUNNER, now)).toBe('4 days ago'); // 30 Nov, 09:00 in Chicago
   });
 });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatDaysAgo } from '../../../client/features/squad/utils/week-format.ts';
+import { formatDaysAgo } from '../../../client/lib/format.ts';
 
 describe('formatDaysAgo: "last upload" counted in the profile time zone, not the device one', () => {
   // 5 Dec 2026 09:00 UTC. IANA tzdata: Asia/Kolkata is UTC+5:30, America/Chicago UTC−6 in winter (CST).

@@ -208,7 +208,17 @@ const html = renderToStaticMarkup(
   createElement(
     QueryClientProvider,
     { client: new QueryClient() },
-    createElement(MemoryRouter, null, createElement(WeekDays, { week, unit: 'km', meId: COACH_ID })),
+    createElement(
+      MemoryRouter,
+      null,
+      createElement(WeekDays, {
+        week,
+        unit: 'km',
+        meId: COACH_ID,
+        // The days card names the runner's clock once (week-review.tsx); its lines then show bare times.
+        clock: { timeZone: week.time_zone, viewerIsRunner: false, named: true },
+      }),
+    ),
   ),
 );
 

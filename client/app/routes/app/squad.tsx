@@ -185,7 +185,6 @@ function SquadWeek({ squad, squads, monday, today, onPick }: SquadWeekProps) {
             <SquadOverviewTable
               rows={overview.rows}
               unit={profile.unit}
-              timeZone={profile.time_zone}
               caption={`${squad.name}, ${formatWeekRange(monday)}: one row per runner`}
             />
           ) : (

@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { Card } from '../../../components/ui/card.tsx';
-import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
+import { CardClockWords, CardTime, cardClock, ZonedTime } from '../../../components/ui/zoned-time.tsx';
 import { paths } from '../../../config/paths.ts';
 import { useUnread } from '../api/unread.ts';
 import { UnreadDot } from './unread-dot.tsx';
@@ -23,13 +23,25 @@ export function NewNotesCard({ about, notAbout, weekHref }: NewNotesCardProps) {
     (i) => (about === undefined || i.runner_id === about) && (notAbout === undefined || i.runner_id !== notAbout),
   );
   if (items.length === 0) return null;
+  const shown = items.slice(0, SHOWN);
+  // Notes about one runner name that runner's clock once, in the heading; about several, each line names its own.
+  const first = shown[0]!;
+  const clock = shown.every((i) => i.runner_id === first.runner_id)
+    ? cardClock(
+        shown.map((i) => ({ iso: i.created_at, shape: 'date-time' })),
+        first.runner_time_zone,
+        first.runner_id === about,
+      )
+    : null;
   return (
     <Card
       title={`New notes · ${items.length}`}
-      description="Written to you and not opened yet. Opening a run or week marks them read."
+      description={
+        <>Written to you and not opened yet. Opening a run or week marks them read. {clock && <CardClockWords clock={clock} />}</>
+      }
     >
       <ul className="flex flex-col gap-2 text-sm">
-        {items.slice(0, SHOWN).map((item) => (
+        {shown.map((item) => (
           <li key={item.id} className="flex flex-wrap items-baseline gap-x-2">
             <UnreadDot />
             <Link
@@ -39,7 +51,11 @@ export function NewNotesCard({ about, notAbout, weekHref }: NewNotesCardProps) {
               {item.author_name} on {item.run_id ? 'a run' : 'a week'}
             </Link>
             <span className="text-ink-muted">
-              <ZonedTime iso={item.created_at} timeZone={item.runner_time_zone} viewerIsRunner={item.runner_id === about} />
+              {clock ? (
+                <CardTime iso={item.created_at} clock={clock} />
+              ) : (
+                <ZonedTime iso={item.created_at} timeZone={item.runner_time_zone} viewerIsRunner={item.runner_id === about} />
+              )}
             </span>
             <span className="w-full break-words text-ink-muted">“{item.excerpt}”</span>
           </li>

@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { CONTROL_CLASSES, FieldShell } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
+import { CardClockWords, CardTime, cardClock, type CardClock } from '../../../components/ui/zoned-time.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { useMarkReadOnOpen } from '../../notes/index.ts';
@@ -16,15 +16,28 @@ type RunNotesCardProps = {
   runId: string;
   myId: string | undefined;
   ownerId?: string;
-  /** The runner's profile zone: when each note was written is shown on the runner's clock. */
+  /** The runner's profile zone: when each note was written is shown on the runner's clock, named once in the heading. */
   ownerZone: string;
 };
 
 /** The thread between a runner and their coaches about one run. */
 export function RunNotesCard({ runId, myId, ownerId, ownerZone }: RunNotesCardProps) {
-  const clock = { timeZone: ownerZone, viewerIsRunner: ownerId !== undefined && ownerId === myId };
+  // The same query as the thread's (one request): the heading names the runner's clock once for all the notes.
+  const { data: notes } = useRunNotes(runId);
+  const clock = cardClock(
+    (notes ?? []).map((n) => ({ iso: n.created_at, shape: 'date-time' })),
+    ownerZone,
+    ownerId !== undefined && ownerId === myId,
+  );
   return (
-    <Card title="Notes" description="Between the runner and their coaches: nobody else reads them.">
+    <Card
+      title="Notes"
+      description={
+        <>
+          Between the runner and their coaches: nobody else reads them. <CardClockWords clock={clock} />
+        </>
+      }
+    >
       <div className="flex flex-col gap-4">
         <NoteThread runId={runId} myId={myId} clock={clock} />
         <NoteForm runId={runId} canFlag={ownerId !== undefined && ownerId === myId} />
@@ -33,9 +46,7 @@ export function RunNotesCard({ runId, myId, ownerId, ownerZone }: RunNotesCardPr
   );
 }
 
-type Clock = { timeZone: string; viewerIsRunner: boolean };
-
-function NoteThread({ runId, myId, clock }: { runId: string; myId: string | undefined; clock: Clock }) {
+function NoteThread({ runId, myId, clock }: { runId: string; myId: string | undefined; clock: CardClock }) {
   const { data: notes, isPending, error } = useRunNotes(runId);
   // Opening the run opens its notes: marked read now, their "new" marker kept for this visit.
   useMarkReadOnOpen((notes ?? []).filter((n) => n.unread).map((n) => n.id));
@@ -51,7 +62,7 @@ function NoteThread({ runId, myId, clock }: { runId: string; myId: string | unde
   );
 }
 
-function NoteItem({ note, mine, clock }: { note: RunNote; mine: boolean; clock: Clock }) {
+function NoteItem({ note, mine, clock }: { note: RunNote; mine: boolean; clock: CardClock }) {
   return (
     <li
       className={cn('rounded-md border-l-4 bg-paper px-3 py-2', note.author.role === 'coach' ? 'border-tartan' : 'border-teal')}
@@ -61,7 +72,7 @@ function NoteItem({ note, mine, clock }: { note: RunNote; mine: boolean; clock: 
         {note.author.role === 'coach' && <span className="text-ink-muted"> · coach</span>}
         <span className="text-ink-muted">
           {' · '}
-          <ZonedTime iso={note.created_at} {...clock} />
+          <CardTime iso={note.created_at} clock={clock} />
         </span>
         {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
         {note.unread && <UnreadDot />}

@@ -24,8 +24,10 @@ export function SquadOverviewHow() {
           runner’s week review. Flags describe what the numbers show; you decide what they mean for your runner.
         </li>
         <li>
-          <strong className="text-ink">Last upload</strong> is when the runner last imported a run, in days on this device.{' '}
-          <strong className="text-ink">12 weeks</strong> is the run distance of each week up to this one, oldest on the left.
+          <strong className="text-ink">Last upload</strong> is when the runner last imported a run, in the runner’s own calendar
+          days (their profile’s time zone, as their week is); when this device’s calendar would count otherwise, the cell names
+          the runner’s clock. <strong className="text-ink">12 weeks</strong> is the run distance of each week up to this one,
+          oldest on the left.
         </li>
       </ul>
     </details>

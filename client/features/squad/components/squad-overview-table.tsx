@@ -6,15 +6,14 @@ import { DataTable } from '../../../components/ui/data-table.tsx';
 import { paths } from '../../../config/paths.ts';
 import { sortableTableFeatures, type SortableTableFeatures } from '../../../lib/table.ts';
 import type { OverviewRow } from '../api/types.ts';
+import { ZonedDaysAgo } from '../../../components/ui/zoned-time.tsx';
 import { formatHoursMinutes } from '../../../lib/format.ts';
-import { flagWords, formatDaysAgo } from '../utils/week-format.ts';
+import { flagWords } from '../utils/week-format.ts';
 import { VolumeSparkline } from './volume-sparkline.tsx';
 
 type Row = {
   source: OverviewRow;
   unit: Unit;
-  /** The viewer's profile time zone: "last upload" counts its calendar days. */
-  timeZone: string;
   runner: string;
   planned: number;
   run: number;
@@ -112,7 +111,11 @@ const COLUMNS = helper.columns([
   helper.accessor('last_upload', {
     header: 'Last upload',
     ...number,
-    cell: (info) => formatDaysAgo(info.row.original.source.last_upload, info.row.original.timeZone),
+    // The runner's calendar days, as their week and today are (the row's own zone), not the coach's.
+    cell: (info) => {
+      const { last_upload: at, time_zone: timeZone } = info.row.original.source;
+      return <ZonedDaysAgo iso={at} timeZone={timeZone} viewerIsRunner={false} />;
+    },
   }),
   helper.accessor('reviewed', {
     header: 'Reviewed',
@@ -137,14 +140,13 @@ const COLUMNS = helper.columns([
   }),
 ]);
 
-type SquadOverviewTableProps = { rows: OverviewRow[]; unit: Unit; timeZone: string; caption: string };
+type SquadOverviewTableProps = { rows: OverviewRow[]; unit: Unit; caption: string };
 
 /** One row per runner for the chosen week; every column but the sparkline sorts. */
-export function SquadOverviewTable({ rows, unit, timeZone, caption }: SquadOverviewTableProps) {
+export function SquadOverviewTable({ rows, unit, caption }: SquadOverviewTableProps) {
   const data: Row[] = rows.map((source) => ({
     source,
     unit,
-    timeZone,
     runner: source.runner.name,
     planned: source.planned_distance_m,
     run: source.run_distance_m,

@@ -3,6 +3,7 @@ import type { Unit } from '../../../../shared/users/schemas.ts';
 import { missedLabel, type MissedReason, type WeekDayMark } from '../../../../shared/weeks/day-marks.ts';
 import type { WeekPlan } from '../../../../shared/weeks/week-review.ts';
 import { Verdict } from '../../../components/ui/verdict.tsx';
+import type { CardClock } from '../../../components/ui/zoned-time.tsx';
 import { cn } from '../../../lib/cn.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { UnreadDot } from '../../notes/index.ts';
@@ -10,13 +11,13 @@ import { WeekRunEntry } from './week-run-entry.tsx';
 import { formatHoursMinutes } from '../../../lib/format.ts';
 import { formatDay } from '../utils/week-format.ts';
 
-type WeekDaysProps = { week: RunnerWeek; unit: Unit; meId: string };
+type WeekDaysProps = { week: RunnerWeek; unit: Unit; meId: string; clock: CardClock };
 
 /**
  * The seven days, one row each: on a wide screen the day, its plans and its runs side by side (the runs carry the
  * runner's own words, so they get the room); on a phone the same stacked.
  */
-export function WeekDays({ week, unit, meId }: WeekDaysProps) {
+export function WeekDays({ week, unit, meId, clock }: WeekDaysProps) {
   return (
     <ol className="grid grid-cols-1 gap-2">
       {week.days.map((day) => {
@@ -47,14 +48,7 @@ export function WeekDays({ week, unit, meId }: WeekDaysProps) {
             </div>
             <div className="flex min-w-0 flex-col gap-2">
               {day.runs.map((run) => (
-                <WeekRunEntry
-                  key={run.id}
-                  run={run}
-                  unit={unit}
-                  meId={meId}
-                  runnerId={week.runner_id}
-                  runnerZone={week.time_zone}
-                />
+                <WeekRunEntry key={run.id} run={run} unit={unit} meId={meId} runnerId={week.runner_id} clock={clock} />
               ))}
               {day.runs.length === 0 && day.date <= week.today && <p className="text-sm text-ink-muted">No run.</p>}
             </div>

@@ -3,15 +3,23 @@ import { NewRunNoteInputSchema } from '../../../../shared/runs/schemas.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { CONTROL_CLASSES, FieldShell } from '../../../components/ui/field.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
+import { CardTime, type CardClock } from '../../../components/ui/zoned-time.tsx';
 import { cn } from '../../../lib/cn.ts';
 import { readText, useSchemaForm } from '../../../lib/form.ts';
 import { UnreadDot } from '../../notes/index.ts';
 import { useAddWeekNote } from '../api/add-week-note.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 
+type WeekNotesProps = {
+  week: RunnerWeek;
+  meId: string;
+  otherSide: string;
+  /** The card's clock (the runner's zone), named once in the card's heading: each note shows a bare time. */
+  clock: CardClock;
+};
+
 /** The week's notes, oldest first, from the runner and their coaches; both sides read and write them. */
-export function WeekNotes({ week, meId, otherSide }: { week: RunnerWeek; meId: string; otherSide: string }) {
+export function WeekNotes({ week, meId, otherSide, clock }: WeekNotesProps) {
   const mutation = useAddWeekNote(week.runner_id, week.start);
   const formRef = useRef<HTMLFormElement>(null);
   const { onSubmit, fieldErrors, formError } = useSchemaForm({
@@ -37,7 +45,7 @@ export function WeekNotes({ week, meId, otherSide }: { week: RunnerWeek; meId: s
               <p className="text-xs text-ink-muted">
                 <span className="font-semibold text-ink">{note.author.id === meId ? 'You' : note.author.name}</span>
                 {note.author.role === 'coach' && note.author.id !== meId && ' (coach)'} ·{' '}
-                <ZonedTime iso={note.created_at} timeZone={week.time_zone} viewerIsRunner={meId === week.runner_id} />
+                <CardTime iso={note.created_at} clock={clock} />
                 {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
                 {note.unread && <UnreadDot />}
               </p>

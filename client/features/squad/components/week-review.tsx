@@ -4,7 +4,7 @@ import { addDays } from '../../../../shared/weeks/weeks.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { Card } from '../../../components/ui/card.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
-import { ZonedTime } from '../../../components/ui/zoned-time.tsx';
+import { CardClockWords, CardTime, cardClock, type CardClock, type CardMoment } from '../../../components/ui/zoned-time.tsx';
 import { useMarkReadOnOpen } from '../../notes/index.ts';
 import { runnerWeekCsvHref } from '../api/get-runner-week.ts';
 import { useSetWeekReviewed } from '../api/set-week-reviewed.ts';
@@ -39,6 +39,14 @@ export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekRev
     ...week.days.flatMap((d) => d.runs.flatMap((r) => r.notes.filter((n) => n.unread).map((n) => n.id))),
   ]);
   const isCurrent = week.today >= week.start && week.today <= week.end;
+  // Each card names the runner's clock once (when this device reads any of its times otherwise), its lines show bare times.
+  const viewerIsRunner = meId === week.runner_id;
+  const daysClock = cardClock(daysMoments(week), week.time_zone, viewerIsRunner);
+  const notesClock = cardClock(
+    week.notes.map((n) => ({ iso: n.created_at, shape: 'date-time' })),
+    week.time_zone,
+    viewerIsRunner,
+  );
   return (
     <div className="flex flex-col gap-4">
       <Card>
@@ -55,15 +63,15 @@ export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekRev
             {viewer === 'coach' && <ReviewToggle week={week} meId={meId} />}
           </div>
         </div>
-        <Reviewers week={week} meId={meId} />
-        <WeekDays week={week} unit={unit} meId={meId} />
+        <CardClockWords clock={daysClock} className="mb-2 block text-xs text-ink-muted" />
+        <Reviewers week={week} meId={meId} clock={daysClock} />
+        <WeekDays week={week} unit={unit} meId={meId} clock={daysClock} />
       </Card>
 
       <div className="grid grid-cols-1 gap-4 lg:grid-cols-2 lg:items-start">
         <div className="flex min-w-0 flex-col gap-4">
           <Card title="Planned and run">
-            {/* "Last upload … days ago" counts the runner's days, as the week's "today" does (client/README.md, "Whose clock"). */}
-            <WeekTotals week={week} unit={unit} timeZone={week.time_zone} />
+            <WeekTotals week={week} unit={unit} viewerIsRunner={meId === week.runner_id} />
           </Card>
           <Card title="Flags">
             <WeekFlags week={week} />
@@ -73,8 +81,16 @@ export function WeekReview({ week, unit, meId, viewer, weekHref, lead }: WeekRev
           <Card title="Load">
             <WeekLoad week={week} unit={unit} />
           </Card>
-          <Card title={week.unread_notes > 0 ? `Notes · ${week.unread_notes} new` : 'Notes'}>
-            <WeekNotes week={week} meId={meId} otherSide={viewer === 'coach' ? week.runner.name : 'your coach'} />
+          <Card
+            title={week.unread_notes > 0 ? `Notes · ${week.unread_notes} new` : 'Notes'}
+            description={notesClock.named ? <CardClockWords clock={notesClock} /> : undefined}
+          >
+            <WeekNotes
+              week={week}
+              meId={meId}
+              otherSide={viewer === 'coach' ? week.runner.name : 'your coach'}
+              clock={notesClock}
+            />
           </Card>
         </div>
       </div>
@@ -107,8 +123,23 @@ function ReviewToggle({ week, meId }: { week: RunnerWeek; meId: string }) {
   );
 }
 
+/** The moments the days card shows: who reviewed and when, and per run its start, check-in and notes. */
+function daysMoments(week: RunnerWeek): CardMoment[] {
+  return [
+    ...week.reviewed_by.map((r) => ({ iso: r.reviewed_at, shape: 'date' as const })),
+    ...week.days.flatMap((d) =>
+      d.runs.flatMap((run) => [
+        // A start counts toward the card's clock only when it is dated on that clock (not a run away from home).
+        ...(run.time_zone === week.time_zone ? [{ iso: run.started_at, shape: 'time' as const }] : []),
+        ...(run.checkin ? [{ iso: run.checkin.updated_at, shape: 'date-time' as const }] : []),
+        ...run.notes.map((n) => ({ iso: n.created_at, shape: 'date-time' as const })),
+      ]),
+    ),
+  ];
+}
+
 /** Who has reviewed the week, for both sides to see. */
-function Reviewers({ week, meId }: { week: RunnerWeek; meId: string }) {
+function Reviewers({ week, meId, clock }: { week: RunnerWeek; meId: string; clock: CardClock }) {
   if (week.reviewed_by.length === 0) return null;
   return (
     <p className="mb-3 text-sm text-ink-muted">
@@ -119,8 +150,7 @@ function Reviewers({ week, meId }: { week: RunnerWeek; meId: string }) {
       {week.reviewed_by.map((r, i) => (
         <Fragment key={r.coach_id}>
           {i > 0 && ', '}
-          {r.coach_id === meId ? 'you' : r.coach_name} on{' '}
-          <ZonedTime iso={r.reviewed_at} timeZone={week.time_zone} viewerIsRunner={meId === week.runner_id} shape="date" />
+          {r.coach_id === meId ? 'you' : r.coach_name} on <CardTime iso={r.reviewed_at} clock={clock} shape="date" />
         </Fragment>
       ))}
       .

@@ -8,7 +8,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { FormAlert } from '../../../components/ui/form-alert.tsx';
 import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
-import { ClockWords, ZonedTime } from '../../../components/ui/zoned-time.tsx';
+import { CardTime, LineClockWords, type CardClock } from '../../../components/ui/zoned-time.tsx';
 import { UnreadDot } from '../../notes/index.ts';
 import { useReplyOnRun } from '../api/reply-on-run.ts';
 
@@ -19,14 +19,16 @@ type WeekRunEntryProps = {
   unit: Unit;
   meId: string;
   runnerId: string;
-  /** The runner's profile zone: the check-in and notes are shown on it (the start on the run's own zone). */
-  runnerZone: string;
+  /**
+   * The card's clock, the runner's profile zone, named once above the days: the check-in and notes show bare times
+   * on it; the start is on the run's own zone and names it only when that reads otherwise.
+   */
+  clock: CardClock;
 };
 
 /** One run of the week as the runner told it: figures, verdict and why, fuel, check-in, notes, and a reply box. */
-export function WeekRunEntry({ run, unit, meId, runnerId, runnerZone }: WeekRunEntryProps) {
+export function WeekRunEntry({ run, unit, meId, runnerId, clock }: WeekRunEntryProps) {
   const pace = formatPaceIn(run.pace_s_per_km, unit);
-  const viewerIsRunner = meId === runnerId;
   return (
     <div className="flex flex-col gap-1 rounded-sm bg-paper px-2 py-1" data-run-id={run.id}>
       <Link
@@ -39,8 +41,8 @@ export function WeekRunEntry({ run, unit, meId, runnerId, runnerZone }: WeekRunE
       <p className="text-xs text-ink-muted tabular-nums">
         {/* The start as the run is dated: in the zone it was run in (the stored local time, shown as is). */}
         <time dateTime={run.started_at}>{run.local_time}</time>
-        <ClockWords iso={run.started_at} timeZone={run.time_zone} viewerIsRunner={viewerIsRunner} /> ·{' '}
-        {formatDuration(run.moving_s)} moving{pace && ` · ${pace}`}
+        <LineClockWords iso={run.started_at} timeZone={run.time_zone} clock={clock} /> · {formatDuration(run.moving_s)} moving
+        {pace && ` · ${pace}`}
         {run.trimp !== null && ` · TRIMP ${Math.round(run.trimp)}`}
         {run.avg_hr !== null && ` · ♥ ${Math.round(run.avg_hr)}`}
         {(run.goal_pace_s ?? 0) > 0 && ` · ${formatDuration(run.goal_pace_s ?? 0)} at goal pace`}
@@ -55,8 +57,8 @@ export function WeekRunEntry({ run, unit, meId, runnerId, runnerZone }: WeekRunE
       )}
       {run.reps_line && <p className="text-xs break-words text-ink tabular-nums">{run.reps_line}</p>}
       {run.fuel_taken && <FuelLine fuel={run.fuel_taken} />}
-      {run.checkin && <CheckinLine checkin={run.checkin} timeZone={runnerZone} viewerIsRunner={viewerIsRunner} />}
-      <RunNotes notes={run.notes} meId={meId} timeZone={runnerZone} viewerIsRunner={viewerIsRunner} />
+      {run.checkin && <CheckinLine checkin={run.checkin} clock={clock} />}
+      <RunNotes notes={run.notes} meId={meId} clock={clock} />
       <ReplyBox runId={run.id} runnerId={runnerId} />
     </div>
   );
@@ -78,9 +80,7 @@ function FuelLine({ fuel }: { fuel: WeekFuelTaken }) {
   );
 }
 
-type Clock = { timeZone: string; viewerIsRunner: boolean };
-
-function CheckinLine({ checkin, timeZone, viewerIsRunner }: { checkin: WeekCheckin } & Clock) {
+function CheckinLine({ checkin, clock }: { checkin: WeekCheckin; clock: CardClock }) {
   const parts = [
     checkin.sleep_hours !== null && `sleep ${one(checkin.sleep_hours)} h`,
     checkin.soreness !== null && `soreness ${checkin.soreness}/5`,
@@ -98,13 +98,13 @@ function CheckinLine({ checkin, timeZone, viewerIsRunner }: { checkin: WeekCheck
       {sore && <span className="font-semibold text-tartan"> · high soreness</span>}
       {checkin.notes && <span className="block whitespace-pre-wrap text-ink-muted">“{checkin.notes}”</span>}
       <span className="block text-ink-muted">
-        checked in <ZonedTime iso={checkin.updated_at} timeZone={timeZone} viewerIsRunner={viewerIsRunner} />
+        checked in <CardTime iso={checkin.updated_at} clock={clock} />
       </span>
     </p>
   );
 }
 
-function RunNotes({ notes, meId, timeZone, viewerIsRunner }: { notes: WeekNote[]; meId: string } & Clock) {
+function RunNotes({ notes, meId, clock }: { notes: WeekNote[]; meId: string; clock: CardClock }) {
   if (notes.length === 0) return null;
   return (
     <ol className="flex flex-col gap-1" aria-label="Notes on this run">
@@ -112,7 +112,7 @@ function RunNotes({ notes, meId, timeZone, viewerIsRunner }: { notes: WeekNote[]
         <li key={note.id} className="rounded-sm border border-line bg-white px-2 py-1 text-xs" data-note-id={note.id}>
           <p className="text-ink-muted">
             <span className="font-semibold text-ink">{note.author.id === meId ? 'You' : note.author.name}</span> ·{' '}
-            <ZonedTime iso={note.created_at} timeZone={timeZone} viewerIsRunner={viewerIsRunner} />
+            <CardTime iso={note.created_at} clock={clock} />
             {note.concern && <span className="font-semibold text-tartan"> · about {note.concern}</span>}{' '}
             {note.unread && <UnreadDot />}
           </p>

@@ -7,7 +7,8 @@ import { Verdict } from '../../../components/ui/verdict.tsx';
 import { paths } from '../../../config/paths.ts';
 import type { RunnerWeek } from '../../../../shared/weeks/week-answer.ts';
 import { formatHoursMinutes } from '../../../lib/format.ts';
-import { formatDay, formatDaysAgo } from '../utils/week-format.ts';
+import { ZonedDaysAgo } from '../../../components/ui/zoned-time.tsx';
+import { formatDay } from '../utils/week-format.ts';
 
 function Figure({ label, children, note }: { label: string; children: ReactNode; note?: ReactNode }) {
   return (
@@ -20,7 +21,7 @@ function Figure({ label, children, note }: { label: string; children: ReactNode;
 }
 
 /** Planned against run, sessions by verdict, the long run and its share of the week. */
-export function WeekTotals({ week, unit, timeZone }: { week: RunnerWeek; unit: Unit; timeZone: string }) {
+export function WeekTotals({ week, unit, viewerIsRunner }: { week: RunnerWeek; unit: Unit; viewerIsRunner: boolean }) {
   const { totals, long_run: longRun } = week;
   const { sessions } = totals;
   const longRunDay = longRun && week.days.find((d) => d.runs.some((r) => r.id === longRun.run_id));
@@ -106,7 +107,8 @@ export function WeekTotals({ week, unit, timeZone }: { week: RunnerWeek; unit: U
         )}
       </Figure>
       <Figure label="Last upload" note="When the runner last imported a run, of any week.">
-        {formatDaysAgo(week.last_upload, timeZone)}
+        {/* The runner's calendar days, as the week's "today" is (client/README.md, "Whose clock"). */}
+        <ZonedDaysAgo iso={week.last_upload} timeZone={week.time_zone} viewerIsRunner={viewerIsRunner} />
       </Figure>
     </dl>
   );

@@ -1,4 +1,3 @@
-import { calendarDaysAgo } from '../../../../shared/runs/local-time.ts';
 import { addDays } from '../../../../shared/weeks/weeks.ts';
 
 const DAY_SHORT = new Intl.DateTimeFormat('en-GB', { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' });
@@ -19,19 +18,6 @@ export function formatDayMonth(date: string): string {
 export function formatWeekRange(start: string): string {
   const end = addDays(start, 6);
   return `${formatDay(start)} – ${formatDay(end)} ${end.slice(0, 4)}`;
-}
-
-/**
- * When something last happened, in calendar days of the profile's time zone (the instant and today both
- * read there, never on the device's clock zone): "today", "yesterday", "3 days ago"; "never" for null.
- * Counted in dates, not hours, so last night's upload is "yesterday".
- */
-export function formatDaysAgo(iso: string | null, timeZone: string, now: number = Date.now()): string {
-  if (!iso) return 'never';
-  const days = calendarDaysAgo(Date.parse(iso), timeZone, now);
-  if (days <= 0) return 'today';
-  if (days === 1) return 'yesterday';
-  return `${days} days ago`;
 }
 
 /** Short words for each flag; the week review shows the full reason beside them. */
