@@ -18,9 +18,13 @@ export const ELEVATION_HYSTERESIS_M = 3;
  * values; before the first and after the last known value the nearest one is repeated.
  * Returns null when no value is known. `t` must be increasing (ms).
  */
-export function fillMissing(t: Float64Array, values: Float64Array): Float64Array | null {
+export function fillMissing(
+  t: Float64Array,
+  values: Float64Array,
+  /** Room for the result, one number per point (every value is written when one is known). */
+  out: Float64Array = new Float64Array(values.length),
+): Float64Array | null {
   const n = values.length;
-  const out = new Float64Array(n);
   let prev = -1;
   for (let i = 0; i < n; i += BLOCK) prev = fillBlock(t, values, out, prev, i, Math.min(n, i + BLOCK));
   if (prev === -1) return null;
@@ -52,9 +56,14 @@ function fillBlock(t: Float64Array, values: Float64Array, out: Float64Array, las
  * Centred moving average over ±`halfWindowS` seconds (time-based, so it suits 1 s and 10 s
  * sampling alike), computed in linear time with a running sum. `t` in ms, increasing.
  */
-export function smoothByTime(t: Float64Array, values: Float64Array, halfWindowS: number): Float64Array {
+export function smoothByTime(
+  t: Float64Array,
+  values: Float64Array,
+  halfWindowS: number,
+  /** Room for the result, one number per point (every value is written). */
+  out: Float64Array = new Float64Array(values.length),
+): Float64Array {
   const n = values.length;
-  const out = new Float64Array(n);
   // The window [lo, hi) and its sum, carried from block to block.
   const window = new Int32Array(2);
   const sum = new Float64Array(1);
@@ -96,9 +105,13 @@ function movingAverageBlock(
  * real climb counts in full. Ascent = sum of rises of the output, descent = sum of falls.
  * An empty input gives an empty output.
  */
-export function hysteresisProfile(values: Float64Array, thresholdM: number): Float64Array {
+export function hysteresisProfile(
+  values: Float64Array,
+  thresholdM: number,
+  /** Room for the result, one number per point (every value is written). */
+  out: Float64Array = new Float64Array(values.length),
+): Float64Array {
   const n = values.length;
-  const out = new Float64Array(n);
   if (n === 0) return out;
   const turns = findTurningPoints(values, thresholdM);
   const first = turns[0];

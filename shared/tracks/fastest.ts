@@ -50,13 +50,29 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
   const bestStartD = new Float64Array(m);
   const pointer = new Int32Array(m);
 
-  const best: Best = { found, bestTime, bestStartT, bestEndT, bestStartD, pointer };
+  // The sweeps take the arrays one by one: an object made per call deoptimised their compiled code on a
+  // long run's first analysis ("code dependencies", tests/bench/README.md, "Session 10").
   // Ends on a point j: start where distance d[j] − D was last held.
-  for (let j = 1; j < n; j += BLOCK) endingSweep(t, d, distance, covered, best, j, Math.min(n, j + BLOCK));
+  for (let j = 1; j < n; j += BLOCK)
+    endingSweep(t, d, distance, covered, found, bestTime, bestStartT, bestEndT, bestStartD, pointer, j, Math.min(n, j + BLOCK));
 
   // Starts on a point s (as it leaves it): end where distance d[s] + D is first reached.
   pointer.fill(1);
-  for (let s = 0; s + 1 < n; s += BLOCK) startingSweep(t, d, distance, covered, best, s, Math.min(n - 1, s + BLOCK));
+  for (let s = 0; s + 1 < n; s += BLOCK)
+    startingSweep(
+      t,
+      d,
+      distance,
+      covered,
+      found,
+      bestTime,
+      bestStartT,
+      bestEndT,
+      bestStartD,
+      pointer,
+      s,
+      Math.min(n - 1, s + BLOCK),
+    );
 
   const out: (FastestSection | null)[] = [];
   for (let k = 0; k < m; k++) {
@@ -77,27 +93,21 @@ function fastestSectionsOf(series: TrackSeries, distancesM: readonly number[]): 
   return out;
 }
 
-/** The best section so far per distance, and each distance's pointer into the points. */
-interface Best {
-  found: Uint8Array;
-  bestTime: Float64Array;
-  bestStartT: Float64Array;
-  bestEndT: Float64Array;
-  bestStartD: Float64Array;
-  pointer: Int32Array;
-}
-
 /** The sweep of sections ending on points j ∈ [from, to). */
 function endingSweep(
   t: ArrayLike<number>,
   d: ArrayLike<number>,
   distance: Float64Array,
   covered: Uint8Array,
-  best: Best,
+  found: Uint8Array,
+  bestTime: Float64Array,
+  bestStartT: Float64Array,
+  bestEndT: Float64Array,
+  bestStartD: Float64Array,
+  pointer: Int32Array,
   from: number,
   to: number,
 ): void {
-  const { found, bestTime, bestStartT, bestEndT, bestStartD, pointer } = best;
   const m = distance.length;
   const d0 = d[0] as number;
   for (let j = from; j < to; j++) {
@@ -130,11 +140,15 @@ function startingSweep(
   d: ArrayLike<number>,
   distance: Float64Array,
   covered: Uint8Array,
-  best: Best,
+  found: Uint8Array,
+  bestTime: Float64Array,
+  bestStartT: Float64Array,
+  bestEndT: Float64Array,
+  bestStartD: Float64Array,
+  pointer: Int32Array,
   from: number,
   to: number,
 ): void {
-  const { found, bestTime, bestStartT, bestEndT, bestStartD, pointer } = best;
   const m = distance.length;
   const last = d[d.length - 1] as number;
   for (let s = from; s < to; s++) {

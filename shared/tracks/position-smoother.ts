@@ -393,23 +393,9 @@ export function smootherWeights(intervalS: number, filterSigmaM: number, q = ACC
   const t = Float64Array.from({ length: n }, (_, i) => i * intervalS * 1000);
   const z = new Float64Array(n);
   z[RESPONSE_HALF_WIDTH] = 1;
-  const w = new Float64Array(n);
-  const sv = new Float64Array(2 * n);
-  smoothStretch(
-    t,
-    z,
-    new Float64Array(n),
-    w,
-    new Float64Array(n),
-    sv,
-    0,
-    n,
-    filterSigmaM * filterSigmaM,
-    q,
-    null,
-    stretchWork(n),
-  );
-  return w;
+  const states = planeStates(n);
+  smoothStretch(t, z, new Float64Array(n), states, 0, n, filterSigmaM * filterSigmaM, q, null, null, q, stretchWork(n));
+  return states.sx;
 }
 
 /**
@@ -488,7 +474,8 @@ export function smoothPositions(
   qSteps: Float64Array | null = null,
 ): SmoothedPositions {
   const plane = toPlane(lat, lon);
-  const states = smoothInPlane(t, plane, segmentStart, sigmaM * sigmaM, q, qSteps, null, stretchWork(t.length));
+  const steps = { qSteps, turnMarks: null, qTurn: q };
+  const states = smoothInPlane(t, plane, segmentStart, sigmaM * sigmaM, q, steps, null, stretchWork(t.length));
   return fromPlane(plane, states);
 }
 
@@ -501,11 +488,36 @@ interface Plane {
   y: Float64Array;
 }
 
-/** Smoothed positions (m) and velocities (m/s, east and north interleaved) in the plane. */
+/**
+ * Per point, the filtered state after the forward pass and the smoothed state after the backward pass
+ * (written over it in place): east position (m) and velocity (m/s), north position and velocity. Four
+ * columns of one buffer, which become the smoothed latitude, longitude and velocities (`fromPlane`).
+ */
 interface PlaneStates {
   sx: Float64Array;
+  vx: Float64Array;
   sy: Float64Array;
-  sv: Float64Array;
+  vy: Float64Array;
+}
+
+function planeStates(n: number): PlaneStates {
+  const room = new Float64Array(4 * n);
+  return {
+    sx: room.subarray(0, n),
+    vx: room.subarray(n, 2 * n),
+    sy: room.subarray(2 * n, 3 * n),
+    vy: room.subarray(3 * n, 4 * n),
+  };
+}
+
+/**
+ * The process noise of each step: `qSteps[i]` for the step into point i when given (tests), else `qTurn`
+ * where `turnMarks` marks both ends of the step, else the run's q.
+ */
+interface StepNoise {
+  qSteps: Float64Array | null;
+  turnMarks: Uint8Array | null;
+  qTurn: number;
 }
 
 function toPlane(lat: ArrayLike<number>, lon: ArrayLike<number>): Plane {
@@ -542,27 +554,19 @@ function toPlaneBlock(
 
 /**
  * Latitude and longitude of the smoothed states, written over their plane positions (`states.sy`, `states.sx`:
- * each is read once, at its own index, before it is written), and their velocities split into `eastMps` and
- * `northMps` (new arrays unless given). Fewer fresh arrays: a 30 h file's first analysis paid for every fresh
- * page it touched (tests/bench/README.md, "Session 9").
+ * each is read once, at its own index, before it is written); the velocities are the states' own columns.
+ * No fresh arrays: a 30 h file's first analysis paid for every fresh page it touched (tests/bench/README.md,
+ * "Session 9" and "Session 10").
  */
-function fromPlane(
-  plane: Plane,
-  states: PlaneStates,
-  eastMps = new Float64Array(plane.x.length),
-  northMps = new Float64Array(plane.x.length),
-): SmoothedPositions {
+function fromPlane(plane: Plane, states: PlaneStates): SmoothedPositions {
   const n = plane.x.length;
   const outLat = states.sy;
   const outLon = states.sx;
   const { lat0, lon0 } = plane;
   const { north, east } = plane.scale;
-  for (let i = 0; i < n; i += BLOCK) {
-    const to = Math.min(n, i + BLOCK);
-    fromPlaneBlock(lat0, lon0, north, east, states.sx, states.sy, outLat, outLon, i, to);
-    splitVelocities(states.sv, eastMps, northMps, i, to);
-  }
-  return { lat: outLat, lon: outLon, east_mps: eastMps, north_mps: northMps };
+  for (let i = 0; i < n; i += BLOCK)
+    fromPlaneBlock(lat0, lon0, north, east, states.sx, states.sy, outLat, outLon, i, Math.min(n, i + BLOCK));
+  return { lat: outLat, lon: outLon, east_mps: states.vx, north_mps: states.vy };
 }
 
 function fromPlaneBlock(
@@ -595,12 +599,12 @@ function smoothInPlane(
   segmentStart: ArrayLike<number>,
   r: number,
   q: number,
-  qSteps: Float64Array | null,
+  steps: StepNoise,
   redo: { marks: Uint8Array; into: PlaneStates } | null,
   work: StretchWork,
 ): PlaneStates {
   const n = t.length;
-  const states = redo ? redo.into : { sx: new Float64Array(n), sy: new Float64Array(n), sv: new Float64Array(2 * n) };
+  const states = redo ? redo.into : planeStates(n);
   const marks = redo ? redo.marks : null;
   // marked[0]: 1 when a point of the stretch so far is marked (carried from block to block).
   const marked = new Uint8Array(1);
@@ -612,7 +616,8 @@ function smoothInPlane(
       from += BLOCK;
       continue;
     }
-    if (!redo || marked[0]) smoothStretch(t, plane.x, plane.y, states.sx, states.sy, states.sv, start, end, r, q, qSteps, work);
+    if (!redo || marked[0])
+      smoothStretch(t, plane.x, plane.y, states, start, end, r, q, steps.qSteps, steps.turnMarks, steps.qTurn, work);
     start = end;
     marked[0] = 0;
     from = end + 1;
@@ -674,10 +679,11 @@ export function findManoeuvres(
   east_mps: ArrayLike<number>,
   north_mps: ArrayLike<number>,
   segmentStart: ArrayLike<number>,
+  /** Room for one number per point (every value is written before it is read). */
+  turned: Float64Array = new Float64Array(t.length),
 ): Uint8Array | null {
   const n = t.length;
-  // Cumulative signed heading change up to each point (0 across breaks and where too slow to steer).
-  const turned = new Float64Array(n);
+  // `turned`: cumulative signed heading change up to each point (0 across breaks and where too slow to steer).
   const heading = new Float64Array([Number.NaN]);
   for (let i = 0; i < n; i += BLOCK)
     turnedBlock(t, east_mps, north_mps, segmentStart, turned, heading, i, Math.min(n, i + BLOCK));
@@ -818,29 +824,30 @@ export function smoothPositionsThroughTurns(
   const r = sigmaM * sigmaM;
   const n = t.length;
   const work = stretchWork(n);
-  const first = smoothInPlane(t, plane, segmentStart, r, q, null, null, work);
-  const east = new Float64Array(n);
-  const north = new Float64Array(n);
-  for (let i = 0; i < n; i += BLOCK) splitVelocities(first.sv, east, north, i, Math.min(n, i + BLOCK));
-  const turns = findManoeuvres(t, east, north, segmentStart);
-  const stops = findStopEdges(t, east, north, segmentStart);
+  const first = smoothInPlane(t, plane, segmentStart, r, q, { qSteps: null, turnMarks: null, qTurn: q }, null, work);
+  // The smoother gains are spent between the passes (each stretch's forward pass writes them before its
+  // backward pass reads them): the heading sums go there.
+  const turns = findManoeuvres(t, first.vx, first.vy, segmentStart, work.gain.subarray(0, n));
+  const stops = findStopEdges(t, first.vx, first.vy, segmentStart);
   const marks = turns && stops ? eitherMarked(turns, stops) : (turns ?? stops);
-  // `east` and `north` are not read again: they take the smoothed velocities.
-  if (!marks) return { ...fromPlane(plane, first, east, north), manoeuvre: null, turn: null, scratch: work.filtered };
-  const qSteps = new Float64Array(n);
+  // Left for the caller's temporary columns: the gains and the plane positions, no longer read.
+  const scratch = [work.gain, plane.x, plane.y];
+  if (!marks) return { ...fromPlane(plane, first), manoeuvre: null, turn: null, scratch };
+  const qTurn = Math.max(q, r * TURN_CUTOFF_RAD_S ** 4);
   const manoeuvre = new Uint8Array(n);
   // The step into point i is inside the manoeuvre when both its ends are.
-  manoeuvreNoise(marks, q, Math.max(q, r * TURN_CUTOFF_RAD_S ** 4), qSteps, manoeuvre);
-  const second = smoothInPlane(t, plane, segmentStart, r, q, qSteps, { marks, into: first }, work);
-  return { ...fromPlane(plane, second, east, north), manoeuvre, turn: turns, scratch: work.filtered };
-}
-
-/** East and north velocities of points [from, to) out of the interleaved smoothed velocities. */
-function splitVelocities(sv: Float64Array, east: Float64Array, north: Float64Array, from: number, to: number): void {
-  for (let i = from; i < to; i++) {
-    east[i] = sv[2 * i] as number;
-    north[i] = sv[2 * i + 1] as number;
-  }
+  manoeuvreSteps(marks, q, qTurn, manoeuvre);
+  const second = smoothInPlane(
+    t,
+    plane,
+    segmentStart,
+    r,
+    q,
+    { qSteps: null, turnMarks: marks, qTurn },
+    { marks, into: first },
+    work,
+  );
+  return { ...fromPlane(plane, second), manoeuvre, turn: turns, scratch };
 }
 
 function eitherMarked(a: Uint8Array, b: Uint8Array): Uint8Array {
@@ -853,28 +860,15 @@ function eitherMarkedBlock(a: Uint8Array, b: Uint8Array, marks: Uint8Array, from
   for (let i = from; i < to; i++) marks[i] = (a[i] as number) | (b[i] as number);
 }
 
-/**
- * Process noise of each step (`qTurn` where both ends are marked, else `q`) and 1 in `manoeuvre` where it
- * is not `q`.
- */
-function manoeuvreNoise(marks: Uint8Array, q: number, qTurn: number, qSteps: Float64Array, manoeuvre: Uint8Array): void {
-  const n = qSteps.length;
-  if (n > 0) qSteps[0] = q;
-  for (let i = 1; i < n; i += BLOCK) manoeuvreNoiseBlock(marks, q, qTurn, qSteps, manoeuvre, i, Math.min(n, i + BLOCK));
+/** 1 in `manoeuvre` where the step into point i has the manoeuvre's process noise (`qTurn` where both its ends are marked, and not `q`). */
+function manoeuvreSteps(marks: Uint8Array, q: number, qTurn: number, manoeuvre: Uint8Array): void {
+  const n = manoeuvre.length;
+  for (let i = 1; i < n; i += BLOCK) manoeuvreStepsBlock(marks, q, qTurn, manoeuvre, i, Math.min(n, i + BLOCK));
 }
 
-function manoeuvreNoiseBlock(
-  marks: Uint8Array,
-  q: number,
-  qTurn: number,
-  qSteps: Float64Array,
-  manoeuvre: Uint8Array,
-  from: number,
-  to: number,
-): void {
+function manoeuvreStepsBlock(marks: Uint8Array, q: number, qTurn: number, manoeuvre: Uint8Array, from: number, to: number): void {
   for (let i = from; i < to; i++) {
     const stepQ = marks[i] && marks[i - 1] ? qTurn : q;
-    qSteps[i] = stepQ;
     manoeuvre[i] = stepQ === q ? 0 : 1;
   }
 }
@@ -900,9 +894,11 @@ export function bendGainFactors(
   moving: ArrayLike<number>,
   sigmaM: number,
   q = ACCELERATION_DENSITY,
+  /** Room for the result, one number per point (every value is set here). */
+  factors: Float64Array = new Float64Array(t.length),
 ): Float64Array {
   const n = t.length;
-  const factors = new Float64Array(n).fill(1);
+  factors.fill(1);
   const cutoff = (q / (sigmaM * sigmaM)) ** 0.25;
   const manoeuvre = smooth.manoeuvre ?? null;
   for (let i = 1; i < n; i += BLOCK)
@@ -959,11 +955,11 @@ export interface SmoothedPositions {
   /** From `smoothPositionsThroughTurns`: 1 per point inside a turn (`findManoeuvres`), null without any. */
   turn?: Uint8Array | null;
   /**
-   * From `smoothPositionsThroughTurns`: room for 4 numbers per point that the smoother no longer reads (its
-   * forward pass's states), for the caller's own temporary columns, so they need no fresh memory. Holds
+   * From `smoothPositionsThroughTurns`: room the smoother no longer reads (its gains, 4 numbers per point, and
+   * its plane positions, 1 each), for the caller's own temporary columns, so they need no fresh memory. Holds
    * leftovers of this track's smoothing: whoever carves a column out of it sets every value it reads.
    */
-  scratch?: Float64Array | null;
+  scratch?: Float64Array[] | null;
 }
 
 /**
@@ -972,8 +968,6 @@ export interface SmoothedPositions {
  * 108 000 points: fresh arrays per pass were a good part of the garbage collector's work).
  */
 interface StretchWork {
-  /** Filtered state per point: east position, east velocity, north position, north velocity. */
-  filtered: Float64Array;
   /** The RTS smoother gain Cₖ per point: c00, c01, c10, c11 (shared by both axes). */
   gain: Float64Array;
   /** What one block of steps hands the next (`forwardBlock`, `backwardBlock`). */
@@ -981,29 +975,32 @@ interface StretchWork {
 }
 
 function stretchWork(capacity: number): StretchWork {
-  return { filtered: new Float64Array(4 * capacity), gain: new Float64Array(4 * capacity), state: new Float64Array(8) };
+  return { gain: new Float64Array(4 * capacity), state: new Float64Array(8) };
 }
 
 /**
  * Filter and smooth points [from, to) of both axes; the covariances are shared by the axes. The smoother
  * gain Cₖ = Pₖ Fᵀ (P⁻ₖ₊₁)⁻¹ is formed in the forward pass as soon as P⁻ₖ₊₁ is known (the same operations
  * in the same order as forming it in the backward pass, so the same bits), and the predicted state
- * x⁻ₖ₊₁ = F x̂ₖ is formed again in the backward pass from the filtered one: only 8 numbers per point are kept.
+ * x⁻ₖ₊₁ = F x̂ₖ is formed again in the backward pass from the filtered one. The filtered states are written
+ * into `states` and the smoothed ones over them (the backward step at k reads the filtered state at k
+ * before it writes the smoothed one there): 8 numbers per point in all, 4 of which are the result.
  */
 function smoothStretch(
   t: ArrayLike<number>,
   x: Float64Array,
   y: Float64Array,
-  sx: Float64Array,
-  sy: Float64Array,
-  sv: Float64Array,
+  states: PlaneStates,
   from: number,
   to: number,
   r: number,
   qAll: number,
   qSteps: Float64Array | null,
+  turnMarks: Uint8Array | null,
+  qTurn: number,
   work: StretchWork,
 ): void {
+  const { sx, vx, sy, vy } = states;
   const len = to - from;
   if (len < 3) {
     for (let i = from; i < to; i++) {
@@ -1013,14 +1010,13 @@ function smoothStretch(
     // Two points: the straight line between them at constant speed; one point: standing.
     if (len === 2) {
       const dt = ((t[from + 1] as number) - (t[from] as number)) / 1000;
-      const vx = ((x[from + 1] as number) - (x[from] as number)) / dt;
-      const vy = ((y[from + 1] as number) - (y[from] as number)) / dt;
-      sv[2 * from] = sv[2 * from + 2] = vx;
-      sv[2 * from + 1] = sv[2 * from + 3] = vy;
+      const ex = ((x[from + 1] as number) - (x[from] as number)) / dt;
+      const ny = ((y[from + 1] as number) - (y[from] as number)) / dt;
+      vx[from] = vx[from + 1] = ex;
+      vy[from] = vy[from + 1] = ny;
     }
     return;
   }
-  const f = work.filtered;
   const c = work.gain;
   const state = work.state;
   // First point: position as measured, velocity unknown (10 m/s standard deviation).
@@ -1032,21 +1028,35 @@ function smoothStretch(
   state[P01] = 0;
   state[P11] = 100;
   state[TIME] = t[from] as number;
-  f[0] = state[FX];
-  f[1] = 0;
-  f[2] = state[FY];
-  f[3] = 0;
+  sx[from] = state[FX];
+  vx[from] = 0;
+  sy[from] = state[FY];
+  vy[from] = 0;
   // In blocks, so that the warm-up of a short run already compiles these loops for the next call.
   for (let k = 1; k < len; k += SMOOTHER_BLOCK)
-    forwardBlock(t, x, y, from, k, Math.min(len, k + SMOOTHER_BLOCK), r, qAll, qSteps, f, c, state);
-  // RTS backward pass: x̂ₖ = xₖ + Cₖ (x̂ₖ₊₁ − x⁻ₖ₊₁).
-  sx[to - 1] = state[FX];
-  sy[to - 1] = state[FY];
-  sv[2 * (to - 1)] = state[FV];
-  sv[2 * (to - 1) + 1] = state[FW];
+    forwardBlock(
+      t,
+      x,
+      y,
+      from,
+      k,
+      Math.min(len, k + SMOOTHER_BLOCK),
+      r,
+      qAll,
+      qSteps,
+      turnMarks,
+      qTurn,
+      sx,
+      vx,
+      sy,
+      vy,
+      c,
+      state,
+    );
+  // RTS backward pass: x̂ₖ = xₖ + Cₖ (x̂ₖ₊₁ − x⁻ₖ₊₁). The last point's smoothed state is its filtered one.
   state[TIME] = t[to - 1] as number;
   for (let k = len - 2; k >= 0; k -= SMOOTHER_BLOCK)
-    backwardBlock(t, from, k, Math.max(-1, k - SMOOTHER_BLOCK), f, c, sx, sy, sv, state);
+    backwardBlock(t, from, k, Math.max(-1, k - SMOOTHER_BLOCK), c, sx, vx, sy, vy, state);
 }
 
 /** Steps per call of `forwardBlock` and `backwardBlock`. */
@@ -1062,7 +1072,10 @@ const P01 = 5;
 const P11 = 6;
 const TIME = 7;
 
-/** Kalman filter steps k ∈ [kFrom, kTo) of the stretch starting at `from`, carrying `state` (see `smoothStretch`). */
+/**
+ * Kalman filter steps k ∈ [kFrom, kTo) of the stretch starting at `from`, carrying `state`, writing the
+ * filtered states into sx, vx, sy, vy (see `smoothStretch`).
+ */
 function forwardBlock(
   t: ArrayLike<number>,
   x: Float64Array,
@@ -1073,7 +1086,12 @@ function forwardBlock(
   r: number,
   qAll: number,
   qSteps: Float64Array | null,
-  f: Float64Array,
+  turnMarks: Uint8Array | null,
+  qTurn: number,
+  sx: Float64Array,
+  vx: Float64Array,
+  sy: Float64Array,
+  vy: Float64Array,
   c: Float64Array,
   state: Float64Array,
 ): void {
@@ -1086,10 +1104,14 @@ function forwardBlock(
   let a11 = state[P11] as number;
   let tPrev = state[TIME] as number;
   for (let k = kFrom; k < kTo; k++) {
-    const tk = t[from + k] as number;
+    const i = from + k;
+    const tk = t[i] as number;
     const dt = (tk - tPrev) / 1000;
     tPrev = tk;
-    const q = qSteps ? (qSteps[from + k] as number) : qAll;
+    // The step into point i has the manoeuvre's noise when both its ends are marked.
+    let q = qAll;
+    if (qSteps) q = qSteps[i] as number;
+    else if (turnMarks && (turnMarks[i] as number) & (turnMarks[i - 1] as number)) q = qTurn;
     // Predict: P⁻ = F P Fᵀ + Q.
     const b00 = a00 + 2 * dt * a01 + dt * dt * a11 + (q * dt * dt * dt) / 3;
     const b01 = a01 + dt * a11 + (q * dt * dt) / 2;
@@ -1114,17 +1136,16 @@ function forwardBlock(
     const s = b00 + r;
     const k0 = b00 / s;
     const k1 = b01 / s;
-    const ix = (x[from + k] as number) - xPred;
-    const iy = (y[from + k] as number) - yPred;
+    const ix = (x[i] as number) - xPred;
+    const iy = (y[i] as number) - yPred;
     xPos = xPred + k0 * ix;
     xVel = xVel + k1 * ix;
     yPos = yPred + k0 * iy;
     yVel = yVel + k1 * iy;
-    const at = 4 * k;
-    f[at] = xPos;
-    f[at + 1] = xVel;
-    f[at + 2] = yPos;
-    f[at + 3] = yVel;
+    sx[i] = xPos;
+    vx[i] = xVel;
+    sy[i] = yPos;
+    vy[i] = yVel;
     a00 = (1 - k0) * b00;
     a01 = (1 - k0) * b01;
     a11 = b11 - k1 * b01;
@@ -1139,17 +1160,20 @@ function forwardBlock(
   state[TIME] = tPrev;
 }
 
-/** RTS smoother steps k = kFrom down to kTo + 1 of the stretch starting at `from`, carrying the smoothed state in `state`. */
+/**
+ * RTS smoother steps k = kFrom down to kTo + 1 of the stretch starting at `from`, carrying the smoothed state
+ * in `state`: each reads the filtered state at k in sx, vx, sy, vy and writes the smoothed one over it.
+ */
 function backwardBlock(
   t: ArrayLike<number>,
   from: number,
   kFrom: number,
   kTo: number,
-  f: Float64Array,
   c: Float64Array,
   sx: Float64Array,
+  vx: Float64Array,
   sy: Float64Array,
-  sv: Float64Array,
+  vy: Float64Array,
   state: Float64Array,
 ): void {
   let xPos = state[FX] as number;
@@ -1158,14 +1182,15 @@ function backwardBlock(
   let yVel = state[FW] as number;
   let tNext = state[TIME] as number;
   for (let k = kFrom; k > kTo; k--) {
-    const tk = t[from + k] as number;
+    const i = from + k;
+    const tk = t[i] as number;
     const dt = (tNext - tk) / 1000;
     tNext = tk;
+    const fxPos = sx[i] as number;
+    const fxVel = vx[i] as number;
+    const fyPos = sy[i] as number;
+    const fyVel = vy[i] as number;
     const at = 4 * k;
-    const fxPos = f[at] as number;
-    const fxVel = f[at + 1] as number;
-    const fyPos = f[at + 2] as number;
-    const fyVel = f[at + 3] as number;
     const c00 = c[at] as number;
     const c01 = c[at + 1] as number;
     const c10 = c[at + 2] as number;
@@ -1178,10 +1203,10 @@ function backwardBlock(
     xVel = fxVel + c10 * dxp + c11 * dxv;
     yPos = fyPos + c00 * dyp + c01 * dyv;
     yVel = fyVel + c10 * dyp + c11 * dyv;
-    sx[from + k] = xPos;
-    sy[from + k] = yPos;
-    sv[2 * (from + k)] = xVel;
-    sv[2 * (from + k) + 1] = yVel;
+    sx[i] = xPos;
+    vx[i] = xVel;
+    sy[i] = yPos;
+    vy[i] = yVel;
   }
   state[FX] = xPos;
   state[FV] = xVel;
@@ -1210,14 +1235,17 @@ export function arcFactors(
   lon: ArrayLike<number>,
   segmentStart: ArrayLike<number>,
   moving: ArrayLike<number>,
+  /** Room for the result and for the turns, one number per point each (every value is set here). */
+  factors: Float64Array = new Float64Array(t.length),
+  turn: Float64Array = new Float64Array(t.length),
 ): Float64Array {
   const n = t.length;
-  const factors = new Float64Array(n).fill(1);
+  factors.fill(1);
   if (n < 3) return factors;
   const { north, east } = metresPerDegree(lat[0] as number);
   const cosRef = Math.cos((lat[0] as number) * DEG);
   // Turn at each point i (between interval i and i + 1); NaN where unusable.
-  const turn = new Float64Array(n).fill(Number.NaN);
+  turn.fill(Number.NaN);
   // The last step's east and north and the last interval, carried from block to block.
   const last = new Float64Array([Number.NaN, Number.NaN, Number.NaN]);
   for (let i = 1; i < n; i += BLOCK)

@@ -9,6 +9,7 @@ import {
 import { geodesicDistance } from './geodesy.ts';
 import { BLOCK } from './blocks.ts';
 import type { PointColumns } from './point-columns.ts';
+import { SpareColumns } from './spare-columns.ts';
 import {
   arcFactors,
   bendGainFactors,
@@ -100,7 +101,11 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       ? keepPositioned(track.columns, track.segment_starts)
       : { points: track.columns, starts: track.segment_starts };
   const n = points.length;
-  const t = points.column('t');
+  // Views of the track's own columns where the series holds the same values (nothing here writes them):
+  // a copy was a fresh column per field (tests/bench/README.md, "Session 10").
+  const t = points.t.subarray(0, n);
+  // Spent room of this call handed out again (spare-columns.ts); empty unless the track is smoothed.
+  const spare = new SpareColumns(n);
 
   const segmentBreak = new Uint8Array(n);
   for (const s of starts) if (s > 0 && s < n) segmentBreak[s] = 1;
@@ -117,7 +122,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     distance_m: 0,
   };
   if (source === 'device') {
-    const filled = fillMissing(t, withoutDistanceSpikes(t, points.column('distance_m'))) ?? new Float64Array(n);
+    const filled = fillMissing(t, withoutDistanceSpikes(t, points.distance_m.subarray(0, n))) ?? new Float64Array(n);
     nonDecreasingFromStart(filled, d);
     classifyMoving(t, segmentOf, { d, lat: null, lon: null, along: null, turnsUpTo: null }, moving);
     const total = n > 0 ? (d[n - 1] as number) : 0;
@@ -132,38 +137,37 @@ export function buildSeries(track: CleanTrack): TrackSeries {
       const smooth = smoothPositionsThroughTurns(t, lat, lon, segmentBreak, jitter.sigma_m);
       const sLat = smooth.lat;
       const sLon = smooth.lon;
+      // The temporary columns below are carved out of the smoother's leftover room (no fresh pages).
+      spare.give(...(smooth.scratch ?? []));
       // Inside a turn the window is judged on the smoothed path's length, not the straight line between
       // its ends: on a 6 m turnaround that line is the 12 m diameter whatever the speed, under the
       // moving threshold of a file with about 1 m of jitter, and the running round it was lost.
-      // Temporary columns carved out of the smoother's leftover room (no fresh pages), zeroed where read.
-      const room = smooth.scratch && smooth.scratch.length >= 3 * n ? smooth.scratch : new Float64Array(3 * n);
-      const along = room.subarray(0, n).fill(0);
-      const turnsUpTo = new Int32Array(n);
-      pathAlong(sLat, sLon, smooth.turn ?? null, along, turnsUpTo);
+      const along = spare.take();
+      const turnsUpTo = spare.takeInt32();
+      pathAlong(sLat, sLon, smooth.turn ?? null, along, turnsUpTo.ints);
       classifyMoving(
         t,
         segmentOf,
-        { d: null, lat: sLat, lon: sLon, along, turnsUpTo },
+        { d: null, lat: sLat, lon: sLon, along, turnsUpTo: turnsUpTo.ints },
         moving,
         noiseAwareMovingSpeed(jitter.sigma_m),
       );
-      const bends = arcFactors(t, sLat, sLon, segmentBreak, moving);
+      spare.give(along, turnsUpTo.room);
+      const turns = spare.take();
+      const bends = arcFactors(t, sLat, sLon, segmentBreak, moving, spare.take(), turns);
+      spare.give(turns);
       // The smoother draws a steady bend on a smaller radius (`bendGainFactors`): given back per step.
-      const gains = bendGainFactors(t, smooth, segmentBreak, moving, jitter.sigma_m);
+      const gains = bendGainFactors(t, smooth, segmentBreak, moving, jitter.sigma_m, undefined, spare.take());
       // Each moving step of the smoothed path, and the raw sum point to point kept for the report.
-      const chords = room.subarray(n, 2 * n).fill(0);
+      const chords = spare.take();
       const raw = movingSteps(moving, sLat, sLon, lat, lon, chords);
       // The slow wander the smoother lets through still adds length (position-smoother.ts,
       // `stepWithoutNoise`): taken out when it is large enough to matter (`MIN_CORRECTED_EXCESS`).
-      const stepNoise = noiseToRemove(
-        t,
-        chords,
-        moving,
-        jitter,
-        measureWander(t, lat, lon, segmentBreak, jitter),
-        room.subarray(2 * n, 3 * n),
-      );
+      const steps = spare.take();
+      const stepNoise = noiseToRemove(t, chords, moving, jitter, measureWander(t, lat, lon, segmentBreak, jitter), steps);
       smoothedDistance(t, moving, bends, gains, chords, stepNoise, jitter.median_interval_s * 1000, d);
+      // Nothing reads these again: the smoothed path's four columns, the factors and the chords.
+      spare.give(sLat, sLon, smooth.east_mps, smooth.north_mps, bends, gains, chords, steps);
       report = {
         source,
         smoothed: true,
@@ -195,11 +199,13 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     }
   }
 
-  const ele = fillMissing(t, points.column('ele'));
-  const eleSmooth = ele ? smoothByTime(t, ele, ELEVATION_SMOOTHING_HALF_WINDOW_S) : null;
-  const eleFiltered = eleSmooth ? hysteresisProfile(eleSmooth, ELEVATION_HYSTERESIS_M) : null;
-  const hr = points.column('hr');
-  const cad = points.column('cad');
+  const eleRecorded = points.ele.subarray(0, n);
+  const ele = hasValue(eleRecorded) ? fillMissing(t, eleRecorded, spare.take()) : null;
+  const eleSmooth = ele ? smoothByTime(t, ele, ELEVATION_SMOOTHING_HALF_WINDOW_S, spare.take()) : null;
+  const eleFiltered = eleSmooth ? hysteresisProfile(eleSmooth, ELEVATION_HYSTERESIS_M, spare.take()) : null;
+  if (ele) spare.give(ele);
+  const hr = points.hr.subarray(0, n);
+  const cad = points.cad.subarray(0, n);
 
   return {
     t,
@@ -210,7 +216,7 @@ export function buildSeries(track: CleanTrack): TrackSeries {
     ele_filtered: eleFiltered,
     hr: hasValue(hr) ? hr : null,
     cad: hasValue(cad) ? cad : null,
-    flat_d: eleSmooth ? flatEquivalentDistances(d, eleSmooth) : null,
+    flat_d: eleSmooth ? flatEquivalentDistances(d, eleSmooth, spare.take()) : null,
     distance_source: source,
     distance_report: report,
   };
@@ -508,16 +514,31 @@ interface DisplacementSource {
   turnsUpTo: Int32Array | null;
 }
 
-function displacementOf(source: DisplacementSource, a: number, b: number): number {
-  const { d, lat, lon, along, turnsUpTo } = source;
-  if (d) return (d[b] as number) - (d[a] as number);
-  if (along && turnsUpTo && turnsUpTo[b] !== turnsUpTo[a]) return (along[b] as number) - (along[a] as number);
-  return approxDistance(
+/**
+ * The displacement between points a and b (`DisplacementSource`, its columns passed one by one: an object
+ * made per call deoptimised the compiled loops on a long run's first analysis, "code dependencies"). Where
+ * the path's length may be taken, both figures are formed on every call, so a track whose first turn comes
+ * late runs the same compiled code as one without.
+ */
+function displacementOf(
+  d: Float64Array | null,
+  lat: ArrayLike<number> | null,
+  lon: ArrayLike<number> | null,
+  along: Float64Array | null,
+  turnsUpTo: Int32Array | null,
+  a: number,
+  b: number,
+): number {
+  if (d !== null) return (d[b] as number) - (d[a] as number);
+  const straight = approxDistance(
     (lat as ArrayLike<number>)[a] as number,
     (lon as ArrayLike<number>)[a] as number,
     (lat as ArrayLike<number>)[b] as number,
     (lon as ArrayLike<number>)[b] as number,
   );
+  if (along === null || turnsUpTo === null) return straight;
+  const path = (along[b] as number) - (along[a] as number);
+  return turnsUpTo[b] !== turnsUpTo[a] ? path : straight;
 }
 
 function classifyMoving(
@@ -528,15 +549,23 @@ function classifyMoving(
   threshold = MOVING_SPEED_MPS,
 ): void {
   const n = t.length;
-  for (let i = 1; i < n; i += BLOCK) classifyBlock(t, segmentOf, source, moving, threshold, i, Math.min(n, i + BLOCK));
-  refineStopEdges(t, segmentOf, source, moving);
+  const { d, lat, lon, along, turnsUpTo } = source;
+  for (let i = 1; i < n; i += BLOCK)
+    classifyBlock(t, segmentOf, d, lat, lon, along, turnsUpTo, moving, threshold, i, Math.min(n, i + BLOCK));
+  const original = moving.slice();
+  for (let i = 1; i < n; i += BLOCK)
+    refineBlock(t, segmentOf, d, lat, lon, along, turnsUpTo, original, moving, i, Math.min(n, i + BLOCK));
 }
 
 /** Step 1 of `classifyMoving` for intervals [from, to). */
 function classifyBlock(
   t: Float64Array,
   segmentOf: Int32Array,
-  source: DisplacementSource,
+  d: Float64Array | null,
+  lat: ArrayLike<number> | null,
+  lon: ArrayLike<number> | null,
+  along: Float64Array | null,
+  turnsUpTo: Int32Array | null,
   moving: Uint8Array,
   threshold: number,
   from: number,
@@ -561,26 +590,22 @@ function classifyBlock(
       else b++;
     }
     const seconds = ((t[b] as number) - (t[a] as number)) / 1000;
-    moving[i] = displacementOf(source, a, b) / seconds >= threshold ? 1 : 0;
+    moving[i] = displacementOf(d, lat, lon, along, turnsUpTo, a, b) / seconds >= threshold ? 1 : 0;
   }
 }
 
-function refineStopEdges(t: Float64Array, segmentOf: Int32Array, source: DisplacementSource, moving: Uint8Array): void {
-  const n = t.length;
-  const original = moving.slice();
-  for (let i = 1; i < n; i += BLOCK) refineBlock(t, segmentOf, source, original, moving, i, Math.min(n, i + BLOCK));
-}
-
-/** Whether interval k is slower than `STOP_EDGE_SPEED_MPS`. */
-function slowStep(t: Float64Array, source: DisplacementSource, k: number): boolean {
-  return displacementOf(source, k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000) < STOP_EDGE_SPEED_MPS;
-}
-
-/** `refineStopEdges` for the stopped intervals in [from, to) (it may clear moving intervals outside it). */
+/**
+ * Step 2 of `classifyMoving` for the stopped intervals in [from, to) of `original` (it may clear moving
+ * intervals outside it): each stop widened over neighbouring intervals slower than `STOP_EDGE_SPEED_MPS`.
+ */
 function refineBlock(
   t: Float64Array,
   segmentOf: Int32Array,
-  source: DisplacementSource,
+  d: Float64Array | null,
+  lat: ArrayLike<number> | null,
+  lon: ArrayLike<number> | null,
+  along: Float64Array | null,
+  turnsUpTo: Int32Array | null,
   original: Uint8Array,
   moving: Uint8Array,
   from: number,
@@ -596,14 +621,21 @@ function refineBlock(
     if (isStart) {
       const edge = t[i - 1] as number;
       for (let k = i - 1; k >= 1 && segmentOf[k - 1] === seg && original[k]; k--) {
-        if (edge - (t[k - 1] as number) > reachMs || !slowStep(t, source, k)) break;
+        if (edge - (t[k - 1] as number) > reachMs) break;
+        // Slower than STOP_EDGE_SPEED_MPS over interval k?
+        const speed =
+          displacementOf(d, lat, lon, along, turnsUpTo, k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000);
+        if (!(speed < STOP_EDGE_SPEED_MPS)) break;
         moving[k] = 0;
       }
     }
     if (isEnd) {
       const edge = t[i] as number;
       for (let k = i + 1; k < n && segmentOf[k] === seg && original[k]; k++) {
-        if ((t[k] as number) - edge > reachMs || !slowStep(t, source, k)) break;
+        if ((t[k] as number) - edge > reachMs) break;
+        const speed =
+          displacementOf(d, lat, lon, along, turnsUpTo, k - 1, k) / (((t[k] as number) - (t[k - 1] as number)) / 1000);
+        if (!(speed < STOP_EDGE_SPEED_MPS)) break;
         moving[k] = 0;
       }
     }
@@ -615,9 +647,9 @@ function hasValue(values: Float64Array): boolean {
   return false;
 }
 
-function flatEquivalentDistances(d: Float64Array, ele: Float64Array): Float64Array {
+/** `out`: zeros, one per point (the result; steps that do not move keep 0). */
+function flatEquivalentDistances(d: Float64Array, ele: Float64Array, out: Float64Array): Float64Array {
   const n = d.length;
-  const out = new Float64Array(n);
   // The window's two ends, carried from block to block.
   const ends = new Int32Array(2);
   for (let i = 1; i < n; i += BLOCK) flatEquivalentBlock(d, ele, out, ends, i, Math.min(n, i + BLOCK));
