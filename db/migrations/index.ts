@@ -25,6 +25,7 @@ import * as m20261205122000 from './20261205122000_shared_limits.ts';
 import * as m20261205123000 from './20261205123000_import_leases.ts';
 import * as m20261205124000 from './20261205124000_canonical_time_zones.ts';
 import * as m20261205201000 from './20261205201000_track_blob_storage.ts';
+import * as m20261206000100 from './20261206000100_track_layout.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -59,6 +60,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261205123000_import_leases': m20261205123000,
   '20261205124000_canonical_time_zones': m20261205124000,
   '20261205201000_track_blob_storage': m20261205201000,
+  '20261206000100_track_layout': m20261206000100,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -106,6 +106,8 @@ export interface RunTrackRow {
   point_count: number;
   columns: string[];
   data: Buffer;
+  /** How the columns lie inside the gzip blob (server/features/runs/track-blob.ts, `TrackLayout`). */
+  data_layout: 'columns' | 'xor-planes';
 }
 
 export interface RunSplitRow {

@@ -268,7 +268,10 @@ async function runInThread<T>(userId: string, task: ComputeTask): Promise<T> {
     timer = setTimeout(() => stop.abort(), timeoutMs);
   });
   try {
-    return (await thePool().run({ task, started }, { signal: stop.signal, transferList: [started] })) as T;
+    // An import's port for its track sent ahead of the answer (runs/import-compute.ts) moves to the thread too.
+    const handOver = task.kind === 'import-file' ? task.input.handOver : undefined;
+    const transferList = handOver ? [started, handOver] : [started];
+    return (await thePool().run({ task, started }, { signal: stop.signal, transferList })) as T;
   } catch (err) {
     if (stop.signal.aborted) throw new ComputeTimeoutError(timeoutMs);
     if (

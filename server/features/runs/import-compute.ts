@@ -1,4 +1,5 @@
 import { readFile } from 'node:fs/promises';
+import type { MessagePort } from 'node:worker_threads';
 import { Readable } from 'node:stream';
 import { createGunzip } from 'node:zlib';
 import { MAX_TRACK_POINTS, tooManyPointsReason } from '../../../shared/runs/upload-limits.ts';
@@ -8,7 +9,7 @@ import { MAX_DOCUMENT_BYTES, type TrackFormat } from './parse/detect.ts';
 import { ImportRejection } from './parse/import-rejection.ts';
 import { ArrivalStopped, SharedArrival, type ArrivalWaitLimits } from './parse/arriving.ts';
 import { parseArrivingTrackFile, parseTrackFile, type ParsedRun } from './parse/parse-track-file.ts';
-import { buildRunRecord, type RunOwnerProfile, type RunRecord } from './run-record.ts';
+import { buildRunRecord, packedTrack, type RunOwnerProfile, type RunRecord, type StoredTrack } from './run-record.ts';
 
 /**
  * One file to turn into runs: a file on disk (a streamed upload), bytes (an archive entry, or an upload
@@ -20,6 +21,23 @@ export interface ImportComputeInput {
     | { data: Uint8Array }
     | { arriving: { memory: SharedArrayBuffer; control: SharedArrayBuffer; limits?: ArrivalWaitLimits } };
   owner: RunOwnerProfile;
+  /**
+   * Where to send a file of one run's track as soon as its series is built (a `HandedOverTrack`, its bytes moved,
+   * not copied), before the rest of the analysis: the event loop stores it meanwhile (runs.service.ts). The record
+   * in the answer then carries the track's names without its bytes (`handed_over`).
+   */
+  handOver?: MessagePort;
+}
+
+/** A track sent ahead of the answer (`ImportComputeInput.handOver`), with what the same-run check needs of its run. */
+export interface HandedOverTrack {
+  format: TrackFormat;
+  activity_index: number;
+  /** The run's start as its row will hold it (ms of a Date): summarizeRun's first time of the series. */
+  started_at_t: number;
+  /** The run's distance: summarizeRun's last distance of the series. */
+  distance_m: number;
+  track: StoredTrack;
 }
 
 export type ImportComputeOutput =
@@ -118,7 +136,13 @@ export async function computeImport(input: ImportComputeInput): Promise<ImportCo
 /** Analyses the runs read from a file and builds their rows; a track its own laps contradict is refused. */
 function analysedRuns(input: ImportComputeInput, parsed: ParsedRun[]): ImportComputeOutput {
   try {
-    const analyses = parsed.map((p) => analyseTrack(p.track));
+    // A file of one run hands its track over once the series exists (the rest of the analysis takes a
+    // fifth to two fifths of it more: splits, fastest sections, summary); several runs are stored after.
+    const port = parsed.length === 1 ? input.handOver : undefined;
+    let handedOver: StoredTrack | undefined;
+    const analyses = parsed.map((p) =>
+      analyseTrack(p.track, port ? (series) => (handedOver = handOverTrack(port, p, series)) : undefined),
+    );
     // A track that cannot be what its own laps record is refused whole: nothing half-imported.
     parsed.forEach((p, i) => {
       const problem = lapCoverageProblem(analyses[i]!.summary, p.laps, p.track.report);
@@ -127,10 +151,26 @@ function analysedRuns(input: ImportComputeInput, parsed: ParsedRun[]): ImportCom
     return {
       ok: true,
       format: parsed[0]!.format,
-      records: parsed.map((p, i) => buildRunRecord(input.owner, p, analyses[i]!)),
+      records: parsed.map((p, i) => buildRunRecord(input.owner, p, analyses[i]!, handedOver)),
     };
   } catch (err) {
     if (err instanceof ImportRejection) return { ok: false, code: err.code, message: err.message };
     throw err;
   }
+}
+
+/** Sends the run's packed track (moved) with its start and distance, as summarizeRun will give them; undefined for no points. */
+function handOverTrack(port: MessagePort, parsed: ParsedRun, series: Parameters<typeof packedTrack>[1]): StoredTrack | undefined {
+  const n = series.t.length;
+  if (n === 0) return undefined;
+  const track = packedTrack(parsed, series);
+  const message: HandedOverTrack = {
+    format: parsed.format,
+    activity_index: parsed.activity_index,
+    started_at_t: new Date(series.t[0]!).getTime(),
+    distance_m: series.d[n - 1]!,
+    track,
+  };
+  port.postMessage(message, [track.raw.buffer as ArrayBuffer]);
+  return track;
 }

@@ -12,7 +12,7 @@ import { canonicalTimeZone } from '../../../shared/users/time-zones.ts';
 import type { RunRow, RunSplitRow, UserRow } from '../../lib/db.ts';
 import type { ParsedRun } from './parse/parse-track-file.ts';
 import type { RunChildren } from './runs.repository.ts';
-import { packColumns } from './track-blob.ts';
+import { packColumns, type TrackLayout } from './track-blob.ts';
 
 /** The profile fields an import reads (heart rates, weight, sex, time zone), sent to the compute workers. */
 export type RunOwnerProfile = Pick<UserRow, 'id' | 'time_zone' | 'max_hr' | 'resting_hr' | 'weight_kg' | 'sex'>;
@@ -75,20 +75,53 @@ function profileDependentFigures(user: RunOwnerProfile, analysis: RunAnalysis) {
   };
 }
 
+/** A run's stored series (run_tracks): its columns packed in `data_layout`, not yet compressed (track-blob.ts). */
+export interface StoredTrack {
+  columns: string[];
+  point_count: number;
+  data_layout: TrackLayout;
+  raw: Uint8Array;
+  /** The bytes went to the event loop ahead of the rest (runs.service.ts puts them back): `raw` is empty here. */
+  handed_over?: true;
+}
+
+/** The columns a run's track is stored with, from its series: time, distance, position, then what the file had. */
+export function packedTrack(parsed: ParsedRun, series: RunAnalysis['series']): StoredTrack {
+  const { lat, lon } = seriesPositions(parsed.track, series);
+  const columns: Record<string, Float64Array> = { t: series.t, d: series.d, lat, lon };
+  if (series.ele_smooth) columns.ele = series.ele_smooth;
+  if (series.hr) columns.hr = series.hr;
+  if (series.cad) columns.cad = series.cad;
+  columns.moving = Float64Array.from(series.moving);
+  const packed = packColumns(columns);
+  return { columns: packed.columns, point_count: packed.pointCount, data_layout: packed.layout, raw: packed.raw };
+}
+
+/** The record's stand-in for a track whose bytes were handed over already: its names and count, no bytes. */
+function handedOverTrack(track: StoredTrack): StoredTrack {
+  const { columns, point_count, data_layout } = track;
+  return { columns, point_count, data_layout, raw: new Uint8Array(0), handed_over: true };
+}
+
 /**
  * A run as it is about to be stored: its row (without the source file it came from) and its children, the
  * track's columns packed but not yet compressed (track-blob.ts).
  */
 export interface RunRecord {
   run: Omit<RunRow, 'id' | 'created_at' | 'source_file_id'>;
-  children: Omit<RunChildren, 'track'> & { track: { columns: string[]; point_count: number; raw: Uint8Array } };
+  children: Omit<RunChildren, 'track'> & { track: StoredTrack };
 }
 
 /**
  * The rows of one parsed and analysed run. Pure computation (no database, no files), so it runs in
  * the compute workers (server/features/compute); `user` is only the profile fields it reads.
  */
-export function buildRunRecord(user: RunOwnerProfile, parsed: ParsedRun, analysis: RunAnalysis): RunRecord {
+export function buildRunRecord(
+  user: RunOwnerProfile,
+  parsed: ParsedRun,
+  analysis: RunAnalysis,
+  handedOver?: StoredTrack,
+): RunRecord {
   const { summary, series } = analysis;
   const tz = timeZoneOf(parsed, user.time_zone);
   const local = localDateTime(summary.started_at_t, tz.zone);
@@ -122,14 +155,9 @@ export function buildRunRecord(user: RunOwnerProfile, parsed: ParsedRun, analysi
       ...profileDependentFigures(user, analysis),
     },
   };
-  const { lat, lon } = seriesPositions(parsed.track, series);
-  const columns: Record<string, Float64Array> = { t: series.t, d: series.d, lat, lon };
-  if (series.ele_smooth) columns.ele = series.ele_smooth;
-  if (series.hr) columns.hr = series.hr;
-  if (series.cad) columns.cad = series.cad;
-  columns.moving = Float64Array.from(series.moving);
-  // Packed, not yet compressed: the gzip runs beside the run's first statements (runs.service.ts).
-  const packed = packColumns(columns);
+  // Packed, not yet compressed: the gzip runs beside the run's first statements (runs.service.ts), unless the
+  // compute thread handed the track over already, as soon as the series was built (import-compute.ts).
+  const track = handedOver ? handedOverTrack(handedOver) : packedTrack(parsed, series);
   const toSplitRow = (s: Split): Omit<RunSplitRow, 'run_id'> => ({
     unit: s.unit,
     split_index: s.index,
@@ -149,7 +177,7 @@ export function buildRunRecord(user: RunOwnerProfile, parsed: ParsedRun, analysi
   return {
     run,
     children: {
-      track: { columns: packed.columns, point_count: packed.pointCount, raw: packed.raw },
+      track,
       splits: [...analysis.splits.mi, ...analysis.splits.km].map(toSplitRow),
       laps: parsed.laps.map((l, i) => ({
         lap_index: i + 1,

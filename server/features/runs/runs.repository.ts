@@ -5,6 +5,7 @@ import {
   type RunLapRow,
   type RunRow,
   type RunSplitRow,
+  type RunTrackRow,
   type SourceFileRow,
   readDb,
 } from '../../lib/db.ts';
@@ -61,7 +62,8 @@ export async function insertSourceFile(row: Omit<SourceFileRow, 'id' | 'created_
 
 export interface RunChildren {
   /** The blob may still be being compressed: it is awaited for the run's last statement. */
-  track: { columns: string[]; point_count: number; data: Buffer | Promise<Buffer> };
+  /** No layout: plain columns (the column's default). */
+  track: { columns: string[]; point_count: number; data_layout?: RunTrackRow['data_layout']; data: Buffer | Promise<Buffer> };
   splits: Omit<RunSplitRow, 'run_id'>[];
   laps: Omit<RunLapRow, 'run_id'>[];
   fastest: Omit<RunFastestSectionRow, 'run_id'>[];
@@ -74,6 +76,22 @@ export interface RunChildren {
 export async function insertRunWhole(
   run: Omit<RunRow, 'id' | 'created_at'>,
   children: RunChildren,
+  trx: Db,
+  mark: (step: string) => void = () => undefined,
+): Promise<RunRow> {
+  const row = await insertRunRows(run, children, trx, mark);
+  // Last: the track's blob is compressed meanwhile (runs.service.ts starts it when the compute thread answers).
+  await insertRunTrack(row.id, children.track, trx, mark);
+  return row;
+}
+
+/**
+ * A run's row (with the id given, else a new one), the week inputs it feeds, and its splits, laps and fastest
+ * sections; not its track (insertRunTrack). Inside the transaction that stores the track too.
+ */
+export async function insertRunRows(
+  run: Omit<RunRow, 'id' | 'created_at'> & { id?: string },
+  children: Omit<RunChildren, 'track'>,
   trx: Db,
   mark: (step: string) => void = () => undefined,
 ): Promise<RunRow> {
@@ -91,12 +109,24 @@ export async function insertRunWhole(
     { table: 'run_fastest_sections', rows: children.fastest.map((f) => ({ run_id: runId, ...f })) },
   ]);
   mark('splits, laps, fastest sections');
-  const blob = await children.track.data;
-  mark('gzip awaited');
-  // Last: the track's blob is compressed meanwhile (runs.service.ts starts it when the compute thread answers).
-  await trx('run_tracks').insert({ run_id: runId, ...children.track, data: blob });
-  mark('track row');
   return row as RunRow;
+}
+
+/**
+ * A run's track row, once its blob is compressed. It may go in before the run's own row, in the same transaction:
+ * run_tracks' reference to runs is checked at commit (DEFERRABLE INITIALLY DEFERRED, migration
+ * 20261206000200), so a track is stored while its run is still being analysed (runs.service.ts).
+ */
+export async function insertRunTrack(
+  runId: string,
+  track: RunChildren['track'],
+  trx: Db,
+  mark: (step: string) => void = () => undefined,
+): Promise<void> {
+  const blob = await track.data;
+  mark('gzip awaited');
+  await trx('run_tracks').insert({ run_id: runId, ...track, data: blob });
+  mark('track row');
 }
 
 export async function findRunById(id: string, trx: Db = readDb()): Promise<RunRow | undefined> {

@@ -249,7 +249,9 @@ export async function importFiles(
     const storageKey = existing?.storage_key ?? `${user.id}/${sha256}`;
     // Each track's columns crossed from the thread packed (handed over, not copied); they are gzipped on
     // libuv's pool from now on, beside the transaction's first statements, and awaited for the last one.
-    const blobs = new Map(records.map((record) => [record, gzipPackedColumns(record.children.track.raw)]));
+    const blobs = new Map(
+      records.map((record) => [record, gzipPackedColumns(record.children.track.raw, record.children.track.data_layout)]),
+    );
     // When each blob is ready is a logged step; a blob no statement awaits (a refused or failed file) must
     // not end as an unhandled rejection.
     for (const blob of blobs.values())
@@ -258,10 +260,10 @@ export async function importFiles(
         () => undefined,
       );
     const insertRecord = (record: RunRecord, sourceFileId: string, trx: Parameters<typeof insertRunWhole>[2]) => {
-      const { columns, point_count } = record.children.track;
+      const { columns, point_count, data_layout } = record.children.track;
       return insertRunWhole(
         { ...record.run, source_file_id: sourceFileId },
-        { ...record.children, track: { columns, point_count, data: blobs.get(record)! } },
+        { ...record.children, track: { columns, point_count, data_layout, data: blobs.get(record)! } },
         trx,
         clock.mark,
       );
@@ -554,7 +556,7 @@ export async function trackOf(actor: Actor, runId: string, maxPoints = 2000) {
   const run = await getReadableRun(actor, runId);
   const row = await findRunTrack(run.id);
   if (!row) throw new NotFoundError();
-  const columns = decodeColumns(row.columns, row.point_count, row.data);
+  const columns = decodeColumns(row.columns, row.point_count, row.data, row.data_layout);
   const step = Math.max(1, Math.ceil(row.point_count / maxPoints));
   const pick = (c: Float64Array | undefined) => {
     if (!c) return null;

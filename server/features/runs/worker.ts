@@ -2,4 +2,4 @@
 // Only pure computation and file reads: no database pool, no network (server/features/README.md).
 
 export { type ImportComputeInput, type ImportComputeOutput, computeImport, NOT_READ_WHILE_ARRIVING } from './import-compute.ts';
-export { decodeColumns } from './track-blob.ts';
+export { decodeColumns, type TrackLayout } from './track-blob.ts';
