@@ -56,6 +56,8 @@ export interface AppConfig {
   storageQuotaBytes: number;
   /** Worker threads for parsing, analysis and plan checks (COMPUTE_THREADS). */
   computeThreads: number;
+  /** Nice values the compute threads run below the event loop, 0–19 (COMPUTE_NICE; 0 = as urgent). */
+  computeNice: number;
   publicUrl: string;
   /** Outgoing mail server; unset = the local mail catcher on loopback (development). */
   smtpUrl: string | null;
@@ -91,6 +93,24 @@ export function defaultComputeThreads(env: NodeJS.ProcessEnv = process.env): num
   const configured = Number(env.COMPUTE_THREADS);
   if (Number.isInteger(configured) && configured >= 1) return Math.min(configured, 16);
   return Math.max(1, Math.min(4, availableParallelism() - 1));
+}
+
+/**
+ * Nice value of the compute threads unless COMPUTE_NICE says otherwise: imports and plan checks yield the cores
+ * to the event loop that answers reads (measured: tests/bench/README.md, "Session 10: reads before imports").
+ */
+export const DEFAULT_COMPUTE_NICE = 5;
+
+/** COMPUTE_NICE: a whole number 0–19 of nice values below the event loop (0 = the compute threads as urgent as reads). */
+export function readComputeNice(text: string | undefined): number {
+  const value = text ?? '';
+  if (value === '') return DEFAULT_COMPUTE_NICE;
+  if (!/^\d+$/.test(value) || Number(value) > 19) {
+    throw new ConfigError(
+      `COMPUTE_NICE must be a whole number from 0 (the compute threads as urgent as reads) to 19 (least urgent), not "${value}".`,
+    );
+  }
+  return Number(value);
 }
 
 /** How far behind the primary (in time) the read replica may be and still serve reads: 2 s. */
@@ -149,6 +169,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     throw new ConfigError(`DATABASE_REPLICA_MAX_LAG_MS must be a whole number of milliseconds (1 or more), not "${maxLag}".`);
   }
   const digestSchedule = readDigestSchedule(env.DIGEST_SCHEDULE);
+  const computeNice = readComputeNice(env.COMPUTE_NICE);
   const role = (env.ROLE || 'all').toLowerCase();
   if (!(PROCESS_ROLES as readonly string[]).includes(role)) {
     throw new ConfigError(
@@ -182,6 +203,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     recomputeRateLimit: { windowMs: 60 * 60 * 1000, max: 30 },
     storageQuotaBytes: Number(quotaMb) * 1024 * 1024,
     computeThreads: defaultComputeThreads(env),
+    computeNice,
     publicUrl: env.PUBLIC_URL ?? `http://${host}:${port}`,
     smtpUrl: env.SMTP_URL || null,
     mailCatcherPort: Number(env.MAIL_CATCHER_PORT ?? 2525),

@@ -49,7 +49,7 @@ async function startServices(config: AppConfig, env: NodeJS.ProcessEnv) {
   // Parsing, analysis and plan checks run in worker threads (server/features/runs/README.md): web
   // processes for single uploads and reads, workers for bulk imports.
   const { configureComputePool, stopComputePool } = await import('./features/compute/compute-pool.ts');
-  configureComputePool({ threads: config.computeThreads });
+  configureComputePool({ threads: config.computeThreads, nice: config.computeNice });
   // Bcrypt runs in a pool of its own (server/features/auth/README.md), closed with the compute pool.
   const { stopPasswordPool } = await import('./features/auth/password-pool.ts');
   const stopPools = async () => {

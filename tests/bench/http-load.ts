@@ -56,6 +56,8 @@ const UPLOADS_AT_ONCE_PER_RUNNER = 2;
 const ROUNDS = new Set((process.env.LOAD_ROUNDS ?? 'signin,runs,run,week,squad,busy,uploads').split(',').map((k) => k.trim()));
 /** Runners uploading 100-mile files, one file at a time each, during the `busy` rounds. */
 const UPLOADERS = Number(process.env.LOAD_UPLOADERS ?? 3);
+/** How the uploads are sent (upload-tally.ts): as a browser sends (http, the default), or undici's fetch with FormData. */
+const UPLOAD_CLIENT = process.env.LOAD_UPLOAD_CLIENT === 'fetch' ? 'fetch' : 'http';
 /** LOAD_PROFILE_DIR: a CPU profile of the server's thread per round, `<dir>/<round>.cpuprofile` (cpu-profile-top.ts reads it). */
 const PROFILE_DIR = process.env.LOAD_PROFILE_DIR;
 /** After a round, wait this long at most for requests the server still holds (Knex gives up on a connection after 60 s). */
@@ -258,6 +260,20 @@ function cpuMsOf(statPath: string): number | null {
 }
 
 /**
+ * The event loop's (this process's main thread) time on a core and time runnable but waiting for one, ms (Linux
+ * schedstat: ns on the CPU, ns waiting on a run queue); null off Linux. The wait is what other threads and
+ * programs cost a read's latency on a shared machine, and what the compute threads' nice value (COMPUTE_NICE) moves.
+ */
+function eventLoopSchedMs(): { run: number; wait: number } | null {
+  try {
+    const [run = 0, wait = 0] = readFileSync(`/proc/self/task/${process.pid}/schedstat`, 'utf8').trim().split(' ').map(Number);
+    return { run: run / 1e6, wait: wait / 1e6 };
+  } catch {
+    return null;
+  }
+}
+
+/**
  * The whole machine's CPU time (ms, all cores, from /proc/stat): busy (user, nice, system, irq, softirq) and
  * stolen by the hypervisor; null off Linux. With this process's own total (every thread) and the database's
  * backends, a round shows what else ran on the machine while it was measured.
@@ -375,6 +391,7 @@ async function round(
   const cpuBefore = await cpuMeter.snapshot();
   const machineBefore = machineCpuMs();
   const processBefore = cpuMsOf('/proc/self/stat');
+  const schedBefore = eventLoopSchedMs();
   const wallBefore = performance.now();
   const gcBefore = gcSnapshot();
   const heapBefore = heapMb();
@@ -400,6 +417,7 @@ async function round(
   const cpuAfter = await cpuMeter.snapshot();
   const machineAfter = machineCpuMs();
   const processAfter = cpuMsOf('/proc/self/stat');
+  const schedAfter = eventLoopSchedMs();
   const wallMs = performance.now() - wallBefore;
   if (profiler && PROFILE_DIR) {
     const { profile } = await profiler.post('Profiler.stop');
@@ -429,6 +447,10 @@ async function round(
     machineLine =
       `cores busy: machine ${cores(busy)} (this process ${cores(own)}, PostgreSQL ${cores(backendMs)}, ` +
       `everything else ${cores(Math.max(0, busy - own - backendMs))}), stolen ${cores(machineAfter.steal - machineBefore.steal)}`;
+  }
+  if (schedBefore && schedAfter && answered > 0) {
+    const waited = schedAfter.wait - schedBefore.wait;
+    machineLine += `; event loop waited ${Math.round(waited)} ms for a core (${(waited / answered).toFixed(2)} ms per request) and ran ${Math.round(schedAfter.run - schedBefore.run)} ms`;
   }
   const settledLine = settled ? `started ${settled.settled ? 'idle' : 'NOT idle'} after ${settled.ms} ms; ` : '';
   const gcLine = `${settledLine}${machineLine}; PostgreSQL transactions per request ${transactions}; GC ${gc('minor')}, ${gc('major')}, ${gc('other')}; heap used ${heapBefore} → ${heapMb()} MB`;
@@ -551,24 +573,37 @@ async function busyRound(
     await new Promise((resolve) => setTimeout(resolve, 20));
   }
   const stopped = nextReply(driver, 'stopped');
+  // The driver's own CPU is "everything else" in the round's line: on this machine it competes with the server.
+  const driverBefore = cpuMsOf(`/proc/${driver.pid}/stat`);
+  const roundStart = performance.now();
   const busy = await round(base, `${quiet.name} during uploads`, options, false);
+  const driverAfter = cpuMsOf(`/proc/${driver.pid}/stat`);
+  const roundMs = performance.now() - roundStart;
   driver.send({ type: 'stop' } satisfies UploadDriverMessage);
   const { result: uploads } = await stopped;
+  const driverLine =
+    driverBefore !== null && driverAfter !== null
+      ? `; the upload driver (${UPLOAD_CLIENT} client) used ${((driverAfter - driverBefore) / roundMs).toFixed(2)} cores`
+      : '';
+  busy.diagnostics += driverLine;
   const answered = busy.requests > 0 && quiet.requests > 0;
   const ratio = answered ? Math.round((busy.p99_ms / Math.max(1, quiet.p99_ms)) * 100) / 100 : null;
   console.log(
     `  ${''.padEnd(28)} ${uploads.uploads} 100-mile uploads answered (${uploads.file_mb} MB each, ${JSON.stringify(uploads.statuses)}, ` +
-      `p50 ${uploads.p50_ms} ms, max ${uploads.max_ms} ms); p99 ${busy.p99_ms} / ${quiet.p99_ms} ms = ${ratio ?? '?'}×`,
+      `p50 ${uploads.p50_ms} ms, max ${uploads.max_ms} ms)${driverLine}; p99 ${busy.p99_ms} / ${quiet.p99_ms} ms = ${ratio ?? '?'}×`,
   );
   return { name: quiet.name, quiet, busy, uploads, p99_ratio: ratio };
 }
 
 async function uploadRound(base: string): Promise<UploadResult> {
+  // The files first: writing them keeps this process's one event loop (the server's too) busy for 2–6 s, and the
+  // fetch sockets the sign-ups leave idle would pass the server's 5 s keep-alive meanwhile; an upload sent on
+  // such a socket as the server closes it failed with ECONNRESET (once in 20 under load; session 10, bench README).
+  const files = Array.from({ length: UPLOADS }, (_, k) => threeHourFile(k));
   // A runner may have 2 uploads arriving at once (issue 13, config uploadsAtOncePerUser): 20 at once come from 10 runners.
   const tokens: string[] = [];
   for (let r = 0; r < Math.ceil(UPLOADS / UPLOADS_AT_ONCE_PER_RUNNER); r++)
     tokens.push(await freshRunnerToken(base, `upload-${r + 1}`));
-  const files = Array.from({ length: UPLOADS }, (_, k) => threeHourFile(k));
   const tally = new UploadTally();
   const t0 = performance.now();
   await Promise.all(

@@ -1,10 +1,10 @@
 import { MessageChannel } from 'node:worker_threads';
 import { Piscina } from 'piscina';
-import { defaultComputeThreads } from '../../config.ts';
+import { DEFAULT_COMPUTE_NICE, defaultComputeThreads } from '../../config.ts';
 import { AppError } from '../../lib/errors.ts';
 import type { PlanCheckComputeInput, PlanCheckComputeOutput } from '../plans/worker.ts';
 import type { ImportComputeInput, ImportComputeOutput } from '../runs/worker.ts';
-import type { ComputeJob, ComputeTask } from './compute-worker.ts';
+import type { ComputeJob, ComputeTask, ComputeThreadSettings } from './compute-worker.ts';
 
 /**
  * The worker-thread pool that does the CPU-heavy work (parsing and analysing uploaded tracks,
@@ -14,6 +14,12 @@ import type { ComputeJob, ComputeTask } from './compute-worker.ts';
 export interface ComputeLimits {
   /** Worker threads (COMPUTE_THREADS); the event loop keeps a core of its own when there are two or more. */
   threads: number;
+  /**
+   * How many Linux nice values each thread runs below the event loop (COMPUTE_NICE, 0–19; 0 = as urgent): imports
+   * and plan checks are background work, so when the cores are short the event loop answering reads runs first.
+   * A niced thread with no competition still runs at full speed. Measured: tests/bench/README.md, session 10.
+   */
+  nice: number;
   /**
    * Longest a job may run in its thread before the thread is stopped: its own run time, counted from
    * the moment it is handed to a thread. Time spent waiting for a thread or for its user's turn never
@@ -49,6 +55,7 @@ export interface ComputeLimits {
 
 export const DEFAULT_COMPUTE_LIMITS: ComputeLimits = {
   threads: defaultComputeThreads(),
+  nice: DEFAULT_COMPUTE_NICE,
   jobTimeoutMs: 60_000,
   jobsAtOncePerUser: 2,
   // A runner's own reads at once stay well under it: 2 uploads, 2 bulk-import files, a history page's 4 plan checks.
@@ -151,6 +158,8 @@ function thePool(): Piscina<ComputeJob, unknown> {
     idleTimeout: 60_000,
     // No queue of piscina's own: runComputeJob hands it at most `threads` jobs (takeThread).
     resourceLimits: { maxOldGenerationSizeMb: limits.workerHeapMb },
+    // Each thread lowers its own priority when it starts (a nice value is per thread on Linux).
+    workerData: { nice: limits.nice } satisfies ComputeThreadSettings,
   });
   return pool;
 }

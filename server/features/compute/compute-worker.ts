@@ -2,29 +2,27 @@
  * The compute workers' entry (piscina loads it in each worker thread under tsx). Only pure
  * computation and file reads happen here: no database, no network.
  */
-import { setPriority } from 'node:os';
-import type { MessagePort } from 'node:worker_threads';
+import { workerData, type MessagePort } from 'node:worker_threads';
 import { Piscina } from 'piscina';
+import { niceThisThread, ownThreadId } from '../../lib/thread-nice.ts';
 import { computePlanCheck, type PlanCheckComputeInput } from '../plans/worker.ts';
 import { computeImport, type ImportComputeInput, type ImportComputeOutput } from '../runs/worker.ts';
 
-/**
- * Niceness of a compute thread. On Linux a thread's nice value is its own (setpriority(2), "BUGS"),
- * so only this worker yields: when the cores are busy, the event loop that answers every request
- * gets the CPU first and heavy jobs take longer instead.
- */
-const COMPUTE_NICENESS = 5;
-try {
-  setPriority(COMPUTE_NICENESS);
-} catch {
-  // Not allowed here (some containers): the work still runs off the event loop, at normal priority.
+/** What the pool gives each of its threads when it starts them (piscina's workerData). */
+export interface ComputeThreadSettings {
+  /** COMPUTE_NICE: nice values this thread runs below the event loop (0 = as urgent), so reads come before imports. */
+  nice: number;
 }
+
+niceThisThread((workerData as ComputeThreadSettings | undefined)?.nice ?? 0);
 
 export type ComputeTask =
   | { kind: 'import-file'; input: ImportComputeInput }
   | { kind: 'plan-check'; input: PlanCheckComputeInput }
   /** Test hook: keeps the thread busy for `ms` of CPU time (proves the event loop stays free). */
-  | { kind: 'spin'; ms: number };
+  | { kind: 'spin'; ms: number }
+  /** Test hook: this thread's Linux task id (tests read its nice value from /proc). */
+  | { kind: 'thread-id' };
 
 /** What the pool sends a thread: the task, and a port to say when this thread starts it (its time limit starts then). */
 export interface ComputeJob {
@@ -64,5 +62,7 @@ export default async function runComputeJob({ task, started }: ComputeJob): Prom
       while (Date.now() < until) spins++;
       return spins;
     }
+    case 'thread-id':
+      return ownThreadId();
   }
 }

@@ -42,6 +42,46 @@ export const ARRIVING_IN_MEMORY_BYTES = 192 * 1024 * 1024;
 let arrivingInMemory = 0;
 
 /**
+ * Shared memory of finished uploads kept for the next ones (at most 3 buffers and 96 MB, the smallest that
+ * fits is taken). The first write to fresh memory costs this machine a page fault per 4 KB: 74–104 ms of the
+ * event loop's CPU for a 100-mile file, against 9 ms to clear and fill memory already touched (session 10,
+ * tests/bench/README.md "Session 10: reads before imports"), and the event loop answering reads pays it.
+ * A buffer is kept only once its answer was sent whole and every job reading it is done, and is cleared when
+ * taken: a job sees zeros beyond what has arrived, as in fresh memory, never another upload's bytes.
+ */
+const IDLE_ARRIVING_BUFFERS = 3;
+const IDLE_ARRIVING_BYTES = 96 * 1024 * 1024;
+const MB = 1024 * 1024;
+const idleMemory: SharedArrayBuffer[] = [];
+
+function takeArrivingMemory(bytes: number): SharedArrayBuffer {
+  let best = -1;
+  for (let k = 0; k < idleMemory.length; k++) {
+    const size = idleMemory[k]!.byteLength;
+    // At most twice the need (plus a megabyte): clearing it stays a few ms, and big buffers wait for big files.
+    if (size >= bytes && size <= 2 * bytes + MB && (best === -1 || size < idleMemory[best]!.byteLength)) best = k;
+  }
+  if (best === -1) return new SharedArrayBuffer(Math.ceil(bytes / MB) * MB);
+  const [memory] = idleMemory.splice(best, 1);
+  // All of it, as fresh memory is: the reader may look a little past what has arrived.
+  new Uint8Array(memory!).fill(0);
+  return memory!;
+}
+
+function keepIdleArrivingMemory(memory: SharedArrayBuffer): void {
+  if (memory.byteLength > IDLE_ARRIVING_BYTES) return;
+  idleMemory.push(memory);
+  let kept = idleMemory.reduce((sum, m) => sum + m.byteLength, 0);
+  // The oldest go first.
+  while (idleMemory.length > IDLE_ARRIVING_BUFFERS || kept > IDLE_ARRIVING_BYTES) kept -= idleMemory.shift()!.byteLength;
+}
+
+/** Shared memory kept for the next uploads now, bytes (tests). */
+export function idleArrivingMemoryBytes(): number {
+  return idleMemory.reduce((sum, m) => sum + m.byteLength, 0);
+}
+
+/**
  * The first file of a request kept in memory as it arrives: one SharedArrayBuffer sized by the request's
  * declared Content-Length (already checked against the request limit; a part is a slice of the body, so it
  * always fits), at most the per-file limit. Shared memory: the compute thread reads it without a copy. Only the first file: the parts of a
@@ -49,7 +89,10 @@ let arrivingInMemory = 0;
  * passed; the page sends one file per request, and further files of a request are read back from disk as before.
  */
 interface ArrivingBytes {
+  /** At least `limit` bytes (memory kept from an earlier upload may be longer). */
   memory: SharedArrayBuffer;
+  /** The most of the file this memory takes: the declared body, at most the per-file limit. */
+  limit: number;
   /** Taken by the request's first file part. */
   taken: boolean;
   /** Counts one more user of the memory (a compute job); the function ends that use. */
@@ -100,13 +143,27 @@ function keepArrivingInMemory(req: Request, res: Parameters<RequestHandler>[1], 
   const bytes = Math.min(declared, maxFileBytes);
   if (arrivingInMemory + bytes > ARRIVING_IN_MEMORY_BYTES) return;
   arrivingInMemory += bytes;
+  const memory = takeArrivingMemory(bytes);
   /** The answer, and each job reading the memory. */
   let users = 1;
+  /**
+   * The answer was sent whole: the handler is done with the file, so once no job reads the memory either it goes
+   * to the next upload (and is never held again). A client gone before its answer leaves the memory to the
+   * garbage collector instead, since its handler may still start a job reading it.
+   */
+  let answered = false;
+  let given = false;
   const release = (): void => {
-    if (--users === 0) arrivingInMemory -= bytes;
+    if (--users > 0) return;
+    arrivingInMemory -= bytes;
+    if (answered && !given) {
+      given = true;
+      keepIdleArrivingMemory(memory);
+    }
   };
   const hold = (): (() => void) => {
-    // Held again after everyone let go (a job started after the answer closed): counted again.
+    if (given) throw new Error('an upload held its arriving memory after its answer had gone');
+    // Held again after everyone let go (a job started after the client went away): counted again.
     if (users++ === 0) arrivingInMemory += bytes;
     let done = false;
     return () => {
@@ -115,7 +172,10 @@ function keepArrivingInMemory(req: Request, res: Parameters<RequestHandler>[1], 
       release();
     };
   };
-  (req as CountedRequest)[ARRIVING] = { memory: new SharedArrayBuffer(bytes), taken: false, hold };
+  res.once('finish', () => {
+    answered = true;
+  });
+  (req as CountedRequest)[ARRIVING] = { memory, limit: bytes, taken: false, hold };
   res.once('close', () => {
     release();
     delete (req as CountedRequest)[ARRIVING];
@@ -182,7 +242,7 @@ function diskWithLimits(limits: ReceiveLimits): StorageEngine {
           if (counted[RECEIVED] > limits.maxRequestBytes) return done(new RequestTooLargeError(limits.maxRequestBytes));
           if (storage && counted[RECEIVED] > storage.left) return done(new StorageFullError(storage.used, storage.quota));
           hash.update(chunk);
-          if (arriving && size <= arriving.memory.byteLength) {
+          if (arriving && size <= arriving.limit) {
             new Uint8Array(arriving.memory, size - chunk.length, chunk.length).set(chunk);
             writer?.arrived(size);
           } else {

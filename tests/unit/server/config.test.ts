@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ConfigError, loadConfig } from '../../../server/config.ts';
+import { ConfigError, DEFAULT_COMPUTE_NICE, loadConfig } from '../../../server/config.ts';
 
 describe('loadConfig', () => {
   it.each([
@@ -48,6 +48,15 @@ describe('loadConfig', () => {
     expect(loadConfig({ ORPHAN_GRACE_SECONDS: '0' }).orphanGraceSeconds).toBe(0);
     for (const bad of ['-1', '10m', '1.5', ' 60'])
       expect(() => loadConfig({ ORPHAN_GRACE_SECONDS: bad })).toThrow(/ORPHAN_GRACE_SECONDS must be a whole number/);
+  });
+
+  it('runs the compute threads DEFAULT_COMPUTE_NICE below the event loop unless COMPUTE_NICE (0–19) says otherwise', () => {
+    expect(loadConfig({}).computeNice).toBe(DEFAULT_COMPUTE_NICE);
+    expect(loadConfig({ COMPUTE_NICE: '' }).computeNice).toBe(DEFAULT_COMPUTE_NICE);
+    expect(loadConfig({ COMPUTE_NICE: '0' }).computeNice).toBe(0);
+    expect(loadConfig({ COMPUTE_NICE: '19' }).computeNice).toBe(19);
+    for (const bad of ['-5', '20', '2.5', ' 5', 'low'])
+      expect(() => loadConfig({ COMPUTE_NICE: bad })).toThrow(/COMPUTE_NICE must be a whole number from 0/);
   });
 
   it('gives bulk-import work a 60 s lease and 3 attempts unless IMPORT_LEASE_SECONDS / IMPORT_MAX_ATTEMPTS say otherwise', () => {
