@@ -61,6 +61,13 @@ const JITTER_SAMPLE = 20_000;
 const WGS84_A = 6378137;
 const WGS84_E2 = 0.00669437999014;
 const DEG = Math.PI / 180;
+const PI = Math.PI;
+const TWO_PI = 2 * Math.PI;
+/**
+ * NaN, read from the module's scope: `Number.NaN` inside a hot loop is a property read whose first use
+ * after the loop was compiled deoptimised it (tests/bench/README.md, "Session 10").
+ */
+const NOT_A_NUMBER = Number.NaN;
 
 /** Metres per degree of latitude and of longitude at latitude `latDeg` (WGS-84 radii of curvature). */
 export function metresPerDegree(latDeg: number): { north: number; east: number } {
@@ -605,7 +612,8 @@ function smoothInPlane(
 ): PlaneStates {
   const n = t.length;
   const states = redo ? redo.into : planeStates(n);
-  const marks = redo ? redo.marks : null;
+  // No marks in a first pass: zeros, so both passes run the same code.
+  const marks = redo ? redo.marks : new Uint8Array(n);
   // marked[0]: 1 when a point of the stretch so far is marked (carried from block to block).
   const marked = new Uint8Array(1);
   let start = 0;
@@ -632,16 +640,23 @@ function smoothInPlane(
 function stretchEnd(
   t: ArrayLike<number>,
   segmentStart: ArrayLike<number>,
-  marks: Uint8Array | null,
+  marks: Uint8Array,
   marked: Uint8Array,
   n: number,
   from: number,
   to: number,
 ): number {
+  // The same code in both passes (the first reads marks of zeros): reached first in the one-hour warm-up's
+  // second pass, a mark deoptimised this loop.
+  let seen = marked[0] as number;
   for (let i = from; i < to; i++) {
-    if (marks && marks[i - 1]) marked[0] = 1;
-    if (i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S) return i;
+    seen |= marks[i - 1] as number;
+    if (i === n || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S) {
+      marked[0] = seen;
+      return i;
+    }
   }
+  marked[0] = seen;
   return -1;
 }
 
@@ -711,13 +726,14 @@ function turnedBlock(
     const vx = east_mps[i] as number;
     const vy = north_mps[i] as number;
     const broken = i === 0 || segmentStart[i] === 1 || ((t[i] as number) - (t[i - 1] as number)) / 1000 > SMOOTHING_GAP_S;
-    const heading = vx * vx + vy * vy >= TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS ? Math.atan2(vy, vx) : Number.NaN;
-    let change = 0;
-    if (!broken && !Number.isNaN(heading) && !Number.isNaN(prevHeading)) {
-      change = heading - prevHeading;
-      if (change > Math.PI) change -= 2 * Math.PI;
-      else if (change < -Math.PI) change += 2 * Math.PI;
-    }
+    const heading = vx * vx + vy * vy >= TURN_MIN_SPEED_MPS * TURN_MIN_SPEED_MPS ? Math.atan2(vy, vx) : NOT_A_NUMBER;
+    // The wrapped change is formed on every point, so a run whose heading first wraps past ±π late (the
+    // one-hour warm-up's never did) runs the same compiled code (a deopt there cost the first long analysis).
+    const raw = heading - prevHeading;
+    const down = raw - TWO_PI;
+    const up = raw + TWO_PI;
+    const wrapped = raw > PI ? down : raw < -PI ? up : raw;
+    const change = !broken && !Number.isNaN(heading) && !Number.isNaN(prevHeading) ? wrapped : 0;
     turned[i] = (i > 0 ? (turned[i - 1] as number) : 0) + change;
     prevHeading = heading;
   }
@@ -824,7 +840,8 @@ export function smoothPositionsThroughTurns(
   const r = sigmaM * sigmaM;
   const n = t.length;
   const work = stretchWork(n);
-  const first = smoothInPlane(t, plane, segmentStart, r, q, { qSteps: null, turnMarks: null, qTurn: q }, null, work);
+  // Marks of zeros in the first pass: its steps read them as the second pass's do (the same compiled code).
+  const first = smoothInPlane(t, plane, segmentStart, r, q, { qSteps: null, turnMarks: new Uint8Array(n), qTurn: q }, null, work);
   // The smoother gains are spent between the passes (each stretch's forward pass writes them before its
   // backward pass reads them): the heading sums go there.
   const turns = findManoeuvres(t, first.vx, first.vy, segmentStart, work.gain.subarray(0, n));
@@ -1274,7 +1291,7 @@ function arcTurnsBlock(
   for (let i = from; i < to; i++) {
     const dt = (t[i] as number) - (t[i - 1] as number);
     // Only steps of like duration form the chords of one bend (a recording gap is a long chord).
-    if (!moving[i] || segmentStart[i] || !(dt <= 1.5 * pdt && pdt <= 1.5 * dt)) px = Number.NaN;
+    if (!moving[i] || segmentStart[i] || !(dt <= 1.5 * pdt && pdt <= 1.5 * dt)) px = NOT_A_NUMBER;
     pdt = dt;
     if (!moving[i] || segmentStart[i]) continue;
     // East scale follows latitude: the track may span a few degrees.
@@ -1285,7 +1302,7 @@ function arcTurnsBlock(
     const x = dLon * eastHere;
     const y = ((lat[i] as number) - (lat[i - 1] as number)) * north;
     if (Math.hypot(x, y) < MIN_ARC_STEP_M) {
-      px = Number.NaN;
+      px = NOT_A_NUMBER;
       continue;
     }
     if (!Number.isNaN(px)) turn[i - 1] = Math.abs(Math.atan2(px * y - py * x, px * x + py * y));
