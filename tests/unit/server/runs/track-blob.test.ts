@@ -104,7 +104,8 @@ describe('stored track columns (track-blob.ts)', () => {
       const back = decodeColumns(packed.columns, packed.pointCount, data, layout);
       for (const name of packed.columns) expect(Buffer.compare(bytesOf(columns[name]!), bytesOf(back[name]!)), name).toBe(0);
     }
-  });
+    // About 1.5 s of gzip on a quiet core; the bound only ends a hang (it hit the default 5 s under load 15).
+  }, 30_000);
 
   it('XOR planes of a real long run are smaller than plain columns at level 4 (the reason for the layout)', async () => {
     const { points } = generateLakeRun({
