@@ -26,6 +26,7 @@ import * as m20261205123000 from './20261205123000_import_leases.ts';
 import * as m20261205124000 from './20261205124000_canonical_time_zones.ts';
 import * as m20261205201000 from './20261205201000_track_blob_storage.ts';
 import * as m20261206000100 from './20261206000100_track_layout.ts';
+import * as m20261206000200 from './20261206000200_track_fk_deferred.ts';
 
 interface Migration {
   up(knex: Knex): Promise<void>;
@@ -61,6 +62,7 @@ const MIGRATIONS: Record<string, Migration> = {
   '20261205124000_canonical_time_zones': m20261205124000,
   '20261205201000_track_blob_storage': m20261205201000,
   '20261206000100_track_layout': m20261206000100,
+  '20261206000200_track_fk_deferred': m20261206000200,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

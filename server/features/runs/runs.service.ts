@@ -4,8 +4,9 @@ import { METRES_PER_MILE } from '../../../shared/units.ts';
 import type { ActivityKind } from '../../../shared/runs/activity-kind.ts';
 import { isSameRun, SAME_RUN_START_S } from '../../../shared/runs/duplicates.ts';
 import { originalContentType } from '../../../shared/runs/original-download.ts';
-import { webcrypto } from 'node:crypto';
+import { randomUUID, webcrypto } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
+import { MessageChannel } from 'node:worker_threads';
 import type { Actor } from '../../../shared/auth/permissions.ts';
 import type { ImportResult, ListRunsQuery, StorageUsage } from '../../../shared/runs/schemas.ts';
 import { splitsToCsv } from '../../../shared/runs/splits-csv.ts';
@@ -38,7 +39,7 @@ import {
   computeImportJob,
   computeLimits,
 } from '../compute/index.ts';
-import { NOT_READ_WHILE_ARRIVING, type ImportComputeOutput } from './import-compute.ts';
+import { NOT_READ_WHILE_ARRIVING, type HandedOverTrack, type ImportComputeOutput } from './import-compute.ts';
 import { assertCanReadRunner } from '../squads/index.ts';
 import { readyAnswer, type ReadyAnswer } from '../week-cache/index.ts';
 import { decodeColumns, gzipPackedColumns } from './track-blob.ts';
@@ -50,7 +51,7 @@ import {
   holdOriginalFilesSharedLock,
   withOriginalFilesExclusiveLock,
 } from './original-files.repository.ts';
-import { runOwnerProfile, type RunRecord } from './run-record.ts';
+import { runOwnerProfile, type RunRecord, type StoredTrack } from './run-record.ts';
 import {
   deleteRunAndOrphanFile,
   findFirstRunOfSourceFile,
@@ -63,7 +64,8 @@ import {
   findSourceFileById,
   findSourceFileBySha,
   findSplits,
-  insertRunWhole,
+  insertRunRows,
+  insertRunTrack,
   insertSourceFile,
   listRunsOf,
   lockRunsOf,
@@ -118,6 +120,32 @@ export function filesReadWhileArriving(): number {
 }
 
 /**
+ * The port a compute job sends a file of one run's track on as soon as its series is built (import-compute.ts,
+ * `handOver`): `track` is that track, or null once `close` is called (the job ended without one, or failed).
+ */
+function handOverChannel() {
+  const { port1, port2 } = new MessageChannel();
+  let settle!: (track: HandedOverTrack | null) => void;
+  const track = new Promise<HandedOverTrack | null>((resolve) => (settle = resolve));
+  port1.once('message', (message: HandedOverTrack) => {
+    settle(message);
+    port1.close();
+  });
+  return {
+    port: port2,
+    track,
+    close: () => {
+      settle(null);
+      port1.close();
+    },
+  };
+}
+type HandOverChannel = ReturnType<typeof handOverChannel>;
+
+/** The hand-over port of each job reading a file while it arrives (its promise is the file's `early`). */
+const arrivingHandOvers = new WeakMap<Promise<unknown>, HandOverChannel>();
+
+/**
  * Starts reading an upload's first file while it arrives (parse/arriving.ts), when a compute thread is free
  * now; undefined when none is (the file is then read after it has arrived, as before). `computeRuns` takes
  * its answer; a file that turns out a duplicate never needs it, so its failure is never left unhandled.
@@ -129,33 +157,91 @@ export function startArrivingImport(
 ): Promise<ImportComputeOutput> | undefined {
   const { arrivalStallMs, arrivalWaitMs } = computeLimits();
   const limits = { stallMs: arrivalStallMs, totalWaitMs: arrivalWaitMs };
-  const input = { source: { arriving: { ...arriving, limits } }, owner: runOwnerProfile(user) };
+  const channel = handOverChannel();
+  const input = { source: { arriving: { ...arriving, limits } }, owner: runOwnerProfile(user), handOver: channel.port };
   const job = computeArrivingImportJob(user.id, input, () => writer.askToYield());
-  if (!job) return undefined;
+  if (!job) {
+    channel.close();
+    return undefined;
+  }
   job.catch(() => undefined);
+  // A file that turns out a duplicate is never stored: its port closes when its job ends.
+  job.then(
+    (out) => (!out.ok || !out.records.some((r) => r.children.track.handed_over)) && channel.close(),
+    () => channel.close(),
+  );
+  arrivingHandOvers.set(job, channel);
   return job;
 }
 
+/**
+ * A file of one run is stored beside its analysis (its track as soon as its series exists; README "The store beside
+ * the analysis"); `STORE_BESIDE_ANALYSIS=0` stores every file after its analysis, as before (bench before/after, tests).
+ */
+const storeBesideAnalysis = () => process.env.STORE_BESIDE_ANALYSIS !== '0';
+
+type ComputedRuns = { ok: true; format: string; records: RunRecord[] } | { ok: false; error: string };
+
+/**
+ * A file's parse and analysis under way: `done` is their answer (a refusal as a sentence); `early` is the track
+ * of a file of one run as soon as its series is built, before the rest of the analysis, or null when none comes.
+ */
+interface RunningCompute {
+  early: Promise<HandedOverTrack | null>;
+  done: Promise<ComputedRuns>;
+}
+
+function startComputeRuns(user: UserRow, file: UploadedFile): RunningCompute {
+  let settleEarly!: (track: HandedOverTrack | null) => void;
+  const early = new Promise<HandedOverTrack | null>((resolve) => (settleEarly = resolve));
+  const done = computeRuns(user, file, (track) => settleEarly(track)).finally(() => settleEarly(null));
+  // Always awaited by whoever stores the file; this only keeps a path that throws first from an unhandled rejection.
+  done.catch(() => undefined);
+  return { early, done };
+}
+
+/** The records with the bytes of a track the job handed over ahead of its answer put back. */
+async function withHandedOverTracks(records: RunRecord[], channel: HandOverChannel | undefined): Promise<RunRecord[]> {
+  if (!records.some((r) => r.children.track.handed_over)) return records;
+  const early = await channel?.track;
+  if (!early) throw new Error('a compute job handed a track over that never arrived');
+  return records.map((r) =>
+    r.children.track.handed_over && r.run.activity_index === early.activity_index
+      ? { ...r, children: { ...r.children, track: early.track } }
+      : r,
+  );
+}
+
 /** Parsing and analysis in a compute worker; a rejection of the file comes back as a sentence. */
-async function computeRuns(
-  user: UserRow,
-  file: UploadedFile,
-): Promise<{ ok: true; format: string; records: RunRecord[] } | { ok: false; error: string }> {
+async function computeRuns(user: UserRow, file: UploadedFile, onTrack: (track: HandedOverTrack) => void): Promise<ComputedRuns> {
   // The memory the bytes wait in stays counted while the job reads them, even if the client has gone.
   const letGo = 'holdBytes' in file ? file.holdBytes?.() : undefined;
+  let channel: HandOverChannel | undefined;
+  const listen = (next: HandOverChannel | undefined) => {
+    channel = next;
+    void next?.track.then((track) => track && onTrack(track));
+  };
   try {
     // Read while it arrived, unless that job gave up (then it is read now, as any file).
-    let out = 'early' in file && file.early ? ((await file.early) as ImportComputeOutput) : undefined;
+    let out: ImportComputeOutput | undefined;
+    if ('early' in file && file.early) {
+      listen(arrivingHandOvers.get(file.early));
+      out = (await file.early) as ImportComputeOutput;
+    }
     if (out && !(!out.ok && out.code === NOT_READ_WHILE_ARRIVING)) readWhileArriving++;
     else {
       if (out) logger.debug({ file: file.name, reason: out.message }, 'not read while arriving');
+      channel?.close();
+      listen(handOverChannel());
       out = await computeImportJob(user.id, {
         // Bytes already in memory cross to the thread without a copy (shared memory) or a read back from disk.
         source: 'data' in file ? { data: file.data } : file.bytes ? { data: file.bytes } : { path: file.path },
         owner: runOwnerProfile(user),
+        handOver: channel!.port,
       });
     }
-    return out.ok ? out : { ok: false, error: out.message };
+    if (!out.ok) return { ok: false, error: out.message };
+    return { ok: true, format: out.format, records: await withHandedOverTracks(out.records, channel) };
   } catch (err) {
     if (err instanceof ComputeBusyError || err instanceof ComputeAccountBusyError) throw err;
     if (err instanceof ComputeTimeoutError) {
@@ -173,6 +259,7 @@ async function computeRuns(
     logger.warn({ err, file: file.name }, 'import failed unexpectedly');
     return { ok: false, error: GENERIC_REJECTION };
   } finally {
+    channel?.close();
     letGo?.();
   }
 }
@@ -238,38 +325,64 @@ export async function importFiles(
       for (const index of await findActivityIndexesOfSourceFile(existing.id)) present.add(index);
     }
     clock.mark('checked');
-    const computed = await computeRuns(user, file);
-    clock.mark('computed');
-    if (!computed.ok) {
-      result.rejected.push({ file: file.name, error: computed.error });
-      continue;
+    const running = startComputeRuns(user, file);
+    // A new file of one run: its track comes ahead of the rest of the analysis and is stored meanwhile.
+    const handedOver =
+      existing || !storeBesideAnalysis() ? null : await Promise.race([running.early, running.done.then(() => null)]);
+    let plan: StorePlan;
+    if (handedOver) {
+      clock.mark('track handed over');
+      plan = {
+        overlapped: true,
+        format: handedOver.format,
+        runs: [{ ...handedOver, activity: null }],
+        analysed: async () => {
+          const computed = await running.done;
+          clock.mark('computed');
+          if (!computed.ok) throw new RefusedAfterAll(computed.error);
+          // The start and distance the same-run check used are the run's own (summarizeRun's, read early).
+          for (const run of plan.runs) {
+            const record = computed.records.find((r) => r.run.activity_index === run.activity_index);
+            if (!record || !sameFacts(record, run)) throw new FactsChanged(computed.records);
+          }
+          return computed.records;
+        },
+      };
+    } else {
+      const computed = await running.done;
+      clock.mark('computed');
+      if (!computed.ok) {
+        result.rejected.push({ file: file.name, error: computed.error });
+        continue;
+      }
+      plan = analysedPlan(computed.format, computed.records);
     }
-    const records = computed.records;
     const size = sizeOf(file);
     const storageKey = existing?.storage_key ?? `${user.id}/${sha256}`;
     // Each track's columns crossed from the thread packed (handed over, not copied); they are gzipped on
-    // libuv's pool from now on, beside the transaction's first statements, and awaited for the last one.
-    const blobs = new Map(
-      records.map((record) => [record, gzipPackedColumns(record.children.track.raw, record.children.track.data_layout)]),
-    );
-    // When each blob is ready is a logged step; a blob no statement awaits (a refused or failed file) must
-    // not end as an unhandled rejection.
-    for (const blob of blobs.values())
-      blob.then(
-        () => clock.mark('gzipped'),
-        () => undefined,
-      );
-    const insertRecord = (record: RunRecord, sourceFileId: string, trx: Parameters<typeof insertRunWhole>[2]) => {
-      const { columns, point_count, data_layout } = record.children.track;
-      return insertRunWhole(
-        { ...record.run, source_file_id: sourceFileId },
-        { ...record.children, track: { columns, point_count, data_layout, data: blobs.get(record)! } },
-        trx,
-        clock.mark,
-      );
+    // libuv's pool from now on, beside the transaction's first statements, and awaited for its track row.
+    const blobs = new Map<StoredTrack, Promise<Buffer>>();
+    const blobOf = (track: StoredTrack) => {
+      let blob = blobs.get(track);
+      if (!blob) {
+        blob = gzipPackedColumns(track.raw, track.data_layout);
+        // When each blob is ready is a logged step; a blob no statement awaits (a refused or failed file) must
+        // not end as an unhandled rejection.
+        blob.then(
+          () => clock.mark('gzipped'),
+          () => undefined,
+        );
+        blobs.set(track, blob);
+      }
+      return blob;
     };
-    try {
-      const outcome = await inTransaction(async (trx) => {
+    for (const run of plan.runs) blobOf(run.track);
+    const trackRow = (track: StoredTrack) => {
+      const { columns, point_count, data_layout } = track;
+      return { columns, point_count, data_layout, data: blobOf(track) };
+    };
+    const storeWith = (plan: StorePlan) =>
+      inTransaction(async (trx) => {
         clock.mark('transaction began');
         // The same-run check and the insert are one step per runner: two different files of one run
         // uploaded at the same instant (two requests, two compute workers) are checked one after the
@@ -279,24 +392,58 @@ export async function importFiles(
         if (!existing && (await findSourceFileBySha(user.id, sha256, trx))) throw new StoredMeanwhile();
         // The same run in another file: each activity on its own (start within 5 s, distance within 2 %).
         const sameRun: ImportResult['duplicates'] = [];
-        const keep: RunRecord[] = [];
-        for (const [i, record] of records.entries()) {
-          if (present.has(record.run.activity_index)) continue;
-          const mine = { started_at_t: new Date(record.run.started_at).getTime(), distance_m: record.run.distance_m };
+        const keep: RunToStore[] = [];
+        for (const run of plan.runs) {
+          if (present.has(run.activity_index)) continue;
           const stored = options.importDuplicates
             ? undefined
-            : (await findRunsStartingNear(user.id, mine.started_at_t, SAME_RUN_START_S * 1000, trx)).find((r) =>
-                isSameRun(mine, { started_at_t: r.started_at.getTime(), distance_m: r.distance_m }),
+            : (await findRunsStartingNear(user.id, run.started_at_t, SAME_RUN_START_S * 1000, trx)).find((r) =>
+                isSameRun(run, { started_at_t: r.started_at.getTime(), distance_m: r.distance_m }),
               );
-          if (stored)
-            sameRun.push({ file: file.name, runId: stored.id, reason: 'same run', activity: records.length > 1 ? i + 1 : null });
-          else keep.push(record);
+          if (stored) sameRun.push({ file: file.name, runId: stored.id, reason: 'same run', activity: run.activity });
+          else keep.push(run);
         }
         const inserted: RunRow[] = [];
-        if (keep.length === 0) return { inserted, sameRun };
+        if (keep.length === 0) {
+          // Nothing to store, but a file the analysis refuses is refused, as when it was stored after the analysis.
+          await plan.analysed();
+          return { inserted, sameRun };
+        }
         clock.mark('same-run checked');
-        const beforeCommit = async () => {
-          if (!options.beforeCommit) return;
+        let sourceFileId = existing?.id;
+        if (!existing) {
+          if (options.storageQuotaBytes !== undefined) {
+            await lockStorageOf(user.id, trx);
+            const used = (await storageUsedBy(user.id, trx)).bytes;
+            if (used + size > options.storageQuotaBytes) throw new OverQuota(used);
+          }
+          const source = await insertSourceFile(
+            {
+              user_id: user.id,
+              original_name: file.name.slice(0, 255),
+              sha256,
+              size_bytes: String(size),
+              storage_key: storageKey,
+              format: plan.format,
+            },
+            trx,
+          );
+          sourceFileId = source.id;
+        }
+        // A run's id is chosen here, so its track row can go in before the run's own row (checked at commit).
+        const runIds = new Map(keep.map((run) => [run, randomUUID()]));
+        // While the rest of the run is still being analysed, when its track came ahead.
+        if (plan.overlapped) for (const run of keep) await insertRunTrack(runIds.get(run)!, trackRow(run.track), trx, clock.mark);
+        const records = await plan.analysed();
+        for (const run of keep) {
+          const record = records.find((r) => r.run.activity_index === run.activity_index)!;
+          const id = runIds.get(run)!;
+          inserted.push(
+            await insertRunRows({ ...record.run, id, source_file_id: sourceFileId! }, record.children, trx, clock.mark),
+          );
+          if (!plan.overlapped) await insertRunTrack(id, trackRow(run.track), trx, clock.mark);
+        }
+        if (options.beforeCommit) {
           try {
             await options.beforeCommit(
               trx,
@@ -305,31 +452,9 @@ export async function importFiles(
           } catch (err) {
             throw new BeforeCommitFailed(err);
           }
-        };
-        if (existing) {
-          // The original is stored already and referenced by its other runs: no new storage is used.
-          for (const record of keep) inserted.push(await insertRecord(record, existing.id, trx));
-          await beforeCommit();
-          return { inserted, sameRun };
         }
-        if (options.storageQuotaBytes !== undefined) {
-          await lockStorageOf(user.id, trx);
-          const used = (await storageUsedBy(user.id, trx)).bytes;
-          if (used + size > options.storageQuotaBytes) throw new OverQuota(used);
-        }
-        const source = await insertSourceFile(
-          {
-            user_id: user.id,
-            original_name: file.name.slice(0, 255),
-            sha256,
-            size_bytes: String(size),
-            storage_key: storageKey,
-            format: computed.format,
-          },
-          trx,
-        );
-        for (const record of keep) inserted.push(await insertRecord(record, source.id, trx));
-        await beforeCommit();
+        // The original is stored already and referenced by its other runs: no new storage is used.
+        if (existing) return { inserted, sameRun };
         // Last step inside the transaction: if storing the original fails, no row is committed.
         // The shared lock keeps the orphan sweeper off this file until the rows are committed.
         await holdOriginalFilesSharedLock(trx);
@@ -339,6 +464,16 @@ export async function importFiles(
         clock.mark('original stored');
         return { inserted, sameRun };
       });
+    try {
+      let outcome: Awaited<ReturnType<typeof storeWith>>;
+      try {
+        outcome = await storeWith(plan);
+      } catch (err) {
+        if (!(err instanceof FactsChanged)) throw err;
+        // Never expected (the early facts are summarizeRun's own): nothing was committed; store it after the analysis.
+        logger.warn({ file: file.name }, 'the start or distance of a run changed after its track was handed over');
+        outcome = await storeWith(analysedPlan(plan.format, err.records));
+      }
       clock.mark('committed');
       logger.debug({ file: file.name, began_at: clock.beganAt, ms: clock.steps }, 'import steps');
       result.duplicates.push(...outcome.sameRun);
@@ -353,6 +488,13 @@ export async function importFiles(
       result.imported.push(...outcome.inserted.map((r) => ({ ...toRunListItem(r), file: file.name })));
     } catch (err) {
       if (err instanceof BeforeCommitFailed) throw err.reason;
+      // A file the analysis refuses is refused in its words whatever else went wrong meanwhile, as when the
+      // store began after the analysis (its track came ahead; this awaits its answer).
+      const refused = err instanceof RefusedAfterAll ? err : await refusalOf(running);
+      if (refused) {
+        result.rejected.push({ file: file.name, error: refused.message });
+        continue;
+      }
       if (err instanceof OverQuota) {
         result.rejected.push({ file: file.name, error: overQuotaReason(err.used, size, options.storageQuotaBytes!) });
         continue;
@@ -373,6 +515,63 @@ export async function importFiles(
     }
   }
   return result;
+}
+
+/** A run of a file about to be stored: what the same-run check needs, and its track. */
+interface RunToStore {
+  activity_index: number;
+  started_at_t: number;
+  distance_m: number;
+  /** Its number in a file of several runs (1-based), for a same-run answer; null in a file of one. */
+  activity: number | null;
+  track: StoredTrack;
+}
+
+/**
+ * How a file's runs are stored: from the analysis's records (`overlapped` false), or from a track handed over
+ * ahead of the analysis (`overlapped`), whose rows come from `analysed` once the analysis answers.
+ */
+interface StorePlan {
+  overlapped: boolean;
+  format: string;
+  runs: RunToStore[];
+  /** The records of the file's runs; throws RefusedAfterAll when the analysis refused the file. */
+  analysed: () => Promise<RunRecord[]>;
+}
+
+function analysedPlan(format: string, records: RunRecord[]): StorePlan {
+  return {
+    overlapped: false,
+    format,
+    runs: records.map((record, i) => ({
+      activity_index: record.run.activity_index,
+      started_at_t: new Date(record.run.started_at).getTime(),
+      distance_m: record.run.distance_m,
+      activity: records.length > 1 ? i + 1 : null,
+      track: record.children.track,
+    })),
+    analysed: async () => records,
+  };
+}
+
+function sameFacts(record: RunRecord, run: RunToStore): boolean {
+  return new Date(record.run.started_at).getTime() === run.started_at_t && Object.is(record.run.distance_m, run.distance_m);
+}
+
+/** The analysis refused the file after its track had come ahead: its sentence is the answer, nothing is stored. */
+class RefusedAfterAll extends Error {}
+
+/** The run's start or distance differed from what its handed-over track said: stored again after the analysis. */
+class FactsChanged extends Error {
+  constructor(readonly records: RunRecord[]) {
+    super('facts changed');
+  }
+}
+
+/** The analysis's refusal of a file, once it has answered; undefined when it did not refuse it. */
+async function refusalOf(running: RunningCompute): Promise<RefusedAfterAll | undefined> {
+  const computed = await running.done;
+  return computed.ok ? undefined : new RefusedAfterAll(computed.error);
 }
 
 /** The storage a user keeps and may keep, for the profile. */
