@@ -36,7 +36,10 @@ async function readFeed(app: App, url: string) {
 
 const ymd = (d: Date) =>
   `${d.getFullYear()}-${String(d.getMonth() + 1).padStart(2, '0')}-${String(d.getDate()).padStart(2, '0')}`;
-const inDays = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
+// Days counted from one instant read once: a test that runs across midnight (UTC) still sends and expects the same
+// dates, all well inside the feed's window (90 days back, 366 ahead).
+const STARTED_AT = Date.now();
+const inDays = (n: number) => new Date(STARTED_AT + n * 86_400_000).toISOString().slice(0, 10);
 
 describe('POST /api/me/calendar and GET <feed url>', () => {
   it('one all-day event per session, with a UID that stays when the session is edited or moved, SEQUENCE bumped', async () => {
