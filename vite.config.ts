@@ -14,7 +14,18 @@ export default defineConfig({
     // A stray `.only` fails the run instead of quietly running one test (the lint rule catches it first).
     allowOnly: false,
     projects: [
-      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts'],
+          environment: 'node',
+          // Property-based and bit-for-bit tests over 20 000–50 000 generated values take 0.5–2 s on a quiet machine and
+          // ran past the 5 s default (6–10 s) beside other work, seven of them at once; a time limit here would only
+          // measure the machine. Speed is the benchmarks' job.
+          testTimeout: 20_000,
+        },
+      },
       {
         // Components below the browser (Testing Library in happy-dom): forms' logic, with the network faked at fetch.
         extends: true,
