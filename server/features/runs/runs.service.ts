@@ -332,6 +332,8 @@ export async function importFiles(
     let plan: StorePlan;
     if (handedOver) {
       clock.mark('track handed over');
+      // When the analysis itself answered (the 'computed' step is when the transaction got to wait for it).
+      void running.done.then(() => clock.mark('analysis answered'));
       plan = {
         overlapped: true,
         format: handedOver.format,
