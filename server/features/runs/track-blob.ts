@@ -112,12 +112,16 @@ export async function gzipPackedColumns(raw: Uint8Array, layout: TrackLayout = T
   return Buffer.concat(await Promise.all(members));
 }
 
-/** A stored track's columns, by name, from its blob in either layout (a row that names none holds `columns`). */
+/**
+ * A stored track's columns, by name, from its blob in the layout its row names (`run_tracks.data_layout`, whose
+ * default `columns` covers rows stored before it). No default here: a blob read in the wrong layout decodes to
+ * other numbers without an error.
+ */
 export function decodeColumns(
   names: readonly string[],
   pointCount: number,
   data: Buffer,
-  layout: TrackLayout = 'columns',
+  layout: TrackLayout,
 ): Record<string, Float64Array> {
   const raw = gunzipSync(data);
   if (raw.length !== names.length * pointCount * 8) throw new Error('a stored track does not hold the points its row counts');
